@@ -118,7 +118,11 @@ fn mark_ring_bonds(n: usize, adj: &[Vec<(usize, usize)>], ring: &mut [bool]) {
                     time += 1;
                     stack.push((x, b, 0));
                 } else {
+                    // A back edge closes a cycle.
                     low[a] = low[a].min(disc[x]);
+                    if let Some(r) = ring.get_mut(b) {
+                        *r = true;
+                    }
                 }
             } else {
                 stack.pop();
@@ -176,16 +180,6 @@ impl Basis {
                     self.rows.push((p, v));
                     return true;
                 }
-            }
-        }
-    }
-    fn contains(&self, v: &Bits) -> bool {
-        let mut v = v.clone();
-        loop {
-            let Some(p) = lowest_bit(&v) else { return true };
-            match self.rows.iter().find(|(q, _)| *q == p) {
-                Some((_, row)) => xor_into(&mut v, row),
-                None => return false,
             }
         }
     }
@@ -299,28 +293,56 @@ fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
             chosen.push(i);
         }
     }
-    // Symmetrise: a further candidate joins if it is a sum of chosen rings
-    // of its own size (it could have replaced one of them).
-    let mut extra: Vec<usize> = Vec::new();
-    let max_len = chosen.iter().map(|&i| cands[i].0).max().unwrap_or(0);
-    let mut by_size: std::collections::HashMap<usize, Basis> = Default::default();
+    // Symmetrise as RDKit does: a further ring joins if it could replace
+    // one chosen ring of the same size, sharing a bond with it and keeping
+    // every bond that only that ring provides.
+    let mut bond_count = vec![0u32; e];
     for &i in &chosen {
-        by_size
-            .entry(cands[i].0)
-            .or_insert_with(Basis::new)
-            .insert(cands[i].1.clone());
-    }
-    for (i, c) in cands.iter().enumerate() {
-        if c.0 > max_len || chosen.contains(&i) {
-            continue;
-        }
-        if by_size.get(&c.0).is_some_and(|b| b.contains(&c.1)) {
-            extra.push(i);
+        for (k, c) in bond_count.iter_mut().enumerate() {
+            if cands[i].1[k / 64] >> (k % 64) & 1 == 1 {
+                *c += 1;
+            }
         }
     }
-    for &i in chosen.iter().chain(extra.iter()) {
-        let (len, _, cyc) = &cands[i];
-        let len = (*len).min(255) as u8;
+    let has = |bits: &Bits, k: usize| bits[k / 64] >> (k % 64) & 1 == 1;
+    // Edge list of the system in local numbering.
+    let mut ends = vec![(0usize, 0usize); e];
+    for &a in atoms {
+        for &(x, b) in &adj[a] {
+            if let Some(&k) = local_edge.get(&b) {
+                ends[k] = (a.min(x), a.max(x));
+            }
+        }
+    }
+    let mut extra_rings: Vec<Vec<usize>> = Vec::new();
+    let mut known: std::collections::HashSet<Bits> =
+        chosen.iter().map(|&i| cands[i].1.clone()).collect();
+    for &j in &chosen {
+        let (len, bits, _) = &cands[j];
+        let unique: Vec<usize> = (0..e)
+            .filter(|&k| has(bits, k) && bond_count[k] == 1)
+            .collect();
+        let starts: Vec<usize> = if unique.is_empty() {
+            (0..e).filter(|&k| has(bits, k)).collect()
+        } else {
+            vec![unique[0]]
+        };
+        for k in starts {
+            for (cyc, cbits) in cycles_through(k, *len, &ends, &local_edge, adj, ring, words) {
+                if unique.iter().all(|&u| has(&cbits, u)) && known.insert(cbits) {
+                    extra_rings.push(cyc);
+                }
+            }
+        }
+    }
+    let extra_cycles: Vec<(usize, Vec<usize>)> =
+        extra_rings.into_iter().map(|c| (c.len(), c)).collect();
+    let all = chosen
+        .iter()
+        .map(|&i| (cands[i].0, &cands[i].2))
+        .chain(extra_cycles.iter().map(|(l, c)| (*l, c)));
+    for (len, cyc) in all {
+        let len = len.min(255) as u8;
         out.count += 1;
         for &a in cyc {
             out.atom_rings[a] = out.atom_rings[a].saturating_add(1);
@@ -374,4 +396,94 @@ fn approximate(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
         }
         out.atom_min_ring[a] = best.min(255) as u8;
     }
+}
+
+/// Most search steps spent looking for the cycles through one bond.
+const CYCLE_STEP_LIMIT: usize = 200_000;
+
+/// Simple cycles of exactly `len` atoms through local edge `k`, within the
+/// ring bonds of one system, as (atoms, edge bits). Depth-first with an
+/// explicit stack and distance pruning; stops after [`CYCLE_STEP_LIMIT`]
+/// steps.
+fn cycles_through(
+    k: usize,
+    len: usize,
+    ends: &[(usize, usize)],
+    local_edge: &std::collections::HashMap<usize, usize>,
+    adj: &[Vec<(usize, usize)>],
+    ring: &[bool],
+    words: usize,
+) -> Vec<(Vec<usize>, Bits)> {
+    let mut out = Vec::new();
+    let Some(&(a, b)) = ends.get(k) else {
+        return out;
+    };
+    // Distances to `a` over system ring bonds, not using edge k.
+    let mut dist: std::collections::HashMap<usize, usize> = Default::default();
+    dist.insert(a, 0);
+    let mut queue = std::collections::VecDeque::from([a]);
+    while let Some(x) = queue.pop_front() {
+        let dx = dist[&x];
+        for &(y, bond) in &adj[x] {
+            if !ring.get(bond).copied().unwrap_or(false) || local_edge.get(&bond) == Some(&k) {
+                continue;
+            }
+            if !local_edge.contains_key(&bond) || dist.contains_key(&y) {
+                continue;
+            }
+            dist.insert(y, dx + 1);
+            queue.push_back(y);
+        }
+    }
+    // Path from b to a with len - 1 edges.
+    let mut path = vec![b];
+    let mut edges: Vec<usize> = Vec::new();
+    let mut cursor = vec![0usize];
+    let mut steps = 0usize;
+    while let Some(&x) = path.last() {
+        steps += 1;
+        if steps > CYCLE_STEP_LIMIT {
+            break;
+        }
+        let depth = path.len() - 1; // edges used so far
+        let i = cursor[depth];
+        let nbrs = &adj[x];
+        if x == a || i >= nbrs.len() {
+            if x == a && depth == len - 1 {
+                let mut bits = vec![0u64; words];
+                bit_set(&mut bits, k);
+                for &le in &edges {
+                    bit_set(&mut bits, le);
+                }
+                out.push((path.clone(), bits));
+            }
+            path.pop();
+            cursor.pop();
+            edges.pop();
+            continue;
+        }
+        cursor[depth] += 1;
+        let (y, bond) = nbrs[i];
+        let Some(&le) = local_edge.get(&bond) else {
+            continue;
+        };
+        if le == k || path.contains(&y) {
+            continue;
+        }
+        if depth + 2 > len {
+            continue;
+        }
+        let remaining = len - 2 - depth;
+        match dist.get(&y) {
+            Some(&d) if d <= remaining => {}
+            _ => continue,
+        }
+        if y == a && remaining != 0 {
+            continue;
+        }
+        path.push(y);
+        cursor.push(0);
+        edges.push(le);
+    }
+    out
 }
