@@ -292,6 +292,7 @@ impl<'a> Parser<'a> {
                     prev = Some(a);
                     self.pos += 1;
                 }
+                ']' if self.depth > 0 => break,
                 '.' => {
                     if prev.is_none() || pending.is_some() || dot_at.is_some() {
                         return Err(self.error(self.pos, "'.' must separate two atoms"));
