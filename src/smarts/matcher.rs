@@ -181,6 +181,7 @@ pub(crate) fn query_atom_matches(
 /// (pattern atom -> molecule atom) and returns whether to continue. With
 /// `skip = (p, done)`, pattern atom `p` is never placed on an atom marked
 /// done (used to find each anchor atom once).
+#[allow(clippy::too_many_arguments)] // internal; each argument is a distinct role
 pub(crate) fn search(
     pat: &Pattern,
     q: &Query,
