@@ -47,8 +47,7 @@ pub use parse::{MAX_ATOMS, MAX_RECURSION_DEPTH};
 pub use target::Target;
 
 use crate::mol::Molecule;
-use matcher::{new_cache, query_atom_matches, search};
-use std::cell::Cell;
+use matcher::{new_cache, query_atom_matches, search, DoneSet};
 use std::collections::HashSet;
 
 /// A parse error with the character position in the pattern.
@@ -113,6 +112,30 @@ pub(crate) struct QueryAtom {
 pub(crate) struct QueryBond {
     pub atoms: [usize; 2],
     pub expr: BondExpr,
+    /// The expression tabulated over the ten bond states (five orders, in
+    /// a ring or not): bit `order + 5 * ring`.
+    pub mask: u16,
+    /// Does the answer depend on ring membership?
+    pub ring_sensitive: bool,
+}
+
+impl QueryBond {
+    pub(crate) fn new(atoms: [usize; 2], expr: BondExpr) -> QueryBond {
+        let mut mask = 0u16;
+        for state in 0..10u16 {
+            let order = matcher::ORDERS[(state % 5) as usize];
+            if expr.eval(order, state >= 5) {
+                mask |= 1 << state;
+            }
+        }
+        let ring_sensitive = (mask & 0x1f) != (mask >> 5);
+        QueryBond {
+            atoms,
+            expr,
+            mask,
+            ring_sensitive,
+        }
+    }
 }
 
 /// One step of a matching order: the pattern atom placed, the already
@@ -167,7 +190,18 @@ impl Query {
     }
 
     fn score(&self, i: usize) -> u32 {
-        self.atoms[i].expr.selectivity() * 4 + self.adj[i].len() as u32
+        // Multiple bonds are rarer than single ones, so an atom that needs
+        // one is a better place to start.
+        let bonds: u32 = self.adj[i]
+            .iter()
+            .map(|&(_, b)| match self.bonds[b].expr.required_order() {
+                Some(BondPrim::Triple) => 10,
+                Some(BondPrim::Double) => 6,
+                Some(_) => 2,
+                None => 1,
+            })
+            .sum();
+        self.atoms[i].expr.selectivity() * 4 + bonds
     }
 
     /// Greedy order: start at `start`, then repeatedly the unplaced atom
@@ -264,9 +298,27 @@ impl Pattern {
             ..Screen::default()
         };
         let mut counts = [0u16; 256];
+        // Recursive parts that every match needs (and-ed at the top level
+        // of an atom): the molecule must contain their elements too. They
+        // may overlap the main pattern, so they raise counts to their own
+        // need rather than adding to it.
+        for a in &main.atoms {
+            for id in a.expr.required_recursions() {
+                let mut need = [0u16; 256];
+                for ra in recursive.get(id).map(|q| q.atoms.as_slice()).unwrap_or(&[]) {
+                    if let Some(e) = ra.element {
+                        need[e as usize] = need[e as usize].saturating_add(1);
+                    }
+                }
+                for (c, n) in counts.iter_mut().zip(need) {
+                    *c = (*c).max(n);
+                }
+            }
+        }
+        let mut main_counts = [0u16; 256];
         for a in &main.atoms {
             if let Some(e) = a.element {
-                counts[e as usize] = counts[e as usize].saturating_add(1);
+                main_counts[e as usize] = main_counts[e as usize].saturating_add(1);
             }
             if a.expr.requires_aromatic() {
                 screen.aromatic += 1;
@@ -274,6 +326,9 @@ impl Pattern {
             if a.expr.requires_ring() {
                 screen.ring = true;
             }
+        }
+        for (c, n) in counts.iter_mut().zip(main_counts) {
+            *c = (*c).max(n);
         }
         for b in &main.bonds {
             if b.expr.requires_ring() {
@@ -503,7 +558,7 @@ impl Pattern {
         let anchor = self.anchor_or_first();
         // One search from the most selective atom; each anchor atom is
         // recorded once and never tried again.
-        let done: Vec<Cell<bool>> = vec![Cell::new(false); t.atom_count()];
+        let done = DoneSet::new(t.atom_count());
         search(
             self,
             &self.main,
@@ -513,8 +568,8 @@ impl Pattern {
             None,
             Some((anchor, &done)),
             &mut |m| {
-                if let Some(c) = m.get(anchor).and_then(|&a| done.get(a)) {
-                    c.set(true);
+                if let Some(&a) = m.get(anchor) {
+                    done.set(a);
                 }
                 true
             },
@@ -522,12 +577,7 @@ impl Pattern {
         if cache.exhausted {
             return Err(LimitReached { max_steps });
         }
-        out.extend(
-            done.iter()
-                .enumerate()
-                .filter(|(_, c)| c.get())
-                .map(|(i, _)| i),
-        );
+        out = done.atoms();
         Ok(out)
     }
 
