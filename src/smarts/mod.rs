@@ -24,17 +24,51 @@
 //!   such as `^`, `z`, `Z`.
 //!
 //! Primitives follow RDKit's meaning on a hydrogen-suppressed molecule:
-//! every hydrogen is folded into its heavy atom, so `h n` equals `H n`.
-//! Ring primitives use the SSSR symmetrised as RDKit does.
+//! every hydrogen is folded into its heavy atom, so `h n` equals `H n`
+//! (RDKit's `h` counts the hydrogens an atom carries, bracket or not).
+//! `v` is the sum of Kekulé bond orders plus hydrogens. Ring primitives
+//! use the SSSR symmetrised as RDKit does (cubane has six rings, so every
+//! atom is `R3`); `R`, `r`, `x` alone and `@` only need ring bonds. The
+//! reference test compares unique match counts with RDKit's for 94
+//! patterns over 2,436 molecules.
+//!
+//! Limits: at most [`MAX_ATOMS`] pattern atoms and [`MAX_RECURSION_DEPTH`]
+//! levels of `$( … )`; the parser and the search keep their own stacks, so
+//! no input can overflow the call stack. A pattern that is very general for
+//! a molecule (`*~*~*~*~*~*~*~*`) can still have a great many matches: the
+//! `*_limited` methods stop after a given number of steps.
 //!
 //! # Matching
 //!
 //! Matching is non-induced (pattern bonds must be present; extra molecule
 //! bonds between matched atoms are allowed), by backtracking over an atom
 //! order that starts at the most selective atom (or the anchor) and grows
-//! through connected atoms. Unique matches count each set of molecule atoms
-//! once, as RDKit's `uniquify` does. For many patterns over one molecule,
-//! build a [`Target`] once and use the `*_in` methods.
+//! through connected atoms; ring-closure bonds are checked as soon as both
+//! ends are placed. Unique matches count each set of molecule atoms once,
+//! as RDKit's `GetSubstructMatches(uniquify=True)` does. Recursive
+//! primitives are evaluated once per molecule atom and call. Cheap screens
+//! (atom, element, aromatic-atom, multiple-bond and ring counts) reject most
+//! molecules without a search.
+//!
+//! # Use
+//!
+//! ```
+//! use acidsite::mol::Molecule;
+//! use acidsite::smarts::{Pattern, Target};
+//!
+//! // Alpha C-H of a ketone; the anchor is the `:1` atom.
+//! let p = Pattern::parse("[CX4;!H0:1][CX3](=O)[#6]").unwrap();
+//! let m = Molecule::from_smiles("CC(=O)CC").unwrap();
+//! assert_eq!(p.anchor(), Some(0));
+//! assert!(p.matches_at(&m, 3).is_some());
+//! // Both alpha carbons give the same atom set {0, 1, 2, 3}: one unique
+//! // match. Use the anchored calls to list sites.
+//! assert_eq!(p.count_unique(&m), 1);
+//!
+//! // Many patterns over one molecule: prepare it once.
+//! let t = Target::new(&m);
+//! assert_eq!(p.anchored_atoms_in(&t), vec![0, 3]);
+//! ```
 
 mod expr;
 mod matcher;
