@@ -24,14 +24,20 @@ impl RecCache {
     fn get(&self, id: usize) -> Option<&Vec<u8>> {
         self.rec.get(id)
     }
-    fn get_mut(&mut self, id: usize) -> Option<&mut Vec<u8>> {
+    /// The slot of recursive part `id` (of `count`), created on first use.
+    fn get_mut(&mut self, id: usize, count: usize) -> Option<&mut Vec<u8>> {
+        if self.rec.len() < count {
+            self.rec.resize(count, Vec::new());
+        }
         self.rec.get_mut(id)
     }
 }
 
-pub(crate) fn new_cache(pat: &Pattern, max_steps: u64) -> RecCache {
+/// A fresh per-call state; allocates nothing until a recursive part is
+/// evaluated.
+pub(crate) fn new_cache(max_steps: u64) -> RecCache {
     RecCache {
-        rec: vec![Vec::new(); pat.recursive.len()],
+        rec: Vec::new(),
         steps_left: max_steps,
         exhausted: false,
     }
@@ -110,7 +116,7 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
     if cache.exhausted {
         return false;
     }
-    if let Some(slot) = cache.get_mut(id) {
+    if let Some(slot) = cache.get_mut(id, pat.recursive.len()) {
         if slot.len() != t.atoms.len() {
             *slot = vec![0; t.atoms.len()];
         }

@@ -532,7 +532,7 @@ impl Pattern {
         if !self.passes_screen(t) {
             return false;
         }
-        let mut cache = new_cache(self, u64::MAX);
+        let mut cache = new_cache(u64::MAX);
         let mut found = false;
         search(
             self,
@@ -552,10 +552,24 @@ impl Pattern {
 
     /// [`Pattern::matches_at`] on a prepared molecule.
     pub fn matches_at_in(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
-        if atom >= t.atom_count() || !self.passes_screen(t) {
+        if atom >= t.atom_count() {
             return None;
         }
-        let mut cache = new_cache(self, u64::MAX);
+        // The anchor's own test first: it rejects most atoms at once.
+        let mut cache = new_cache(u64::MAX);
+        if !query_atom_matches(
+            &self.main,
+            self.anchor_or_first(),
+            atom,
+            t,
+            self,
+            &mut cache,
+        ) {
+            return None;
+        }
+        if !self.passes_screen(t) {
+            return None;
+        }
         self.anchored_one(t, atom, &mut cache)
     }
 
@@ -588,7 +602,7 @@ impl Pattern {
         if !self.passes_screen(t) {
             return Ok(out);
         }
-        let mut cache = new_cache(self, max_steps);
+        let mut cache = new_cache(max_steps);
         let anchor = self.anchor_or_first();
         // One search from the most selective atom; each anchor atom is
         // recorded once and never tried again.
@@ -621,10 +635,6 @@ impl Pattern {
         atom: usize,
         cache: &mut matcher::RecCache,
     ) -> Option<Vec<usize>> {
-        let anchor = self.anchor_or_first();
-        if !query_atom_matches(&self.main, anchor, atom, t, self, cache) {
-            return None;
-        }
         let mut result = None;
         search(
             self,
@@ -654,7 +664,7 @@ impl Pattern {
         if !self.passes_screen(t) {
             return true;
         }
-        let mut cache = new_cache(self, max_steps);
+        let mut cache = new_cache(max_steps);
         let mut seen: HashSet<Vec<usize>> = HashSet::new();
         let plan = if anchored.is_some() {
             &self.main.plan_anchor
