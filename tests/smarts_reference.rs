@@ -25,6 +25,38 @@ fn rows(text: &str) -> impl Iterator<Item = Vec<&str>> {
         .map(|l| l.split('\t').collect())
 }
 
+/// Does our aromatic perception (atoms or bonds) differ from RDKit's as
+/// recorded in molecules.tsv?
+fn aromatic_differs(mol: &Molecule, rdkit_atoms: &str, rdkit_bonds: &str) -> bool {
+    let ours: String = mol
+        .atoms
+        .iter()
+        .map(|a| if a.aromatic { '1' } else { '0' })
+        .collect();
+    let mut our_bonds: Vec<(usize, usize)> = mol
+        .bonds
+        .iter()
+        .filter(|b| b.order == BondOrder::Aromatic)
+        .map(|b| (b.atoms[0].min(b.atoms[1]), b.atoms[0].max(b.atoms[1])))
+        .collect();
+    our_bonds.sort_unstable();
+    let our_bonds: Vec<String> = our_bonds.iter().map(|(i, j)| format!("{i}-{j}")).collect();
+    ours != rdkit_atoms || our_bonds.join(" ") != rdkit_bonds
+}
+
+/// Listed exceptions: (molecule id, pattern name or "*").
+fn exceptions() -> HashSet<(String, String)> {
+    let mut excepted = HashSet::new();
+    for r in rows(EXCEPTIONS) {
+        assert!(
+            r.len() >= 3 && r[2].starts_with("aromaticity"),
+            "exception without an aromaticity reason: {r:?}"
+        );
+        excepted.insert((r[0].to_string(), r[1].to_string()));
+    }
+    excepted
+}
+
 struct Outcome {
     pairs_compared: usize,
     pairs_agreeing: usize,
@@ -49,14 +81,7 @@ fn run(patterns: &str, molecules: &str, expected: &str) -> Outcome {
         })
         .collect();
     // Molecule ids listed as exceptions (all patterns, or named ones).
-    let mut excepted: HashSet<(String, String)> = HashSet::new();
-    for r in rows(EXCEPTIONS) {
-        assert!(
-            r.len() >= 3 && r[2].starts_with("aromaticity"),
-            "exception without an aromaticity reason: {r:?}"
-        );
-        excepted.insert((r[0].to_string(), r[1].to_string()));
-    }
+    let excepted = exceptions();
     let verbose = std::env::var("SMARTS_REFERENCE_VERBOSE").is_ok();
     let mut out = Outcome {
         pairs_compared: 0,
@@ -74,21 +99,8 @@ fn run(patterns: &str, molecules: &str, expected: &str) -> Outcome {
             continue;
         };
         out.molecules_parsed += 1;
-        let ours: String = mol
-            .atoms
-            .iter()
-            .map(|a| if a.aromatic { '1' } else { '0' })
-            .collect();
-        let mut our_bonds: Vec<(usize, usize)> = mol
-            .bonds
-            .iter()
-            .filter(|b| b.order == BondOrder::Aromatic)
-            .map(|b| (b.atoms[0].min(b.atoms[1]), b.atoms[0].max(b.atoms[1])))
-            .collect();
-        our_bonds.sort_unstable();
-        let our_bonds: Vec<String> = our_bonds.iter().map(|(i, j)| format!("{i}-{j}")).collect();
-        let rdkit_bonds = r.get(5).copied().unwrap_or("");
-        let aromatic_differs = ours != rdkit_aromatic || our_bonds.join(" ") != rdkit_bonds;
+        let aromatic_differs =
+            aromatic_differs(&mol, rdkit_aromatic, r.get(5).copied().unwrap_or(""));
         let Some(want) = expected.get(id) else {
             panic!("no expected counts for {id}");
         };
@@ -185,4 +197,58 @@ fn check(o: &Outcome) {
             .collect::<Vec<_>>()
             .join("\n")
     );
+}
+
+/// For every pattern with a `:1` atom, the molecule atoms that atom can
+/// occupy (RDKit: the anchor position over all non-uniquified matches,
+/// corpus/smarts/anchors.tsv) equal `anchored_atoms_in` and the atoms
+/// where `matches_at_in` succeeds.
+#[test]
+fn anchored_atoms_in_given_reference_sample_agrees_with_rdkit() {
+    let anchors = include_str!("../corpus/smarts/anchors.tsv");
+    let header = anchors.lines().next().expect("header");
+    let names: Vec<&str> = header
+        .split_once('(')
+        .and_then(|(_, rest)| rest.split_once(')'))
+        .map(|(list, _)| list.split(' ').collect())
+        .expect("pattern names in header");
+    let all: std::collections::HashMap<String, Pattern> = rows(PATTERNS)
+        .map(|r| (r[0].to_string(), Pattern::parse(r[1]).expect("pattern")))
+        .collect();
+    let molecules: HashMap<&str, Vec<&str>> = rows(MOLECULES).map(|r| (r[0], r)).collect();
+    let excepted = exceptions();
+    let mut compared = 0;
+    let mut disagreements = Vec::new();
+    for r in rows(anchors) {
+        let row = &molecules[r[0]];
+        let Ok(mol) = Molecule::from_smiles(row[2]) else {
+            continue;
+        };
+        let differs = aromatic_differs(&mol, row[4], row.get(5).copied().unwrap_or(""));
+        let t = Target::new(&mol);
+        let sets: Vec<&str> = r.get(1).copied().unwrap_or("").split(';').collect();
+        assert_eq!(sets.len(), names.len(), "{}", r[0]);
+        for (name, set) in names.iter().zip(sets) {
+            let want: Vec<usize> = set
+                .split(' ')
+                .filter(|s| !s.is_empty())
+                .map(|s| s.parse().expect("atom"))
+                .collect();
+            let p = &all[*name];
+            assert!(p.anchor().is_some(), "{name}");
+            let got = p.anchored_atoms_in(&t);
+            let per_atom: Vec<usize> = (0..mol.atom_count())
+                .filter(|&a| p.matches_at_in(&t, a).is_some())
+                .collect();
+            compared += 1;
+            let listed = excepted.contains(&(r[0].to_string(), "*".to_string()))
+                || excepted.contains(&(r[0].to_string(), name.to_string()));
+            if (got != want || per_atom != want) && !(listed && differs) {
+                disagreements.push(format!("{} {name}: ours {got:?}, RDKit {want:?}", r[0]));
+            }
+        }
+    }
+    eprintln!("anchor sets compared: {compared}");
+    assert!(compared >= 2000 * 16);
+    assert!(disagreements.is_empty(), "{}", disagreements.join("\n"));
 }
