@@ -602,6 +602,7 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     }
     let n = atoms.len();
     let mut bonds: Vec<Bond> = Vec::with_capacity(raw_bonds.len());
+    let mut star_links: Vec<usize> = Vec::new();
     for b in &raw_bonds {
         let (fa, fb) = (fold[b.a], fold[b.b]);
         if fa || fb {
@@ -615,6 +616,14 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         }
         let (x, y) = (new_index[b.a], new_index[b.b]);
         let both_aromatic = raw_atoms[b.a].aromatic && raw_atoms[b.b].aromatic;
+        // A wildcard bonded to an aromatic atom may be part of its ring:
+        // decided once rings are known.
+        let star_link = b.order == RawOrder::Elided
+            && ((raw_atoms[b.a].element == 0 && raw_atoms[b.b].aromatic)
+                || (raw_atoms[b.b].element == 0 && raw_atoms[b.a].aromatic));
+        if star_link {
+            star_links.push(bonds.len());
+        }
         let aromatic = match b.order {
             RawOrder::Aromatic => true,
             RawOrder::Elided => both_aromatic,
@@ -680,6 +689,21 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
 
     let ring_info = rings::perceive(n, &bonds, &nb, smiles)?;
 
+    // Wildcards inside aromatic rings (`*1ccccc1`) are aromatic and may or
+    // may not take a double bond.
+    let mut optional_pi = Vec::new();
+    for &b in &star_links {
+        if ring_info.bond_in_ring[b] {
+            bonds[b].order = BondOrder::Aromatic;
+            for a in bonds[b].atoms {
+                if atoms[a].element == 0 && !atoms[a].aromatic {
+                    atoms[a].aromatic = true;
+                    optional_pi.push(a);
+                }
+            }
+        }
+    }
+
     // Aromatic input: every aromatic atom must be in a ring, and the pi
     // atoms must pair up along ring bonds written aromatic.
     if atoms.iter().any(|a| a.aromatic) {
@@ -693,40 +717,78 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
                 ));
             }
         }
-        let mut pi_atoms: Vec<usize> = Vec::with_capacity(n);
-        pi_atoms.extend((0..n).filter(|&i| needs_pi[i]));
-        let mut local = vec![usize::MAX; n];
-        for (k, &i) in pi_atoms.iter().enumerate() {
-            local[i] = k;
-        }
-        let mut adj = kekule::Graph {
-            start: Vec::with_capacity(pi_atoms.len() + 1),
-            list: Vec::with_capacity(pi_atoms.len() * 3),
+        // Try without the wildcards' pi bonds first, then with them.
+        let mut attempt = 0;
+        let (pi_atoms, adj, mate) = loop {
+            let mut pi_atoms: Vec<usize> = Vec::with_capacity(n);
+            pi_atoms.extend(
+                (0..n).filter(|&i| needs_pi[i] || (attempt == 1 && optional_pi.contains(&i))),
+            );
+            let mut local = vec![usize::MAX; n];
+            for (k, &i) in pi_atoms.iter().enumerate() {
+                local[i] = k;
+            }
+            let mut adj = kekule::Graph {
+                start: Vec::with_capacity(pi_atoms.len() + 1),
+                list: Vec::with_capacity(pi_atoms.len() * 3),
+            };
+            adj.start.push(0);
+            for &i in &pi_atoms {
+                for x in nb.get(i) {
+                    if bonds[x.bond].order == BondOrder::Aromatic
+                        && ring_info.bond_in_ring[x.bond]
+                        && local[x.atom] != usize::MAX
+                    {
+                        adj.list.push((local[x.atom], x.bond));
+                    }
+                }
+                adj.start.push(adj.list.len());
+            }
+            let mate = kekule::perfect_matching(&adj);
+            let complete = mate.iter().all(|m| *m != usize::MAX);
+            if complete || optional_pi.is_empty() || attempt == 1 {
+                break (pi_atoms, adj, mate);
+            }
+            attempt += 1;
         };
-        adj.start.push(0);
-        for &i in &pi_atoms {
-            for x in nb.get(i) {
-                if bonds[x.bond].order == BondOrder::Aromatic
-                    && ring_info.bond_in_ring[x.bond]
-                    && local[x.atom] != usize::MAX
-                {
-                    adj.list.push((local[x.atom], x.bond));
+        if let Some(k) = mate.iter().position(|m| *m == usize::MAX) {
+            // Point at the likeliest culprit in that ring system: a
+            // pyridine-type 'n' that should be [nH], else the unpaired atom.
+            let mut system = vec![pi_atoms[k]];
+            let mut seen = vec![false; n];
+            seen[pi_atoms[k]] = true;
+            let mut head = 0;
+            while head < system.len() {
+                let v = system[head];
+                head += 1;
+                for x in nb.get(v) {
+                    if bonds[x.bond].order == BondOrder::Aromatic && !seen[x.atom] {
+                        seen[x.atom] = true;
+                        system.push(x.atom);
+                    }
                 }
             }
-            adj.start.push(adj.list.len());
-        }
-        let mate = kekule::perfect_matching(&adj);
-        if let Some(k) = mate.iter().position(|m| *m == usize::MAX) {
-            let a = &atoms[pi_atoms[k]];
+            system.sort_unstable();
+            let culprit = system
+                .iter()
+                .copied()
+                .find(|&i| {
+                    atoms[i].element == 7
+                        && !atoms[i].bracket
+                        && needs_pi[i]
+                        && nb.get(i).len() == 2
+                })
+                .unwrap_or(pi_atoms[k]);
+            let a = &atoms[culprit];
             let hint = if a.element == 7 && !a.bracket {
-                " (a pyrrole-type nitrogen is written [nH])"
+                "; if this nitrogen carries a hydrogen (pyrrole type), write it [nH]"
             } else {
                 ""
             };
             return Err(error_at(
                 ErrorKind::Aromaticity,
                 format!(
-                    "cannot kekulize the aromatic ring system at this '{}': its atoms cannot be given alternating double bonds{}",
+                    "cannot kekulize the aromatic ring system containing this '{}': its atoms cannot be given alternating double bonds{}",
                     describe(a),
                     hint
                 ),
