@@ -139,6 +139,9 @@ pub(crate) struct QueryAtom {
     pub filter: AtomFilter,
     /// ... and the rest of the expression, if any.
     pub rest: Option<AtomExpr>,
+    /// The filter as a signature mask and value.
+    pub sig_mask: u64,
+    pub sig_value: u64,
 }
 
 /// One pattern bond.
@@ -201,6 +204,7 @@ impl Query {
         for a in &mut self.atoms {
             a.element = a.expr.required_element();
             let (filter, rest) = AtomFilter::split(&a.expr);
+            (a.sig_mask, a.sig_value) = filter.signature();
             a.filter = filter;
             a.rest = rest;
         }
@@ -555,7 +559,7 @@ impl Pattern {
         // The anchor's simple comparisons first: they reject most atoms at
         // once; the rest of its expression is tested by the search.
         let qa = self.main.atoms.get(self.anchor_or_first())?;
-        if !qa.filter.accepts(t.atoms.get(atom)?) || !self.passes_screen(t) {
+        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value || !self.passes_screen(t) {
             return None;
         }
         let mut cache = new_cache(u64::MAX);

@@ -38,6 +38,8 @@ pub(crate) struct RingBonds {
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
     pub(crate) atoms: Vec<AtomInfo>,
+    /// Per-atom signatures for the atom filters.
+    pub(crate) sig: Vec<u64>,
     pub(crate) bond_order: Vec<BondOrder>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
@@ -102,9 +104,11 @@ impl<'m> Target<'m> {
                 _ => groups.push((e, k, k + 1)),
             }
         }
+        let sig = atoms.iter().map(super::expr::atom_signature).collect();
         Target {
             mol,
             atoms,
+            sig,
             bond_order,
             double_count,
             triple_count,
