@@ -543,8 +543,8 @@ fn describe(atom: &Atom) -> String {
 
 /// Borrowed view of the compressed adjacency rows.
 pub(crate) struct Adj<'a> {
-    start: &'a [u32],
-    list: &'a [Neighbor],
+    pub(crate) start: &'a [u32],
+    pub(crate) list: &'a [Neighbor],
 }
 
 impl<'a> Adj<'a> {

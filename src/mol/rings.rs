@@ -102,45 +102,46 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
     if bonds.is_empty() {
         return in_ring;
     }
-    const NONE: usize = usize::MAX;
-    let mut disc = vec![NONE; n];
-    let mut low = vec![0usize; n];
-    let mut time = 0;
-    // (atom, bond used to enter, next neighbour index)
-    let mut stack: Vec<(usize, usize, usize)> = Vec::with_capacity(n);
+    // disc 0 = not visited; times start at 1.
+    let mut disc = vec![0u32; n];
+    let mut low = vec![0u32; n];
+    let mut time = 0u32;
+    // (atom, bond used to enter, next adjacency position, end position)
+    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
     for root in 0..n {
-        if disc[root] != NONE {
+        if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
         }
+        time += 1;
         disc[root] = time;
         low[root] = time;
-        time += 1;
-        stack.push((root, NONE, 0));
+        stack.push((root as u32, u32::MAX, nb.start[root], nb.start[root + 1]));
         while let Some(top) = stack.last_mut() {
-            let (v, via, k) = *top;
-            let neighbors = nb.get(v);
-            if k < neighbors.len() {
+            let (v, via, pos, end) = *top;
+            let v = v as usize;
+            if pos < end {
                 top.2 += 1;
-                let Neighbor { atom: w, bond: b } = neighbors[k];
-                if b == via {
+                let Neighbor { atom: w, bond: b } = nb.list[pos as usize];
+                if b as u32 == via {
                     continue;
                 }
-                if disc[w] == NONE {
+                if disc[w] == 0 {
+                    time += 1;
                     disc[w] = time;
                     low[w] = time;
-                    time += 1;
-                    stack.push((w, b, 0));
+                    stack.push((w as u32, b as u32, nb.start[w], nb.start[w + 1]));
                 } else if disc[w] < low[v] {
                     low[v] = disc[w];
                 }
             } else {
                 stack.pop();
-                if let Some(&(parent, _, _)) = stack.last() {
+                if let Some(&(parent, _, _, _)) = stack.last() {
+                    let parent = parent as usize;
                     if low[v] < low[parent] {
                         low[parent] = low[v];
                     }
                     if low[v] > disc[parent] {
-                        in_ring[via] = false;
+                        in_ring[via as usize] = false;
                     }
                 }
             }
