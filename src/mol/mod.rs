@@ -564,14 +564,18 @@ fn adjacency_of(n: usize, bonds: &[Bond]) -> (Vec<u32>, Vec<Neighbor>) {
     for i in 0..n {
         start[i + 1] += start[i];
     }
-    let mut fill: Vec<u32> = start[..n].to_vec();
+    // Fill using start[i + 1] as the cursor of row i, then it ends at the
+    // row's end, which is exactly the start of row i + 1.
     let mut adjacency = vec![Neighbor { atom: 0, bond: 0 }; bonds.len() * 2];
+    for k in (0..n).rev() {
+        start[k + 1] = start[k];
+    }
     for (k, b) in bonds.iter().enumerate() {
         let [x, y] = b.atoms;
-        adjacency[fill[x] as usize] = Neighbor { atom: y, bond: k };
-        fill[x] += 1;
-        adjacency[fill[y] as usize] = Neighbor { atom: x, bond: k };
-        fill[y] += 1;
+        adjacency[start[x + 1] as usize] = Neighbor { atom: y, bond: k };
+        start[x + 1] += 1;
+        adjacency[start[y + 1] as usize] = Neighbor { atom: x, bond: k };
+        start[y + 1] += 1;
     }
     (start, adjacency)
 }
@@ -662,35 +666,47 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         spans,
     } = raw;
     let n_raw = raw_atoms.len();
-    // Degree of every written atom, to find hydrogens to fold.
-    let mut raw_degree = vec![0u32; n_raw];
-    for b in &raw_bonds {
-        raw_degree[b.a] += 1;
-        raw_degree[b.b] += 1;
-    }
-    let foldable = |i: usize| {
-        let a = &raw_atoms[i];
-        a.element == 1 && a.charge == 0 && a.hcount.unwrap_or(0) == 0 && raw_degree[i] == 1
-    };
-    let mut fold = vec![false; n_raw];
-    for b in &raw_bonds {
-        if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
-            continue;
+    // Hydrogens to fold (only when hydrogen atoms were written).
+    let has_h = raw_atoms.iter().any(|a| a.element == 1);
+    let mut fold: Vec<bool> = Vec::new();
+    if has_h {
+        let mut raw_degree = vec![0u32; n_raw];
+        for b in &raw_bonds {
+            raw_degree[b.a] += 1;
+            raw_degree[b.b] += 1;
         }
-        for (h, heavy) in [(b.a, b.b), (b.b, b.a)] {
-            if foldable(h) && raw_atoms[heavy].element != 1 {
-                fold[h] = true;
+        let foldable = |i: usize| {
+            let a = &raw_atoms[i];
+            a.element == 1 && a.charge == 0 && a.hcount.unwrap_or(0) == 0 && raw_degree[i] == 1
+        };
+        fold = vec![false; n_raw];
+        for b in &raw_bonds {
+            if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
+                continue;
+            }
+            for (h, heavy) in [(b.a, b.b), (b.b, b.a)] {
+                if foldable(h) && raw_atoms[heavy].element != 1 {
+                    fold[h] = true;
+                }
             }
         }
     }
-    // new_index[i] = index after folding (unused for a folded H).
-    let mut new_index = vec![usize::MAX; n_raw];
+    let folded = |i: usize| fold.get(i).copied().unwrap_or(false);
+    // new_index[i] = index after folding (unused for a folded H); identity
+    // when nothing is folded.
+    let mut new_index: Vec<usize> = if has_h {
+        vec![usize::MAX; n_raw]
+    } else {
+        Vec::new()
+    };
     let mut atoms = Vec::with_capacity(n_raw);
     for (i, a) in raw_atoms.iter().enumerate() {
-        if fold[i] {
+        if folded(i) {
             continue;
         }
-        new_index[i] = atoms.len();
+        if has_h {
+            new_index[i] = atoms.len();
+        }
         atoms.push(Atom {
             element: a.element,
             aromatic: a.aromatic,
@@ -707,17 +723,21 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     let mut bonds: Vec<Bond> = Vec::with_capacity(raw_bonds.len());
     let mut star_links: Vec<usize> = Vec::new();
     for b in &raw_bonds {
-        let (fa, fb) = (fold[b.a], fold[b.b]);
+        let (fa, fb) = (folded(b.a), folded(b.b));
         if fa || fb {
             let (h, heavy) = if fa { (b.a, b.b) } else { (b.b, b.a) };
-            let atom = &mut atoms[new_index[heavy]];
+            let atom = &mut atoms[if has_h { new_index[heavy] } else { heavy }];
             atom.hydrogens = atom.hydrogens.saturating_add(1);
             if matches!(raw_atoms[h].isotope, Some(2) | Some(3)) {
                 atom.heavy_hydrogens = atom.heavy_hydrogens.saturating_add(1);
             }
             continue;
         }
-        let (x, y) = (new_index[b.a], new_index[b.b]);
+        let (x, y) = if has_h {
+            (new_index[b.a], new_index[b.b])
+        } else {
+            (b.a, b.b)
+        };
         let both_aromatic = raw_atoms[b.a].aromatic && raw_atoms[b.b].aromatic;
         // A wildcard bonded to an aromatic atom may be part of its ring:
         // decided once rings are known.
