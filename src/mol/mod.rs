@@ -264,6 +264,24 @@ impl Molecule {
         self.degree(i) + self.atoms.get(i).map_or(0, |a| a.hydrogens as usize)
     }
 
+    /// SMARTS `H` as RDKit defines it: all hydrogens on atom `i`, counting
+    /// hydrogen atoms that stay in the graph (`[H][H]`, bridging H) too.
+    pub fn smarts_total_h(&self, i: usize) -> u32 {
+        let in_graph = self
+            .neighbors(i)
+            .iter()
+            .filter(|x| self.atoms[x.atom].element == 1)
+            .count() as u32;
+        self.atoms.get(i).map_or(0, |a| a.hydrogens as u32) + in_graph
+    }
+
+    /// SMARTS `h` as RDKit defines it (its "implicit" count): hydrogens on
+    /// atom `i` that are not atoms of the graph, whether written in a
+    /// bracket, folded from `[H]` or added by the valence rules.
+    pub fn smarts_implicit_h(&self, i: usize) -> u32 {
+        self.atoms.get(i).map_or(0, |a| a.hydrogens as u32)
+    }
+
     /// Hydrogens that were not written (added by the valence rules).
     pub fn implicit_hydrogens(&self, i: usize) -> u8 {
         self.implicit_h.get(i).copied().unwrap_or(0)
