@@ -450,3 +450,18 @@ fn smarts_hydrogen_counts_given_kept_hydrogen_atom_differ() {
     assert_eq!((m.smarts_total_h(1), m.smarts_implicit_h(1)), (2, 2));
     assert_eq!((m.smarts_total_h(0), m.smarts_implicit_h(0)), (3, 3));
 }
+
+#[test]
+fn to_petgraph_given_molecule_keeps_indices() {
+    let m = mol("CC(=O)O");
+    let g = m.to_petgraph();
+    assert_eq!((g.node_count(), g.edge_count()), (4, 3));
+    let e = g.find_edge(
+        petgraph::graph::NodeIndex::new(1),
+        petgraph::graph::NodeIndex::new(2),
+    );
+    assert_eq!(
+        e.and_then(|e| g.edge_weight(e)).copied(),
+        m.bond_between(1, 2)
+    );
+}

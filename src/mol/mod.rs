@@ -76,19 +76,21 @@
 //! Bonds are a list; adjacency is kept in compressed rows (one offset array
 //! and one neighbour array per molecule, [`Molecule::neighbors`] returns a
 //! slice). Measured with `examples/mol_bench.rs` on the MOSES test set
-//! (176,074 molecules, 20 neighbour walks over every atom): compressed rows
-//! 453 ms, a petgraph `UnGraph` 456 ms plus 335 ms to build the graphs
-//! (about 1.9 us per molecule, some 17 % of the whole read + perceive
-//! time). Walks are equally fast, building is not, so the core keeps its
-//! own rows; [`Molecule::to_petgraph`] gives an `UnGraph` to callers that
-//! want petgraph's algorithms.
+//! (176,074 molecules, 20 neighbour walks over every atom), in four runs:
+//! compressed rows 214-453 ms, a petgraph `UnGraph` 235-456 ms, with no
+//! consistent winner, but building the `UnGraph`s costs another 150-335 ms
+//! (about 1-2 us per molecule, some 15 % of the whole read + perceive
+//! time). So the core keeps its own rows, which are also smaller;
+//! [`Molecule::to_petgraph`] gives an `UnGraph` to callers that want
+//! petgraph's algorithms.
 //!
 //! # Speed
 //! `cargo run --release --example mol_bench -- ../shared/data/moses/moses_test.csv`
-//! reads and perceives the MOSES test set on one core at about 0.4 times
-//! the speed of purr's plain read + graph build in the same run (around
-//! 90,000 to 100,000 molecules per second on the shared 2-core development
-//! machine while other jobs ran; see the report for exact figures).
+//! reads and perceives the MOSES test set on one core. On the shared
+//! 2-core development machine it did 102,000 to 128,000 molecules per
+//! second while purr's plain read + graph build did 241,000 to 282,000 in
+//! the same runs: 0.42 to 0.45 times purr's speed (under callgrind, 0.66
+//! times purr's instruction count).
 //!
 //! # Limits
 //! Inputs over [`MAX_CHARS`] characters or [`MAX_ATOMS`] atoms, and ring
