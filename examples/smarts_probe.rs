@@ -23,9 +23,14 @@ fn main() {
             std::process::exit(1);
         }
     };
+    use std::io::Write;
     let matches = p.unique_matches(&m);
-    println!("{} unique matches", matches.len());
+    let mut out = std::io::stdout().lock();
+    // Write errors (a closed pipe) end the output quietly.
+    let _ = writeln!(out, "{} unique matches", matches.len());
     for mm in matches.iter().take(20) {
-        println!("{mm:?}");
+        if writeln!(out, "{mm:?}").is_err() {
+            break;
+        }
     }
 }

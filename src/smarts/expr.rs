@@ -161,6 +161,17 @@ impl AtomExpr {
 }
 
 impl BondExpr {
+    /// Value of the expression for a dative bond (never in a ring): only
+    /// `~` matches it, as in RDKit.
+    pub fn eval_dative(&self) -> bool {
+        match self {
+            BondExpr::Prim(p) => matches!(p, BondPrim::Any),
+            BondExpr::Not(e) => !e.eval_dative(),
+            BondExpr::And(v) => v.iter().all(|e| e.eval_dative()),
+            BondExpr::Or(v) => v.iter().any(|e| e.eval_dative()),
+        }
+    }
+
     /// Value of the expression for a bond of this order and ring state.
     pub fn eval(&self, order: crate::mol::BondOrder, in_ring: bool) -> bool {
         use crate::mol::BondOrder as O;

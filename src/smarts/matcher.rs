@@ -186,7 +186,8 @@ impl DoneSet {
     }
 }
 
-/// Bond orders in the order used by [`super::QueryBond::mask`].
+/// Bond orders in the order used by [`super::QueryBond::mask`]; state 5 is
+/// a dative bond.
 pub(crate) const ORDERS: [BondOrder; 5] = [
     BondOrder::Single,
     BondOrder::Double,
@@ -195,21 +196,28 @@ pub(crate) const ORDERS: [BondOrder; 5] = [
     BondOrder::Aromatic,
 ];
 
+/// Number of bond states per ring flag (five orders and dative).
+pub(crate) const STATES: u16 = 6;
+
 /// Does molecule bond `b` satisfy pattern bond `q`?
 #[inline]
 pub(crate) fn bond_matches(q: &QueryBond, b: usize, t: &Target) -> bool {
     let Some(&order) = t.bond_order.get(b) else {
         return false;
     };
-    let mut state = match order {
-        BondOrder::Single => 0,
-        BondOrder::Double => 1,
-        BondOrder::Triple => 2,
-        BondOrder::Quadruple => 3,
-        BondOrder::Aromatic => 4,
+    let mut state = if t.bond_dative.get(b).copied().unwrap_or(false) {
+        5
+    } else {
+        match order {
+            BondOrder::Single => 0,
+            BondOrder::Double => 1,
+            BondOrder::Triple => 2,
+            BondOrder::Quadruple => 3,
+            BondOrder::Aromatic => 4,
+        }
     };
     if q.ring_sensitive && t.bond_in_ring(b) {
-        state += 5;
+        state += STATES;
     }
     q.mask >> state & 1 == 1
 }

@@ -26,7 +26,9 @@
 //! Primitives follow RDKit's meaning on a hydrogen-suppressed molecule:
 //! every hydrogen is folded into its heavy atom, so `h n` equals `H n`
 //! (RDKit's `h` counts the hydrogens an atom carries, bracket or not).
-//! `v` is the sum of Kekulé bond orders plus hydrogens. Ring primitives
+//! `v` is the sum of Kekulé bond orders plus hydrogens. Bonds the molecule
+//! core marks dative (amine to metal and the like) match only `~` (and
+//! negations), leave the donor's `v` and make no rings, as in RDKit. Ring primitives
 //! use the SSSR symmetrised as RDKit does (cubane has six rings, so every
 //! atom is `R3`); `R`, `r`, `x` alone and `@` only need ring bonds. The
 //! reference test compares unique match counts with RDKit's for 94
@@ -149,8 +151,8 @@ pub(crate) struct QueryAtom {
 pub(crate) struct QueryBond {
     pub atoms: [usize; 2],
     pub expr: BondExpr,
-    /// The expression tabulated over the ten bond states (five orders, in
-    /// a ring or not): bit `order + 5 * ring`.
+    /// The expression tabulated over the twelve bond states (five orders
+    /// and dative, in a ring or not): bit `state + 6 * ring`.
     pub mask: u16,
     /// Does the answer depend on ring membership?
     pub ring_sensitive: bool,
@@ -158,14 +160,21 @@ pub(crate) struct QueryBond {
 
 impl QueryBond {
     pub(crate) fn new(atoms: [usize; 2], expr: BondExpr) -> QueryBond {
+        let states = matcher::STATES;
         let mut mask = 0u16;
-        for state in 0..10u16 {
-            let order = matcher::ORDERS[(state % 5) as usize];
-            if expr.eval(order, state >= 5) {
-                mask |= 1 << state;
+        for ring in [false, true] {
+            for k in 0..states {
+                let hit = match matcher::ORDERS.get(k as usize) {
+                    Some(&order) => expr.eval(order, ring),
+                    None => expr.eval_dative(),
+                };
+                if hit {
+                    mask |= 1 << (k + if ring { states } else { 0 });
+                }
             }
         }
-        let ring_sensitive = (mask & 0x1f) != (mask >> 5);
+        let low = (1u16 << states) - 1;
+        let ring_sensitive = (mask & low) != (mask >> states);
         QueryBond {
             atoms,
             expr,
