@@ -210,6 +210,9 @@ ENTRIES = [
     ("Cc1cc[nH+:1]cc1", "4-methylpyridinium", "pyridinium", "", "", "base:Cc1ccncc1", "", "H", ""),
     ("c1c[nH+:1]c[nH]1", "imidazolium", "ammonium", "", "", "base:c1c[nH]cn1", "", "T", "either N-H; the two are equivalent"),
     # --- extensions (append below) -----------------------------------------------
+    ("CCOC(=O)[CH2:1]C(=O)c1ccc(Cl)cc1", "ethyl 4-chlorobenzoylacetate", "ketoester_beta", "", "", "auto", "", "T", "Hammett series in water"),
+    ("CCOC(=O)[CH2:1]C(=O)c1ccc(Br)cc1", "ethyl 4-bromobenzoylacetate", "ketoester_beta", "", "", "auto", "", "H", "Hammett series in water"),
+    ("CCOC(=O)[CH2:1]C(=O)c1ccc(C)cc1", "ethyl 4-methylbenzoylacetate", "ketoester_beta", "", "", "auto", "", "T", "Hammett series in water"),
 ]
 
 COMMON = [

@@ -22,7 +22,7 @@ SERJEANT = "IUPAC Digitized pKa Dataset v1.0 (Serjeant)"
 
 # Remarks that mean "not pure water" or "not a plain equilibrium constant in dilute solution".
 BAD_REMARK = re.compile(r"%|D2O|dioxan|ethanol|methanol|acetone|DMSO|dimethyl|H_ scale|Ho scale|"
-                        r"H- scale|acidity function|aq\. H|aqueous H|excited|hydrate|P=[2-9]|P=1000",
+                        r"H- scale|acidity function|aq\. H|aqueous H|excited|hydrate|P=(?!1 \(bar\))\d",
                         re.IGNORECASE)
 
 
