@@ -213,6 +213,21 @@ ENTRIES = [
     ("CCOC(=O)[CH2:1]C(=O)c1ccc(Cl)cc1", "ethyl 4-chlorobenzoylacetate", "ketoester_beta", "", "", "auto", "", "T", "Hammett series in water"),
     ("CCOC(=O)[CH2:1]C(=O)c1ccc(Br)cc1", "ethyl 4-bromobenzoylacetate", "ketoester_beta", "", "", "auto", "", "H", "Hammett series in water"),
     ("CCOC(=O)[CH2:1]C(=O)c1ccc(C)cc1", "ethyl 4-methylbenzoylacetate", "ketoester_beta", "", "", "auto", "", "T", "Hammett series in water"),
+    ("[nH:1]1nnc2ccccc21", "benzotriazole", "azole_nh", 11.9, FM, "", "", "T", ""),
+    ("[CH:1]1(c2ccccc2)c2ccccc2Oc2ccccc21", "9-phenylxanthene", "triarylmethane", 27.9, FM, "", "", "H", "bridged; compare xanthene"),
+    ("[SH:1]Cc1ccccc1", "phenylmethanethiol", "thiol", 15.4, FM, "auto", "", "T", "DMSO value uncertain"),
+    ("[OH:1]Cc1ccccc1", "benzyl alcohol", "alcohol", "", "", "auto", "", "T", "water value rated Uncertain"),
+    ("[OH:1]c1ccc2ccccc2c1", "2-naphthol", "phenol", "", "", "auto", "", "H", ""),
+    ("O=[N+]([O-])c1ccc([OH:1])c([N+](=O)[O-])c1", "2,4-dinitrophenol", "phenol", "", "", "auto", "", "T", "ortho-nitro"),
+    ("O=C([OH:1])C(F)(F)F", "trifluoroacetic acid", "carboxylic_acid_oh", "", "", "auto", "", "T", ""),
+    ("C1C[NH+:1]2CCN1CC2", "DABCO-H+ (monoprotonated)", "ammonium", "", "", "base:C1CN2CCN1CC2", "", "T", "first protonation"),
+    ("[CH3:1]C(=O)CC", "2-butanone (CH3 side)", "ketone", "", "", "", "", "T", "kinetic side (see regio.tsv); no measured value known"),
+    ("CC(=O)[CH2:1]C", "2-butanone (CH2 side)", "ketone", "", "", "", "", "T", "thermodynamic side (see regio.tsv); no measured value known"),
+    ("C[CH:1]1CCCCC1=O", "2-methylcyclohexanone (C2-H)", "ketone", "", "", "", "", "T", "thermodynamic side (see regio.tsv)"),
+    ("CC1CCC[CH2:1]C1=O", "2-methylcyclohexanone (C6-H2)", "ketone", "", "", "", "", "T", "kinetic side (see regio.tsv)"),
+    ("CC(=O)Nc1ccc([OH:1])cc1", "paracetamol (phenol O-H)", "phenol", "", "", 9.5, FM, "T", "drug-like, competing amide N-H"),
+    ("CC(=O)[NH:1]c1ccc(O)cc1", "paracetamol (amide N-H)", "amide_nh", "", "", "", "", "T", "less acidic than the phenol; no value"),
+    ("[CH3:1]C(=O)Cc1ccccc1", "phenylacetone (CH3 side)", "ketone", "", "", "", "", "T", "less acidic than the benzylic CH2; no measured value"),
 ]
 
 COMMON = [
