@@ -72,3 +72,29 @@ fn parse_rule_set_given_duplicate_source_key_reports_sources_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
     assert_eq!(line_of(&rules, INC_HEADER, sources), Some(("s.tsv".into(), 3)));
 }
+
+#[test]
+fn rule_set_given_embedded_files_is_valid() {
+    // Validation covers duplicate ids, citation keys, numbers and SMARTS.
+    let set = acidsite::sites::rule_set().expect("embedded rule files are valid");
+    assert!(set.rules.len() >= 60);
+    assert!(!set.version.is_empty());
+    assert_eq!(acidsite::sites::rule_set_version(), set.version);
+    let mut ids: Vec<&str> = set
+        .rules
+        .iter()
+        .map(|r| r.id.as_str())
+        .chain(set.increments.iter().map(|r| r.id.as_str()))
+        .collect();
+    let n = ids.len();
+    ids.sort_unstable();
+    ids.dedup();
+    assert_eq!(ids.len(), n, "duplicate rule ids");
+    for r in &set.rules {
+        for k in r.source.split(',') {
+            assert!(set.sources.contains_key(k.trim()), "{}: {k}", r.id);
+        }
+    }
+    let sigma = acidsite::sites::sigma_table().expect("sigma table is valid");
+    assert!(sigma.entries.len() >= 20);
+}

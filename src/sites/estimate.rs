@@ -6,6 +6,7 @@ use super::hammett::{ring_positions, SigmaTable};
 use super::rules::{Hammett, Rule, RuleSet, SigmaKind};
 use super::{Options, Regio, RuleUse, Scale, Site, SiteReport};
 use crate::mol::{BondOrder, Molecule};
+use crate::smarts::Target;
 
 /// One acidic atom before grouping.
 #[derive(Debug, Clone)]
@@ -25,38 +26,6 @@ fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
         }
     }
     m
-}
-
-/// Atoms of the largest connected component (most heavy atoms; the first
-/// written wins a tie), ascending.
-pub(crate) fn main_component(mol: &Molecule) -> Vec<usize> {
-    let n = mol.atom_count();
-    let mut comp = vec![usize::MAX; n];
-    let mut best: Vec<usize> = Vec::new();
-    let mut stack = Vec::new();
-    for start in 0..n {
-        if comp[start] != usize::MAX {
-            continue;
-        }
-        let mut members = Vec::new();
-        comp[start] = start;
-        stack.push(start);
-        while let Some(a) = stack.pop() {
-            members.push(a);
-            for nb in mol.neighbors(a) {
-                if comp.get(nb.atom) == Some(&usize::MAX) {
-                    comp[nb.atom] = start;
-                    stack.push(nb.atom);
-                }
-            }
-        }
-        let heavy = |v: &Vec<usize>| v.iter().filter(|&&i| mol.atoms[i].element > 1).count();
-        if heavy(&members) > heavy(&best) {
-            best = members;
-        }
-    }
-    best.sort_unstable();
-    best
 }
 
 fn has_multiple_bond(mol: &Molecule, i: usize) -> bool {
@@ -136,7 +105,15 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
             if has_multiple_bond(mol, s) {
                 return None;
             }
-            Some("alkyl")
+            // A CH2/CH/C carrying a heteroatom or an acceptor: the β
+            // inductive effect differs from plain alkyl.
+            let ewg = others().any(|nb| {
+                let b = &mol.atoms[nb.atom];
+                b.charge != 0
+                    || matches!(b.element, 7 | 8 | 9 | 16 | 17 | 35 | 53)
+                    || (b.element == 6 && !b.aromatic && has_multiple_bond(mol, nb.atom))
+            });
+            Some(if ewg { "alkyl_ewg" } else { "alkyl" })
         }
         7 => {
             let o = others().filter(|nb| mol.atoms[nb.atom].element == 8).count();
@@ -260,6 +237,11 @@ fn hammett_terms(
             let water = h.rho_water.map(|r| -r * s);
             let big = dmso.unwrap_or(0.0).abs().max(water.unwrap_or(0.0).abs());
             *var += (0.15 * big).powi(2);
+            if dmso.is_none() || water.is_none() {
+                // No ρ on one scale: that scale gets no term; allow for a
+                // ρ of up to about 2.5 there.
+                *var += (2.5 * s).powi(2) / 4.0;
+            }
             let kind = match (pos, h.sigma) {
                 ('m', _) => "m",
                 (_, SigmaKind::Para) => "p",
@@ -326,15 +308,25 @@ fn estimate_atom(
                     1
                 }
             };
-            let inc = set
-                .increments
-                .iter()
-                .filter(|r| {
-                    r.kind == kind
-                        && r.nth <= n
-                        && r.families.iter().any(|f| f == "*" || *f == rule.family)
-                })
-                .max_by_key(|r| r.nth);
+            let find = |kind: &str| {
+                set.increments
+                    .iter()
+                    .filter(|r| {
+                        r.kind == kind
+                            && r.nth <= n
+                            && r.families.iter().any(|f| f == "*" || *f == rule.family)
+                    })
+                    .max_by_key(|r| r.nth)
+            };
+            // A family without its own row for a substituted alkyl uses
+            // the plain alkyl row.
+            let inc = find(kind).or_else(|| {
+                if kind == "alkyl_ewg" {
+                    find("alkyl")
+                } else {
+                    None
+                }
+            });
             match inc {
                 Some(inc) => {
                     uses.push(RuleUse {
@@ -354,13 +346,20 @@ fn estimate_atom(
     let mut dmso = Some(0.0);
     let mut water = Some(0.0);
     for u in &uses {
-        add(&mut dmso, u.dmso);
-        add(&mut water, u.water);
+        // A Hammett term without ρ on one scale adds nothing there (its
+        // uncertainty was widened when the term was made).
+        let hammett = u.id.contains("/sigma-");
+        if !(hammett && u.dmso.is_none()) {
+            add(&mut dmso, u.dmso);
+        }
+        if !(hammett && u.water.is_none()) {
+            add(&mut water, u.water);
+        }
     }
     let a = &mol.atoms[i];
     Site {
         atoms: vec![i],
-        element: element_symbol(a.element).to_string(),
+        element: a.symbol().to_string(),
         hydrogens: a.hydrogens,
         class: rule.class.clone(),
         pka_dmso: dmso.map(round2),
@@ -431,7 +430,8 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
 
 /// Run the rule set over the molecule's main component.
 pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Options) -> SiteReport {
-    let atoms = main_component(mol);
+    let atoms = mol.main_component_atoms();
+    let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();
     for &i in &atoms {
@@ -455,7 +455,7 @@ pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Opti
             if rule.element != sym || rule.required_elements & !mask != 0 {
                 continue;
             }
-            if let Some(m) = rule.pattern.matches_at(mol, i) {
+            if let Some(m) = rule.pattern.matches_at_in(&target, i) {
                 let site = estimate_atom(mol, set, sigma, i, rule, &m);
                 raws.push(Raw {
                     atom: i,
@@ -499,15 +499,17 @@ fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     };
     let mut out: Vec<Site> = Vec::new();
     let mut reps: Vec<usize> = Vec::new();
-    for raw in &raws {
+    for (x, raw) in raws.iter().enumerate() {
         let found = reps.iter().position(|&r| {
             let rep = &raws[r];
-            same(rep, raw) && classes.get(rep.atom).is_some() && classes.get(rep.atom) == classes.get(raw.atom)
+            same(rep, raw)
+                && classes.get(rep.atom).is_some()
+                && classes.get(rep.atom) == classes.get(raw.atom)
         });
         match found {
             Some(k) => out[k].atoms.push(raw.atom),
             None => {
-                reps.push(raws.iter().position(|x| x.atom == raw.atom).unwrap_or(0));
+                reps.push(x);
                 out.push(raw.site.clone());
             }
         }
@@ -515,74 +517,8 @@ fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     out
 }
 
-/// Topological symmetry classes by iterative refinement of atom
-/// invariants (element, aromaticity, charge, hydrogens, degree) with the
-/// sorted classes and bond orders of the neighbours. Used until the
-/// molecule core provides its own.
-pub(crate) fn local_symmetry_classes(mol: &Molecule) -> Vec<usize> {
-    let n = mol.atom_count();
-    let mut inv: Vec<(u8, bool, i8, u8, usize)> = mol
-        .atoms
-        .iter()
-        .enumerate()
-        .map(|(i, a)| (a.element, a.aromatic, a.charge, a.hydrogens, mol.neighbors(i).len()))
-        .collect();
-    let mut class = rank(&inv.iter().map(|x| vec![x.0 as i64, x.1 as i64, x.2 as i64, x.3 as i64, x.4 as i64]).collect::<Vec<_>>());
-    inv.clear();
-    let mut count = distinct(&class);
-    for _ in 0..n {
-        let keys: Vec<Vec<i64>> = (0..n)
-            .map(|i| {
-                let mut nb: Vec<i64> = mol
-                    .neighbors(i)
-                    .iter()
-                    .map(|x| class[x.atom] as i64 * 8 + order_code(mol.bonds[x.bond].order) as i64)
-                    .collect();
-                nb.sort_unstable();
-                let mut k = vec![class[i] as i64];
-                k.extend(nb);
-                k
-            })
-            .collect();
-        let next = rank(&keys);
-        let c = distinct(&next);
-        class = next;
-        if c == count {
-            break;
-        }
-        count = c;
-    }
-    class
-}
-
-fn rank(keys: &[Vec<i64>]) -> Vec<usize> {
-    let mut sorted: Vec<&Vec<i64>> = keys.iter().collect();
-    sorted.sort();
-    sorted.dedup();
-    keys.iter()
-        .map(|k| sorted.binary_search(&k).unwrap_or(0))
-        .collect()
-}
-
-fn distinct(c: &[usize]) -> usize {
-    let mut v = c.to_vec();
-    v.sort_unstable();
-    v.dedup();
-    v.len()
-}
-
 fn bonded(mol: &Molecule, a: usize, b: usize) -> bool {
     mol.neighbors(a).iter().any(|nb| nb.atom == b)
-}
-
-fn element_symbol(z: u8) -> &'static str {
-    match z {
-        6 => "C",
-        7 => "N",
-        8 => "O",
-        16 => "S",
-        _ => "?",
-    }
 }
 
 /// Bond order as a small code (aromatic distinct from single).

@@ -130,8 +130,9 @@ fn key_rec(
 }
 
 impl SigmaTable {
-    /// Read the σ table. Columns: `name`, `smiles` (attachment `*`),
-    /// `sigma_m`, `sigma_p`, `sigma_p_minus` (may be empty), `source`.
+    /// Read the σ table. Columns: `id`, `substituent_smiles` (attachment
+    /// `[*]`), `name`, `sigma_meta`, `sigma_para`, `sigma_para_minus` (may be
+    /// empty), `source`.
     pub fn parse(file: &str, text: &str) -> Result<SigmaTable, RuleError> {
         let err = |line: usize, m: String| RuleError {
             file: file.to_string(),
@@ -172,11 +173,12 @@ impl SigmaTable {
                     .ok_or_else(|| err(line, format!("`{name}`: `{v}` is not a σ value")))
             };
             let name = get("name")?.to_string();
-            let smiles = get("smiles")?.to_string();
-            let (Some(sigma_m), Some(sigma_p)) = (num("sigma_m")?, num("sigma_p")?) else {
+            let _id = get("id")?;
+            let smiles = get("substituent_smiles")?.to_string();
+            let (Some(sigma_m), Some(sigma_p)) = (num("sigma_meta")?, num("sigma_para")?) else {
                 return Err(err(line, "σm and σp are required".into()));
             };
-            let sigma_p_minus = num("sigma_p_minus")?;
+            let sigma_p_minus = num("sigma_para_minus")?;
             let mol = Molecule::from_smiles(&smiles)
                 .map_err(|e| err(line, format!("substituent SMILES: {e}")))?;
             let star = mol.atoms.iter().position(|a| a.element == 0);

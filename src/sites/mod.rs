@@ -154,6 +154,6 @@ pub fn rule_set_version() -> &'static str {
 }
 
 /// Symmetry class of every atom (equal numbers = topologically equivalent).
-pub(crate) fn symmetry_classes(mol: &Molecule) -> Vec<usize> {
-    estimate::local_symmetry_classes(mol)
+pub(crate) fn symmetry_classes(mol: &Molecule) -> Vec<u32> {
+    mol.symmetry_classes()
 }

@@ -103,6 +103,7 @@ pub struct Increment {
 /// Substituent kinds recognised on the acidic atom (see `estimate`).
 pub const SUBSTITUENT_KINDS: &[&str] = &[
     "alkyl",
+    "alkyl_ewg",
     "aryl",
     "heteroaryl",
     "vinyl",
