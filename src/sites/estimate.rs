@@ -444,20 +444,20 @@ pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Opti
         if a.hydrogens == 0 {
             continue;
         }
-        let sym = match a.element {
+        match a.element {
             6 => {
                 if !carbon_candidate(mol, i) {
                     continue;
                 }
-                "C"
             }
-            7 => "N",
-            8 => "O",
-            16 => "S",
+            7 | 8 | 16 => {}
             _ => continue,
-        };
+        }
         for (r, rule) in set.rules.iter().enumerate() {
-            if rule.element != sym || rule.required_elements & !mask != 0 {
+            if rule.z != a.element
+                || rule.required_elements & !mask != 0
+                || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
+            {
                 continue;
             }
             if let Some(m) = rule.pattern.matches_at_in(&target, i) {

@@ -79,6 +79,11 @@ pub struct Rule {
     pub required_elements: u128,
     /// 1-based line in `rules.tsv`.
     pub line: usize,
+    /// Atomic number of `element`.
+    pub(crate) z: u8,
+    /// Aromaticity the anchor atom must have, read from the SMARTS text
+    /// (lower-case symbol = aromatic, upper-case = aliphatic, else either).
+    pub(crate) anchor_aromatic: Option<bool>,
 }
 
 /// One substituent increment.
@@ -368,6 +373,24 @@ pub fn unbracketed_elements(smarts: &str) -> u128 {
     mask
 }
 
+/// Aromaticity of the `:1` atom as written: the first letter inside its
+/// bracket (`[cH1:1]` aromatic, `[CX4;!H0:1]` aliphatic); None when the
+/// bracket starts otherwise (`[#6:1]`, `[$(…):1]`).
+fn anchor_aromaticity(smarts: &str) -> Option<bool> {
+    let end = smarts.find(":1]")?;
+    let start = smarts[..end].rfind('[')?;
+    let first = smarts[start + 1..end].chars().next()?;
+    // Only trust a bracket without alternatives.
+    if smarts[start + 1..end].contains(',') {
+        return None;
+    }
+    match first {
+        'c' | 'n' | 'o' | 's' => Some(true),
+        'C' | 'N' | 'O' | 'S' => Some(false),
+        _ => None,
+    }
+}
+
 fn element_symbol_ok(s: &str) -> bool {
     matches!(s, "C" | "N" | "O" | "S" | "P" | "Se")
 }
@@ -422,6 +445,8 @@ pub fn parse_rules(
             ));
         }
         rules.push(Rule {
+            z: crate::mol::atomic_number(element).unwrap_or(0),
+            anchor_aromatic: anchor_aromaticity(smarts),
             id: id.to_string(),
             element: element.to_string(),
             smarts: smarts.to_string(),
