@@ -214,6 +214,15 @@ fn hammett_terms(
         return;
     };
     let _ = from;
+    // Ortho substituents (other than the ring fusion) are not modelled.
+    for &o in [ring.atoms[1], ring.atoms[5]].iter() {
+        let subs = mol
+            .neighbors(o)
+            .iter()
+            .filter(|nb| !ring.atoms.contains(&nb.atom) && mol.atoms[nb.atom].element > 1)
+            .count();
+        *var += 0.5 * 0.5 * subs as f64;
+    }
     for (pos, atom) in ring.meta.iter().map(|&a| ('m', a)).chain(ring.para.map(|a| ('p', a))) {
         for nb in mol.neighbors(atom) {
             if ring.atoms.contains(&nb.atom) {
