@@ -79,6 +79,20 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
                 && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
         })
     };
+    if a.charge > 0 && !a.aromatic {
+        let ammonio = a.element == 7
+            && mol.neighbors(s).iter().all(|nb| {
+                !mol.atoms[nb.atom].aromatic
+                    && matches!(mol.bonds[nb.bond].order, BondOrder::Single)
+                    && mol.atoms[nb.atom].element != 8
+            });
+        if ammonio {
+            return Some("onium_n");
+        }
+        if matches!(a.element, 15 | 16) {
+            return Some("onium_p");
+        }
+    }
     match a.element {
         6 => {
             if a.aromatic {

@@ -127,6 +127,8 @@ pub const SUBSTITUENT_KINDS: &[&str] = &[
     "cyano",
     "nitro",
     "sulfonyl",
+    "onium_n",
+    "onium_p",
     "ring3",
     "ring4",
 ];
