@@ -42,12 +42,13 @@ mod parse;
 mod rings;
 mod target;
 
-pub use expr::{AtomExpr, AtomPrim, BondExpr, BondPrim};
+pub use expr::{AtomExpr, AtomFilter, AtomPrim, BondExpr, BondPrim};
 pub use parse::{MAX_ATOMS, MAX_RECURSION_DEPTH};
 pub use target::Target;
 
 use crate::mol::Molecule;
 use matcher::{new_cache, query_atom_matches, search};
+use std::cell::Cell;
 use std::collections::HashSet;
 
 /// A parse error with the character position in the pattern.
@@ -82,6 +83,10 @@ pub(crate) struct QueryAtom {
     pub position: usize,
     /// Element every match must have (fast rejection), if implied.
     pub element: Option<u8>,
+    /// Simple comparisons tested first ...
+    pub filter: AtomFilter,
+    /// ... and the rest of the expression, if any.
+    pub rest: Option<AtomExpr>,
 }
 
 /// One pattern bond.
@@ -119,6 +124,9 @@ impl Query {
     pub(crate) fn finish(&mut self) {
         for a in &mut self.atoms {
             a.element = a.expr.required_element();
+            let (filter, rest) = AtomFilter::split(&a.expr);
+            a.filter = filter;
+            a.rest = rest;
         }
         self.adj = vec![Vec::new(); self.atoms.len()];
         for (i, b) in self.bonds.iter().enumerate() {
@@ -204,6 +212,9 @@ struct Screen {
     elements: Vec<(u8, u16)>,
     aromatic: usize,
     ring: bool,
+    double: usize,
+    triple: usize,
+    aromatic_bonds: usize,
 }
 
 /// A compiled SMARTS pattern.
@@ -245,8 +256,16 @@ impl Pattern {
                 screen.ring = true;
             }
         }
-        if main.bonds.iter().any(|b| b.expr.requires_ring()) {
-            screen.ring = true;
+        for b in &main.bonds {
+            if b.expr.requires_ring() {
+                screen.ring = true;
+            }
+            match b.expr.required_order() {
+                Some(BondPrim::Double) => screen.double += 1,
+                Some(BondPrim::Triple) => screen.triple += 1,
+                Some(BondPrim::Aromatic) => screen.aromatic_bonds += 1,
+                _ => {}
+            }
         }
         screen.elements = counts
             .iter()
@@ -300,19 +319,27 @@ impl Pattern {
     }
 
     /// Could the pattern match this molecule at all? Cheap checks only
-    /// (atom count, element counts, aromatic atoms, rings); `false` means
+    /// (atom count, element counts, aromatic atoms, double, triple and
+    /// aromatic bonds, rings); `false` means
     /// it certainly does not match.
     pub fn passes_screen(&self, t: &Target) -> bool {
         let s = &self.screen;
-        if t.atom_count() < s.atoms || t.aromatic_count < s.aromatic {
+        if t.atom_count() < s.atoms
+            || t.aromatic_count < s.aromatic
+            || t.double_count < s.double
+            || t.triple_count < s.triple
+            || t.aromatic_bond_count < s.aromatic_bonds
+        {
             return false;
         }
-        if s.ring && t.ring_count == 0 {
-            return false;
-        }
-        s.elements
+        if !s
+            .elements
             .iter()
             .all(|&(e, c)| t.element_count.get(e as usize).copied().unwrap_or(0) >= c)
+        {
+            return false;
+        }
+        !s.ring || t.has_ring()
     }
 
     /// Unique matches (the same set of molecule atoms counts once). Each
@@ -381,6 +408,7 @@ impl Pattern {
             t,
             &mut cache,
             None,
+            None,
             &mut |_| {
                 found = true;
                 false
@@ -419,23 +447,30 @@ impl Pattern {
         }
         let mut cache = new_cache(self);
         let anchor = self.anchor_or_first();
-        let candidates: Box<dyn Iterator<Item = usize>> =
-            match self.main.atoms.get(anchor).and_then(|a| a.element) {
-                Some(e) => Box::new(
-                    t.by_element
-                        .get(e as usize)
-                        .map(|v| v.as_slice())
-                        .unwrap_or(&[])
-                        .iter()
-                        .copied(),
-                ),
-                None => Box::new(0..t.atom_count()),
-            };
-        for a in candidates {
-            if self.anchored_one(t, a, &mut cache).is_some() {
-                out.push(a);
-            }
-        }
+        // One search from the most selective atom; each anchor atom is
+        // recorded once and never tried again.
+        let done: Vec<Cell<bool>> = vec![Cell::new(false); t.atom_count()];
+        search(
+            self,
+            &self.main,
+            &self.main.plan_free,
+            t,
+            &mut cache,
+            None,
+            Some((anchor, &done)),
+            &mut |m| {
+                if let Some(c) = m.get(anchor).and_then(|&a| done.get(a)) {
+                    c.set(true);
+                }
+                true
+            },
+        );
+        out.extend(
+            done.iter()
+                .enumerate()
+                .filter(|(_, c)| c.get())
+                .map(|(i, _)| i),
+        );
         out
     }
 
@@ -457,6 +492,7 @@ impl Pattern {
             t,
             cache,
             Some(atom),
+            None,
             &mut |m| {
                 result = Some(m.to_vec());
                 false
@@ -482,14 +518,23 @@ impl Pattern {
         } else {
             &self.main.plan_free
         };
-        search(self, &self.main, plan, t, &mut cache, anchored, &mut |m| {
-            let mut key = m.to_vec();
-            key.sort_unstable();
-            if seen.insert(key) {
-                f(m)
-            } else {
-                true
-            }
-        });
+        search(
+            self,
+            &self.main,
+            plan,
+            t,
+            &mut cache,
+            anchored,
+            None,
+            &mut |m| {
+                let mut key = m.to_vec();
+                key.sort_unstable();
+                if seen.insert(key) {
+                    f(m)
+                } else {
+                    true
+                }
+            },
+        );
     }
 }

@@ -339,6 +339,8 @@ impl<'a> Parser<'a> {
                         map,
                         position: start,
                         element: None,
+                        filter: Default::default(),
+                        rest: None,
                     });
                     if let Some(p) = prev {
                         let bond = pending
