@@ -378,3 +378,34 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CS(=O)(=O)O", "O-SULFA-01"),
     ("O", "O-WATER-01"),
 ];
+
+/// Kinetic / thermodynamic sides of unsymmetrical ketones
+/// (`corpus/sites/regio.tsv`, common practice).
+#[test]
+fn find_sites_given_regio_table_marks_each_side() {
+    let text = std::fs::read_to_string("corpus/sites/regio.tsv").expect("regio.tsv");
+    let mut cols: Vec<&str> = Vec::new();
+    let mut bad = Vec::new();
+    let mut n = 0;
+    for line in text.lines().filter(|l| !l.starts_with('#') && !l.trim().is_empty()) {
+        let cells: Vec<&str> = line.split('\t').collect();
+        if cols.is_empty() {
+            cols = cells;
+            continue;
+        }
+        let get = |c: &str| cells[cols.iter().position(|x| *x == c).expect(c)];
+        let mol = Molecule::from_smiles(get("smiles")).expect("parses");
+        let sites = find_sites(&mol).sites;
+        let atom: usize = get("site_atom").parse().expect("site_atom");
+        let got = site_for(&mol, &sites, atom).and_then(|s| s.regio).map(|r| match r {
+            acidsite::sites::Regio::Kinetic => "kinetic",
+            acidsite::sites::Regio::Thermodynamic => "thermodynamic",
+        });
+        n += 1;
+        if got != Some(get("regio")) {
+            bad.push(format!("{} {}: got {got:?}, expected {}", get("id"), get("name"), get("regio")));
+        }
+    }
+    assert!(n >= 10);
+    assert!(bad.is_empty(), "{bad:#?}");
+}

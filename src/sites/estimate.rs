@@ -228,7 +228,9 @@ fn hammett_terms(
         return;
     };
     let _ = from;
-    // Ortho substituents (other than the ring fusion) are not modelled.
+    // Ortho substituents take their para σ (electronic part only; steric
+    // and hydrogen-bond effects are not modelled and widen the
+    // uncertainty).
     for &o in [ring.atoms[1], ring.atoms[5]].iter() {
         let subs = mol
             .neighbors(o)
@@ -237,7 +239,13 @@ fn hammett_terms(
             .count();
         *var += 0.5 * 0.5 * subs as f64;
     }
-    for (pos, atom) in ring.meta.iter().map(|&a| ('m', a)).chain(ring.para.map(|a| ('p', a))) {
+    let positions = ring
+        .meta
+        .iter()
+        .map(|&a| ('m', a))
+        .chain(ring.para.map(|a| ('p', a)))
+        .chain([('o', ring.atoms[1]), ('o', ring.atoms[5])]);
+    for (pos, atom) in positions {
         for nb in mol.neighbors(atom) {
             if ring.atoms.contains(&nb.atom) {
                 continue;
@@ -247,10 +255,15 @@ fn hammett_terms(
                 *var += 0.5 * 0.5;
                 continue;
             };
+            // σp⁻ describes the exalted effect of π-acceptors in through
+            // conjugation with the anion; a donor is not exalted, so the
+            // larger (more withdrawing) of σp and σp⁻ is used.
             let s = match (pos, h.sigma) {
                 ('m', _) => Some(entry.sigma_m),
                 (_, SigmaKind::Para) => Some(entry.sigma_p),
-                (_, SigmaKind::ParaMinus) => entry.sigma_p_minus.or(Some(entry.sigma_p)),
+                (_, SigmaKind::ParaMinus) => {
+                    Some(entry.sigma_p_minus.map_or(entry.sigma_p, |m| m.max(entry.sigma_p)))
+                }
             };
             let Some(s) = s else { continue };
             if s == 0.0 {
@@ -267,9 +280,14 @@ fn hammett_terms(
             }
             let kind = match (pos, h.sigma) {
                 ('m', _) => "m",
+                ('o', SigmaKind::Para) => "o(p)",
+                ('o', SigmaKind::ParaMinus) => "o(p-)",
                 (_, SigmaKind::Para) => "p",
                 (_, SigmaKind::ParaMinus) => "p-",
             };
+            if pos == 'o' {
+                *var += (0.3 * big).powi(2);
+            }
             uses.push(RuleUse {
                 id: format!("{owner}/sigma-{kind}:{}", entry.name),
                 dmso,
