@@ -19,7 +19,11 @@ fn load() -> (String, Vec<Molecule>) {
     let (label, smiles): (String, Vec<String>) = match std::fs::read_to_string(moses) {
         Ok(t) => (
             moses.into(),
-            t.lines().skip(1).take(50_000).map(|l| l.trim().to_string()).collect(),
+            t.lines()
+                .skip(1)
+                .take(50_000)
+                .map(|l| l.trim().to_string())
+                .collect(),
         ),
         Err(_) => {
             let t = std::fs::read_to_string("corpus/mol/chembl.tsv").expect("chembl sample");
@@ -39,7 +43,10 @@ fn load() -> (String, Vec<Molecule>) {
             ("corpus/mol/chembl.tsv".into(), out)
         }
     };
-    let mols = smiles.iter().filter_map(|s| Molecule::from_smiles(s).ok()).collect();
+    let mols = smiles
+        .iter()
+        .filter_map(|s| Molecule::from_smiles(s).ok())
+        .collect();
     (label, mols)
 }
 

@@ -19,44 +19,65 @@ fn line_of(rules: &str, incs: &str, sources: &str) -> Option<(String, usize)> {
 
 #[test]
 fn parse_rule_set_given_bad_number_reports_file_and_line() {
-    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\ttwenty\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    let rules =
+        with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\ttwenty\t\t1.0\t\t\t\tfrom-memory\t");
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_unknown_citation_key_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tnobody1999\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_missing_cell_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_no_value_on_either_scale_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_rho_without_sigma_kind_reports_line() {
-    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t3.5\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    let rules =
+        with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t3.5\t\t\tfrom-memory\t");
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_missing_version_header_fails() {
     let rules = "id\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
-    assert_eq!(line_of(rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 0)));
+    assert_eq!(
+        line_of(rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 0))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_bad_increment_kind_reports_increment_file() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
-    let incs = format!("{INC_HEADER}I-1\tmethylene\tcarbonyl\t1\t0.5\t\t0.5\t\t\t\tfrom-memory\t\n");
+    let incs =
+        format!("{INC_HEADER}I-1\tmethylene\tcarbonyl\t1\t0.5\t\t0.5\t\t\t\tfrom-memory\t\n");
     // The pattern is compiled only after the cheap checks of its row, so the
     // increment file is reached only when SMARTS parsing works.
     let got = line_of(&rules, &incs, SOURCES);
@@ -70,7 +91,10 @@ fn parse_rule_set_given_bad_increment_kind_reports_increment_file() {
 fn parse_rule_set_given_duplicate_source_key_reports_sources_line() {
     let sources = "key\treference\nfrom-memory\tx\nfrom-memory\ty\n";
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, sources), Some(("s.tsv".into(), 3)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, sources),
+        Some(("s.tsv".into(), 3))
+    );
 }
 
 #[test]

@@ -130,7 +130,9 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
             Some(if ewg { "alkyl_ewg" } else { "alkyl" })
         }
         7 => {
-            let o = others().filter(|nb| mol.atoms[nb.atom].element == 8).count();
+            let o = others()
+                .filter(|nb| mol.atoms[nb.atom].element == 8)
+                .count();
             if o >= 2 {
                 Some("nitro")
             } else if !has_multiple_bond(mol, s) && a.charge == 0 {
@@ -143,9 +145,7 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
             let other = others().next().map(|nb| nb.atom);
             match other {
                 Some(o) if mol.atoms[o].aromatic => Some("aryloxy"),
-                Some(o) if double_to_any(mol, o, 8) && mol.atoms[o].element == 6 => {
-                    Some("acyloxy")
-                }
+                Some(o) if double_to_any(mol, o, 8) && mol.atoms[o].element == 6 => Some("acyloxy"),
                 _ if a.charge == 0 => Some("alkoxy"),
                 _ => None,
             }
@@ -217,7 +217,6 @@ fn add(total: &mut Option<f64>, part: Option<f64>) {
 fn hammett_terms(
     mol: &Molecule,
     ipso: usize,
-    from: usize,
     h: &Hammett,
     owner: &str,
     sigma: &SigmaTable,
@@ -227,7 +226,6 @@ fn hammett_terms(
     let Some(ring) = ring_positions(mol, ipso) else {
         return;
     };
-    let _ = from;
     // Ortho substituents take their para σ (electronic part only; steric
     // and hydrogen-bond effects are not modelled and widen the
     // uncertainty).
@@ -261,9 +259,11 @@ fn hammett_terms(
             let s = match (pos, h.sigma) {
                 ('m', _) => Some(entry.sigma_m),
                 (_, SigmaKind::Para) => Some(entry.sigma_p),
-                (_, SigmaKind::ParaMinus) => {
-                    Some(entry.sigma_p_minus.map_or(entry.sigma_p, |m| m.max(entry.sigma_p)))
-                }
+                (_, SigmaKind::ParaMinus) => Some(
+                    entry
+                        .sigma_p_minus
+                        .map_or(entry.sigma_p, |m| m.max(entry.sigma_p)),
+                ),
             };
             let Some(s) = s else { continue };
             if s == 0.0 {
@@ -320,7 +320,7 @@ fn estimate_atom(
     // (pattern order) is the ipso atom of the ring conjugated with the site.
     if let Some(h) = &rule.hammett {
         if let Some(&ipso) = matched.iter().find(|&&a| mol.atoms[a].aromatic && a != i) {
-            hammett_terms(mol, ipso, i, h, &rule.id, sigma, &mut uses, &mut var);
+            hammett_terms(mol, ipso, h, &rule.id, sigma, &mut uses, &mut var);
         }
     }
     if rule.element == "C" && rule.family != "none" {
@@ -377,7 +377,7 @@ fn estimate_atom(
                     });
                     var += inc.uncertainty * inc.uncertainty;
                     if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
-                        hammett_terms(mol, atom, i, h, &inc.id, sigma, &mut uses, &mut var);
+                        hammett_terms(mol, atom, h, &inc.id, sigma, &mut uses, &mut var);
                     }
                 }
                 None => var += 1.5 * 1.5,
@@ -459,7 +459,10 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
                 (y, x)
             }
         } else {
-            let (kx, ky) = (rank_key(&sites[x], Scale::Dmso), rank_key(&sites[y], Scale::Dmso));
+            let (kx, ky) = (
+                rank_key(&sites[x], Scale::Dmso),
+                rank_key(&sites[y], Scale::Dmso),
+            );
             if (kx - ky).abs() < 0.05 {
                 continue;
             }

@@ -57,7 +57,10 @@ pub use rules::{
 };
 
 /// Embedded rule files: (file name, text).
-const RULES: (&str, &str) = ("fragments/rules.tsv", include_str!("../../fragments/rules.tsv"));
+const RULES: (&str, &str) = (
+    "fragments/rules.tsv",
+    include_str!("../../fragments/rules.tsv"),
+);
 const INCREMENTS: (&str, &str) = (
     "fragments/increments.tsv",
     include_str!("../../fragments/increments.tsv"),
@@ -66,7 +69,10 @@ const SOURCES: (&str, &str) = (
     "fragments/sources.tsv",
     include_str!("../../fragments/sources.tsv"),
 );
-const SIGMA: (&str, &str) = ("fragments/sigma.tsv", include_str!("../../fragments/sigma.tsv"));
+const SIGMA: (&str, &str) = (
+    "fragments/sigma.tsv",
+    include_str!("../../fragments/sigma.tsv"),
+);
 
 struct Loaded {
     rules: RuleSet,

@@ -249,7 +249,10 @@ fn number(t: &Table, row: &Row, name: &str) -> Result<Option<f64>, RuleError> {
     }
     match v.parse::<f64>() {
         Ok(x) if x.is_finite() && x.abs() <= 100.0 => Ok(Some(x)),
-        _ => Err(t.error(row.line, format!("`{name}`: `{v}` is not a number in -100..100"))),
+        _ => Err(t.error(
+            row.line,
+            format!("`{name}`: `{v}` is not a number in -100..100"),
+        )),
     }
 }
 
@@ -438,8 +441,8 @@ pub fn parse_rules(
         let source = required(&t, row, "source")?;
         check_source(&t, row, source, sources)?;
         let note = cell(&t, row, "note")?;
-        let pattern = Pattern::parse(smarts)
-            .map_err(|e| t.error(row.line, format!("rule {id}: {e}")))?;
+        let pattern =
+            Pattern::parse(smarts).map_err(|e| t.error(row.line, format!("rule {id}: {e}")))?;
         if pattern.anchor().is_none() {
             return Err(t.error(
                 row.line,
@@ -500,7 +503,10 @@ pub fn parse_increments(
         let dmso = number(&t, row, "pka_dmso")?;
         let water = number(&t, row, "pka_water")?;
         if dmso.is_none() && water.is_none() {
-            return Err(t.error(row.line, format!("increment {id}: no value on either scale")));
+            return Err(t.error(
+                row.line,
+                format!("increment {id}: no value on either scale"),
+            ));
         }
         let uncertainty = uncertainty(&t, row)?;
         let hammett = hammett(&t, row)?;
@@ -563,7 +569,10 @@ mod tests {
         let m = unbracketed_elements("[CH2:1]C(=O)c1ccccc1Cl");
         assert_eq!(m, (1 << 6) | (1 << 8) | (1 << 17));
         assert_eq!(unbracketed_elements("[N,O:1]"), 0);
-        assert_eq!(unbracketed_elements("[#6:1]S(=O)(=O)Br"), (1 << 16) | (1 << 8) | (1 << 35));
+        assert_eq!(
+            unbracketed_elements("[#6:1]S(=O)(=O)Br"),
+            (1 << 16) | (1 << 8) | (1 << 35)
+        );
     }
 
     #[test]
