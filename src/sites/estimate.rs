@@ -478,8 +478,93 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
 }
 
 /// Run the rule set over the molecule's main component.
+/// Is this counter-ion component a neutral acid that would protonate an
+/// amine (hydrogen halide; sulfonic, sulfuric, phosphoric or carboxylic
+/// acid written as a separate neutral component)?
+fn is_acid_component(mol: &Molecule, comp: &[usize]) -> bool {
+    if comp.iter().any(|&i| mol.atoms[i].charge != 0) {
+        return false;
+    }
+    if let [x] = comp {
+        let a = &mol.atoms[*x];
+        return matches!(a.element, 17 | 35 | 53) && a.hydrogens == 1;
+    }
+    comp.iter().any(|&i| {
+        let a = &mol.atoms[i];
+        a.element == 8
+            && a.hydrogens == 1
+            && mol.neighbors(i).len() == 1
+            && mol.neighbors(i).iter().any(|nb| {
+                matches!(mol.atoms[nb.atom].element, 6 | 15 | 16) && double_to_any(mol, nb.atom, 8)
+            })
+    })
+}
+
+/// Basicity rank of a neutral nitrogen (lower = more basic): 0 for an
+/// alkylamine, 1 for an azine / azole nitrogen without hydrogen; None for
+/// amides, anilines, nitriles and the like.
+fn base_rank(mol: &Molecule, i: usize) -> Option<u8> {
+    let a = &mol.atoms[i];
+    if a.element != 7 || a.charge != 0 {
+        return None;
+    }
+    if a.aromatic {
+        return (a.hydrogens == 0 && mol.neighbors(i).len() == 2).then_some(1);
+    }
+    let alkyl = !has_multiple_bond(mol, i)
+        && mol.neighbors(i).iter().all(|nb| {
+            let b = &mol.atoms[nb.atom];
+            b.element == 6 && !b.aromatic && !has_multiple_bond(mol, nb.atom)
+        });
+    alkyl.then_some(0)
+}
+
+/// A salt written with the neutral acid as its own component
+/// (`CCN(CC)CC.Cl`): the copy of the molecule with the most basic
+/// nitrogen(s) of the main component protonated, one per acid component.
+fn protonated_salt(mol: &Molecule, main: &[usize]) -> Option<Molecule> {
+    let acids = mol
+        .counter_ions()
+        .iter()
+        .filter(|c| is_acid_component(mol, c))
+        .count();
+    if acids == 0 || main.iter().any(|&i| mol.atoms[i].charge > 0) {
+        return None;
+    }
+    let mut bases: Vec<(u8, usize)> = main
+        .iter()
+        .filter_map(|&i| base_rank(mol, i).map(|r| (r, i)))
+        .collect();
+    if bases.is_empty() {
+        return None;
+    }
+    bases.sort_unstable();
+    let mut out = mol.clone();
+    for &(_, i) in bases.iter().take(acids) {
+        let a = &mut out.atoms[i];
+        a.charge = 1;
+        a.hydrogens = a.hydrogens.saturating_add(1);
+    }
+    Some(out)
+}
+
+/// Run the rule set over the molecule's main component. A salt written as
+/// amine plus neutral acid is read as the ammonium salt.
 pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Options) -> SiteReport {
     let atoms = mol.main_component_atoms();
+    if let Some(salt) = protonated_salt(mol, &atoms) {
+        return run_on(&salt, atoms, set, sigma, opts);
+    }
+    run_on(mol, atoms, set, sigma, opts)
+}
+
+fn run_on(
+    mol: &Molecule,
+    atoms: Vec<usize>,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    opts: &Options,
+) -> SiteReport {
     let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();

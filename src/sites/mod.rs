@@ -179,7 +179,11 @@ pub struct SiteReport {
 /// Find and rank every acidic site of the molecule's main component
 /// (largest connected component: the cation of an ammonium salt, the
 /// organic acid of a sodium salt), ranked on the DMSO scale (water where a
-/// site has no DMSO estimate).
+/// site has no DMSO estimate). A salt written as amine plus a neutral acid
+/// component (`CCN(CC)CC.Cl`, a fumarate written as the free acid) is read
+/// as the ammonium salt: the most basic nitrogen(s) of the main component
+/// (alkylamine before azine), one per acid component, are protonated
+/// before the sites are found; atom indices are unchanged.
 ///
 /// Returns an empty report only if the embedded rule data failed
 /// validation, which [`rule_set`] reports (and the test suite forbids).
