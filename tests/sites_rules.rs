@@ -122,3 +122,38 @@ fn rule_set_given_embedded_files_is_valid() {
     let sigma = acidsite::sites::sigma_table().expect("sigma table is valid");
     assert!(sigma.entries.len() >= 20);
 }
+
+#[test]
+fn sigma_table_parse_given_bad_value_reports_line() {
+    use acidsite::sites::SigmaTable;
+    let text = "# c\nid\tsubstituent_smiles\tname\tsigma_meta\tsigma_para\tsigma_para_minus\tsource\ns-x\t[*]Cl\tchloro\tlots\t0.23\t\tfrom-memory\n";
+    let e = SigmaTable::parse("sigma.tsv", text).expect_err("bad value");
+    assert_eq!((e.file.as_str(), e.line), ("sigma.tsv", 3));
+    let text = "id\tsubstituent_smiles\tname\tsigma_meta\tsigma_para\tsigma_para_minus\tsource\ns-x\tCl\tchloro\t0.37\t0.23\t\tfrom-memory\n";
+    let e = SigmaTable::parse("sigma.tsv", text).expect_err("no attachment point");
+    assert_eq!(e.line, 2);
+}
+
+#[test]
+fn sigma_table_lookup_given_para_nitro_finds_nitro() {
+    // fragments/sigma.tsv: nitro sigma_para 0.78 (Hansch, Leo & Taft 1991).
+    let sigma = acidsite::sites::sigma_table().expect("valid");
+    let nitro = sigma
+        .entries
+        .iter()
+        .find(|e| e.name == "nitro")
+        .expect("nitro row");
+    assert!((nitro.sigma_p - 0.78).abs() < 1e-9);
+    let mol = acidsite::mol::Molecule::from_smiles("Oc1ccc([N+](=O)[O-])cc1").expect("parses");
+    let r = acidsite::sites::find_sites(&mol);
+    let oh = r
+        .sites
+        .iter()
+        .find(|s| s.atoms == vec![0])
+        .expect("phenol O-H");
+    assert!(
+        oh.rules.iter().any(|u| u.id.ends_with("sigma-p-:nitro")),
+        "{:?}",
+        oh.rules
+    );
+}

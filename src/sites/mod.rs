@@ -31,7 +31,10 @@
 //!    widen the uncertainty. Without a ρ on one scale that scale gets no
 //!    term and a wider uncertainty.
 //!
-//! Each contribution is a [`RuleUse`]; the estimate is their sum. A scale
+//! Each contribution is a [`RuleUse`]; the estimate is their sum. Class
+//! rules and increments appear under their ids (`C-KETON-01`,
+//! `I-CO-ALK1`); a Hammett term appears as
+//! `<rule id>/sigma-<m|p|p-|o(p)|o(p-)>:<substituent name>`. A scale
 //! gets no estimate (None) when the class rule or any increment has no
 //! value on it: water values are never made up from DMSO values. The
 //! uncertainty is the root sum of squares of the row uncertainties.
