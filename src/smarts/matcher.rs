@@ -11,12 +11,30 @@ use super::{Pattern, Query, Step};
 use crate::mol::BondOrder;
 use std::cell::Cell;
 
-/// Per-call cache of recursive-primitive results: `cache[id][atom]` is 0
-/// (unknown), 1 (matches) or 2 (does not).
-pub(crate) type RecCache = Vec<Vec<u8>>;
+/// Per-call state: the cache of recursive-primitive results
+/// (`rec[id][atom]` is 0 unknown, 1 matches, 2 does not) and the search
+/// budget (candidate atoms tried).
+pub(crate) struct RecCache {
+    rec: Vec<Vec<u8>>,
+    steps_left: u64,
+    pub exhausted: bool,
+}
 
-pub(crate) fn new_cache(pat: &Pattern) -> RecCache {
-    vec![Vec::new(); pat.recursive.len()]
+impl RecCache {
+    fn get(&self, id: usize) -> Option<&Vec<u8>> {
+        self.rec.get(id)
+    }
+    fn get_mut(&mut self, id: usize) -> Option<&mut Vec<u8>> {
+        self.rec.get_mut(id)
+    }
+}
+
+pub(crate) fn new_cache(pat: &Pattern, max_steps: u64) -> RecCache {
+    RecCache {
+        rec: vec![Vec::new(); pat.recursive.len()],
+        steps_left: max_steps,
+        exhausted: false,
+    }
 }
 
 /// Does molecule atom `a` satisfy `expr`?
@@ -89,6 +107,9 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
         found = true;
         false
     });
+    if cache.exhausted {
+        return false;
+    }
     if let Some(slot) = cache.get_mut(id) {
         if slot.len() != t.atoms.len() {
             *slot = vec![0; t.atoms.len()];
@@ -160,6 +181,7 @@ pub(crate) fn query_atom_matches(
 /// (pattern atom -> molecule atom) and returns whether to continue. With
 /// `skip = (p, done)`, pattern atom `p` is never placed on an atom marked
 /// done (used to find each anchor atom once).
+#[allow(clippy::too_many_arguments)] // internal; each argument is a distinct role
 pub(crate) fn search(
     pat: &Pattern,
     q: &Query,
@@ -244,6 +266,13 @@ pub(crate) fn search(
                 },
             };
             let Some(a) = cand else { break };
+            if cache.steps_left == 0 {
+                cache.exhausted = true;
+            }
+            if cache.exhausted {
+                return;
+            }
+            cache.steps_left -= 1;
             if chosen[..d].contains(&a) {
                 continue;
             }

@@ -74,6 +74,25 @@ impl std::fmt::Display for PatternError {
 
 impl std::error::Error for PatternError {}
 
+/// A bounded search ran out of steps before finishing.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct LimitReached {
+    /// The step budget that was exhausted.
+    pub max_steps: u64,
+}
+
+impl std::fmt::Display for LimitReached {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "substructure search stopped after {} steps (pattern too general for this molecule)",
+            self.max_steps
+        )
+    }
+}
+
+impl std::error::Error for LimitReached {}
+
 /// One pattern atom.
 #[derive(Debug, Clone)]
 pub(crate) struct QueryAtom {
@@ -303,6 +322,13 @@ impl Pattern {
         self.main.bonds.len()
     }
 
+    /// The pattern bonds as pairs of pattern atom indices (not counting
+    /// recursive parts), in the order written (ring closures at the
+    /// closing digit).
+    pub fn bond_atoms(&self) -> Vec<[usize; 2]> {
+        self.main.bonds.iter().map(|b| b.atoms).collect()
+    }
+
     /// Atom-map label of pattern atom `i`, if it has one.
     pub fn map_label(&self, i: usize) -> Option<u16> {
         self.main.atoms.get(i).and_then(|a| a.map)
@@ -377,7 +403,7 @@ impl Pattern {
     /// [`Pattern::unique_matches`] on a prepared molecule.
     pub fn unique_matches_in(&self, t: &Target) -> Vec<Vec<usize>> {
         let mut out = Vec::new();
-        self.each_unique(t, None, &mut |m| {
+        self.each_unique(t, None, u64::MAX, &mut |m| {
             out.push(m.to_vec());
             true
         });
@@ -387,11 +413,29 @@ impl Pattern {
     /// [`Pattern::count_unique`] on a prepared molecule.
     pub fn count_unique_in(&self, t: &Target) -> usize {
         let mut n = 0;
-        self.each_unique(t, None, &mut |_| {
+        self.each_unique(t, None, u64::MAX, &mut |_| {
             n += 1;
             true
         });
         n
+    }
+
+    /// [`Pattern::count_unique_in`] that gives up after trying `max_steps`
+    /// candidate atoms (recursive parts included), for patterns from
+    /// untrusted input: a pattern such as `*~*~*~*~*~*~*~*` has very many
+    /// matches in a large molecule. About 10^7 steps take well under a
+    /// second.
+    pub fn count_unique_limited(&self, t: &Target, max_steps: u64) -> Result<usize, LimitReached> {
+        let mut n = 0;
+        let complete = self.each_unique(t, None, max_steps, &mut |_| {
+            n += 1;
+            true
+        });
+        if complete {
+            Ok(n)
+        } else {
+            Err(LimitReached { max_steps })
+        }
     }
 
     /// [`Pattern::is_match`] on a prepared molecule.
@@ -399,7 +443,7 @@ impl Pattern {
         if !self.passes_screen(t) {
             return false;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, u64::MAX);
         let mut found = false;
         search(
             self,
@@ -422,7 +466,7 @@ impl Pattern {
         if atom >= t.atom_count() || !self.passes_screen(t) {
             return None;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, u64::MAX);
         self.anchored_one(t, atom, &mut cache)
     }
 
@@ -432,7 +476,7 @@ impl Pattern {
         if atom >= t.atom_count() {
             return out;
         }
-        self.each_unique(t, Some(atom), &mut |m| {
+        self.each_unique(t, Some(atom), u64::MAX, &mut |m| {
             out.push(m.to_vec());
             true
         });
@@ -441,11 +485,21 @@ impl Pattern {
 
     /// [`Pattern::anchored_atoms`] on a prepared molecule.
     pub fn anchored_atoms_in(&self, t: &Target) -> Vec<usize> {
+        self.anchored_atoms_limited(t, u64::MAX).unwrap_or_default()
+    }
+
+    /// [`Pattern::anchored_atoms_in`] that gives up after trying
+    /// `max_steps` candidate atoms (see [`Pattern::count_unique_limited`]).
+    pub fn anchored_atoms_limited(
+        &self,
+        t: &Target,
+        max_steps: u64,
+    ) -> Result<Vec<usize>, LimitReached> {
         let mut out = Vec::new();
         if !self.passes_screen(t) {
-            return out;
+            return Ok(out);
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, max_steps);
         let anchor = self.anchor_or_first();
         // One search from the most selective atom; each anchor atom is
         // recorded once and never tried again.
@@ -465,13 +519,16 @@ impl Pattern {
                 true
             },
         );
+        if cache.exhausted {
+            return Err(LimitReached { max_steps });
+        }
         out.extend(
             done.iter()
                 .enumerate()
                 .filter(|(_, c)| c.get())
                 .map(|(i, _)| i),
         );
-        out
+        Ok(out)
     }
 
     fn anchored_one(
@@ -502,16 +559,18 @@ impl Pattern {
     }
 
     /// Visit each unique match (optionally with the anchor fixed).
+    /// Returns false if the search budget ran out first.
     fn each_unique(
         &self,
         t: &Target,
         anchored: Option<usize>,
+        max_steps: u64,
         f: &mut dyn FnMut(&[usize]) -> bool,
-    ) {
+    ) -> bool {
         if !self.passes_screen(t) {
-            return;
+            return true;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, max_steps);
         let mut seen: HashSet<Vec<usize>> = HashSet::new();
         let plan = if anchored.is_some() {
             &self.main.plan_anchor
@@ -536,5 +595,6 @@ impl Pattern {
                 }
             },
         );
+        !cache.exhausted
     }
 }
