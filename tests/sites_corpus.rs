@@ -355,6 +355,7 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CC(=O)COC(C)=O", "I-CO-OAC"),
     ("CC(=O)CC=C", "I-CO-VIN1"),
     ("CC(C#N)C#N", "I-MN-ALK1"),
+    ("CC=CC(C)=O", "C-VINCO-01"),
     ("CC(=O)C1CC1", "I-CO-R3"),
     ("CC(=O)C1CCC1", "I-CO-R4"),
     ("O=CCS(=O)(=O)c1ccccc1", "I-CO-SO2"),
