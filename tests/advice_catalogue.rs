@@ -3,13 +3,13 @@
 
 use acidsite::advice::{catalogue, Catalogue, Hazard, Nucleophilicity, Scale};
 
-const SOURCES: &str = "key\treference\nfrom-memory\tx\nbordwell-1988\ty\n";
+const SOURCES: &str = "key\treference\nfrom-memory\tx\nbordwell1988\ty\n";
 
 fn header() -> String {
     "# version: 9\nname\tfull_name\tfamily\tconjugate_acid\tpka_dmso\tsrc_dmso\tpka_water\tsrc_water\tpka_thf\tsrc_thf\tcounter_ion\tnucleophilic\thindered\tsolvents\ttemp_min_c\ttemp_max_c\tacid_solvent\thazards\tnotes\n".to_string()
 }
 
-const GOOD_ROW: &str = "NaOEt\tsodium ethoxide\talkoxide\tCCO\t29.8\tbordwell-1988\t15.9\tfrom-memory\t-\t-\tNa\tweak\tno\tEtOH\t0\t78\tEtOH@17.1\tcorrosive\t-";
+const GOOD_ROW: &str = "NaOEt\tsodium ethoxide\talkoxide\tCCO\t29.8\tbordwell1988\t15.9\tfrom-memory\t-\t-\tNa\tweak\tno\tEtOH\t0\t78\tEtOH@17.1\tcorrosive\t-";
 
 #[test]
 fn catalogue_given_embedded_file_loads_at_least_25_bases() {
@@ -103,7 +103,7 @@ fn parse_given_bad_number_reports_file_line_and_column() {
 
 #[test]
 fn parse_given_unknown_source_key_is_an_error() {
-    let text = header() + &GOOD_ROW.replace("bordwell-1988", "nobody-2020") + "\n";
+    let text = header() + &GOOD_ROW.replace("bordwell1988", "nobody-2020") + "\n";
     let e = Catalogue::parse(&text, "t.tsv", SOURCES).unwrap_err();
     assert_eq!(e.column.as_deref(), Some("src_dmso"));
 }
