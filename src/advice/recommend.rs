@@ -19,6 +19,12 @@ pub const MIN_CONVERSION: f64 = 0.99;
 /// In its own protic solvent (NaOEt in EtOH) the anion must at least be the
 /// major species at equilibrium; the electrophile pulls the rest over.
 pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
+/// Extra uncertainty (pKa units) when a base's THF value is compared with
+/// DMSO values of the sites.
+pub const MIXED_SCALE_UNCERTAINTY: f64 = 2.0;
+/// A base that reaches [`MIN_CONVERSION`] only within the uncertainty of the
+/// estimates must still reach this at the central values (accepted as marginal).
+pub const MIN_MARGINAL_CONVERSION: f64 = 0.5;
 /// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
 pub const MIN_CATALYTIC_FRACTION: f64 = 1e-6;
 /// Catalytic amount of base, equivalents (on top of counted protons).
@@ -342,6 +348,7 @@ struct Eval<'a> {
     reasons: Vec<(RejectKind, String)>,
     notes: Vec<String>,
     score: f64,
+    marginal: bool,
 }
 
 struct Ctx<'a> {
@@ -473,6 +480,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         reasons: Vec::new(),
         notes: Vec::new(),
         score: 0.0,
+        marginal: false,
     };
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
@@ -561,7 +569,29 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
-            let weak_crit = crit_conv < MIN_CONVERSION;
+            let mut weak_crit = crit_conv < MIN_CONVERSION;
+            if weak_crit {
+                // Within the combined uncertainty of the target estimate and
+                // (for a THF value against DMSO values) the scale mismatch?
+                let mixed = scale == Scale::Dmso && base.pka(Scale::Dmso).is_none();
+                let sigma = (t.uncertainty.max(0.0).powi(2)
+                    + if mixed { MIXED_SCALE_UNCERTAINTY.powi(2) } else { 0.0 })
+                .sqrt();
+                let mut n_opt = Vec::new();
+                let optimistic = solve_with(ctx, base_pka + sigma, scale, ev.equivalents, 0.0, &mut n_opt)
+                    .map(|e| target_conversion(ctx, &e))
+                    .unwrap_or(0.0);
+                if sigma > 0.0 && optimistic >= MIN_CONVERSION && crit_conv >= MIN_MARGINAL_CONVERSION {
+                    weak_crit = false;
+                    ev.marginal = true;
+                    ev.notes.push(format!(
+                        "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
+                        100.0 * crit_conv,
+                        100.0 * optimistic,
+                        if mixed { ", including the THF/DMSO scale mismatch" } else { "" }
+                    ));
+                }
+            }
             let weak_solvent =
                 protic_solvent.is_some() && ev.conversion < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
@@ -654,6 +684,9 @@ fn side_reaction_checks(
             if f.amide && attacks_all {
                 groups.push("amide");
             }
+            if f.carboxylic_acid && fam == BaseFamily::Alkyllithium {
+                groups.push("carboxylate (ketone formation)");
+            }
             if f.acyl_halide {
                 groups.push("acyl halide");
             }
@@ -727,9 +760,14 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
     let mut s = 0.0;
+    if ev.marginal {
+        s += 2.5;
+    }
     // Stronger than needed invites side reactions; keep a sensible margin.
     s += 0.1 * (margin - 8.0).max(0.0);
-    s += 0.2 * (3.0 - margin).max(0.0);
+    if ctx.opts.purpose == Purpose::Stoichiometric {
+        s += 0.2 * (3.0 - margin).max(0.0);
+    }
     if b.has_hazard(Hazard::Pyrophoric) {
         s += 3.0;
     }
