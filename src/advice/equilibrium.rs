@@ -350,7 +350,12 @@ pub(crate) fn choose_scale(
     let same = |sc: Scale, p: f64, why: &str| ScaleChoice {
         site_scale: sc,
         base_pka: p,
-        note: format!("{} scale{why} ({} conjugate acid pKa {p}, {})", sc.name(), base.name, src(sc)),
+        note: format!(
+            "{} scale{why} ({} conjugate acid pKa {p}, {})",
+            sc.name(),
+            base.name,
+            src(sc)
+        ),
         mismatch: 0.0,
     };
     if let Some(f) = forced {
@@ -360,7 +365,11 @@ pub(crate) fn choose_scale(
     }
     if protic {
         if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {
-            return Some(same(Scale::Water, p, ", the nearer guide in a protic solvent"));
+            return Some(same(
+                Scale::Water,
+                p,
+                ", the nearer guide in a protic solvent",
+            ));
         }
     }
     for sc in [Scale::Dmso, Scale::Water] {

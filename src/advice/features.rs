@@ -10,9 +10,9 @@
 use super::catalogue::Scale;
 use super::equilibrium::{AcidUnit, Microsite};
 use crate::mol::{BondOrder, Molecule};
+use crate::sites::SiteReport;
 use crate::smarts::{Pattern, Target as SmartsTarget};
 use std::sync::OnceLock;
-use crate::sites::SiteReport;
 
 /// Facts about the molecule as a whole and about each site.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -166,7 +166,10 @@ const BETA_LG_PATTERNS: [(&str, &str); 9] = [
     ("iodide", "[#6:1]-[CX4]-I"),
     ("sulfonate", "[#6:1]-[CX4]-[OX2]-[SX4](=O)=O"),
     ("acyloxy", "[#6:1]-[CX4]-[OX2]-[CX3]=O"),
-    ("alkoxy/hydroxy", "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]"),
+    (
+        "alkoxy/hydroxy",
+        "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]",
+    ),
     ("ammonium", "[#6:1]-[CX4]-[NX4+]"),
     ("sulfonyl", "[#6:1]-[CX4]-[SX4](=O)(=O)[#6]"),
 ];
@@ -271,8 +274,11 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
                     sf.dicarbonyl = true;
                 }
                 if g.h(t) == 1 && g.is_sp3_carbon(t) && g.nbrs(t).len() == 3 {
-                    let mut sigs: Vec<String> =
-                        g.nbrs(t).iter().map(|&(j, _)| g.signature(j, t, 4)).collect();
+                    let mut sigs: Vec<String> = g
+                        .nbrs(t)
+                        .iter()
+                        .map(|&(j, _)| g.signature(j, t, 4))
+                        .collect();
                     sigs.sort();
                     sigs.dedup();
                     if sigs.len() == 3 {

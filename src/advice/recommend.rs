@@ -536,7 +536,13 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 scale.name()
             ));
         }
-        if let Some(ScaleChoice { site_scale: sc2, base_pka: bp2, note: note2, .. }) = in_solvent {
+        if let Some(ScaleChoice {
+            site_scale: sc2,
+            base_pka: bp2,
+            note: note2,
+            ..
+        }) = in_solvent
+        {
             {
                 let mut n2 = Vec::new();
                 if let Some(mut e2) = solve_with(ctx, bp2, sc2, ev.equivalents, p.molar, &mut n2) {
@@ -590,10 +596,20 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
                 let mixed = mismatch > 0.0;
                 let mut n_opt = Vec::new();
-                let optimistic = solve_with(ctx, base_pka + sigma, scale, ev.equivalents, 0.0, &mut n_opt)
-                    .map(|e| target_conversion(ctx, &e))
-                    .unwrap_or(0.0);
-                if sigma > 0.0 && optimistic >= MIN_CONVERSION && crit_conv >= MIN_MARGINAL_CONVERSION {
+                let optimistic = solve_with(
+                    ctx,
+                    base_pka + sigma,
+                    scale,
+                    ev.equivalents,
+                    0.0,
+                    &mut n_opt,
+                )
+                .map(|e| target_conversion(ctx, &e))
+                .unwrap_or(0.0);
+                if sigma > 0.0
+                    && optimistic >= MIN_CONVERSION
+                    && crit_conv >= MIN_MARGINAL_CONVERSION
+                {
                     weak_crit = false;
                     ev.marginal = true;
                     ev.notes.push(format!(
@@ -846,7 +862,11 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
         // Amines and amidines are the usual catalytic bases; pyridines are
         // acyl-transfer catalysts and weak Brønsted bases.
-        s -= if b.family == BaseFamily::Pyridine { -0.5 } else { 1.0 };
+        s -= if b.family == BaseFamily::Pyridine {
+            -0.5
+        } else {
+            1.0
+        };
     }
     s
 }
