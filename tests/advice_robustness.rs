@@ -151,3 +151,65 @@ proptest! {
         }
     }
 }
+
+/// Throughput of the recommender (benchmark, not a timed test):
+/// `cargo test --release --test advice_robustness -- --ignored --nocapture`.
+#[test]
+#[ignore]
+fn advise_throughput_benchmark() {
+    let list = [
+        "CC1CCCCC1=O",
+        "CCOC(=O)CC(=O)OCC",
+        "CC(=O)CCCO",
+        "N#CCc1ccccc1",
+        "CC(=O)N(C)C",
+        "CCOC(=O)CC(C)=O",
+        "CC(=O)CCNC(=O)OC(C)(C)C",
+        "COC(=O)C(C)c1ccccc1",
+    ];
+    let prepared: Vec<_> = list
+        .iter()
+        .map(|s| {
+            let m = Molecule::from_smiles(s).unwrap();
+            let r = find_sites(&m);
+            (m, r)
+        })
+        .collect();
+    let n = 2000;
+    let start = std::time::Instant::now();
+    for i in 0..n {
+        let (m, r) = &prepared[i % prepared.len()];
+        let a = advise(m, r, &AdviceOptions::default()).unwrap();
+        assert!(a.base.is_some());
+    }
+    let dt = start.elapsed().as_secs_f64();
+    println!(
+        "advise: {n} calls in {dt:.3} s = {:.0} per second",
+        n as f64 / dt
+    );
+}
+
+/// Split of the recommender's time (benchmark).
+#[test]
+#[ignore]
+fn advise_features_share_benchmark() {
+    let m = Molecule::from_smiles("CC(=O)CCNC(=O)OC(C)(C)C").unwrap();
+    let r = find_sites(&m);
+    let n = 2000;
+    let t0 = std::time::Instant::now();
+    for _ in 0..n {
+        let _ = detect_features(&m, &r);
+    }
+    let t1 = t0.elapsed().as_secs_f64();
+    let f = detect_features(&m, &r);
+    let t0 = std::time::Instant::now();
+    for _ in 0..n {
+        let _ = advise_with_features(&f, &r, &AdviceOptions::default());
+    }
+    let t2 = t0.elapsed().as_secs_f64();
+    println!(
+        "features {:.1} us, recommend {:.1} us",
+        1e6 * t1 / n as f64,
+        1e6 * t2 / n as f64
+    );
+}
