@@ -423,3 +423,18 @@ fn advise_given_bad_options_returns_typed_errors() {
     let none = find_sites(&methane);
     assert!(advise(&methane, &none, &AdviceOptions::default()).is_err());
 }
+
+#[test]
+fn advise_given_two_similar_ketones_rejects_bases_for_an_uncounted_competitor() {
+    // Common practice: two ketones of similar acidity cannot be enolised
+    // selectively by choice of base.
+    let a = plan("CC(=O)CCCCCCC(=O)CC");
+    assert!(a.base.is_none());
+    assert_rejected(&a, "LDA", RejectKind::UncountedProton);
+    let w = a
+        .warnings
+        .iter()
+        .find(|w| w.kind == WarningKind::NoBase)
+        .unwrap();
+    assert!(w.message.contains("competes"));
+}
