@@ -150,3 +150,22 @@ fn parse_given_missing_version_or_header_is_an_error() {
         2
     );
 }
+
+#[test]
+fn catalogue_given_iupac_water_values_agrees_with_the_corpus_subset() {
+    // corpus/advice/base_water_iupac.tsv: medians of the IUPAC Digitized pKa
+    // Dataset v1.0 rows at 25 C (Perrin; Serjeant & Dempsey).
+    let text = include_str!("../corpus/advice/base_water_iupac.tsv");
+    let cat = catalogue().unwrap();
+    let mut checked = 0;
+    for line in text.lines().filter(|l| !l.starts_with('#')).skip(1) {
+        let cells: Vec<&str> = line.split('\t').collect();
+        let (name, median): (&str, f64) = (cells[0], cells[1].parse().unwrap());
+        let base = cat.get(name).unwrap();
+        let water = base.pka_water.as_ref().unwrap();
+        assert!(water.source.starts_with("iupac-"), "{name}: {}", water.source);
+        assert!((water.value - median).abs() <= 0.05, "{name}: {} vs {median}", water.value);
+        checked += 1;
+    }
+    assert_eq!(checked, 9);
+}
