@@ -213,3 +213,24 @@ fn advise_features_share_benchmark() {
         1e6 * t2 / n as f64
     );
 }
+
+#[test]
+fn equilibrium_for_given_hydroxy_ketone_and_lda_notes_fast_oh_transfer() {
+    // Common practice: lithium bases take the O–H first although the DMSO
+    // pKa of the alcohol is higher than the ketone's.
+    let mol = Molecule::from_smiles("CC(=O)CCCO").unwrap();
+    let sites = find_sites(&mol);
+    let e = equilibrium_for(
+        &mol,
+        &sites,
+        &EquilibriumOptions {
+            base: "LDA".into(),
+            equivalents: 2.1,
+            ..EquilibriumOptions::default()
+        },
+    )
+    .unwrap();
+    assert!(e.notes.iter().any(|n| n.contains("first")), "{:?}", e.notes);
+    // With 2.1 equiv both the alcohol and the ketone are deprotonated.
+    assert!(e.anions[2] > 0.99, "{:?}", e.anions);
+}

@@ -493,6 +493,28 @@ pub(crate) fn solve_for_base(
         .ok_or_else(|| EquilibriumError::NoCommonScale(base.name.clone()))?;
     let (scale, base_pka) = (choice.site_scale, choice.base_pka);
     notes.push(choice.note);
+    if base.family.is_metal_base() && protic.is_none() {
+        let pka = |x: &crate::sites::Site| match scale {
+            Scale::Water => x.pka_water,
+            _ => x.pka_dmso,
+        };
+        let min_carbon = sites
+            .sites
+            .iter()
+            .filter(|x| x.is_carbon())
+            .filter_map(pka)
+            .fold(f64::INFINITY, f64::min);
+        if sites
+            .sites
+            .iter()
+            .any(|x| !x.is_carbon() && pka(x).map(|p| p > min_carbon).unwrap_or(false))
+        {
+            notes.push(format!(
+                "this is the equilibrium composition; in practice {} takes O–H, N–H and S–H protons first (fast proton transfer), even where their pKa is higher than the C–H (common practice)",
+                base.name
+            ));
+        }
+    }
     let units = site_units(sites, site_unit, scale, &mut notes);
     if units.is_empty() {
         return Err(EquilibriumError::NoSites);
