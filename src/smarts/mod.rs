@@ -42,12 +42,13 @@ mod parse;
 mod rings;
 mod target;
 
-pub use expr::{AtomExpr, AtomPrim, BondExpr, BondPrim};
+pub use expr::{AtomExpr, AtomFilter, AtomPrim, BondExpr, BondPrim};
 pub use parse::{MAX_ATOMS, MAX_RECURSION_DEPTH};
 pub use target::Target;
 
 use crate::mol::Molecule;
 use matcher::{new_cache, query_atom_matches, search};
+use std::cell::Cell;
 use std::collections::HashSet;
 
 /// A parse error with the character position in the pattern.
@@ -73,6 +74,25 @@ impl std::fmt::Display for PatternError {
 
 impl std::error::Error for PatternError {}
 
+/// A bounded search ran out of steps before finishing.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct LimitReached {
+    /// The step budget that was exhausted.
+    pub max_steps: u64,
+}
+
+impl std::fmt::Display for LimitReached {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        write!(
+            f,
+            "substructure search stopped after {} steps (pattern too general for this molecule)",
+            self.max_steps
+        )
+    }
+}
+
+impl std::error::Error for LimitReached {}
+
 /// One pattern atom.
 #[derive(Debug, Clone)]
 pub(crate) struct QueryAtom {
@@ -82,6 +102,10 @@ pub(crate) struct QueryAtom {
     pub position: usize,
     /// Element every match must have (fast rejection), if implied.
     pub element: Option<u8>,
+    /// Simple comparisons tested first ...
+    pub filter: AtomFilter,
+    /// ... and the rest of the expression, if any.
+    pub rest: Option<AtomExpr>,
 }
 
 /// One pattern bond.
@@ -119,6 +143,9 @@ impl Query {
     pub(crate) fn finish(&mut self) {
         for a in &mut self.atoms {
             a.element = a.expr.required_element();
+            let (filter, rest) = AtomFilter::split(&a.expr);
+            a.filter = filter;
+            a.rest = rest;
         }
         self.adj = vec![Vec::new(); self.atoms.len()];
         for (i, b) in self.bonds.iter().enumerate() {
@@ -204,6 +231,9 @@ struct Screen {
     elements: Vec<(u8, u16)>,
     aromatic: usize,
     ring: bool,
+    double: usize,
+    triple: usize,
+    aromatic_bonds: usize,
 }
 
 /// A compiled SMARTS pattern.
@@ -245,8 +275,16 @@ impl Pattern {
                 screen.ring = true;
             }
         }
-        if main.bonds.iter().any(|b| b.expr.requires_ring()) {
-            screen.ring = true;
+        for b in &main.bonds {
+            if b.expr.requires_ring() {
+                screen.ring = true;
+            }
+            match b.expr.required_order() {
+                Some(BondPrim::Double) => screen.double += 1,
+                Some(BondPrim::Triple) => screen.triple += 1,
+                Some(BondPrim::Aromatic) => screen.aromatic_bonds += 1,
+                _ => {}
+            }
         }
         screen.elements = counts
             .iter()
@@ -284,6 +322,13 @@ impl Pattern {
         self.main.bonds.len()
     }
 
+    /// The pattern bonds as pairs of pattern atom indices (not counting
+    /// recursive parts), in the order written (ring closures at the
+    /// closing digit).
+    pub fn bond_atoms(&self) -> Vec<[usize; 2]> {
+        self.main.bonds.iter().map(|b| b.atoms).collect()
+    }
+
     /// Atom-map label of pattern atom `i`, if it has one.
     pub fn map_label(&self, i: usize) -> Option<u16> {
         self.main.atoms.get(i).and_then(|a| a.map)
@@ -300,19 +345,27 @@ impl Pattern {
     }
 
     /// Could the pattern match this molecule at all? Cheap checks only
-    /// (atom count, element counts, aromatic atoms, rings); `false` means
+    /// (atom count, element counts, aromatic atoms, double, triple and
+    /// aromatic bonds, rings); `false` means
     /// it certainly does not match.
     pub fn passes_screen(&self, t: &Target) -> bool {
         let s = &self.screen;
-        if t.atom_count() < s.atoms || t.aromatic_count < s.aromatic {
+        if t.atom_count() < s.atoms
+            || t.aromatic_count < s.aromatic
+            || t.double_count < s.double
+            || t.triple_count < s.triple
+            || t.aromatic_bond_count < s.aromatic_bonds
+        {
             return false;
         }
-        if s.ring && t.ring_count == 0 {
-            return false;
-        }
-        s.elements
+        if !s
+            .elements
             .iter()
             .all(|&(e, c)| t.element_count.get(e as usize).copied().unwrap_or(0) >= c)
+        {
+            return false;
+        }
+        !s.ring || t.has_ring()
     }
 
     /// Unique matches (the same set of molecule atoms counts once). Each
@@ -350,7 +403,7 @@ impl Pattern {
     /// [`Pattern::unique_matches`] on a prepared molecule.
     pub fn unique_matches_in(&self, t: &Target) -> Vec<Vec<usize>> {
         let mut out = Vec::new();
-        self.each_unique(t, None, &mut |m| {
+        self.each_unique(t, None, u64::MAX, &mut |m| {
             out.push(m.to_vec());
             true
         });
@@ -360,11 +413,29 @@ impl Pattern {
     /// [`Pattern::count_unique`] on a prepared molecule.
     pub fn count_unique_in(&self, t: &Target) -> usize {
         let mut n = 0;
-        self.each_unique(t, None, &mut |_| {
+        self.each_unique(t, None, u64::MAX, &mut |_| {
             n += 1;
             true
         });
         n
+    }
+
+    /// [`Pattern::count_unique_in`] that gives up after trying `max_steps`
+    /// candidate atoms (recursive parts included), for patterns from
+    /// untrusted input: a pattern such as `*~*~*~*~*~*~*~*` has very many
+    /// matches in a large molecule. About 10^7 steps take well under a
+    /// second.
+    pub fn count_unique_limited(&self, t: &Target, max_steps: u64) -> Result<usize, LimitReached> {
+        let mut n = 0;
+        let complete = self.each_unique(t, None, max_steps, &mut |_| {
+            n += 1;
+            true
+        });
+        if complete {
+            Ok(n)
+        } else {
+            Err(LimitReached { max_steps })
+        }
     }
 
     /// [`Pattern::is_match`] on a prepared molecule.
@@ -372,7 +443,7 @@ impl Pattern {
         if !self.passes_screen(t) {
             return false;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, u64::MAX);
         let mut found = false;
         search(
             self,
@@ -380,6 +451,7 @@ impl Pattern {
             &self.main.plan_free,
             t,
             &mut cache,
+            None,
             None,
             &mut |_| {
                 found = true;
@@ -394,7 +466,7 @@ impl Pattern {
         if atom >= t.atom_count() || !self.passes_screen(t) {
             return None;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, u64::MAX);
         self.anchored_one(t, atom, &mut cache)
     }
 
@@ -404,7 +476,7 @@ impl Pattern {
         if atom >= t.atom_count() {
             return out;
         }
-        self.each_unique(t, Some(atom), &mut |m| {
+        self.each_unique(t, Some(atom), u64::MAX, &mut |m| {
             out.push(m.to_vec());
             true
         });
@@ -413,30 +485,50 @@ impl Pattern {
 
     /// [`Pattern::anchored_atoms`] on a prepared molecule.
     pub fn anchored_atoms_in(&self, t: &Target) -> Vec<usize> {
+        self.anchored_atoms_limited(t, u64::MAX).unwrap_or_default()
+    }
+
+    /// [`Pattern::anchored_atoms_in`] that gives up after trying
+    /// `max_steps` candidate atoms (see [`Pattern::count_unique_limited`]).
+    pub fn anchored_atoms_limited(
+        &self,
+        t: &Target,
+        max_steps: u64,
+    ) -> Result<Vec<usize>, LimitReached> {
         let mut out = Vec::new();
         if !self.passes_screen(t) {
-            return out;
+            return Ok(out);
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, max_steps);
         let anchor = self.anchor_or_first();
-        let candidates: Box<dyn Iterator<Item = usize>> =
-            match self.main.atoms.get(anchor).and_then(|a| a.element) {
-                Some(e) => Box::new(
-                    t.by_element
-                        .get(e as usize)
-                        .map(|v| v.as_slice())
-                        .unwrap_or(&[])
-                        .iter()
-                        .copied(),
-                ),
-                None => Box::new(0..t.atom_count()),
-            };
-        for a in candidates {
-            if self.anchored_one(t, a, &mut cache).is_some() {
-                out.push(a);
-            }
+        // One search from the most selective atom; each anchor atom is
+        // recorded once and never tried again.
+        let done: Vec<Cell<bool>> = vec![Cell::new(false); t.atom_count()];
+        search(
+            self,
+            &self.main,
+            &self.main.plan_free,
+            t,
+            &mut cache,
+            None,
+            Some((anchor, &done)),
+            &mut |m| {
+                if let Some(c) = m.get(anchor).and_then(|&a| done.get(a)) {
+                    c.set(true);
+                }
+                true
+            },
+        );
+        if cache.exhausted {
+            return Err(LimitReached { max_steps });
         }
-        out
+        out.extend(
+            done.iter()
+                .enumerate()
+                .filter(|(_, c)| c.get())
+                .map(|(i, _)| i),
+        );
+        Ok(out)
     }
 
     fn anchored_one(
@@ -457,6 +549,7 @@ impl Pattern {
             t,
             cache,
             Some(atom),
+            None,
             &mut |m| {
                 result = Some(m.to_vec());
                 false
@@ -466,30 +559,42 @@ impl Pattern {
     }
 
     /// Visit each unique match (optionally with the anchor fixed).
+    /// Returns false if the search budget ran out first.
     fn each_unique(
         &self,
         t: &Target,
         anchored: Option<usize>,
+        max_steps: u64,
         f: &mut dyn FnMut(&[usize]) -> bool,
-    ) {
+    ) -> bool {
         if !self.passes_screen(t) {
-            return;
+            return true;
         }
-        let mut cache = new_cache(self);
+        let mut cache = new_cache(self, max_steps);
         let mut seen: HashSet<Vec<usize>> = HashSet::new();
         let plan = if anchored.is_some() {
             &self.main.plan_anchor
         } else {
             &self.main.plan_free
         };
-        search(self, &self.main, plan, t, &mut cache, anchored, &mut |m| {
-            let mut key = m.to_vec();
-            key.sort_unstable();
-            if seen.insert(key) {
-                f(m)
-            } else {
-                true
-            }
-        });
+        search(
+            self,
+            &self.main,
+            plan,
+            t,
+            &mut cache,
+            anchored,
+            None,
+            &mut |m| {
+                let mut key = m.to_vec();
+                key.sort_unstable();
+                if seen.insert(key) {
+                    f(m)
+                } else {
+                    true
+                }
+            },
+        );
+        !cache.exhausted
     }
 }
