@@ -438,3 +438,19 @@ fn advise_given_two_similar_ketones_rejects_bases_for_an_uncounted_competitor() 
         .unwrap();
     assert!(w.message.contains("competes"));
 }
+
+#[test]
+fn advise_given_alpha_chloro_ketone_warns_of_favorskii_and_self_alkylation() {
+    // Common practice: α-halo ketones with base undergo Favorskii
+    // rearrangement or self-condensation.
+    let a = plan("CC(=O)CCl");
+    let w = a.warnings.iter().find(|w| w.kind == WarningKind::AlkylHalide).unwrap();
+    assert!(w.message.contains("Favorskii"));
+}
+
+#[test]
+fn advise_given_ketone_rejects_lithium_hydroxide_in_aqueous_thf() {
+    // Common practice: hydroxide in water/THF gives only a trace of ketone enolate.
+    let a = plan("CC(=O)CCCC#C");
+    assert_rejected(&a, "LiOH", RejectKind::TooWeak);
+}

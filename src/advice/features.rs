@@ -30,6 +30,8 @@ pub struct MoleculeFeatures {
     pub anhydride: bool,
     /// sp3 C–Cl, C–Br, C–I or a sulfonate ester: an alkylating agent.
     pub alkyl_halide: bool,
+    /// Halide or sulfonate on a carbon next to C=O (α-halo ketone or ester).
+    pub alpha_halo_carbonyl: bool,
     pub nitro: bool,
     /// Per site (same order as `SiteReport::sites`).
     pub sites: Vec<SiteFeatures>,
@@ -131,7 +133,8 @@ impl<'a> Graph<'a> {
 }
 
 /// SMARTS patterns for the molecule-wide groups (name, pattern).
-const GROUP_PATTERNS: [(&str, &str); 14] = [
+const GROUP_PATTERNS: [(&str, &str); 15] = [
+    ("alpha_halo_carbonyl", "[CX4]([Cl,Br,I])[CX3]=O"),
     ("ketone", "[#6][CX3](=O)[#6]"),
     ("aldehyde", "[CX3H1](=O)[#6]"),
     ("aldehyde", "[CH2X3]=O"),
@@ -247,6 +250,7 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
             "acyl_halide" => f.acyl_halide = true,
             "anhydride" => f.anhydride = true,
             "alkyl_halide" => f.alkyl_halide = true,
+            "alpha_halo_carbonyl" => f.alpha_halo_carbonyl = true,
             "nitro" => f.nitro = true,
             _ => {}
         }

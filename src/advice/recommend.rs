@@ -1243,10 +1243,11 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
         );
     }
     if f.alkyl_halide {
-        add(
-            WarningKind::AlkylHalide,
-            "the molecule contains an alkyl halide or sulfonate: the anion can alkylate itself (intra- or intermolecularly) and strong bases can eliminate HX".into(),
-        );
+        let mut m = "the molecule contains an alkyl halide or sulfonate: the anion can alkylate itself (intra- or intermolecularly) and strong bases can eliminate HX".to_string();
+        if f.alpha_halo_carbonyl {
+            m.push_str("; the halide is next to a carbonyl group, so bases can also start a Favorskii rearrangement or Darzens-type self-condensation");
+        }
+        add(WarningKind::AlkylHalide, m);
     }
     if sf.dicarbonyl {
         add(
