@@ -163,8 +163,16 @@ fn catalogue_given_iupac_water_values_agrees_with_the_corpus_subset() {
         let (name, median): (&str, f64) = (cells[0], cells[1].parse().unwrap());
         let base = cat.get(name).unwrap();
         let water = base.pka_water.as_ref().unwrap();
-        assert!(water.source.starts_with("iupac-"), "{name}: {}", water.source);
-        assert!((water.value - median).abs() <= 0.05, "{name}: {} vs {median}", water.value);
+        assert!(
+            water.source.starts_with("iupac-"),
+            "{name}: {}",
+            water.source
+        );
+        assert!(
+            (water.value - median).abs() <= 0.05,
+            "{name}: {} vs {median}",
+            water.value
+        );
         checked += 1;
     }
     assert_eq!(checked, 9);
