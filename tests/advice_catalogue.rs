@@ -123,6 +123,14 @@ fn parse_given_wrong_cell_count_or_enum_is_an_error() {
             .as_deref(),
         Some("nucleophilic")
     );
+    let smi = header() + &GOOD_ROW.replace("\tCCO\t", "\tC(C\t") + "\n";
+    assert_eq!(
+        Catalogue::parse(&smi, "t.tsv", SOURCES)
+            .unwrap_err()
+            .column
+            .as_deref(),
+        Some("conjugate_acid")
+    );
     let hz = header() + &GOOD_ROW.replace("corrosive", "spicy") + "\n";
     assert_eq!(
         Catalogue::parse(&hz, "t.tsv", SOURCES)

@@ -492,6 +492,20 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         marginal: false,
         no_solvent_check: false,
     };
+    if let Some(sv) = &opts.solvent {
+        if !base
+            .solvents
+            .iter()
+            .any(|x| x.eq_ignore_ascii_case(sv.trim()))
+        {
+            ev.notes.push(format!(
+                "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
+                sv,
+                base.name,
+                base.solvents.join(", ")
+            ));
+        }
+    }
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
         Scale::Water => t.pka_water.is_some(),
