@@ -444,7 +444,11 @@ fn advise_given_alpha_chloro_ketone_warns_of_favorskii_and_self_alkylation() {
     // Common practice: α-halo ketones with base undergo Favorskii
     // rearrangement or self-condensation.
     let a = plan("CC(=O)CCl");
-    let w = a.warnings.iter().find(|w| w.kind == WarningKind::AlkylHalide).unwrap();
+    let w = a
+        .warnings
+        .iter()
+        .find(|w| w.kind == WarningKind::AlkylHalide)
+        .unwrap();
     assert!(w.message.contains("Favorskii"));
 }
 
