@@ -77,9 +77,13 @@ pub struct SiteFraction {
 pub struct Equilibrium {
     /// Base name (empty when solved from a bare [`EquilibriumInput`]).
     pub base: String,
+    /// Scale of the site values used.
     pub scale: Scale,
+    /// Conjugate-acid pKa used.
     pub base_pka: f64,
+    /// Base equivalents relative to substrate.
     pub equivalents: f64,
+    /// Substrate concentration, mol/L.
     pub concentration: f64,
     /// Protic solvent that is the base's conjugate acid, with its molarity.
     pub acid_solvent: Option<(String, f64)>,
@@ -99,6 +103,7 @@ pub struct Equilibrium {
     pub log_ratio: f64,
     /// |free base + protons removed - base added| / max(base, substrate).
     pub mass_balance_residual: f64,
+    /// Root-finding iterations used.
     pub iterations: u32,
     /// Plain-language notes on the scale and conditions used.
     pub notes: Vec<String>,

@@ -74,12 +74,19 @@ impl Default for AdviceOptions {
 pub struct Target {
     /// Index into `SiteReport::sites`.
     pub site: usize,
+    /// Atoms of the target site (input order, 0-based).
     pub atoms: Vec<usize>,
+    /// Element of the acidic atom ("C", "O", "N", "S").
     pub element: String,
+    /// Site class from the rule data.
     pub class: String,
+    /// Estimated pKa in DMSO.
     pub pka_dmso: Option<f64>,
+    /// Estimated pKa in water.
     pub pka_water: Option<f64>,
+    /// One standard uncertainty of the estimate, pKa units.
     pub uncertainty: f64,
+    /// Kinetic or thermodynamic side of an unsymmetrical ketone.
     pub regio: Option<Regio>,
     /// How the target was chosen.
     pub chosen_by: String,
@@ -88,32 +95,47 @@ pub struct Target {
 /// A proton the base removes before (or with) the target.
 #[derive(Debug, Clone, PartialEq)]
 pub struct CountedProton {
+    /// Index into `SiteReport::sites`.
     pub site: usize,
+    /// Atoms of the site (input order).
     pub atoms: Vec<usize>,
+    /// Element of the acidic atom.
     pub element: String,
+    /// Site class from the rule data.
     pub class: String,
+    /// pKa on the scale of the comparison.
     pub pka: Option<f64>,
     /// Protons consumed by this site.
     pub protons: usize,
+    /// Why it is counted (more acidic, or fast O–H/N–H transfer).
     pub reason: String,
 }
 
 /// Temperature range, °C.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Temperature {
+    /// Lower end, °C.
     pub low_c: f64,
+    /// Upper end, °C.
     pub high_c: f64,
 }
 
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Alternative {
+    /// Catalogue name.
     pub base: String,
+    /// Equivalents it would need.
     pub equivalents: f64,
+    /// Fraction of the target deprotonated at equilibrium, 0..=1.
     pub conversion: f64,
+    /// pKa scale of the comparison.
     pub scale: Scale,
+    /// Its usual (or the requested) solvent.
     pub solvent: String,
+    /// Its usual temperature range.
     pub temperature: Temperature,
+    /// Notes from the evaluation (scale, marginal acceptance, solvent).
     pub note: String,
 }
 
@@ -148,9 +170,13 @@ impl RejectKind {
 /// A rejected base with every reason found (`kind` is the first).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Rejection {
+    /// Catalogue name.
     pub base: String,
+    /// The first reason found.
     pub kind: RejectKind,
+    /// Every reason found, in the order of `reason`.
     pub kinds: Vec<RejectKind>,
+    /// All reasons in words, separated by "; ".
     pub reason: String,
 }
 
@@ -190,9 +216,12 @@ impl WarningKind {
     }
 }
 
+/// A warning about the molecule or the chosen conditions.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Warning {
+    /// Category.
     pub kind: WarningKind,
+    /// Plain-language text.
     pub message: String,
 }
 
