@@ -20,10 +20,13 @@
 //! D = C * sum_u F_u(r),   [B-] = B0 - D,   [BH] = A0 + D,   r = [B-]/[BH]
 //! ```
 //!
-//! The single unknown s = log10 r is found by bisection on a bracket that
-//! always contains the root (the residual is monotone in s), so the solver
-//! converges for any pKa difference; concentrations are molar and activity
-//! coefficients are taken as 1.
+//! The single unknown s = log10 r is found on the bracket [-400, 400], which
+//! always contains the root (the residual is strictly monotone in s):
+//! Newton steps where they stay inside the shrinking bracket, bisection
+//! otherwise, so the solver converges for any pKa difference. Mono-, di- and
+//! higher anion populations follow from the unit fractions (independent
+//! units: a Poisson-binomial distribution, exact for any number of units).
+//! Concentrations are molar and activity coefficients are taken as 1.
 
 use super::catalogue::{catalogue, Base, CatalogueError, Scale};
 use super::features::{detect_features, site_units};
