@@ -413,6 +413,14 @@ pub(crate) fn choose_scale(
         if let (Some(p), true) = (base.pka(f), site_has(f)) {
             return Some(same(f, p, " as requested"));
         }
+        let mut fallback = choose_scale(base, protic, None, site_has)?;
+        fallback.note = format!(
+            "the requested {} scale has no value for {} or the sites; {}",
+            f.name(),
+            base.name,
+            fallback.note
+        );
+        return Some(fallback);
     }
     if protic {
         if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {
