@@ -356,6 +356,8 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CC(=O)CC=C", "I-CO-VIN1"),
     ("CC(C#N)C#N", "I-MN-ALK1"),
     ("CC=CC(C)=O", "C-VINCO-01"),
+    ("COCCO", "I-AL-HETB"),
+    ("[NH3+]CC(F)(F)F", "I-NH-FB"),
     ("CC(=O)C1C(=O)CC(C)(C)CC1=O", "I-CD-ACY"),
     ("O=C1C(c2ccccc2)C(=O)c2ccccc21", "I-CD-ARY1"),
     ("CC(=O)C1CC1", "I-CO-R3"),

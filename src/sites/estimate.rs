@@ -297,6 +297,96 @@ fn hammett_terms(
     }
 }
 
+/// Add the increment rows for the classified substituents (`kinds`: kind
+/// and the substituent atom). The n-th substituent of a kind takes the row
+/// with the largest `nth` <= n for the rule's family.
+fn apply_increments(
+    mol: &Molecule,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    rule: &Rule,
+    kinds: Vec<(&'static str, usize)>,
+    uses: &mut Vec<RuleUse>,
+    var: &mut f64,
+) {
+    let mut counts: Vec<(&'static str, u8)> = Vec::new();
+    for (kind, atom) in kinds {
+        let n = match counts.iter_mut().find(|(k, _)| *k == kind) {
+            Some(c) => {
+                c.1 = c.1.saturating_add(1);
+                c.1
+            }
+            None => {
+                counts.push((kind, 1));
+                1
+            }
+        };
+        let find = |kind: &str| {
+            set.increments
+                .iter()
+                .filter(|r| {
+                    r.kind == kind
+                        && r.nth <= n
+                        && r.families.iter().any(|f| f == "*" || *f == rule.family)
+                })
+                .max_by_key(|r| r.nth)
+        };
+        // A family without its own row for a substituted alkyl uses the
+        // plain alkyl row.
+        let inc = find(kind).or_else(|| {
+            if kind == "alkyl_ewg" {
+                find("alkyl")
+            } else {
+                None
+            }
+        });
+        match inc {
+            Some(inc) => {
+                uses.push(RuleUse {
+                    id: inc.id.clone(),
+                    dmso: inc.dmso,
+                    water: inc.water,
+                });
+                *var += inc.uncertainty * inc.uncertainty;
+                if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
+                    hammett_terms(mol, atom, h, &inc.id, sigma, uses, var);
+                }
+            }
+            None => *var += 1.5 * 1.5,
+        }
+    }
+}
+
+/// Substituents of a heteroatom site (O–H, N–H): fluorine on a carbon two
+/// bonds from the acidic atom (`fluoro_beta`, per fluorine) and a nitrogen
+/// or oxygen on such a carbon (`hetero_beta`, per path X–C–C–Y). Atoms of
+/// the class match are skipped.
+fn hetero_kinds(mol: &Molecule, i: usize, matched: &[usize]) -> Vec<(&'static str, usize)> {
+    let mut out = Vec::new();
+    for c1 in mol.neighbors(i) {
+        if mol.atoms[c1.atom].element != 6 || mol.atoms[c1.atom].aromatic {
+            continue;
+        }
+        for c2 in mol.neighbors(c1.atom) {
+            let b = &mol.atoms[c2.atom];
+            if c2.atom == i || b.element != 6 || b.aromatic || matched.contains(&c2.atom) {
+                continue;
+            }
+            for y in mol.neighbors(c2.atom) {
+                if y.atom == c1.atom || matched.contains(&y.atom) {
+                    continue;
+                }
+                match mol.atoms[y.atom].element {
+                    9 => out.push(("fluoro_beta", y.atom)),
+                    7 | 8 if !mol.atoms[y.atom].aromatic => out.push(("hetero_beta", y.atom)),
+                    _ => {}
+                }
+            }
+        }
+    }
+    out
+}
+
 fn round2(x: f64) -> f64 {
     (x * 100.0).round() / 100.0
 }
@@ -323,8 +413,11 @@ fn estimate_atom(
             hammett_terms(mol, ipso, h, &rule.id, sigma, &mut uses, &mut var);
         }
     }
+    if rule.element != "C" && rule.family != "none" {
+        let kinds = hetero_kinds(mol, i, matched);
+        apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
+    }
     if rule.element == "C" && rule.family != "none" {
-        let mut counts: Vec<(&'static str, u8)> = Vec::new();
         let mut kinds: Vec<(&'static str, usize)> = Vec::new();
         for nb in mol.neighbors(i) {
             if matched.contains(&nb.atom) || mol.atoms[nb.atom].element == 1 {
@@ -338,51 +431,7 @@ fn estimate_atom(
         if let Some(k) = small_ring(mol, i, matched) {
             kinds.push((k, i));
         }
-        for (kind, atom) in kinds {
-            let n = match counts.iter_mut().find(|(k, _)| *k == kind) {
-                Some(c) => {
-                    c.1 += 1;
-                    c.1
-                }
-                None => {
-                    counts.push((kind, 1));
-                    1
-                }
-            };
-            let find = |kind: &str| {
-                set.increments
-                    .iter()
-                    .filter(|r| {
-                        r.kind == kind
-                            && r.nth <= n
-                            && r.families.iter().any(|f| f == "*" || *f == rule.family)
-                    })
-                    .max_by_key(|r| r.nth)
-            };
-            // A family without its own row for a substituted alkyl uses
-            // the plain alkyl row.
-            let inc = find(kind).or_else(|| {
-                if kind == "alkyl_ewg" {
-                    find("alkyl")
-                } else {
-                    None
-                }
-            });
-            match inc {
-                Some(inc) => {
-                    uses.push(RuleUse {
-                        id: inc.id.clone(),
-                        dmso: inc.dmso,
-                        water: inc.water,
-                    });
-                    var += inc.uncertainty * inc.uncertainty;
-                    if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
-                        hammett_terms(mol, atom, h, &inc.id, sigma, &mut uses, &mut var);
-                    }
-                }
-                None => var += 1.5 * 1.5,
-            }
-        }
+        apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
     }
     // Contributions are rounded first so that the listed values add up.
     for u in &mut uses {

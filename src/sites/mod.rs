@@ -16,13 +16,15 @@
 //!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
 //!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is not
 //!    a site; neither are vinyl and aryl C–H (except azole C2–H).
-//! 2. **Increments** (`fragments/increments.tsv`, carbon sites only): each
-//!    substituent on the acidic carbon that is not part of the class rule's
-//!    match is classified (alkyl, alkyl bearing an acceptor, aryl, vinyl,
-//!    alkoxy, aryloxy, thio, halogen, extra acceptor, …) and the row for
-//!    its kind, the rule's family and its ordinal (first, second alkyl…)
-//!    is added. A three- or four-membered ring through the acidic carbon
-//!    adds a ring row. Substituents without a row widen the uncertainty.
+//! 2. **Increments** (`fragments/increments.tsv`): each substituent on an
+//!    acidic carbon that is not part of the class rule's match is
+//!    classified (alkyl, alkyl bearing an acceptor, aryl, vinyl, alkoxy,
+//!    aryloxy, thio, halogen, extra acceptor, onium, …) and the row for its
+//!    kind, the rule's family and its ordinal (first, second alkyl…) is
+//!    added. A three- or four-membered ring through the acidic carbon adds
+//!    a ring row. For alcohol and ammonium sites, fluorine and N/O two
+//!    bonds from the acidic atom add inductive rows. Substituents without
+//!    a row widen the uncertainty.
 //! 3. **Hammett term** −ρ·Σσ for a benzene ring conjugated with the site:
 //!    the ring of the first aromatic atom of the class match (e.g. the aryl
 //!    of an aryl ketone or of a phenol) or of an aryl increment. Meta

@@ -129,6 +129,8 @@ pub const SUBSTITUENT_KINDS: &[&str] = &[
     "sulfonyl",
     "onium_n",
     "onium_p",
+    "fluoro_beta",
+    "hetero_beta",
     "ring3",
     "ring4",
 ];
