@@ -5,7 +5,9 @@ use super::catalogue::{
     catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
 };
 use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
-use super::equilibrium::{choose_scale, solve, Equilibrium, EquilibriumInput, ScaleChoice};
+use super::equilibrium::{
+    choose_scale, solve, AcidUnit, Equilibrium, EquilibriumInput, ScaleChoice,
+};
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
@@ -388,6 +390,9 @@ struct Ctx<'a> {
     opts: &'a AdviceOptions,
     target: usize,
     target_unit: Vec<usize>,
+    /// Acid units and their notes on the DMSO and water scales, built once.
+    units_dmso: (Vec<AcidUnit>, Vec<String>),
+    units_water: (Vec<AcidUnit>, Vec<String>),
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -468,8 +473,14 @@ fn solve_with(
     exclude: &[usize],
     notes: &mut Vec<String>,
 ) -> Option<Equilibrium> {
-    let units: Vec<_> = site_units(ctx.sites, &ctx.f.site_unit, scale, notes)
-        .into_iter()
+    let (cached, cached_notes) = match scale {
+        Scale::Water => &ctx.units_water,
+        _ => &ctx.units_dmso,
+    };
+    notes.extend(cached_notes.iter().cloned());
+    let units: Vec<_> = cached
+        .iter()
+        .cloned()
         .filter_map(|mut u| {
             u.alternatives.retain(|m| !exclude.contains(&m.site));
             (!u.alternatives.is_empty()).then_some(u)
@@ -1053,12 +1064,19 @@ pub fn advise_with_features(
                     && tsite.is_carbon())
         })
         .collect();
+    let cache = |sc: Scale| {
+        let mut notes = Vec::new();
+        let units = site_units(sites, &f.site_unit, sc, &mut notes);
+        (units, notes)
+    };
     let ctx = Ctx {
         f,
         sites,
         opts,
         target,
         target_unit,
+        units_dmso: cache(Scale::Dmso),
+        units_water: cache(Scale::Water),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
@@ -1196,10 +1214,11 @@ pub fn advise_with_features(
     if let Some(e) = chosen {
         push(caution_for(e.base, Some(&e.solvent)));
     }
-    for a in &alternatives {
-        if let Some(b) = cat.get(&a.base) {
-            push(caution_for(b, Some(&a.solvent)));
-        }
+    for e in accepted
+        .iter()
+        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
+    {
+        push(caution_for(e.base, Some(&e.solvent)));
     }
     if let Some(r) = &regio {
         for name in ["LDA", "NaH", "KOtBu", "Et3N"] {
