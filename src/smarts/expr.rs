@@ -140,6 +140,16 @@ impl AtomExpr {
         }
     }
 
+    /// Recursive parts that must match for the expression to hold (those
+    /// and-ed at the top level).
+    pub fn required_recursions(&self) -> Vec<usize> {
+        match self {
+            AtomExpr::Prim(AtomPrim::Recursive(id)) => vec![*id],
+            AtomExpr::And(v) => v.iter().flat_map(|e| e.required_recursions()).collect(),
+            _ => Vec::new(),
+        }
+    }
+
     /// Does the expression contain a recursive primitive?
     pub fn has_recursion(&self) -> bool {
         match self {
@@ -151,6 +161,25 @@ impl AtomExpr {
 }
 
 impl BondExpr {
+    /// Value of the expression for a bond of this order and ring state.
+    pub fn eval(&self, order: crate::mol::BondOrder, in_ring: bool) -> bool {
+        use crate::mol::BondOrder as O;
+        match self {
+            BondExpr::Prim(p) => match p {
+                BondPrim::Single => order == O::Single,
+                BondPrim::Double => order == O::Double,
+                BondPrim::Triple => order == O::Triple,
+                BondPrim::Aromatic => order == O::Aromatic,
+                BondPrim::Any => true,
+                BondPrim::Ring => in_ring,
+                BondPrim::Implicit => matches!(order, O::Single | O::Aromatic),
+            },
+            BondExpr::Not(e) => !e.eval(order, in_ring),
+            BondExpr::And(v) => v.iter().all(|e| e.eval(order, in_ring)),
+            BondExpr::Or(v) => v.iter().any(|e| e.eval(order, in_ring)),
+        }
+    }
+
     /// The bond order every match must have, if the expression fixes one
     /// (double, triple or aromatic).
     pub fn required_order(&self) -> Option<BondPrim> {

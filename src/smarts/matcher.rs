@@ -5,9 +5,9 @@
 //! `$( … )` primitive starts a nested search, whose depth is bounded by the
 //! nesting limit of the parser.
 
-use super::expr::{AtomExpr, AtomPrim, BondExpr, BondPrim};
+use super::expr::{AtomExpr, AtomPrim};
 use super::target::Target;
-use super::{Pattern, Query, Step};
+use super::{Pattern, Query, QueryBond, Step};
 use crate::mol::BondOrder;
 use std::cell::Cell;
 
@@ -24,14 +24,20 @@ impl RecCache {
     fn get(&self, id: usize) -> Option<&Vec<u8>> {
         self.rec.get(id)
     }
-    fn get_mut(&mut self, id: usize) -> Option<&mut Vec<u8>> {
+    /// The slot of recursive part `id` (of `count`), created on first use.
+    fn get_mut(&mut self, id: usize, count: usize) -> Option<&mut Vec<u8>> {
+        if self.rec.len() < count {
+            self.rec.resize(count, Vec::new());
+        }
         self.rec.get_mut(id)
     }
 }
 
-pub(crate) fn new_cache(pat: &Pattern, max_steps: u64) -> RecCache {
+/// A fresh per-call state; allocates nothing until a recursive part is
+/// evaluated.
+pub(crate) fn new_cache(max_steps: u64) -> RecCache {
     RecCache {
-        rec: vec![Vec::new(); pat.recursive.len()],
+        rec: Vec::new(),
         steps_left: max_steps,
         exhausted: false,
     }
@@ -110,7 +116,7 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
     if cache.exhausted {
         return false;
     }
-    if let Some(slot) = cache.get_mut(id) {
+    if let Some(slot) = cache.get_mut(id, pat.recursive.len()) {
         if slot.len() != t.atoms.len() {
             *slot = vec![0; t.atoms.len()];
         }
@@ -121,27 +127,91 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
     found
 }
 
-/// Does molecule bond `b` satisfy `expr`?
-pub(crate) fn bond_matches(expr: &BondExpr, b: usize, t: &Target) -> bool {
-    match expr {
-        BondExpr::Prim(p) => {
-            let Some(&order) = t.bond_order.get(b) else {
-                return false;
-            };
-            match p {
-                BondPrim::Single => order == BondOrder::Single,
-                BondPrim::Double => order == BondOrder::Double,
-                BondPrim::Triple => order == BondOrder::Triple,
-                BondPrim::Aromatic => order == BondOrder::Aromatic,
-                BondPrim::Any => true,
-                BondPrim::Ring => t.bond_in_ring(b),
-                BondPrim::Implicit => matches!(order, BondOrder::Single | BondOrder::Aromatic),
+/// Molecule atoms already found as anchors: a bit set on the stack for
+/// molecules up to 128 atoms, a vector beyond.
+pub(crate) enum DoneSet {
+    Bits(Cell<u128>),
+    Vec(Vec<Cell<bool>>),
+}
+
+impl DoneSet {
+    pub(crate) fn new(n: usize) -> DoneSet {
+        if n <= 128 {
+            DoneSet::Bits(Cell::new(0))
+        } else {
+            DoneSet::Vec(vec![Cell::new(false); n])
+        }
+    }
+    #[inline]
+    pub(crate) fn get(&self, a: usize) -> bool {
+        match self {
+            DoneSet::Bits(b) => a < 128 && b.get() >> a & 1 == 1,
+            DoneSet::Vec(v) => v.get(a).is_some_and(|c| c.get()),
+        }
+    }
+    #[inline]
+    pub(crate) fn set(&self, a: usize) {
+        match self {
+            DoneSet::Bits(b) => {
+                if a < 128 {
+                    b.set(b.get() | 1 << a);
+                }
+            }
+            DoneSet::Vec(v) => {
+                if let Some(c) = v.get(a) {
+                    c.set(true);
+                }
             }
         }
-        BondExpr::Not(e) => !bond_matches(e, b, t),
-        BondExpr::And(v) => v.iter().all(|e| bond_matches(e, b, t)),
-        BondExpr::Or(v) => v.iter().any(|e| bond_matches(e, b, t)),
     }
+    /// The atoms in the set, ascending.
+    pub(crate) fn atoms(&self) -> Vec<usize> {
+        match self {
+            DoneSet::Bits(b) => {
+                let mut bits = b.get();
+                let mut out = Vec::with_capacity(bits.count_ones() as usize);
+                while bits != 0 {
+                    out.push(bits.trailing_zeros() as usize);
+                    bits &= bits - 1;
+                }
+                out
+            }
+            DoneSet::Vec(v) => v
+                .iter()
+                .enumerate()
+                .filter(|(_, c)| c.get())
+                .map(|(i, _)| i)
+                .collect(),
+        }
+    }
+}
+
+/// Bond orders in the order used by [`super::QueryBond::mask`].
+pub(crate) const ORDERS: [BondOrder; 5] = [
+    BondOrder::Single,
+    BondOrder::Double,
+    BondOrder::Triple,
+    BondOrder::Quadruple,
+    BondOrder::Aromatic,
+];
+
+/// Does molecule bond `b` satisfy pattern bond `q`?
+#[inline]
+pub(crate) fn bond_matches(q: &QueryBond, b: usize, t: &Target) -> bool {
+    let Some(&order) = t.bond_order.get(b) else {
+        return false;
+    };
+    let mut state = match order {
+        BondOrder::Single => 0,
+        BondOrder::Double => 1,
+        BondOrder::Triple => 2,
+        BondOrder::Quadruple => 3,
+        BondOrder::Aromatic => 4,
+    };
+    if q.ring_sensitive && t.bond_in_ring(b) {
+        state += 5;
+    }
+    q.mask >> state & 1 == 1
 }
 
 /// Cheap test of a pattern atom against a molecule atom, then the full
@@ -189,7 +259,7 @@ pub(crate) fn search(
     t: &Target,
     cache: &mut RecCache,
     start: Option<usize>,
-    skip: Option<(usize, &[Cell<bool>])>,
+    skip: Option<(usize, &DoneSet)>,
     visit: &mut dyn FnMut(&[usize]) -> bool,
 ) {
     let depth = plan.len();
@@ -212,6 +282,7 @@ pub(crate) fn search(
     let (map, rest) = buf.split_at_mut(depth);
     let (chosen, cursor) = rest.split_at_mut(depth);
     cursor.fill(0);
+    let skip_depth = skip.and_then(|(p, _)| plan.iter().position(|st| st.atom == p));
     let mut d = 0usize;
     loop {
         let step = &plan[d];
@@ -236,7 +307,7 @@ pub(crate) fn search(
                         cursor[d] += 1;
                         if q.bonds
                             .get(qb)
-                            .is_some_and(|qbond| bond_matches(&qbond.expr, b, t))
+                            .is_some_and(|qbond| bond_matches(qbond, b, t))
                         {
                             got = Some(x);
                             break;
@@ -277,7 +348,7 @@ pub(crate) fn search(
                 continue;
             }
             if let Some((p, done)) = skip {
-                if p == step.atom && done.get(a).is_some_and(|c| c.get()) {
+                if p == step.atom && done.get(a) {
                     continue;
                 }
             }
@@ -287,7 +358,7 @@ pub(crate) fn search(
             let closures_ok = step.closures.iter().all(|&(other, qb)| {
                 let m = map[other];
                 match (t.bond_between(a, m), q.bonds.get(qb)) {
-                    (Some(b), Some(qbond)) => bond_matches(&qbond.expr, b, t),
+                    (Some(b), Some(qbond)) => bond_matches(qbond, b, t),
                     _ => false,
                 }
             });
@@ -303,6 +374,11 @@ pub(crate) fn search(
                 if d + 1 == depth {
                     if !visit(map) {
                         return;
+                    }
+                    // This anchor atom is done: go straight back to the
+                    // anchor's step for its next candidate.
+                    if let Some(ad) = skip_depth {
+                        d = ad;
                     }
                 } else {
                     d += 1;

@@ -254,10 +254,7 @@ impl<'a> Parser<'a> {
                             .take()
                             .map(|(b, _)| b)
                             .unwrap_or(BondExpr::Prim(BondPrim::Implicit));
-                        q.bonds.push(QueryBond {
-                            atoms: [p, idx],
-                            expr: bond,
-                        });
+                        q.bonds.push(QueryBond::new([p, idx], bond));
                     } else if q.atoms.len() > 1 && dot_at.is_none() {
                         // Only reachable after a closing ')' at depth 0,
                         // which always sets prev; kept as a guard.
@@ -350,10 +347,7 @@ impl<'a> Parser<'a> {
             let expr = bond
                 .or(open.bond)
                 .unwrap_or(BondExpr::Prim(BondPrim::Implicit));
-            q.bonds.push(QueryBond {
-                atoms: [open.atom, atom],
-                expr,
-            });
+            q.bonds.push(QueryBond::new([open.atom, atom], expr));
         } else {
             rings.push(OpenRing {
                 label,
