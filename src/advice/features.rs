@@ -1,0 +1,397 @@
+//! Functional-group facts the recommender needs, gathered in one place so
+//! the detection method (graph walks today, SMARTS patterns when the
+//! pattern matcher is available) can change without touching the advice.
+//!
+//! Functional groups, β-leaving groups and 1,3-dicarbonyl sites are found
+//! with SMARTS patterns ([`crate::smarts::Pattern`]); stereocentres and the
+//! grouping of alternative sites use a short walk over the bond graph.
+//! Everything here is plain data and can be built by hand in tests.
+
+use super::catalogue::Scale;
+use super::equilibrium::{AcidUnit, Microsite};
+use crate::mol::{BondOrder, Molecule};
+use crate::sites::SiteReport;
+use crate::smarts::{Pattern, Target as SmartsTarget};
+use std::sync::OnceLock;
+
+/// Facts about the molecule as a whole and about each site.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct MoleculeFeatures {
+    pub ketone: bool,
+    pub aldehyde: bool,
+    pub ester: bool,
+    /// Alkoxy groups of the esters: "methyl", "ethyl", "tert-butyl",
+    /// "isopropyl", "benzyl" or "other".
+    pub ester_alkoxy: Vec<String>,
+    pub carboxylic_acid: bool,
+    pub amide: bool,
+    pub nitrile: bool,
+    pub acyl_halide: bool,
+    pub anhydride: bool,
+    /// sp3 C–Cl, C–Br, C–I or a sulfonate ester: an alkylating agent.
+    pub alkyl_halide: bool,
+    /// Halide or sulfonate on a carbon next to C=O (α-halo ketone or ester).
+    pub alpha_halo_carbonyl: bool,
+    pub nitro: bool,
+    /// Per site (same order as `SiteReport::sites`).
+    pub sites: Vec<SiteFeatures>,
+    /// Unit id per site: carbon sites that are alternative positions of one
+    /// anion (bonded or sharing a neighbour, e.g. both α-carbons of a
+    /// ketone) share an id; every other site has its own.
+    pub site_unit: Vec<usize>,
+}
+
+/// Facts about one site.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct SiteFeatures {
+    /// Leaving group on a carbon next to the site (E1cB elimination after
+    /// deprotonation), e.g. "chloride", "alkoxy/hydroxy", "acyloxy".
+    pub beta_leaving_group: Option<String>,
+    /// The site carbon is a stereocentre bearing the acidic H (it is
+    /// planarised on deprotonation: epimerisation / racemisation).
+    pub stereocentre: bool,
+    /// Flanked by two C=O groups (1,3-dicarbonyl): the anion can be
+    /// alkylated on O as well as C.
+    pub dicarbonyl: bool,
+}
+
+const C: u8 = 6;
+
+struct Graph<'a> {
+    mol: &'a Molecule,
+    adj: Vec<Vec<(usize, usize)>>,
+}
+
+impl<'a> Graph<'a> {
+    fn new(mol: &'a Molecule) -> Self {
+        let n = mol.atoms.len();
+        let mut adj = vec![Vec::new(); n];
+        for (bi, b) in mol.bonds.iter().enumerate() {
+            let [a, c] = b.atoms;
+            if a < n && c < n && a != c {
+                adj[a].push((c, bi));
+                adj[c].push((a, bi));
+            }
+        }
+        Graph { mol, adj }
+    }
+    fn el(&self, i: usize) -> u8 {
+        self.mol.atoms.get(i).map(|a| a.element).unwrap_or(0)
+    }
+    fn h(&self, i: usize) -> u8 {
+        self.mol.atoms.get(i).map(|a| a.hydrogens).unwrap_or(0)
+    }
+    fn nbrs(&self, i: usize) -> &[(usize, usize)] {
+        self.adj.get(i).map(Vec::as_slice).unwrap_or(&[])
+    }
+    fn order(&self, bond: usize) -> u8 {
+        match self.mol.bonds.get(bond) {
+            Some(b) if b.order == BondOrder::Aromatic => 4,
+            Some(b) => b.kekule.max(match b.order {
+                BondOrder::Double => 2,
+                BondOrder::Triple => 3,
+                BondOrder::Quadruple => 4,
+                _ => 1,
+            }),
+            None => 0,
+        }
+    }
+    fn aromatic(&self, i: usize) -> bool {
+        self.mol.atoms.get(i).map(|a| a.aromatic).unwrap_or(false)
+    }
+    fn is_sp3_carbon(&self, i: usize) -> bool {
+        self.el(i) == C
+            && !self.aromatic(i)
+            && self.nbrs(i).iter().all(|&(_, b)| self.order(b) == 1)
+    }
+
+    /// Bounded environment signature of the branch entered from `parent` at `atom`.
+    fn signature(&self, atom: usize, parent: usize, depth: u8) -> String {
+        let a = match self.mol.atoms.get(atom) {
+            Some(a) => a,
+            None => return String::new(),
+        };
+        let mut s = format!(
+            "{}:{}:{}:{}",
+            a.element, a.charge, a.hydrogens, a.aromatic as u8
+        );
+        if depth == 0 {
+            return s;
+        }
+        let mut kids: Vec<String> = self
+            .nbrs(atom)
+            .iter()
+            .filter(|&&(j, _)| j != parent)
+            .map(|&(j, b)| format!("{}{}", self.order(b), self.signature(j, atom, depth - 1)))
+            .collect();
+        kids.sort();
+        s.push('(');
+        s.push_str(&kids.join(","));
+        s.push(')');
+        s
+    }
+}
+
+/// SMARTS patterns for the molecule-wide groups (name, pattern).
+const GROUP_PATTERNS: [(&str, &str); 15] = [
+    ("alpha_halo_carbonyl", "[CX4]([Cl,Br,I])[CX3]=O"),
+    ("ketone", "[#6][CX3](=O)[#6]"),
+    ("aldehyde", "[CX3H1](=O)[#6]"),
+    ("aldehyde", "[CH2X3]=O"),
+    ("ester", "[CX3;!$(C[#7])](=O)[OX2][#6;!$([#6]=O)]"),
+    ("carboxylic_acid", "[CX3](=O)[OX2H1]"),
+    ("amide", "[CX3](=O)[#7]"),
+    ("nitrile", "[CX2]#[NX1]"),
+    ("acyl_halide", "[CX3](=O)[F,Cl,Br,I]"),
+    ("anhydride", "[CX3](=O)[OX2][CX3]=O"),
+    ("alkyl_halide", "[CX4][Cl,Br,I]"),
+    ("alkyl_halide", "[CX4][OX2][SX4](=O)=O"),
+    ("nitro", "[#6][N+](=O)[O-]"),
+    ("nitro", "[#6]N(=O)=O"),
+    ("ester_alkoxy", "[CX3;!$(C[#7])](=O)[OX2:1][#6;!$([#6]=O)]"),
+];
+
+/// Alkoxy groups of esters, anchored on the ester oxygen.
+const ALKOXY_PATTERNS: [(&str, &str); 6] = [
+    ("methyl", "[OX2:1]([CH3])[CX3]=O"),
+    ("ethyl", "[OX2:1]([CH2][CH3])[CX3]=O"),
+    ("isopropyl", "[OX2:1]([CH1]([CH3])[CH3])[CX3]=O"),
+    ("tert-butyl", "[OX2:1](C([CH3])([CH3])[CH3])[CX3]=O"),
+    ("benzyl", "[OX2:1]([CH2]c)[CX3]=O"),
+    ("aryl", "[OX2:1](c)[CX3]=O"),
+];
+
+/// Leaving groups on the carbon next to a site carbon (anchored on the site).
+const BETA_LG_PATTERNS: [(&str, &str); 9] = [
+    ("fluoride", "[#6:1]-[CX4]-F"),
+    ("chloride", "[#6:1]-[CX4]-Cl"),
+    ("bromide", "[#6:1]-[CX4]-Br"),
+    ("iodide", "[#6:1]-[CX4]-I"),
+    ("sulfonate", "[#6:1]-[CX4]-[OX2]-[SX4](=O)=O"),
+    ("acyloxy", "[#6:1]-[CX4]-[OX2]-[CX3]=O"),
+    (
+        "alkoxy/hydroxy",
+        "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]",
+    ),
+    ("ammonium", "[#6:1]-[CX4]-[NX4+]"),
+    ("sulfonyl", "[#6:1]-[CX4]-[SX4](=O)(=O)[#6]"),
+];
+
+const DICARBONYL_PATTERN: &str = "[#6:1]([CX3]=O)[CX3]=O";
+
+struct Compiled {
+    groups: Vec<(&'static str, Pattern)>,
+    alkoxy: Vec<(&'static str, Pattern)>,
+    beta: Vec<(&'static str, Pattern)>,
+    dicarbonyl: Option<Pattern>,
+}
+
+fn compiled() -> &'static Compiled {
+    static CELL: OnceLock<Compiled> = OnceLock::new();
+    CELL.get_or_init(|| {
+        let list = |v: &[(&'static str, &'static str)]| {
+            v.iter()
+                .filter_map(|(n, p)| Pattern::parse(p).ok().map(|pat| (*n, pat)))
+                .collect::<Vec<_>>()
+        };
+        Compiled {
+            groups: list(&GROUP_PATTERNS),
+            alkoxy: list(&ALKOXY_PATTERNS),
+            beta: list(&BETA_LG_PATTERNS),
+            dicarbonyl: Pattern::parse(DICARBONYL_PATTERN).ok(),
+        }
+    })
+}
+
+/// Every SMARTS pattern used here parses (checked by a test).
+pub fn patterns_all_parse() -> Result<(), crate::smarts::PatternError> {
+    for (_, p) in GROUP_PATTERNS
+        .iter()
+        .chain(ALKOXY_PATTERNS.iter())
+        .chain(BETA_LG_PATTERNS.iter())
+    {
+        Pattern::parse(p)?;
+    }
+    Pattern::parse(DICARBONYL_PATTERN).map(|_| ())
+}
+
+/// Gather the features of `mol` for the sites of `sites`: functional groups
+/// by SMARTS pattern, per-site facts, and the grouping of alternative sites.
+pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
+    let g = Graph::new(mol);
+    let pats = compiled();
+    let target = SmartsTarget::new(mol);
+    let mut f = MoleculeFeatures::default();
+    for (name, p) in &pats.groups {
+        if *name == "ester_alkoxy" {
+            let oxygen = p.anchor().unwrap_or(0);
+            for m in p.unique_matches_in(&target) {
+                let Some(&o) = m.get(oxygen) else { continue };
+                let kind = pats
+                    .alkoxy
+                    .iter()
+                    .find(|(_, a)| a.matches_at_in(&target, o).is_some())
+                    .map(|(n, _)| *n)
+                    .unwrap_or("other");
+                f.ester_alkoxy.push(kind.to_string());
+            }
+            continue;
+        }
+        if !p.is_match_in(&target) {
+            continue;
+        }
+        match *name {
+            "ketone" => f.ketone = true,
+            "aldehyde" => f.aldehyde = true,
+            "ester" => f.ester = true,
+            "carboxylic_acid" => f.carboxylic_acid = true,
+            "amide" => f.amide = true,
+            "nitrile" => f.nitrile = true,
+            "acyl_halide" => f.acyl_halide = true,
+            "anhydride" => f.anhydride = true,
+            "alkyl_halide" => f.alkyl_halide = true,
+            "alpha_halo_carbonyl" => f.alpha_halo_carbonyl = true,
+            "nitro" => f.nitro = true,
+            _ => {}
+        }
+    }
+    f.ester_alkoxy.sort();
+    f.ester_alkoxy.dedup();
+
+    for site in &sites.sites {
+        let mut sf = SiteFeatures::default();
+        if site.is_carbon() {
+            for &t in &site.atoms {
+                if sf.beta_leaving_group.is_none() {
+                    sf.beta_leaving_group = pats
+                        .beta
+                        .iter()
+                        .find(|(_, p)| p.matches_at_in(&target, t).is_some())
+                        .map(|(n, _)| n.to_string());
+                }
+                if pats
+                    .dicarbonyl
+                    .as_ref()
+                    .map(|p| p.matches_at_in(&target, t).is_some())
+                    .unwrap_or(false)
+                {
+                    sf.dicarbonyl = true;
+                }
+                if g.h(t) == 1 && g.is_sp3_carbon(t) && g.nbrs(t).len() == 3 {
+                    let mut sigs: Vec<String> = g
+                        .nbrs(t)
+                        .iter()
+                        .map(|&(j, _)| g.signature(j, t, 4))
+                        .collect();
+                    sigs.sort();
+                    sigs.dedup();
+                    if sigs.len() == 3 {
+                        sf.stereocentre = true;
+                    }
+                }
+            }
+        }
+        f.sites.push(sf);
+    }
+    f.site_unit = group_units(&g, sites);
+    f
+}
+
+fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
+    let n = sites.sites.len();
+    let mut parent: Vec<usize> = (0..n).collect();
+    fn find(p: &mut [usize], mut i: usize) -> usize {
+        while p[i] != i {
+            p[i] = p[p[i]];
+            i = p[i];
+        }
+        i
+    }
+    let near = |a: usize, b: usize| -> bool {
+        if a == b {
+            return true;
+        }
+        let na: Vec<usize> = g.nbrs(a).iter().map(|&(x, _)| x).collect();
+        if na.contains(&b) {
+            return true;
+        }
+        g.nbrs(b).iter().any(|&(x, _)| na.contains(&x))
+    };
+    for i in 0..n {
+        for j in (i + 1)..n {
+            let (si, sj) = (&sites.sites[i], &sites.sites[j]);
+            if !(si.is_carbon() && sj.is_carbon()) {
+                continue;
+            }
+            if si
+                .atoms
+                .iter()
+                .any(|&a| sj.atoms.iter().any(|&b| near(a, b)))
+            {
+                let (ri, rj) = (find(&mut parent, i), find(&mut parent, j));
+                if ri != rj {
+                    parent[rj] = ri;
+                }
+            }
+        }
+    }
+    (0..n).map(|i| find(&mut parent, i)).collect()
+}
+
+/// Acid units for the solver on one scale: carbon sites grouped by
+/// `site_unit`; each atom of an O–H, N–H or S–H site is its own unit.
+/// Sites without a value on the scale are left out (said in `notes`).
+pub(crate) fn site_units(
+    sites: &SiteReport,
+    site_unit: &[usize],
+    scale: Scale,
+    notes: &mut Vec<String>,
+) -> Vec<AcidUnit> {
+    let mut units: Vec<(Option<usize>, AcidUnit)> = Vec::new();
+    for (i, s) in sites.sites.iter().enumerate() {
+        let pka = match scale {
+            Scale::Water => s.pka_water,
+            _ => s.pka_dmso,
+        };
+        let Some(pka) = pka else {
+            notes.push(format!(
+                "site at atoms {:?} has no {} value and is left out",
+                s.atoms,
+                scale.name()
+            ));
+            continue;
+        };
+        if s.is_carbon() {
+            let uid = site_unit.get(i).copied().unwrap_or(usize::MAX - i);
+            let m = Microsite {
+                site: i,
+                atoms: s.atoms.clone(),
+                pka,
+            };
+            if let Some((_, u)) = units.iter_mut().find(|(k, _)| *k == Some(uid)) {
+                u.alternatives.push(m);
+            } else {
+                units.push((
+                    Some(uid),
+                    AcidUnit {
+                        alternatives: vec![m],
+                    },
+                ));
+            }
+        } else {
+            for &a in &s.atoms {
+                units.push((
+                    None,
+                    AcidUnit {
+                        alternatives: vec![Microsite {
+                            site: i,
+                            atoms: vec![a],
+                            pka,
+                        }],
+                    },
+                ));
+            }
+        }
+    }
+    units.into_iter().map(|(_, u)| u).collect()
+}
