@@ -831,7 +831,9 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         }
     }
 
-    let ring_info = rings::perceive(n, &bonds, &nb, smiles)?;
+    // Rings with every bond; perceived again below without dative bonds
+    // if there are any.
+    let mut ring_info = rings::perceive(n, &bonds, &nb, &[], smiles)?;
 
     // Wildcards inside aromatic rings (`*1ccccc1`) are aromatic and may or
     // may not take a double bond.
@@ -1016,6 +1018,11 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         if d != u32::MAX {
             bond_sum[d as usize] -= bonds[b].kekule as u32;
         }
+    }
+    // Dative bonds make no rings (as in RDKit's ring information).
+    if dative_donor.iter().any(|&d| d != u32::MAX) {
+        let skip: Vec<bool> = dative_donor.iter().map(|&d| d != u32::MAX).collect();
+        ring_info = rings::perceive(n, &bonds, &nb, &skip, smiles)?;
     }
 
     // Aromaticity perception from scratch on the Kekulé structure.

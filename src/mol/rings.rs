@@ -1,27 +1,59 @@
-//! Ring perception.
+//! Ring perception: the one ring set of the crate, used by aromaticity, by
+//! the ring accessors of [`super::Molecule`] and by the SMARTS ring
+//! primitives (`R n`, `r n`, `x n`, `@`).
 //!
-//! Ring bonds are the bonds that are not bridges (found with an iterative
-//! depth-first search, so no input can make it recurse deeply). The ring
-//! bonds fall into ring systems; a system whose cycle rank is 1 is a single
-//! ring. For larger systems the candidate cycles of Horton (shortest path
-//! from a root to each end of an edge, closed by the edge) are sorted by
-//! size and reduced over GF(2): a candidate independent of all strictly
-//! shorter cycles is a *relevant* cycle (Vismara 1997). The relevant cycles
-//! are the union of all minimum cycle bases (SSSRs); using all of them
-//! instead of one arbitrary SSSR makes the result independent of atom order
-//! and equals RDKit's symmetrized SSSR on cages (cubane: 6 four-membered
-//! rings; bicyclo[2.2.2]octane: 3 six-membered rings). The SSSR size (cycle
-//! rank) is kept separately.
+//! Dative bonds (donor to metal) can be left out (`skip`), as RDKit leaves
+//! them out of its ring information. Biconnected blocks are found with an
+//! iterative depth-first search with an edge stack (so no input can make it
+//! recurse deeply); a ring bond is a bond in a block of more than one bond.
+//! The ring set splits exactly over the blocks, so each block is handled
+//! apart:
+//!
+//! * cycle rank 1: the block is one ring;
+//! * cycle rank 2: three paths between two atoms (a fused or bridged
+//!   bicycle); with path lengths l1 <= l2 <= l3 the rings are p1+p2 and
+//!   p1+p3, and p2+p3 too when l1 == l2 (bicyclo\[2.2.2\]octane: 3 rings);
+//! * higher rank: a smallest set of smallest rings (SSSR), then
+//!   symmetrised the way RDKit's ring information is.
+//!
+//! The SSSR: for every root atom a breadth-first tree over the block; each
+//! non-tree bond whose two tree paths meet only at the root closes a
+//! candidate cycle (Horton). Candidates are taken shortest first (roots in
+//! ascending atom order, then tree order) while independent over GF(2) of
+//! those already taken, until the cycle rank is reached.
+//!
+//! Symmetrisation (RDKit's `symmetrizeSSSR` restated): a further cycle
+//! joins the set when it has the size of a chosen ring and contains every
+//! bond that only that chosen ring provides (any bond of it when it has
+//! none). Cubane gets six four-membered rings, bicyclo\[2.2.2\]octane
+//! three six-membered rings and the para-cyclophane macrocycle
+//! `C1=Nc2ccc(cc2)N=Cc2ccc(cc2)OCc2cccc(n2)COc2ccc1cc2` its 4 benzene
+//! rings and 8 equivalent 23-membered rings, as in RDKit 2026.09 (issue 3).
+//! The union of all minimum cycle bases (relevant cycles), used before,
+//! gives that macrocycle 16 large rings and each of its ring atoms one ring
+//! too many or more.
+//!
+//! The search for equivalent cycles is a bounded depth-first search
+//! ([`CYCLE_STEP_LIMIT`] steps per bond, [`BLOCK_STEP_LIMIT`] per block);
+//! only pathological cages can reach the bound, and then some equivalent
+//! rings are missing. The SSSR size (cycle rank) is kept separately.
 
 use super::{Adj, Bond, MolError, Neighbor};
+use std::collections::HashSet;
 
-/// Ring systems larger than this (atoms × bonds of one system) are refused
-/// as too large: candidate generation is quadratic in the system size.
+/// Ring blocks larger than this (atoms × bonds of one block, cycle rank 3
+/// or more) are refused as too large: candidate generation is quadratic in
+/// the block size.
 pub(crate) const MAX_SYSTEM_WORK: usize = 4_000_000;
 
-/// Relevant cycles kept beyond the cycle rank of a system (pathological
-/// graphs can have exponentially many).
-const EXTRA_RELEVANT_LIMIT: usize = 64;
+/// Most search steps spent looking for the cycles of one size through one
+/// bond (symmetrisation).
+const CYCLE_STEP_LIMIT: usize = 200_000;
+
+/// Most search steps spent on the equivalent rings of one block.
+const BLOCK_STEP_LIMIT: usize = 2_000_000;
+
+const NONE: u32 = u32::MAX;
 
 /// Rings stored flat: ring `r` is `atoms[atom_start[r]..atom_start[r+1]]`
 /// in cycle order, with its bonds in the same way.
@@ -39,12 +71,6 @@ impl RingList {
 
     pub fn is_empty(&self) -> bool {
         self.len() == 0
-    }
-
-    fn reserve(&mut self, rings: usize, atoms: usize) {
-        self.start.reserve(rings + 1);
-        self.atoms.reserve(atoms);
-        self.bonds.reserve(atoms);
     }
 
     pub fn atoms(&self, r: usize) -> &[usize] {
@@ -79,7 +105,7 @@ impl RingList {
 
 #[derive(Debug, Clone, Default)]
 pub(crate) struct RingInfo {
-    /// The rings (relevant cycles).
+    /// The rings (symmetrised SSSR).
     pub list: RingList,
     /// Per atom: number of rings containing it.
     pub atom_rings: Vec<u16>,
@@ -91,23 +117,34 @@ pub(crate) struct RingInfo {
     pub bond_in_ring: Vec<bool>,
     /// Per bond: number of rings containing it.
     pub bond_rings: Vec<u16>,
-    /// Cycle rank (SSSR size): bonds - atoms + components.
+    /// Cycle rank (SSSR size): ring bonds - ring atoms + ring blocks.
     pub sssr_count: usize,
 }
 
-/// Mark bridges with an iterative Tarjan low-link search. Returns
-/// `in_ring` per bond.
-fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
-    let mut in_ring = vec![true; bonds.len()];
-    if bonds.is_empty() {
-        return in_ring;
-    }
+/// Biconnected blocks of more than one bond: `block[b]` is the block of
+/// bond `b` (NONE for bridges and skipped bonds); block `k` has the bonds
+/// `edges[start[k]..start[k + 1]]`.
+struct Blocks {
+    block: Vec<u32>,
+    edges: Vec<usize>,
+    start: Vec<usize>,
+}
+
+/// Iterative Tarjan search with an edge stack.
+fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
+    let mut out = Blocks {
+        block: vec![NONE; n_bonds],
+        edges: Vec::new(),
+        start: vec![0],
+    };
+    let skipped = |b: usize| skip.get(b).copied().unwrap_or(false);
     // disc 0 = not visited; times start at 1.
     let mut disc = vec![0u32; n];
     let mut low = vec![0u32; n];
     let mut time = 0u32;
+    let mut edge_stack: Vec<usize> = Vec::new();
     // (atom, bond used to enter, next adjacency position, end position)
-    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
+    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::new();
     for root in 0..n {
         if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
@@ -115,23 +152,27 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
         time += 1;
         disc[root] = time;
         low[root] = time;
-        stack.push((root as u32, u32::MAX, nb.start[root], nb.start[root + 1]));
+        stack.push((root as u32, NONE, nb.start[root], nb.start[root + 1]));
         while let Some(top) = stack.last_mut() {
             let (v, via, pos, end) = *top;
             let v = v as usize;
             if pos < end {
                 top.2 += 1;
                 let Neighbor { atom: w, bond: b } = nb.list[pos as usize];
-                if b as u32 == via {
+                if b as u32 == via || skipped(b) {
                     continue;
                 }
                 if disc[w] == 0 {
+                    edge_stack.push(b);
                     time += 1;
                     disc[w] = time;
                     low[w] = time;
                     stack.push((w as u32, b as u32, nb.start[w], nb.start[w + 1]));
-                } else if disc[w] < low[v] {
-                    low[v] = disc[w];
+                } else if disc[w] < disc[v] {
+                    edge_stack.push(b);
+                    if disc[w] < low[v] {
+                        low[v] = disc[w];
+                    }
                 }
             } else {
                 stack.pop();
@@ -140,18 +181,267 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
                     if low[v] < low[parent] {
                         low[parent] = low[v];
                     }
-                    if low[v] > disc[parent] {
-                        in_ring[via as usize] = false;
+                    if low[v] >= disc[parent] {
+                        // Bonds above `via` on the stack, and `via`, form a
+                        // block.
+                        let from = out.edges.len();
+                        while let Some(e) = edge_stack.pop() {
+                            out.edges.push(e);
+                            if e as u32 == via {
+                                break;
+                            }
+                        }
+                        if out.edges.len() - from < 2 {
+                            out.edges.truncate(from); // a bridge
+                        } else {
+                            let k = (out.start.len() - 1) as u32;
+                            for &e in &out.edges[from..] {
+                                out.block[e] = k;
+                            }
+                            out.start.push(out.edges.len());
+                        }
                     }
                 }
             }
         }
     }
-    in_ring
+    out
 }
 
-/// A GF(2) vector over the bonds of one ring system.
+/// Scratch space shared by the blocks of one molecule.
+struct Scratch {
+    /// Per atom: local index in the current block (NONE outside it).
+    local: Vec<u32>,
+    /// Per atom: number of bonds of the current block at it.
+    degree: Vec<u32>,
+    /// Per bond: local index in the current block (NONE outside it).
+    local_bond: Vec<u32>,
+}
+
+/// Perceive the rings of a molecule with `n` atoms, leaving out the bonds
+/// marked in `skip` (may be shorter than `bonds`; missing entries are
+/// false).
+pub(crate) fn perceive(
+    n: usize,
+    bonds: &[Bond],
+    nb: &Adj,
+    skip: &[bool],
+    smiles: &str,
+) -> Result<RingInfo, MolError> {
+    let blocks = blocks(n, bonds.len(), nb, skip);
+    let mut info = RingInfo {
+        atom_rings: vec![0; n],
+        atom_smallest: vec![0; n],
+        atom_ring_bonds: vec![0; n],
+        bond_in_ring: blocks.block.iter().map(|&k| k != NONE).collect(),
+        bond_rings: vec![0; bonds.len()],
+        ..RingInfo::default()
+    };
+    let n_blocks = blocks.start.len() - 1;
+    if n_blocks == 0 {
+        return Ok(info);
+    }
+    for &b in &blocks.edges {
+        let [x, y] = bonds[b].atoms;
+        info.atom_ring_bonds[x] = info.atom_ring_bonds[x].saturating_add(1);
+        info.atom_ring_bonds[y] = info.atom_ring_bonds[y].saturating_add(1);
+    }
+    let mut scratch = Scratch {
+        local: vec![NONE; n],
+        degree: vec![0; n],
+        local_bond: Vec::new(),
+    };
+    let mut atoms: Vec<usize> = Vec::new();
+    for k in 0..n_blocks {
+        let edges = &blocks.edges[blocks.start[k]..blocks.start[k + 1]];
+        atoms.clear();
+        for &b in edges {
+            for a in bonds[b].atoms {
+                if scratch.degree[a] == 0 {
+                    atoms.push(a);
+                }
+                scratch.degree[a] += 1;
+            }
+        }
+        let rank = edges.len() + 1 - atoms.len();
+        info.sssr_count += rank;
+        let in_block = |b: usize| blocks.block.get(b) == Some(&(k as u32));
+        if rank == 1 {
+            // A single ring: walk it from its first atom.
+            let start = atoms[0];
+            let mut ring = Vec::with_capacity(atoms.len());
+            let (mut cur, mut via) = (start, usize::MAX);
+            while ring.len() < atoms.len() {
+                ring.push(cur);
+                match nb
+                    .get(cur)
+                    .iter()
+                    .find(|x| in_block(x.bond) && x.bond != via)
+                {
+                    Some(x) if x.atom != start => {
+                        via = x.bond;
+                        cur = x.atom;
+                    }
+                    _ => break,
+                }
+            }
+            info.list.push(ring, nb);
+        } else if rank == 2 && theta(&atoms, &scratch.degree, &in_block, nb, &mut info.list) {
+            // bicyclic block handled directly
+        } else {
+            if atoms.len().saturating_mul(edges.len()) > MAX_SYSTEM_WORK {
+                return Err(MolError::new(
+                    super::ErrorKind::TooLarge,
+                    format!(
+                        "a ring system of {} atoms and {} ring bonds is too large to analyse",
+                        atoms.len(),
+                        edges.len()
+                    ),
+                    None,
+                    smiles,
+                ));
+            }
+            atoms.sort_unstable();
+            if scratch.local_bond.is_empty() {
+                scratch.local_bond = vec![NONE; bonds.len()];
+            }
+            for (i, &a) in atoms.iter().enumerate() {
+                scratch.local[a] = i as u32;
+            }
+            for (i, &b) in edges.iter().enumerate() {
+                scratch.local_bond[b] = i as u32;
+            }
+            symmetrised_sssr(&atoms, edges, rank, bonds, nb, &scratch, &mut info.list);
+            for &a in atoms.iter() {
+                scratch.local[a] = NONE;
+            }
+            for &b in edges {
+                scratch.local_bond[b] = NONE;
+            }
+        }
+        for &a in atoms.iter() {
+            scratch.degree[a] = 0;
+        }
+    }
+    for r in 0..info.list.len() {
+        let (ring, rb) = (info.list.atoms(r), info.list.bonds(r));
+        let size = ring.len().min(u16::MAX as usize) as u16;
+        for &a in ring {
+            info.atom_rings[a] = info.atom_rings[a].saturating_add(1);
+            if info.atom_smallest[a] == 0 || size < info.atom_smallest[a] {
+                info.atom_smallest[a] = size;
+            }
+        }
+        for &b in rb {
+            if let Some(c) = info.bond_rings.get_mut(b) {
+                *c = c.saturating_add(1);
+            }
+        }
+    }
+    Ok(info)
+}
+
+/// Follow a chain of atoms with two block bonds from `first` until an atom
+/// with more, appending the atoms after the start to `out`.
+fn follow_chain(
+    first: Neighbor,
+    degree: &[u32],
+    in_block: &impl Fn(usize) -> bool,
+    nb: &Adj,
+    limit: usize,
+    out: &mut Vec<usize>,
+) {
+    out.push(first.atom);
+    let mut cur = first.atom;
+    let mut via = first.bond;
+    let mut steps = 0;
+    while degree[cur] == 2 && steps <= limit {
+        let Some(next) = nb
+            .get(cur)
+            .iter()
+            .find(|x| in_block(x.bond) && x.bond != via)
+        else {
+            break;
+        };
+        via = next.bond;
+        cur = next.atom;
+        out.push(cur);
+        steps += 1;
+    }
+}
+
+/// Rings of a block of cycle rank 2: three paths between two atoms. With
+/// path lengths l1 <= l2 <= l3 the rings p1+p2 and p1+p3, and p2+p3 too
+/// when l1 == l2 (the symmetrised SSSR). Returns false for any other shape
+/// (left to the general method).
+fn theta(
+    atoms: &[usize],
+    degree: &[u32],
+    in_block: &impl Fn(usize) -> bool,
+    nb: &Adj,
+    out: &mut RingList,
+) -> bool {
+    let mut branch = [usize::MAX; 2];
+    let mut n_branch = 0;
+    for &a in atoms {
+        if degree[a] > 2 {
+            if n_branch == 2 || degree[a] != 3 {
+                return false;
+            }
+            branch[n_branch] = a;
+            n_branch += 1;
+        }
+    }
+    if n_branch != 2 {
+        return false;
+    }
+    let (a, b) = (branch[0], branch[1]);
+    let mut buf: Vec<usize> = Vec::with_capacity(atoms.len() + 4);
+    // Paths as ranges of `buf`, each ending at b.
+    let mut paths = [(0usize, 0usize); 3];
+    let mut k = 0;
+    for &x in nb.get(a).iter().filter(|x| in_block(x.bond)) {
+        if k == 3 {
+            return false;
+        }
+        let from = buf.len();
+        follow_chain(x, degree, in_block, nb, atoms.len(), &mut buf);
+        if buf.last() != Some(&b) {
+            return false;
+        }
+        paths[k] = (from, buf.len());
+        k += 1;
+    }
+    if k != 3 {
+        return false;
+    }
+    paths.sort_by_key(|p| p.1 - p.0);
+    let len = |p: (usize, usize)| p.1 - p.0;
+    let mut pairs = [(0, 1), (0, 2), (1, 2)].as_slice();
+    if len(paths[0]) != len(paths[1]) {
+        pairs = &pairs[..2];
+    }
+    for &(i, j) in pairs {
+        // a, path i (ending at b), then path j reversed back towards a.
+        let (pi, pj) = (paths[i], paths[j]);
+        let ring = std::iter::once(a)
+            .chain(buf[pi.0..pi.1].iter().copied())
+            .chain(buf[pj.0..pj.1].iter().rev().skip(1).copied());
+        out.push(ring, nb);
+    }
+    true
+}
+
+/// A GF(2) vector over the bonds of one block.
 type Bits = Vec<u64>;
+
+fn has(bits: &Bits, k: usize) -> bool {
+    bits[k / 64] >> (k % 64) & 1 == 1
+}
+
+fn flip(bits: &mut Bits, k: usize) {
+    bits[k / 64] ^= 1 << (k % 64);
+}
 
 fn lowest(bits: &Bits) -> Option<usize> {
     bits.iter()
@@ -162,354 +452,75 @@ fn lowest(bits: &Bits) -> Option<usize> {
 
 /// Echelon basis keyed by lowest set bit.
 struct Basis {
-    by_pivot: Vec<Option<usize>>,
+    by_pivot: Vec<u32>,
     vectors: Vec<Bits>,
 }
 
 impl Basis {
     fn new(bits: usize) -> Self {
         Basis {
-            by_pivot: vec![None; bits],
+            by_pivot: vec![NONE; bits],
             vectors: Vec::new(),
         }
     }
 
-    /// Reduce `v` by the basis; returns the remainder's pivot if nonzero.
-    fn reduce(&self, v: &mut Bits) -> Option<usize> {
+    /// Reduce `v` (a scratch copy) by the basis and keep it if it is
+    /// independent; returns whether it was.
+    fn insert(&mut self, v: &mut Bits) -> bool {
         while let Some(p) = lowest(v) {
             match self.by_pivot[p] {
-                Some(k) => {
-                    for (a, b) in v.iter_mut().zip(&self.vectors[k]) {
+                NONE => {
+                    self.by_pivot[p] = self.vectors.len() as u32;
+                    self.vectors.push(v.clone());
+                    return true;
+                }
+                k => {
+                    for (a, b) in v.iter_mut().zip(&self.vectors[k as usize]) {
                         *a ^= *b;
                     }
                 }
-                None => return Some(p),
             }
         }
-        None
-    }
-
-    fn insert(&mut self, mut v: Bits) -> bool {
-        match self.reduce(&mut v) {
-            Some(p) => {
-                self.by_pivot[p] = Some(self.vectors.len());
-                self.vectors.push(v);
-                true
-            }
-            None => false,
-        }
-    }
-
-    fn rank(&self) -> usize {
-        self.vectors.len()
-    }
-}
-
-pub(crate) fn perceive(
-    n: usize,
-    bonds: &[Bond],
-    nb: &Adj,
-    smiles: &str,
-) -> Result<RingInfo, MolError> {
-    let bond_in_ring = ring_bonds(n, bonds, nb);
-    let mut info = RingInfo {
-        atom_rings: vec![0; n],
-        atom_smallest: vec![0; n],
-        atom_ring_bonds: vec![0; n],
-        bond_rings: vec![0; bonds.len()],
-        ..RingInfo::default()
-    };
-    let ring_bond_total = bond_in_ring.iter().filter(|r| **r).count();
-    info.bond_in_ring = bond_in_ring;
-    if ring_bond_total == 0 {
-        return Ok(info);
-    }
-    for (b, bond) in bonds.iter().enumerate() {
-        if info.bond_in_ring[b] {
-            info.atom_ring_bonds[bond.atoms[0]] += 1;
-            info.atom_ring_bonds[bond.atoms[1]] += 1;
-        }
-    }
-    // Ring systems: breadth-first over ring bonds; `sys_atoms` lists the
-    // atoms system by system, `atom_off` where each system starts.
-    let mut label = vec![u32::MAX; n];
-    let mut sys_atoms: Vec<usize> = Vec::with_capacity(n);
-    let mut atom_off: Vec<usize> = vec![0];
-    for a in 0..n {
-        if info.atom_ring_bonds[a] == 0 || label[a] != u32::MAX {
-            continue;
-        }
-        let k = (atom_off.len() - 1) as u32;
-        label[a] = k;
-        let mut head = sys_atoms.len();
-        sys_atoms.push(a);
-        while head < sys_atoms.len() {
-            let v = sys_atoms[head];
-            head += 1;
-            for x in nb.get(v) {
-                if info.bond_in_ring[x.bond] && label[x.atom] == u32::MAX {
-                    label[x.atom] = k;
-                    sys_atoms.push(x.atom);
-                }
-            }
-        }
-        atom_off.push(sys_atoms.len());
-    }
-    let n_systems = atom_off.len() - 1;
-    let ring_atom_total = sys_atoms.len();
-    // Ring bonds grouped the same way (counting sort by system).
-    let mut bond_off = vec![0usize; n_systems + 1];
-    for (b, bond) in bonds.iter().enumerate() {
-        if info.bond_in_ring[b] {
-            bond_off[label[bond.atoms[0]] as usize + 1] += 1;
-        }
-    }
-    for k in 0..n_systems {
-        bond_off[k + 1] += bond_off[k];
-    }
-    let mut sys_bonds = vec![0usize; ring_bond_total];
-    {
-        let mut cursor = bond_off.clone();
-        for (b, bond) in bonds.iter().enumerate() {
-            if info.bond_in_ring[b] {
-                let k = label[bond.atoms[0]] as usize;
-                sys_bonds[cursor[k]] = b;
-                cursor[k] += 1;
-            }
-        }
-    }
-    info.list.reserve(n_systems * 2, ring_atom_total * 2);
-    for k in 0..n_systems {
-        let atoms = &sys_atoms[atom_off[k]..atom_off[k + 1]];
-        let sbonds = &sys_bonds[bond_off[k]..bond_off[k + 1]];
-        let rank = sbonds.len() + 1 - atoms.len();
-        info.sssr_count += rank;
-        if rank == 1 {
-            // A single ring: walk it from its first atom.
-            let (start, in_ring) = (atoms[0], &info.bond_in_ring);
-            let mut prev_bond = usize::MAX;
-            let mut cur = start;
-            let mut steps = 0;
-            let walk = std::iter::from_fn(|| {
-                if steps > atoms.len() {
-                    return None;
-                }
-                let here = cur;
-                if steps > 0 && here == start {
-                    return None;
-                }
-                steps += 1;
-                if let Some(x) = nb
-                    .get(cur)
-                    .iter()
-                    .find(|x| in_ring[x.bond] && x.bond != prev_bond)
-                {
-                    prev_bond = x.bond;
-                    cur = x.atom;
-                }
-                Some(here)
-            });
-            info.list.push(walk, nb);
-        } else if rank == 2
-            && two_ring_system(
-                atoms,
-                &info.atom_ring_bonds,
-                &info.bond_in_ring,
-                nb,
-                &mut info.list,
-            )
-        {
-            // bicyclic system handled directly
-        } else {
-            if atoms.len().saturating_mul(sbonds.len()) > MAX_SYSTEM_WORK {
-                return Err(MolError::new(
-                    super::ErrorKind::TooLarge,
-                    format!(
-                        "a ring system of {} atoms and {} ring bonds is too large to analyse",
-                        atoms.len(),
-                        sbonds.len()
-                    ),
-                    None,
-                    smiles,
-                ));
-            }
-            relevant_cycles(
-                n,
-                atoms,
-                sbonds,
-                rank,
-                bonds,
-                &info.bond_in_ring,
-                nb,
-                &mut info.list,
-            );
-        }
-    }
-    for r in 0..info.list.len() {
-        let (ring, rb) = (info.list.atoms(r), info.list.bonds(r));
-        let size = ring.len() as u16;
-        for &a in ring {
-            info.atom_rings[a] += 1;
-            if info.atom_smallest[a] == 0 || size < info.atom_smallest[a] {
-                info.atom_smallest[a] = size;
-            }
-        }
-        for &b in rb {
-            if let Some(c) = info.bond_rings.get_mut(b) {
-                *c += 1;
-            }
-        }
-    }
-    Ok(info)
-}
-
-/// Follow a chain of two-connected ring atoms from bond `first` until an
-/// atom with more ring bonds, appending the atoms after the start to `out`.
-/// Returns the bond by which the last atom was reached.
-fn follow_chain(
-    first: Neighbor,
-    ring_degree: &[u8],
-    in_ring: &[bool],
-    nb: &Adj,
-    limit: usize,
-    out: &mut Vec<usize>,
-) -> usize {
-    out.push(first.atom);
-    let mut cur = first.atom;
-    let mut via = first.bond;
-    let mut steps = 0;
-    while ring_degree[cur] == 2 && steps <= limit {
-        let Some(next) = nb
-            .get(cur)
-            .iter()
-            .find(|x| in_ring[x.bond] && x.bond != via)
-        else {
-            break;
-        };
-        via = next.bond;
-        cur = next.atom;
-        out.push(cur);
-        steps += 1;
-    }
-    via
-}
-
-/// Rings of a system of cycle rank 2: three paths between two branch atoms
-/// (fused or bridged bicycle) or two loops at one atom (spiro). Relevant
-/// cycles: with path lengths l1 <= l2 <= l3 the rings p1+p2 and p1+p3, and
-/// p2+p3 too when l1 == l2 (bicyclo[2.2.2]octane). Returns false for any
-/// other shape (left to the general method).
-fn two_ring_system(
-    atoms: &[usize],
-    ring_degree: &[u8],
-    in_ring: &[bool],
-    nb: &Adj,
-    out: &mut RingList,
-) -> bool {
-    let mut branch = [usize::MAX; 2];
-    let mut n_branch = 0;
-    for &a in atoms {
-        if ring_degree[a] > 2 {
-            if n_branch == 2 {
-                return false;
-            }
-            branch[n_branch] = a;
-            n_branch += 1;
-        }
-    }
-    let limit = atoms.len();
-    let mut buf: Vec<usize> = Vec::with_capacity(atoms.len() + 4);
-    if n_branch == 2 && ring_degree[branch[0]] == 3 && ring_degree[branch[1]] == 3 {
-        let (a, b) = (branch[0], branch[1]);
-        // Paths as ranges of `buf`, each ending at b.
-        let mut paths = [(0usize, 0usize); 3];
-        let mut k = 0;
-        for &x in nb.get(a).iter().filter(|x| in_ring[x.bond]) {
-            if k == 3 {
-                return false;
-            }
-            let from = buf.len();
-            follow_chain(x, ring_degree, in_ring, nb, limit, &mut buf);
-            if buf.last() != Some(&b) {
-                return false;
-            }
-            paths[k] = (from, buf.len());
-            k += 1;
-        }
-        if k != 3 {
-            return false;
-        }
-        paths.sort_by_key(|p| p.1 - p.0);
-        let len = |p: (usize, usize)| p.1 - p.0;
-        let mut pairs = [(0, 1), (0, 2), (1, 2)].as_slice();
-        if len(paths[0]) != len(paths[1]) {
-            pairs = &pairs[..2];
-        }
-        for &(i, j) in pairs {
-            // a, path i (ending at b), then path j reversed back towards a.
-            let (pi, pj) = (paths[i], paths[j]);
-            let ring = std::iter::once(a)
-                .chain(buf[pi.0..pi.1].iter().copied())
-                .chain(buf[pj.0..pj.1].iter().rev().skip(1).copied());
-            out.push(ring, nb);
-        }
-        true
-    } else if n_branch == 1 && ring_degree[branch[0]] == 4 {
-        let c = branch[0];
-        let mut closing = [usize::MAX; 2];
-        let mut k = 0;
-        for &x in nb.get(c).iter().filter(|x| in_ring[x.bond]) {
-            if closing.contains(&x.bond) {
-                continue;
-            }
-            if k == 2 {
-                return false;
-            }
-            buf.clear();
-            let last = follow_chain(x, ring_degree, in_ring, nb, limit, &mut buf);
-            if buf.last() != Some(&c) {
-                return false;
-            }
-            closing[k] = last;
-            k += 1;
-            out.push(
-                std::iter::once(c).chain(buf[..buf.len() - 1].iter().copied()),
-                nb,
-            );
-        }
-        true
-    } else {
         false
     }
 }
 
-#[allow(clippy::too_many_arguments)]
-fn relevant_cycles(
-    n: usize,
+/// The symmetrised SSSR of one block of cycle rank 3 or more. `atoms` are
+/// ascending; `scratch.local` and `scratch.local_bond` number the block's
+/// atoms and bonds.
+fn symmetrised_sssr(
     atoms: &[usize],
-    sbonds: &[usize],
+    edges: &[usize],
     rank: usize,
     bonds: &[Bond],
-    in_ring: &[bool],
     nb: &Adj,
+    scratch: &Scratch,
     out: &mut RingList,
 ) {
-    const NONE: u32 = u32::MAX;
+    let (local, local_bond) = (&scratch.local, &scratch.local_bond);
     let v = atoms.len();
-    let mut local = vec![NONE; n];
-    for (i, &a) in atoms.iter().enumerate() {
-        local[a] = i as u32;
+    let e = edges.len();
+    // Block bonds at each local atom as (local atom, global bond), in
+    // adjacency order.
+    let mut row_start = Vec::with_capacity(v + 1);
+    let mut row: Vec<(u32, u32)> = Vec::with_capacity(2 * e);
+    row_start.push(0);
+    for &a in atoms {
+        for x in nb.get(a) {
+            if local_bond.get(x.bond).is_some_and(|&l| l != NONE) {
+                row.push((local[x.atom], x.bond as u32));
+            }
+        }
+        row_start.push(row.len());
     }
-    let mut local_bond = vec![NONE; bonds.len()];
-    for (i, &b) in sbonds.iter().enumerate() {
-        local_bond[b] = i as u32;
-    }
-    // BFS trees from every root: distance, parent atom, parent bond, branch.
+    let rows = |x: usize| &row[row_start[x]..row_start[x + 1]];
+    // Breadth-first trees from every root: distance, parent atom, parent
+    // bond, first atom after the root.
     let mut dist = vec![NONE; v * v];
     let mut par = vec![NONE; v * v];
     let mut pbond = vec![NONE; v * v];
     let mut branch = vec![NONE; v * v];
-    // Candidates: (length, root, bond)
+    // Candidates in generation order: (length, root, bond).
     let mut cands: Vec<(u32, u32, u32)> = Vec::new();
     let mut queue = Vec::with_capacity(v);
     for r in 0..v {
@@ -521,121 +532,216 @@ fn relevant_cycles(
         while head < queue.len() {
             let x = queue[head];
             head += 1;
-            for nbr in nb.get(atoms[x]) {
-                if !in_ring[nbr.bond] {
-                    continue;
-                }
-                let y = local[nbr.atom] as usize;
+            for &(y, b) in rows(x) {
+                let y = y as usize;
                 if dist[base + y] == NONE {
                     dist[base + y] = dist[base + x] + 1;
                     par[base + y] = x as u32;
-                    pbond[base + y] = nbr.bond as u32;
+                    pbond[base + y] = b;
                     branch[base + y] = if x == r { y as u32 } else { branch[base + x] };
                     queue.push(y);
                 }
             }
         }
-        for &b in sbonds {
-            let [ga, gb] = bonds[b].atoms;
-            let (x, y) = (local[ga] as usize, local[gb] as usize);
-            if pbond[base + x] == b as u32 || pbond[base + y] == b as u32 {
-                continue;
-            }
-            let disjoint = x == r || y == r || branch[base + x] != branch[base + y];
-            if disjoint {
-                cands.push((dist[base + x] + dist[base + y] + 1, r as u32, b as u32));
+        for &x in &queue {
+            for &(y, b) in rows(x) {
+                let y = y as usize;
+                if x > y || pbond[base + x] == b || pbond[base + y] == b {
+                    continue;
+                }
+                if x == r || y == r || branch[base + x] != branch[base + y] {
+                    cands.push((dist[base + x] + dist[base + y] + 1, r as u32, b));
+                }
             }
         }
     }
-    cands.sort_unstable();
-    let words = sbonds.len().div_ceil(64);
-    let mut shorter = Basis::new(sbonds.len());
-    let mut current = Basis::new(sbonds.len());
-    let mut found: Vec<Bits> = Vec::new();
-    let mut seen_keys: Vec<u64> = Vec::new();
-    let mut extra = 0usize;
-    let mut i = 0;
-    while i < cands.len() {
-        let len = cands[i].0;
-        let mut j = i;
-        while j < cands.len() && cands[j].0 == len {
-            j += 1;
-        }
-        if shorter.rank() == rank {
+    // Shortest first; the stable sort keeps generation order within a size.
+    cands.sort_by_key(|c| c.0);
+    let words = e.div_ceil(64);
+    let mut basis = Basis::new(e);
+    let mut chosen: Vec<(Bits, Vec<usize>)> = Vec::with_capacity(rank);
+    let mut bits: Bits = vec![0; words];
+    let mut work: Bits = vec![0; words];
+    for &(_, r, b) in &cands {
+        if chosen.len() == rank {
             break;
         }
-        for &(_, r, b) in &cands[i..j] {
-            let (r, b) = (r as usize, b as usize);
-            let base = r * v;
-            let [ga, gb] = bonds[b].atoms;
-            let (x, y) = (local[ga] as usize, local[gb] as usize);
-            // Cheap identity of the cycle (xor of mixed bond numbers) to skip
-            // the copies found from its other atoms before materialising it.
-            let mix = |bond: u32| {
-                (bond as u64 + 1)
-                    .wrapping_mul(0x9E37_79B9_7F4A_7C15)
-                    .rotate_left(17)
-            };
-            let mut key = mix(b as u32);
-            for start in [x, y] {
-                let mut c = start;
-                while c != r {
-                    key ^= mix(pbond[base + c]);
-                    c = par[base + c] as usize;
-                }
-            }
-            if seen_keys.contains(&key) {
-                continue;
-            }
-            seen_keys.push(key);
-            // Materialise the cycle: r .. x, y .. r.
-            let mut bits: Bits = vec![0; words];
-            let mut set = |bond: usize| {
-                if let Some(&k) = local_bond.get(bond) {
-                    if k != NONE {
-                        let k = k as usize;
-                        bits[k / 64] ^= 1 << (k % 64);
-                    }
-                }
-            };
-            set(b);
-            let mut path_x = vec![x];
-            let mut c = x;
+        let (r, b) = (r as usize, b as usize);
+        let base = r * v;
+        let [ga, gb] = bonds[b].atoms;
+        let (x, y) = (local[ga] as usize, local[gb] as usize);
+        bits.iter_mut().for_each(|w| *w = 0);
+        flip(&mut bits, local_bond[b] as usize);
+        for start in [x, y] {
+            let mut c = start;
             while c != r {
-                set(pbond[base + c] as usize);
-                c = par[base + c] as usize;
-                path_x.push(c);
-            }
-            let mut path_y = Vec::new();
-            let mut c = y;
-            while c != r {
-                path_y.push(c);
-                set(pbond[base + c] as usize);
+                flip(&mut bits, local_bond[pbond[base + c] as usize] as usize);
                 c = par[base + c] as usize;
             }
-            let mut reduced = bits.clone();
-            if shorter.reduce(&mut reduced).is_none() {
-                continue; // a sum of shorter cycles: not relevant
+        }
+        work.copy_from_slice(&bits);
+        if !basis.insert(&mut work) {
+            continue;
+        }
+        // The ring in cycle order: r .. x, then y .. (child of r).
+        let mut ring = Vec::new();
+        let mut c = x;
+        while c != r {
+            ring.push(c);
+            c = par[base + c] as usize;
+        }
+        ring.push(r);
+        ring.reverse();
+        let mut c = y;
+        while c != r {
+            ring.push(c);
+            c = par[base + c] as usize;
+        }
+        chosen.push((bits.clone(), ring));
+    }
+    drop((dist, par, pbond, branch));
+    // Symmetrise: add the cycles of a chosen ring's size that contain every
+    // bond only that ring provides.
+    let mut bond_count = vec![0u32; e];
+    for (cb, _) in &chosen {
+        for (k, c) in bond_count.iter_mut().enumerate() {
+            if has(cb, k) {
+                *c += 1;
             }
-            if found.contains(&bits) {
-                continue;
-            }
-            let independent = current.insert(bits.clone());
-            if !independent {
-                if extra >= EXTRA_RELEVANT_LIMIT {
+        }
+    }
+    let mut ends = vec![(0u32, 0u32); e];
+    for (k, &b) in edges.iter().enumerate() {
+        let [ga, gb] = bonds[b].atoms;
+        let (x, y) = (local[ga], local[gb]);
+        ends[k] = (x.min(y), x.max(y));
+    }
+    let mut known: HashSet<Bits> = chosen.iter().map(|c| c.0.clone()).collect();
+    let mut extra: Vec<Vec<usize>> = Vec::new();
+    let mut search = CycleSearch {
+        rows: &row,
+        row_start: &row_start,
+        local_bond,
+        ends: &ends,
+        words,
+        dist: vec![NONE; v],
+        on_path: vec![false; v],
+        budget: BLOCK_STEP_LIMIT,
+    };
+    for (cb, ring) in &chosen {
+        let len = ring.len();
+        let unique: Vec<usize> = (0..e)
+            .filter(|&k| has(cb, k) && bond_count[k] == 1)
+            .collect();
+        let starts: Vec<usize> = match unique.first() {
+            Some(&k) => vec![k],
+            None => (0..e).filter(|&k| has(cb, k)).collect(),
+        };
+        for k in starts {
+            search.cycles_through(k, len, |path, pbits| {
+                if unique.iter().all(|&u| has(pbits, u)) && !known.contains(pbits) {
+                    known.insert(pbits.clone());
+                    extra.push(path.to_vec());
+                }
+            });
+        }
+    }
+    for ring in chosen.iter().map(|c| &c.1).chain(&extra) {
+        out.push(ring.iter().map(|&l| atoms[l]), nb);
+    }
+}
+
+/// Depth-first search for the simple cycles of one size through one bond
+/// of a block (local numbering).
+struct CycleSearch<'a> {
+    rows: &'a [(u32, u32)],
+    row_start: &'a [usize],
+    local_bond: &'a [u32],
+    ends: &'a [(u32, u32)],
+    words: usize,
+    dist: Vec<u32>,
+    on_path: Vec<bool>,
+    budget: usize,
+}
+
+impl CycleSearch<'_> {
+    /// Call `found(atoms, bits)` for each simple cycle of exactly `len`
+    /// atoms through local bond `k`, until [`CYCLE_STEP_LIMIT`] steps or
+    /// the block's budget are spent.
+    fn cycles_through(&mut self, k: usize, len: usize, mut found: impl FnMut(&[usize], &Bits)) {
+        let Some(&(a, b)) = self.ends.get(k) else {
+            return;
+        };
+        let (a, b) = (a as usize, b as usize);
+        if len < 3 {
+            return;
+        }
+        let rows = |x: usize| &self.rows[self.row_start[x]..self.row_start[x + 1]];
+        // Distances to `a` without bond k.
+        self.dist.iter_mut().for_each(|d| *d = NONE);
+        self.dist[a] = 0;
+        let mut queue = vec![a];
+        let mut head = 0;
+        while head < queue.len() {
+            let x = queue[head];
+            head += 1;
+            for &(y, bond) in rows(x) {
+                let y = y as usize;
+                if self.local_bond[bond as usize] as usize == k || self.dist[y] != NONE {
                     continue;
                 }
-                extra += 1;
+                self.dist[y] = self.dist[x] + 1;
+                queue.push(y);
             }
-            found.push(bits);
-            // Atom order: r .. x then y .. (child of r).
-            path_x.reverse();
-            let ring = path_x.iter().chain(path_y.iter()).map(|&l| atoms[l]);
-            out.push(ring, nb);
         }
-        for vct in &current.vectors[shorter.rank()..] {
-            shorter.insert(vct.clone());
+        // Paths from b to a of len - 1 bonds.
+        let mut path = vec![b];
+        let mut cursor = vec![0usize];
+        let mut path_bonds: Vec<usize> = Vec::with_capacity(len);
+        self.on_path[b] = true;
+        let mut bits: Bits = vec![0; self.words];
+        let mut steps = 0usize;
+        while let Some(&x) = path.last() {
+            steps += 1;
+            if steps > CYCLE_STEP_LIMIT || self.budget == 0 {
+                break;
+            }
+            self.budget -= 1;
+            let depth = path.len() - 1; // bonds used so far
+            let i = cursor[depth];
+            let row = rows(x);
+            if x == a || i >= row.len() {
+                if x == a && depth == len - 1 {
+                    bits.iter_mut().for_each(|w| *w = 0);
+                    flip(&mut bits, k);
+                    for &l in &path_bonds {
+                        flip(&mut bits, l);
+                    }
+                    found(&path, &bits);
+                }
+                self.on_path[x] = false;
+                path.pop();
+                cursor.pop();
+                path_bonds.pop();
+                continue;
+            }
+            cursor[depth] += 1;
+            let (y, bond) = row[i];
+            let (y, l) = (y as usize, self.local_bond[bond as usize] as usize);
+            if l == k || self.on_path[y] || depth + 2 > len {
+                continue;
+            }
+            let remaining = len - 2 - depth;
+            if self.dist[y] as usize > remaining || (y == a && remaining != 0) {
+                continue;
+            }
+            self.on_path[y] = true;
+            path.push(y);
+            cursor.push(0);
+            path_bonds.push(l);
         }
-        i = j;
+        for &x in &path {
+            self.on_path[x] = false;
+        }
     }
 }

@@ -75,7 +75,6 @@
 mod expr;
 mod matcher;
 mod parse;
-mod rings;
 mod target;
 
 pub use expr::{AtomExpr, AtomFilter, AtomPrim, BondExpr, BondPrim};

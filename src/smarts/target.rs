@@ -1,11 +1,10 @@
 //! A molecule prepared for matching: per-atom counts that the SMARTS
-//! primitives ask for, element counts for the pre-screens, and ring
-//! information computed on first use (ring bonds when a pattern asks about
-//! rings at all, the ring set only for `R n` and `r n`).
+//! primitives ask for and element counts for the pre-screens. Ring
+//! primitives read the molecule's own ring information (perceived once in
+//! [`Molecule::from_smiles`]: RDKit's symmetrised SSSR, dative bonds left
+//! out).
 
-use super::rings::{self, Adj, Rings};
 use crate::mol::{BondOrder, Molecule};
-use std::cell::OnceCell;
 
 /// Per-atom values the primitives test.
 #[derive(Debug, Clone, Copy, Default)]
@@ -22,18 +21,10 @@ pub(crate) struct AtomInfo {
     pub valence: u8,
 }
 
-/// Ring bonds and per-atom ring-bond counts.
-#[derive(Debug, Clone)]
-pub(crate) struct RingBonds {
-    pub bond_in_ring: Vec<bool>,
-    pub atom_ring_bonds: Vec<u8>,
-    pub any: bool,
-}
-
 /// A molecule prepared for matching many patterns. Build it once per
 /// molecule with [`Target::new`] and pass it to the `*_in` methods of
 /// [`super::Pattern`] when running more than one pattern. Not shared
-/// between threads (ring information is filled in on first use).
+/// between threads.
 #[derive(Debug, Clone)]
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
@@ -54,8 +45,6 @@ pub struct Target<'m> {
     /// groups as (element, start, end).
     by_element: Vec<usize>,
     groups: Vec<(u8, usize, usize)>,
-    ring_bonds: OnceCell<RingBonds>,
-    ring_set: OnceCell<Rings>,
 }
 
 impl<'m> Target<'m> {
@@ -127,8 +116,6 @@ impl<'m> Target<'m> {
             groups,
             element_count,
             aromatic_count,
-            ring_bonds: OnceCell::new(),
-            ring_set: OnceCell::new(),
         }
     }
 
@@ -142,73 +129,39 @@ impl<'m> Target<'m> {
         self.atoms.len()
     }
 
-    /// Number of rings in the ring set used for `R n` and `r n` (SSSR,
-    /// symmetrised as RDKit does: cubane has six).
+    /// Number of rings in the ring set used for `R n` and `r n`
+    /// ([`Molecule::ring_total`]: the SSSR symmetrised as RDKit does, so
+    /// cubane has six).
     pub fn ring_count(&self) -> usize {
-        self.ring_set().count
+        self.mol.ring_total()
     }
 
     /// Number of rings (from the set above) containing atom `a`.
     pub fn atom_ring_count(&self, a: usize) -> u8 {
-        self.ring_set().atom_rings.get(a).copied().unwrap_or(0)
+        self.mol.ring_count(a).min(255) as u8
     }
 
     /// Size of the smallest ring (from the set above) containing atom `a`;
     /// 0 if none.
     pub fn smallest_ring(&self, a: usize) -> u8 {
-        self.ring_set().atom_min_ring.get(a).copied().unwrap_or(0)
+        self.mol.smallest_ring(a).min(255) as u8
     }
 
     /// Is bond `b` in a ring?
+    #[inline]
     pub fn bond_in_ring(&self, b: usize) -> bool {
-        self.ring_bonds()
-            .bond_in_ring
-            .get(b)
-            .copied()
-            .unwrap_or(false)
+        self.mol.bond_in_ring(b)
     }
 
     /// Number of ring bonds at atom `a`.
+    #[inline]
     pub fn ring_bond_count(&self, a: usize) -> u8 {
-        self.ring_bonds()
-            .atom_ring_bonds
-            .get(a)
-            .copied()
-            .unwrap_or(0)
+        self.mol.ring_bond_count(a).min(255) as u8
     }
 
     /// Does the molecule have any ring?
     pub fn has_ring(&self) -> bool {
-        self.ring_bonds().any
-    }
-
-    pub(crate) fn ring_bonds(&self) -> &RingBonds {
-        self.ring_bonds.get_or_init(|| {
-            let bond_in_ring = rings::ring_bonds(&Adj(self.mol));
-            let atom_ring_bonds = (0..self.atoms.len())
-                .map(|a| {
-                    self.mol
-                        .neighbors(a)
-                        .iter()
-                        .filter(|nb| bond_in_ring.get(nb.bond).copied().unwrap_or(false))
-                        .count()
-                        .min(255) as u8
-                })
-                .collect();
-            let any = bond_in_ring.iter().any(|&r| r);
-            RingBonds {
-                bond_in_ring,
-                atom_ring_bonds,
-                any,
-            }
-        })
-    }
-
-    fn ring_set(&self) -> &Rings {
-        self.ring_set.get_or_init(|| {
-            let rb = self.ring_bonds();
-            rings::perceive(&Adj(self.mol), &rb.bond_in_ring)
-        })
+        self.mol.sssr_count() > 0
     }
 
     /// Atoms of element `e`, ascending.
