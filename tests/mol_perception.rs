@@ -213,6 +213,90 @@ fn ring_accessors_given_cages_match_rdkit_symmetrized_rings() {
 }
 
 #[test]
+fn ring_accessors_given_para_cyclophane_macrocycle_match_rdkit_issue_3() {
+    // Issue 3: the ring set must be RDKit's symmetrised SSSR, not the union
+    // of all minimum cycle bases (which gives this macrocycle 16 large
+    // rings). Values from RDKit 2026.09.1 RingInfo: 4 six-membered and 8
+    // equivalent 23-membered rings; NumAtomRings, MinAtomRingSize and
+    // NumBondRings per atom and bond as below.
+    let m = mol("C1=Nc2ccc(cc2)N=Cc2ccc(cc2)OCc2cccc(n2)COc2ccc1cc2");
+    assert_eq!((m.ring_total(), m.sssr_count()), (12, 5));
+    let mut sizes: Vec<usize> = m.rings().map(|r| r.len()).collect();
+    sizes.sort_unstable();
+    assert_eq!(sizes, [6, 6, 6, 6, 23, 23, 23, 23, 23, 23, 23, 23]);
+    let r: Vec<usize> = (0..m.atom_count()).map(|i| m.ring_count(i)).collect();
+    assert_eq!(
+        r,
+        [
+            8, 8, 9, 5, 5, 9, 5, 5, 8, 8, 9, 5, 5, 9, 5, 5, 8, 8, 9, 1, 1, 1, 9, 9, 8, 8, 9, 5, 5,
+            9, 5, 5
+        ]
+    );
+    let s: Vec<usize> = (0..m.atom_count()).map(|i| m.smallest_ring(i)).collect();
+    assert_eq!(
+        s,
+        [
+            23, 23, 6, 6, 6, 6, 6, 6, 23, 23, 6, 6, 6, 6, 6, 6, 23, 23, 6, 6, 6, 6, 6, 6, 23, 23,
+            6, 6, 6, 6, 6, 6
+        ]
+    );
+    // NumBondRings by the atoms each bond joins (RDKit numbers bonds
+    // differently).
+    for (x, y, rings) in [
+        (0, 1, 8),
+        (0, 29, 8),
+        (1, 2, 8),
+        (2, 3, 5),
+        (2, 7, 5),
+        (3, 4, 5),
+        (4, 5, 5),
+        (5, 6, 5),
+        (5, 8, 8),
+        (6, 7, 5),
+        (8, 9, 8),
+        (9, 10, 8),
+        (10, 11, 5),
+        (10, 15, 5),
+        (11, 12, 5),
+        (12, 13, 5),
+        (13, 14, 5),
+        (13, 16, 8),
+        (14, 15, 5),
+        (16, 17, 8),
+        (17, 18, 8),
+        (18, 19, 1),
+        (18, 23, 9),
+        (19, 20, 1),
+        (20, 21, 1),
+        (21, 22, 1),
+        (22, 23, 9),
+        (22, 24, 8),
+        (24, 25, 8),
+        (25, 26, 8),
+        (26, 27, 5),
+        (26, 31, 5),
+        (27, 28, 5),
+        (28, 29, 5),
+        (29, 30, 5),
+        (30, 31, 5),
+    ] {
+        let b = m.bond_between(x, y).unwrap_or(usize::MAX);
+        assert_eq!(m.bond_ring_count(b), rings, "bond {x}-{y}");
+    }
+}
+
+#[test]
+fn ring_accessors_given_dative_metal_bonds_make_no_rings() {
+    // A chelate written with plain bonds: the N-Pt bonds are dative, so the
+    // five-membered chelate ring is not a ring (RDKit 2026.09.1: no rings,
+    // NumAtomRings 0 everywhere).
+    let m = mol("C1C[NH2][Pt](Cl)(Cl)[NH2]1");
+    assert_eq!((m.ring_total(), m.sssr_count()), (0, 0));
+    assert!((0..m.atom_count()).all(|i| !m.in_ring(i) && m.smallest_ring(i) == 0));
+    assert!((0..m.bond_count()).all(|b| !m.bond_in_ring(b)));
+}
+
+#[test]
 fn ring_accessors_given_spiro_compound_share_one_atom() {
     let m = mol("C1CCC2(CC1)CCCC2");
     let r: Vec<usize> = (0..10).map(|i| m.ring_count(i)).collect();
