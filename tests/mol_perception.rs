@@ -286,6 +286,39 @@ fn ring_accessors_given_para_cyclophane_macrocycle_match_rdkit_issue_3() {
 }
 
 #[test]
+fn ring_accessors_given_prismanes_and_moebius_ladder_match_rdkit_issue_3() {
+    // Issue 3: cages where a smallest ring shares every bond with the other
+    // chosen rings. RDKit 2026.09.1 RingInfo ring sizes, every atom in 3
+    // rings (prismanes) or 8 (the Moebius ladder of 10 atoms).
+    for (smiles, sizes, per_atom) in [
+        // pentaprismane: 5 squares and both pentagons
+        ("C12C3C4C1C1C2C2C3C4C12", vec![4, 4, 4, 4, 4, 5, 5], 3),
+        // hexaprismane: 6 squares and both hexagons (not the 6-cycles
+        // around two adjacent squares)
+        (
+            "C12C3C4C1C1C4C4C5C3C2C5C14",
+            vec![4, 4, 4, 4, 4, 4, 6, 6],
+            3,
+        ),
+        // Moebius ladder: 5 squares and 10 six-membered rings
+        (
+            "C12C3C4C1C1C4C4C2C3C14",
+            vec![4, 4, 4, 4, 4, 6, 6, 6, 6, 6, 6, 6, 6, 6, 6],
+            8,
+        ),
+    ] {
+        let m = mol(smiles);
+        let mut got: Vec<usize> = m.rings().map(|r| r.len()).collect();
+        got.sort_unstable();
+        assert_eq!(got, sizes, "{smiles}");
+        assert!(
+            (0..m.atom_count()).all(|i| m.ring_count(i) == per_atom),
+            "{smiles}"
+        );
+    }
+}
+
+#[test]
 fn ring_accessors_given_dative_metal_bonds_make_no_rings() {
     // A chelate written with plain bonds: the N-Pt bonds are dative, so the
     // five-membered chelate ring is not a ring (RDKit 2026.09.1: no rings,

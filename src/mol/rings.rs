@@ -22,11 +22,15 @@
 //! ascending atom order, then tree order) while independent over GF(2) of
 //! those already taken, until the cycle rank is reached.
 //!
-//! Symmetrisation (RDKit's `symmetrizeSSSR` restated): a further cycle
-//! joins the set when it has the size of a chosen ring and contains every
-//! bond that only that chosen ring provides (any bond of it when it has
-//! none). Cubane gets six four-membered rings, bicyclo\[2.2.2\]octane
-//! three six-membered rings and the para-cyclophane macrocycle
+//! Symmetrisation (the effect of RDKit's `symmetrizeSSSR`, restated): a
+//! further cycle joins the set when it has the size of a chosen ring and
+//! contains every bond that only that chosen ring provides; when every bond
+//! of the chosen ring is shared with other chosen rings, a cycle of its size
+//! joins when it is independent of those other rings (it could replace the
+//! chosen one in the basis). Cubane gets six four-membered rings,
+//! hexaprismane its two hexagons (not the six-cycles around two adjacent
+//! squares), bicyclo\[2.2.2\]octane three six-membered rings and the
+//! para-cyclophane macrocycle
 //! `C1=Nc2ccc(cc2)N=Cc2ccc(cc2)OCc2cccc(n2)COc2ccc1cc2` its 4 benzene
 //! rings and 8 equivalent 23-membered rings, as in RDKit 2026.09 (issue 3).
 //! The union of all minimum cycle bases (relevant cycles), used before,
@@ -457,6 +461,21 @@ struct Basis {
 }
 
 impl Basis {
+    /// Is `v` (a scratch copy) a sum of basis vectors?
+    fn reduces_to_zero(&self, v: &mut Bits) -> bool {
+        while let Some(p) = lowest(v) {
+            match self.by_pivot[p] {
+                NONE => return false,
+                k => {
+                    for (a, b) in v.iter_mut().zip(&self.vectors[k as usize]) {
+                        *a ^= *b;
+                    }
+                }
+            }
+        }
+        true
+    }
+
     fn new(bits: usize) -> Self {
         Basis {
             by_pivot: vec![NONE; bits],
@@ -628,21 +647,45 @@ fn symmetrised_sssr(
         on_path: vec![false; v],
         budget: BLOCK_STEP_LIMIT,
     };
-    for (cb, ring) in &chosen {
+    for (j, (cb, ring)) in chosen.iter().enumerate() {
         let len = ring.len();
         let unique: Vec<usize> = (0..e)
             .filter(|&k| has(cb, k) && bond_count[k] == 1)
             .collect();
+        // A ring all of whose bonds other chosen rings share: a cycle
+        // replaces it only if it is independent of the other chosen rings
+        // (hexaprismane: the second hexagon, not the unions of two squares).
+        let others = if unique.is_empty() {
+            let mut b = Basis::new(e);
+            for (i, (ob, _)) in chosen.iter().enumerate() {
+                if i != j {
+                    work.copy_from_slice(ob);
+                    b.insert(&mut work);
+                }
+            }
+            Some(b)
+        } else {
+            None
+        };
+        // Its replacements need not share a bond with it: search through
+        // every bond of the block then.
         let starts: Vec<usize> = match unique.first() {
             Some(&k) => vec![k],
-            None => (0..e).filter(|&k| has(cb, k)).collect(),
+            None => (0..e).collect(),
         };
         for k in starts {
             search.cycles_through(k, len, |path, pbits| {
-                if unique.iter().all(|&u| has(pbits, u)) && !known.contains(pbits) {
-                    known.insert(pbits.clone());
-                    extra.push(path.to_vec());
+                if !unique.iter().all(|&u| has(pbits, u)) || known.contains(pbits) {
+                    return;
                 }
+                if let Some(b) = &others {
+                    let mut w = pbits.clone();
+                    if b.reduces_to_zero(&mut w) {
+                        return;
+                    }
+                }
+                known.insert(pbits.clone());
+                extra.push(path.to_vec());
             });
         }
     }
