@@ -439,6 +439,9 @@ fn theta(
 /// A GF(2) vector over the bonds of one block.
 type Bits = Vec<u64>;
 
+/// A cycle as local atoms in order and its bonds.
+type Cycle = (Vec<usize>, Bits);
+
 fn has(bits: &Bits, k: usize) -> bool {
     bits[k / 64] >> (k % 64) & 1 == 1
 }
@@ -461,21 +464,6 @@ struct Basis {
 }
 
 impl Basis {
-    /// Is `v` (a scratch copy) a sum of basis vectors?
-    fn reduces_to_zero(&self, v: &mut Bits) -> bool {
-        while let Some(p) = lowest(v) {
-            match self.by_pivot[p] {
-                NONE => return false,
-                k => {
-                    for (a, b) in v.iter_mut().zip(&self.vectors[k as usize]) {
-                        *a ^= *b;
-                    }
-                }
-            }
-        }
-        true
-    }
-
     fn new(bits: usize) -> Self {
         Basis {
             by_pivot: vec![NONE; bits],
@@ -501,6 +489,60 @@ impl Basis {
             }
         }
         false
+    }
+}
+
+/// The chosen rings of a block as an echelon basis whose rows remember
+/// which chosen rings they combine.
+struct Tracked {
+    by_pivot: Vec<u32>,
+    rows: Vec<(Bits, Bits)>,
+}
+
+impl Tracked {
+    fn new(chosen: &[(Bits, Vec<usize>)], bits: usize) -> Self {
+        let mut t = Tracked {
+            by_pivot: vec![NONE; bits],
+            rows: Vec::with_capacity(chosen.len()),
+        };
+        let words = chosen.len().div_ceil(64);
+        for (i, (cb, _)) in chosen.iter().enumerate() {
+            let mut v = cb.clone();
+            let mut c: Bits = vec![0; words];
+            flip(&mut c, i);
+            if let Some(p) = t.reduce(&mut v, &mut c) {
+                t.by_pivot[p] = t.rows.len() as u32;
+                t.rows.push((v, c));
+            }
+        }
+        t
+    }
+
+    /// Reduce `v`, recording in `c` the chosen rings used; the pivot of a
+    /// nonzero remainder.
+    fn reduce(&self, v: &mut Bits, c: &mut Bits) -> Option<usize> {
+        while let Some(p) = lowest(v) {
+            match self.by_pivot[p] {
+                NONE => return Some(p),
+                k => {
+                    let (rv, rc) = &self.rows[k as usize];
+                    v.iter_mut().zip(rv).for_each(|(a, b)| *a ^= *b);
+                    c.iter_mut().zip(rc).for_each(|(a, b)| *a ^= *b);
+                }
+            }
+        }
+        None
+    }
+
+    /// Does cycle `bits` need chosen ring `j` (is it independent of the
+    /// other chosen rings)?
+    fn uses(&self, bits: &Bits, j: usize) -> bool {
+        let mut v = bits.clone();
+        let mut c: Bits = vec![0; self.rows.first().map_or(1, |r| r.1.len())];
+        if self.reduce(&mut v, &mut c).is_some() {
+            return true;
+        }
+        c.get(j / 64).is_some_and(|w| w >> (j % 64) & 1 == 1)
     }
 }
 
@@ -644,49 +686,55 @@ fn symmetrised_sssr(
         ends: &ends,
         words,
         dist: vec![NONE; v],
+        queue: Vec::with_capacity(v),
         on_path: vec![false; v],
         budget: BLOCK_STEP_LIMIT,
     };
+    // Cycles of one size over the whole block (lowest bond first, so each
+    // once), listed on first need; and the chosen rings as a basis that
+    // tracks combinations, built on first need.
+    let mut by_size: Vec<(usize, Vec<Cycle>)> = Vec::new();
+    let mut tracked: Option<Tracked> = None;
     for (j, (cb, ring)) in chosen.iter().enumerate() {
         let len = ring.len();
         let unique: Vec<usize> = (0..e)
             .filter(|&k| has(cb, k) && bond_count[k] == 1)
             .collect();
-        // A ring all of whose bonds other chosen rings share: a cycle
-        // replaces it only if it is independent of the other chosen rings
-        // (hexaprismane: the second hexagon, not the unions of two squares).
-        let others = if unique.is_empty() {
-            let mut b = Basis::new(e);
-            for (i, (ob, _)) in chosen.iter().enumerate() {
-                if i != j {
-                    work.copy_from_slice(ob);
-                    b.insert(&mut work);
+        if let Some(&k) = unique.first() {
+            search.cycles_through(k, len, false, |path, pbits| {
+                if unique.iter().all(|&u| has(pbits, u)) && !known.contains(pbits) {
+                    known.insert(pbits.clone());
+                    extra.push(path.to_vec());
                 }
-            }
-            Some(b)
-        } else {
-            None
-        };
-        // Its replacements need not share a bond with it: search through
-        // every bond of the block then.
-        let starts: Vec<usize> = match unique.first() {
-            Some(&k) => vec![k],
-            None => (0..e).collect(),
-        };
-        for k in starts {
-            search.cycles_through(k, len, |path, pbits| {
-                if !unique.iter().all(|&u| has(pbits, u)) || known.contains(pbits) {
-                    return;
-                }
-                if let Some(b) = &others {
-                    let mut w = pbits.clone();
-                    if b.reduces_to_zero(&mut w) {
-                        return;
-                    }
-                }
-                known.insert(pbits.clone());
-                extra.push(path.to_vec());
             });
+            continue;
+        }
+        // Every bond shared with other chosen rings: a cycle of this size
+        // replaces the ring only if it is independent of the other chosen
+        // rings (hexaprismane: the second hexagon, not the six-cycles around
+        // two adjacent squares), and it need not share a bond with it.
+        let pos = match by_size.iter().position(|c| c.0 == len) {
+            Some(p) => p,
+            None => {
+                let mut list = Vec::new();
+                for k in 0..e {
+                    search.cycles_through(k, len, true, |path, pbits| {
+                        list.push((path.to_vec(), pbits.clone()));
+                    });
+                }
+                by_size.push((len, list));
+                by_size.len() - 1
+            }
+        };
+        for (path, pbits) in &by_size[pos].1 {
+            if known.contains(pbits) {
+                continue;
+            }
+            let t = tracked.get_or_insert_with(|| Tracked::new(&chosen, e));
+            if t.uses(pbits, j) {
+                known.insert(pbits.clone());
+                extra.push(path.clone());
+            }
         }
     }
     for ring in chosen.iter().map(|c| &c.1).chain(&extra) {
@@ -703,40 +751,55 @@ struct CycleSearch<'a> {
     ends: &'a [(u32, u32)],
     words: usize,
     dist: Vec<u32>,
+    queue: Vec<usize>,
     on_path: Vec<bool>,
     budget: usize,
 }
 
 impl CycleSearch<'_> {
     /// Call `found(atoms, bits)` for each simple cycle of exactly `len`
-    /// atoms through local bond `k`, until [`CYCLE_STEP_LIMIT`] steps or
-    /// the block's budget are spent.
-    fn cycles_through(&mut self, k: usize, len: usize, mut found: impl FnMut(&[usize], &Bits)) {
+    /// atoms through local bond `k` (with `above`, only those whose other
+    /// bonds all come after `k`), until [`CYCLE_STEP_LIMIT`] steps or the
+    /// block's budget are spent.
+    fn cycles_through(
+        &mut self,
+        k: usize,
+        len: usize,
+        above: bool,
+        mut found: impl FnMut(&[usize], &Bits),
+    ) {
         let Some(&(a, b)) = self.ends.get(k) else {
             return;
         };
         let (a, b) = (a as usize, b as usize);
-        if len < 3 {
+        if len < 3 || self.budget == 0 {
             return;
         }
+        let usable = |l: usize| l != k && (!above || l > k);
         let rows = |x: usize| &self.rows[self.row_start[x]..self.row_start[x + 1]];
-        // Distances to `a` without bond k.
-        self.dist.iter_mut().for_each(|d| *d = NONE);
+        // Distances to `a` over usable bonds, up to len - 2 (all the search
+        // asks about); the queue lists every atom given a distance.
+        self.queue.clear();
         self.dist[a] = 0;
-        let mut queue = vec![a];
+        self.queue.push(a);
         let mut head = 0;
-        while head < queue.len() {
-            let x = queue[head];
+        while head < self.queue.len() {
+            let x = self.queue[head];
             head += 1;
+            let dx = self.dist[x];
+            if dx as usize + 2 >= len {
+                continue;
+            }
             for &(y, bond) in rows(x) {
                 let y = y as usize;
-                if self.local_bond[bond as usize] as usize == k || self.dist[y] != NONE {
+                if !usable(self.local_bond[bond as usize] as usize) || self.dist[y] != NONE {
                     continue;
                 }
-                self.dist[y] = self.dist[x] + 1;
-                queue.push(y);
+                self.dist[y] = dx + 1;
+                self.queue.push(y);
             }
         }
+        self.budget = self.budget.saturating_sub(self.queue.len());
         // Paths from b to a of len - 1 bonds.
         let mut path = vec![b];
         let mut cursor = vec![0usize];
@@ -771,7 +834,7 @@ impl CycleSearch<'_> {
             cursor[depth] += 1;
             let (y, bond) = row[i];
             let (y, l) = (y as usize, self.local_bond[bond as usize] as usize);
-            if l == k || self.on_path[y] || depth + 2 > len {
+            if !usable(l) || self.on_path[y] || depth + 2 > len {
                 continue;
             }
             let remaining = len - 2 - depth;
@@ -785,6 +848,9 @@ impl CycleSearch<'_> {
         }
         for &x in &path {
             self.on_path[x] = false;
+        }
+        for &x in &self.queue {
+            self.dist[x] = NONE;
         }
     }
 }
