@@ -54,12 +54,18 @@
 //!   fine. As RDKit does, `N(=O)=O` is read as `[N+](=O)[O-]`, halogen oxides
 //!   written with double bonds are charge-separated, and a plain bond from
 //!   an over-valent N, O, P or S to a metal counts as dative.
-//! * **Rings**: ring bonds by an iterative bridge search; rings are the
-//!   relevant cycles (the union of all smallest sets of smallest rings,
-//!   which is RDKit's symmetrized SSSR: cubane has 6 rings, each atom in 3).
-//!   Per atom: in ring, ring count (SMARTS `R`), smallest ring (`r`), ring
-//!   bonds (`x`); per bond: in ring (`@`). [`Molecule::sssr_count`] is the
-//!   cycle rank.
+//! * **Rings**: the one ring perception of the crate (the SMARTS matcher
+//!   reads it too). Biconnected blocks by an iterative search; per block a
+//!   smallest set of smallest rings symmetrised as RDKit does (cubane has
+//!   6 rings, each atom in 3; the `rings` submodule states the rule).
+//!   Dative bonds to metals make no rings, as in RDKit. Per atom: in ring,
+//!   ring count (SMARTS `R`), smallest ring (`r`), ring bonds (`x`); per
+//!   bond: in ring (`@`), ring count. [`Molecule::sssr_count`] is the cycle
+//!   rank. Against RDKit 2026.09.1 on the 71,561 ring-bearing molecules of
+//!   the ChEMBL, HIV, ClinTox and Tox21 sets that both read (up to 400
+//!   atoms), ring count, per-atom ring count and smallest ring agree for all
+//!   but one iron complex where RDKit marks two S-Fe bonds dative and the
+//!   core does not.
 //! * **Aromaticity** is perceived from scratch on the Kekulé structure with
 //!   RDKit's default model (restated in the `aromatic` submodule), so
 //!   `C1=CC=CC=C1` and `c1ccccc1` give the same molecule. On 168,018
@@ -94,9 +100,12 @@
 //!
 //! # Limits
 //! Inputs over [`MAX_CHARS`] characters or [`MAX_ATOMS`] atoms, and ring
-//! systems too large for the ring search (atoms x ring bonds of one system
-//! over 4,000,000, e.g. a graphene sheet of thousands of atoms), give
-//! [`ErrorKind::TooLarge`] before any slow work. Ring sets tested for
+//! blocks too large for the ring search (atoms x ring bonds of one block of
+//! cycle rank 3 or more over 4,000,000, e.g. a graphene sheet of thousands
+//! of atoms), give [`ErrorKind::TooLarge`] before any slow work. The search
+//! for symmetry-equivalent rings has a step budget per block; only
+//! pathological lattices reach it (a 30 x 30 square torus keeps 902 of
+//! RDKit's 960 rings). Ring sets tested for
 //! aromaticity are capped at 100,000 per molecule and fused systems over
 //! 300 rings are tested in sets of at most two rings (as RDKit does).
 
@@ -394,9 +403,9 @@ impl Molecule {
         self.rings.list.len()
     }
 
-    /// The rings: the relevant cycles (union of all smallest sets of
-    /// smallest rings), each as atom indices in cycle order. For ordinary
-    /// molecules this is the SSSR; for cages it is RDKit's symmetrized SSSR.
+    /// The rings: RDKit's symmetrized SSSR, each as atom indices in cycle
+    /// order. For ordinary molecules this is the SSSR; cages and some
+    /// macrocycles have more rings than the cycle rank.
     pub fn rings(&self) -> impl Iterator<Item = &[usize]> + '_ {
         (0..self.rings.list.len()).map(|r| self.rings.list.atoms(r))
     }
@@ -421,7 +430,7 @@ impl Molecule {
     }
 
     /// Size of the smallest set of smallest rings (the cycle rank:
-    /// bonds - atoms + components).
+    /// bonds - atoms + components, dative bonds left out).
     pub fn sssr_count(&self) -> usize {
         self.rings.sssr_count
     }

@@ -85,6 +85,12 @@ impl RingList {
         &self.bonds[self.start[r] as usize..self.start[r + 1] as usize]
     }
 
+    fn reserve(&mut self, rings: usize, atoms: usize) {
+        self.start.reserve(rings + 1);
+        self.atoms.reserve(atoms);
+        self.bonds.reserve(atoms);
+    }
+
     fn push(&mut self, atoms: impl IntoIterator<Item = usize>, nb: &Adj) {
         if self.start.is_empty() {
             self.start.push(0);
@@ -138,17 +144,18 @@ struct Blocks {
 fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
     let mut out = Blocks {
         block: vec![NONE; n_bonds],
-        edges: Vec::new(),
-        start: vec![0],
+        edges: Vec::with_capacity(n_bonds),
+        start: Vec::with_capacity(8),
     };
+    out.start.push(0);
     let skipped = |b: usize| skip.get(b).copied().unwrap_or(false);
     // disc 0 = not visited; times start at 1.
     let mut disc = vec![0u32; n];
     let mut low = vec![0u32; n];
     let mut time = 0u32;
-    let mut edge_stack: Vec<usize> = Vec::new();
+    let mut edge_stack: Vec<usize> = Vec::with_capacity(n_bonds);
     // (atom, bond used to enter, next adjacency position, end position)
-    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::new();
+    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
     for root in 0..n {
         if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
@@ -255,7 +262,9 @@ pub(crate) fn perceive(
         degree: vec![0; n],
         local_bond: Vec::new(),
     };
-    let mut atoms: Vec<usize> = Vec::new();
+    let mut atoms: Vec<usize> = Vec::with_capacity(n);
+    let mut ring: Vec<usize> = Vec::with_capacity(n);
+    info.list.reserve(n_blocks * 2, blocks.edges.len() * 2);
     for k in 0..n_blocks {
         let edges = &blocks.edges[blocks.start[k]..blocks.start[k + 1]];
         atoms.clear();
@@ -273,7 +282,7 @@ pub(crate) fn perceive(
         if rank == 1 {
             // A single ring: walk it from its first atom.
             let start = atoms[0];
-            let mut ring = Vec::with_capacity(atoms.len());
+            ring.clear();
             let (mut cur, mut via) = (start, usize::MAX);
             while ring.len() < atoms.len() {
                 ring.push(cur);
@@ -289,7 +298,7 @@ pub(crate) fn perceive(
                     _ => break,
                 }
             }
-            info.list.push(ring, nb);
+            info.list.push(ring.iter().copied(), nb);
         } else if rank == 2 && theta(&atoms, &scratch.degree, &in_block, nb, &mut info.list) {
             // bicyclic block handled directly
         } else {
