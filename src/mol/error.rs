@@ -58,7 +58,13 @@ impl MolError {
 impl fmt::Display for MolError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self.position {
-            Some(p) => write!(f, "{} error at character {}: {}", self.kind.name(), p, self.message),
+            Some(p) => write!(
+                f,
+                "{} error at character {}: {}",
+                self.kind.name(),
+                p,
+                self.message
+            ),
             None => write!(f, "{} error: {}", self.kind.name(), self.message),
         }
     }

@@ -1,0 +1,10 @@
+//! `acidsite bases`.
+
+use super::Outcome;
+
+#[derive(clap::Args, Debug)]
+pub struct Args {}
+
+pub fn run(_args: Args) -> anyhow::Result<Outcome> {
+    anyhow::bail!("`bases` needs the library part that is still being built")
+}

@@ -1,0 +1,10 @@
+//! `acidsite equilibrium`.
+
+use super::Outcome;
+
+#[derive(clap::Args, Debug)]
+pub struct Args {}
+
+pub fn run(_args: Args) -> anyhow::Result<Outcome> {
+    anyhow::bail!("`equilibrium` needs the library part that is still being built")
+}

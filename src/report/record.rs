@@ -1,0 +1,224 @@
+//! The output record: one per input molecule, serialized as one JSON Lines
+//! line by `acidsite annotate` and `acidsite scan --json`.
+//!
+//! These serialization types are kept apart from the library types
+//! ([`crate::sites::Site`], [`crate::advice`]) so that the library can change
+//! without changing the published schema. The schema is versioned by
+//! [`SCHEMA`]; a key is never renamed or removed without a new version.
+//!
+//! # Keys
+//!
+//! Always present:
+//!
+//! | key | type | meaning |
+//! |---|---|---|
+//! | `schema` | string | schema version, currently `"acidsite-record/1"` |
+//! | `line` | integer | 1-based line number of the record in its input (for `scan`, the 1-based position of the argument) |
+//! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file) |
+//! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD) |
+//! | `ok` | bool | true when the SMILES was read and analysed |
+//! | `columns` | object | only for CSV/TSV input: the other columns of the row, carried through by header name |
+//!
+//! On success (`ok: true`):
+//!
+//! | key | type | meaning |
+//! |---|---|---|
+//! | `formula` | string | molecular formula of the whole input, Hill order, every H counted, no charge |
+//! | `components` | array | each `.`-separated component: `role` (`"main"` or `"counter_ion"`), `smiles` (its text in the input), `formula`, `charge` |
+//! | `rule_set` | string | version of the fragment rule set used |
+//! | `sites` | array | acidic sites, ranked most acidic first (see [`SiteOut`]) |
+//! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
+//! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number |
+//! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given |
+//!
+//! On failure (`ok: false`): `error` with `kind` (`syntax`, `ring_closure`,
+//! `aromaticity`, `valence`, `unsupported`, `too_large`, `empty`, `encoding`,
+//! `columns`), `message`, and `position` (0-based character index in
+//! `input`, or null).
+//!
+//! Numbers: pKa values and uncertainties are rounded to 0.01, conversion (a
+//! fraction 0..1) to 1e-6, equivalents to 0.01.
+
+use serde::ser::{SerializeMap, Serializer};
+use serde::{Deserialize, Serialize};
+
+/// Version of the record schema, stamped into every record as `schema`.
+pub const SCHEMA: &str = "acidsite-record/1";
+
+/// One output record (see the module documentation for the keys).
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct Record {
+    pub schema: &'static str,
+    pub line: u64,
+    pub id: Option<String>,
+    pub input: String,
+    pub ok: bool,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub columns: Option<Pairs<String>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub formula: Option<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub components: Option<Vec<ComponentOut>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub rule_set: Option<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub sites: Option<Vec<SiteOut>>,
+    /// `Some(None)` serializes as `"advice": null` (no target site).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub advice: Option<Option<AdviceOut>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub mapped_smiles: Option<String>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub flags: Option<Pairs<u64>>,
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub error: Option<ErrorOut>,
+}
+
+impl Record {
+    /// A failed record: the input could not be read or analysed.
+    pub fn failure(line: u64, id: Option<String>, input: String, error: ErrorOut) -> Record {
+        Record {
+            schema: SCHEMA,
+            line,
+            id,
+            input,
+            ok: false,
+            columns: None,
+            formula: None,
+            components: None,
+            rule_set: None,
+            sites: None,
+            advice: None,
+            mapped_smiles: None,
+            flags: None,
+            error: Some(error),
+        }
+    }
+
+    /// The record as one JSON line (no trailing newline).
+    pub fn to_json_line(&self) -> String {
+        // Serializing these plain types cannot fail (no maps with non-string
+        // keys, no non-finite floats: see `round`).
+        serde_json::to_string(self).unwrap_or_else(|e| {
+            format!(
+                "{{\"schema\":\"{SCHEMA}\",\"line\":{},\"ok\":false,\"error\":{{\"kind\":\"internal\",\"message\":{},\"position\":null}}}}",
+                self.line,
+                serde_json::Value::String(e.to_string())
+            )
+        })
+    }
+
+    /// The most acidic C–H site, if any (sites are ranked).
+    pub fn top_carbon_site(&self) -> Option<&SiteOut> {
+        self.sites.as_ref()?.iter().find(|s| s.element == "C")
+    }
+}
+
+/// Key/value pairs serialized as a JSON object in their given order.
+#[derive(Debug, Clone, PartialEq, Default)]
+pub struct Pairs<V>(pub Vec<(String, V)>);
+
+impl<V: Serialize> Serialize for Pairs<V> {
+    fn serialize<S: Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        let mut map = s.serialize_map(Some(self.0.len()))?;
+        for (k, v) in &self.0 {
+            map.serialize_entry(k, v)?;
+        }
+        map.end()
+    }
+}
+
+/// One `.`-separated component of the input.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ComponentOut {
+    /// `"main"` (the component analysed) or `"counter_ion"`.
+    pub role: String,
+    /// The component's text in the input SMILES.
+    pub smiles: String,
+    pub formula: String,
+    /// Net formal charge.
+    pub charge: i32,
+}
+
+/// One acidic site.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct SiteOut {
+    /// 1-based rank (1 = most acidic); also the atom-map number in `mapped_smiles`.
+    pub rank: u32,
+    /// Symmetry-equivalent atoms of the site (0-based, input order).
+    pub atoms: Vec<usize>,
+    /// Element of the acidic atom: `C`, `N`, `O` or `S`.
+    pub element: String,
+    /// Hydrogens on each atom of the site.
+    pub hydrogens: u8,
+    /// Class name from the rule data.
+    pub class: String,
+    pub pka_dmso: Option<f64>,
+    pub pka_water: Option<f64>,
+    /// One standard uncertainty of the estimates, pKa units.
+    pub uncertainty: f64,
+    /// Rules applied, with their contributions (the estimate is their sum).
+    pub rules: Vec<RuleOut>,
+    /// `"kinetic"`, `"thermodynamic"` or null.
+    pub regio: Option<String>,
+}
+
+/// One applied rule and its contribution on each scale.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RuleOut {
+    pub id: String,
+    pub dmso: Option<f64>,
+    pub water: Option<f64>,
+}
+
+/// Base advice for one target site.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct AdviceOut {
+    /// Atoms of the target site.
+    pub target: Vec<usize>,
+    /// Recommended base (short trade name), or null when no catalogue base fits.
+    pub base: Option<String>,
+    /// Equivalents of base per equivalent of substrate.
+    pub equivalents: Option<f64>,
+    /// Predicted fraction of the target deprotonated at equilibrium (0..1).
+    pub conversion: Option<f64>,
+    pub solvent: Option<String>,
+    pub temperature_c: Option<f64>,
+    /// pKa scale the comparison used: `"dmso"` or `"water"`.
+    pub scale: Option<String>,
+    /// Other acceptable bases, best first.
+    pub alternatives: Vec<String>,
+    /// Bases ruled out, each with its reason.
+    pub rejected: Vec<RejectedOut>,
+    /// Chemistry warnings (side reactions, selectivity, proton counting).
+    pub warnings: Vec<String>,
+    /// Safety cautions for hazardous reagents.
+    pub cautions: Vec<String>,
+}
+
+/// A base ruled out, with the reason.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RejectedOut {
+    pub base: String,
+    pub reason: String,
+}
+
+/// Why a record failed.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct ErrorOut {
+    pub kind: String,
+    pub message: String,
+    /// 0-based character index into `input`, or null.
+    pub position: Option<usize>,
+}
+
+/// Round to `step` (0.01 etc.), mapping non-finite values to None.
+pub(crate) fn round(x: f64, step: f64) -> Option<f64> {
+    if !x.is_finite() {
+        return None;
+    }
+    let r = (x / step).round() * step;
+    // Trim binary noise such as 0.30000000000000004.
+    let digits = (-step.log10()).ceil().max(0.0) as usize;
+    format!("{r:.digits$}").parse().ok()
+}
