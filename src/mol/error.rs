@@ -55,18 +55,37 @@ impl MolError {
     }
 }
 
-impl fmt::Display for MolError {
-    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+impl MolError {
+    /// The error on one line, without the input and caret (for JSON and
+    /// logs): `syntax error at character 3: unexpected character 'X'`.
+    pub fn one_line(&self) -> String {
         match self.position {
-            Some(p) => write!(
-                f,
+            Some(p) => format!(
                 "{} error at character {}: {}",
                 self.kind.name(),
                 p,
                 self.message
             ),
-            None => write!(f, "{} error: {}", self.kind.name(), self.message),
+            None => format!("{} error: {}", self.kind.name(), self.message),
         }
+    }
+}
+
+/// Three lines: the one-line form, the input, and a caret under the
+/// position (character-based, so it lines up for any ASCII input).
+impl fmt::Display for MolError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}", self.one_line())?;
+        if let Some(p) = self.position {
+            // Control characters would break the layout; show them as spaces.
+            let shown: String = self
+                .input
+                .chars()
+                .map(|c| if c.is_control() { ' ' } else { c })
+                .collect();
+            write!(f, "\n  {}\n  {}^", shown, " ".repeat(p))?;
+        }
+        Ok(())
     }
 }
 

@@ -1,0 +1,484 @@
+//! SMILES reading: purr checks the syntax and walks the string; a
+//! [`Follower`] of our own collects atoms and bonds directly (no
+//! intermediate graph), and a small lexer over the already-validated text
+//! recovers each atom's character span and each ring-closure digit's
+//! position, so errors found after parsing still point into the input.
+
+use std::ops::Range;
+
+use purr::feature::{
+    Aliphatic, Aromatic, AtomKind, BondKind, BracketAromatic, BracketSymbol, Rnum,
+};
+use purr::walk::Follower;
+
+use super::error::{ErrorKind, MolError};
+
+/// Largest number of atoms accepted (heavy atoms plus hydrogens written as
+/// atoms). Larger inputs are refused with [`ErrorKind::TooLarge`] before any
+/// perception work is done.
+pub const MAX_ATOMS: usize = 10_000;
+
+/// Longest input accepted, in characters. Checked before parsing.
+pub const MAX_CHARS: usize = 200_000;
+
+/// An atom as written.
+#[derive(Debug, Clone)]
+pub(crate) struct RawAtom {
+    pub element: u8,
+    pub aromatic: bool,
+    pub charge: i8,
+    pub isotope: Option<u16>,
+    /// Bracket hydrogen count (`[CH3]` gives 3); None outside brackets.
+    pub hcount: Option<u8>,
+    pub map: Option<u16>,
+    pub bracket: bool,
+    /// Non-tetrahedral or tetrahedral stereo tag present (ignored).
+    pub stereo: bool,
+}
+
+/// Bond order as written.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub(crate) enum RawOrder {
+    Elided,
+    Single,
+    Double,
+    Triple,
+    Quadruple,
+    Aromatic,
+}
+
+#[derive(Debug, Clone)]
+pub(crate) struct RawBond {
+    pub a: usize,
+    pub b: usize,
+    pub order: RawOrder,
+    /// Index of the ring-closure digit that closed this bond, if any.
+    pub join: Option<usize>,
+}
+
+/// The parse result: atoms and bonds in written order.
+pub(crate) struct Raw {
+    pub atoms: Vec<RawAtom>,
+    pub bonds: Vec<RawBond>,
+    pub spans: Vec<Range<usize>>,
+}
+
+fn order_of(kind: &BondKind) -> RawOrder {
+    match kind {
+        BondKind::Elided => RawOrder::Elided,
+        BondKind::Single | BondKind::Up | BondKind::Down => RawOrder::Single,
+        BondKind::Double => RawOrder::Double,
+        BondKind::Triple => RawOrder::Triple,
+        BondKind::Quadruple => RawOrder::Quadruple,
+        BondKind::Aromatic => RawOrder::Aromatic,
+    }
+}
+
+fn aliphatic_number(a: Aliphatic) -> u8 {
+    match a {
+        Aliphatic::B => 5,
+        Aliphatic::C => 6,
+        Aliphatic::N => 7,
+        Aliphatic::O => 8,
+        Aliphatic::S => 16,
+        Aliphatic::P => 15,
+        Aliphatic::F => 9,
+        Aliphatic::Cl => 17,
+        Aliphatic::Br => 35,
+        Aliphatic::I => 53,
+        Aliphatic::At => 85,
+        Aliphatic::Ts => 117,
+    }
+}
+
+fn aromatic_number(a: Aromatic) -> u8 {
+    match a {
+        Aromatic::B => 5,
+        Aromatic::C => 6,
+        Aromatic::N => 7,
+        Aromatic::O => 8,
+        Aromatic::P => 15,
+        Aromatic::S => 16,
+    }
+}
+
+fn bracket_aromatic_number(a: BracketAromatic) -> u8 {
+    match a {
+        BracketAromatic::B => 5,
+        BracketAromatic::C => 6,
+        BracketAromatic::N => 7,
+        BracketAromatic::O => 8,
+        BracketAromatic::S => 16,
+        BracketAromatic::P => 15,
+        BracketAromatic::Se => 34,
+        BracketAromatic::As => 33,
+    }
+}
+
+fn convert(kind: AtomKind) -> RawAtom {
+    let plain = |element, aromatic| RawAtom {
+        element,
+        aromatic,
+        charge: 0,
+        isotope: None,
+        hcount: None,
+        map: None,
+        bracket: false,
+        stereo: false,
+    };
+    match kind {
+        AtomKind::Star => plain(0, false),
+        AtomKind::Aliphatic(a) => plain(aliphatic_number(a), false),
+        AtomKind::Aromatic(a) => plain(aromatic_number(a), true),
+        AtomKind::Bracket {
+            isotope,
+            symbol,
+            configuration,
+            hcount,
+            charge,
+            map,
+        } => {
+            let (element, aromatic) = match symbol {
+                BracketSymbol::Star => (0, false),
+                // purr's Element enum lists the elements in order from H.
+                BracketSymbol::Element(e) => (e as u8 + 1, false),
+                BracketSymbol::Aromatic(a) => (bracket_aromatic_number(a), true),
+            };
+            RawAtom {
+                element,
+                aromatic,
+                charge: charge.as_ref().map(|c| c.into()).unwrap_or(0),
+                isotope: isotope.as_ref().map(u16::from),
+                hcount: Some(hcount.as_ref().map(|h| h.into()).unwrap_or(0)),
+                map: map.as_ref().map(u16::from),
+                bracket: true,
+                stereo: configuration.is_some(),
+            }
+        }
+    }
+}
+
+/// What went wrong in the follower; positions are resolved afterwards.
+#[derive(Debug, Clone)]
+enum Trouble {
+    TooLarge,
+    /// Ring closure digit `join` bonds an atom to itself.
+    SelfBond(usize),
+    /// The two ends of ring closure `join` give different bond orders.
+    Mismatch(usize),
+}
+
+/// Collects atoms and bonds as purr walks the string.
+struct Builder {
+    atoms: Vec<RawAtom>,
+    bonds: Vec<RawBond>,
+    stack: Vec<usize>,
+    /// Open ring closures by digit: (atom, bond kind, join index).
+    opens: Vec<Option<(usize, RawOrder, usize)>>,
+    joins: usize,
+    trouble: Option<Trouble>,
+}
+
+impl Builder {
+    fn new() -> Self {
+        Builder {
+            atoms: Vec::new(),
+            bonds: Vec::new(),
+            stack: Vec::new(),
+            opens: vec![None; 100],
+            joins: 0,
+            trouble: None,
+        }
+    }
+
+    fn push_atom(&mut self, kind: AtomKind) -> Option<usize> {
+        if self.atoms.len() >= MAX_ATOMS {
+            self.trouble.get_or_insert(Trouble::TooLarge);
+            return None;
+        }
+        self.atoms.push(convert(kind));
+        Some(self.atoms.len() - 1)
+    }
+}
+
+impl Follower for Builder {
+    fn root(&mut self, root: AtomKind) {
+        if let Some(id) = self.push_atom(root) {
+            self.stack.push(id);
+        }
+    }
+
+    fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
+        let head = self.stack.last().copied();
+        if let Some(id) = self.push_atom(atom_kind) {
+            if let Some(head) = head {
+                self.bonds.push(RawBond {
+                    a: head,
+                    b: id,
+                    order: order_of(&bond_kind),
+                    join: None,
+                });
+            }
+            self.stack.push(id);
+        }
+    }
+
+    fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
+        let join = self.joins;
+        self.joins += 1;
+        let Some(&head) = self.stack.last() else {
+            return;
+        };
+        let digit = rnum as usize;
+        let Some(slot) = self.opens.get_mut(digit) else {
+            return;
+        };
+        let order = order_of(&bond_kind);
+        match slot.take() {
+            None => *slot = Some((head, order, join)),
+            Some((other, other_order, _)) => {
+                if other == head {
+                    self.trouble.get_or_insert(Trouble::SelfBond(join));
+                    return;
+                }
+                let order = match (other_order, order) {
+                    (RawOrder::Elided, o) | (o, RawOrder::Elided) => o,
+                    (a, b) if a == b => a,
+                    _ => {
+                        self.trouble.get_or_insert(Trouble::Mismatch(join));
+                        return;
+                    }
+                };
+                self.bonds.push(RawBond {
+                    a: other,
+                    b: head,
+                    order,
+                    join: Some(join),
+                });
+            }
+        }
+    }
+
+    fn pop(&mut self, depth: usize) {
+        let keep = self.stack.len().saturating_sub(depth);
+        self.stack.truncate(keep);
+    }
+}
+
+/// Character spans of the atoms and positions of the ring-closure digits
+/// of a string purr has accepted, in written order.
+pub(crate) fn lex(chars: &[char]) -> (Vec<Range<usize>>, Vec<usize>) {
+    let mut atoms = Vec::new();
+    let mut rnums = Vec::new();
+    let mut i = 0;
+    while i < chars.len() {
+        let c = chars[i];
+        match c {
+            '[' => {
+                let start = i;
+                while i < chars.len() && chars[i] != ']' {
+                    i += 1;
+                }
+                atoms.push(start..(i + 1).min(chars.len()));
+            }
+            '%' => {
+                rnums.push(i);
+                i += 2;
+            }
+            '0'..='9' => rnums.push(i),
+            'B' | 'C' | 'A' | 'T' => {
+                let two = matches!(
+                    (c, chars.get(i + 1)),
+                    ('B', Some('r')) | ('C', Some('l')) | ('A', Some('t')) | ('T', Some('s'))
+                );
+                if two {
+                    atoms.push(i..i + 2);
+                    i += 1;
+                } else {
+                    atoms.push(i..i + 1);
+                }
+            }
+            'N' | 'O' | 'P' | 'S' | 'F' | 'I' | 'b' | 'c' | 'n' | 'o' | 'p' | 's' | '*' => {
+                atoms.push(i..i + 1)
+            }
+            _ => {}
+        }
+        i += 1;
+    }
+    (atoms, rnums)
+}
+
+/// Depth of the call chain purr needs for this input is about one level per
+/// atom; inputs above this many atom-like characters are read on a thread
+/// with a stack sized for them.
+const DIRECT_READ_LIMIT: usize = 1_500;
+
+/// Read the syntax of `smiles` into atoms and bonds in written order.
+pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
+    if smiles.trim().is_empty() {
+        return Err(MolError::new(
+            ErrorKind::Empty,
+            "empty input: no SMILES given",
+            Some(0),
+            smiles,
+        ));
+    }
+    let chars: Vec<char> = smiles.chars().collect();
+    if chars.len() > MAX_CHARS {
+        return Err(MolError::new(
+            ErrorKind::TooLarge,
+            format!(
+                "input has {} characters; the limit is {}",
+                chars.len(),
+                MAX_CHARS
+            ),
+            Some(MAX_CHARS),
+            smiles,
+        ));
+    }
+    let rough_atoms = chars
+        .iter()
+        .filter(|c| c.is_ascii_alphabetic() || **c == '*')
+        .count();
+    let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
+        guarded_read(smiles)
+    } else {
+        // One stack frame chain per atom: give the reader room for it.
+        let owned = smiles.to_string();
+        let stack = (1 << 20) + rough_atoms * 2048;
+        let handle = std::thread::Builder::new()
+            .stack_size(stack)
+            .spawn(move || guarded_read(&owned));
+        match handle.map(|h| h.join()) {
+            Ok(Ok(pair)) => pair,
+            _ => {
+                return Err(MolError::new(
+                    ErrorKind::TooLarge,
+                    "input too large to read",
+                    None,
+                    smiles,
+                ))
+            }
+        }
+    };
+    let builder = match (result, builder) {
+        (Ok(()), Some(b)) => b,
+        (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
+            return Err(syntax_error(smiles, &chars, p))
+        }
+        (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
+            return Err(syntax_error(smiles, &chars, chars.len()))
+        }
+        (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
+            return Err(MolError::new(
+                ErrorKind::Unsupported,
+                "the SMILES reader could not handle this input",
+                None,
+                smiles,
+            ))
+        }
+    };
+    let (spans, rnums) = lex(&chars);
+    let rnum_pos = |j: usize| rnums.get(j).copied();
+    if let Some(t) = builder.trouble {
+        return Err(match t {
+            Trouble::TooLarge => MolError::new(
+                ErrorKind::TooLarge,
+                format!("more than {} atoms", MAX_ATOMS),
+                spans.get(MAX_ATOMS).map(|s| s.start),
+                smiles,
+            ),
+            Trouble::SelfBond(j) => MolError::new(
+                ErrorKind::RingClosure,
+                "ring closure bonds an atom to itself",
+                rnum_pos(j),
+                smiles,
+            ),
+            Trouble::Mismatch(j) => MolError::new(
+                ErrorKind::RingClosure,
+                "the two ends of this ring closure give different bond orders",
+                rnum_pos(j),
+                smiles,
+            ),
+        });
+    }
+    if let Some(open) = builder.opens.iter().flatten().map(|o| o.2).min() {
+        return Err(MolError::new(
+            ErrorKind::RingClosure,
+            "ring closure digit is opened but never closed",
+            rnum_pos(open),
+            smiles,
+        ));
+    }
+    if spans.len() != builder.atoms.len() {
+        return Err(MolError::new(
+            ErrorKind::Unsupported,
+            "internal disagreement between reader and lexer",
+            None,
+            smiles,
+        ));
+    }
+    // Two ring closures (or a closure and a chain bond) joining the same pair.
+    let mut pairs: Vec<(usize, usize, usize)> = builder
+        .bonds
+        .iter()
+        .enumerate()
+        .map(|(k, b)| (b.a.min(b.b), b.a.max(b.b), k))
+        .collect();
+    pairs.sort_unstable();
+    for w in pairs.windows(2) {
+        if w[0].0 == w[1].0 && w[0].1 == w[1].1 {
+            let later = builder.bonds[w[0].2.max(w[1].2)].join;
+            return Err(MolError::new(
+                ErrorKind::RingClosure,
+                "this ring closure duplicates a bond between the same two atoms",
+                later.and_then(rnum_pos),
+                smiles,
+            ));
+        }
+    }
+    Ok(Raw {
+        atoms: builder.atoms,
+        bonds: builder.bonds,
+        spans,
+    })
+}
+
+enum ReadFailure {
+    Syntax(purr::read::Error),
+    Panic,
+}
+
+fn guarded_read(smiles: &str) -> (Result<(), ReadFailure>, Option<Builder>) {
+    let run = std::panic::catch_unwind(|| {
+        let mut builder = Builder::new();
+        let r = purr::read::read(smiles, &mut builder, None);
+        (r, builder)
+    });
+    match run {
+        Ok((Ok(()), b)) => (Ok(()), Some(b)),
+        Ok((Err(e), _)) => (Err(ReadFailure::Syntax(e)), None),
+        Err(_) => (Err(ReadFailure::Panic), None),
+    }
+}
+
+fn syntax_error(smiles: &str, chars: &[char], p: usize) -> MolError {
+    let message = match chars.get(p) {
+        None => {
+            let open_brackets = chars.iter().filter(|c| **c == '[').count()
+                > chars.iter().filter(|c| **c == ']').count();
+            let open_branches = chars.iter().filter(|c| **c == '(').count()
+                > chars.iter().filter(|c| **c == ')').count();
+            if open_brackets {
+                "unexpected end of input: a bracket atom is not closed with ']'".to_string()
+            } else if open_branches {
+                "unexpected end of input: a branch is not closed with ')'".to_string()
+            } else {
+                "unexpected end of input: an atom is missing".to_string()
+            }
+        }
+        Some(c) if c.is_whitespace() => "unexpected white space".to_string(),
+        Some(c) => format!("unexpected character '{}'", c),
+    };
+    MolError::new(ErrorKind::Syntax, message, Some(p), smiles)
+}
