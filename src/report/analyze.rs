@@ -5,7 +5,7 @@ use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
     round, AdviceOut, ComponentOut, ErrorOut, Pairs, Record, RejectedOut, RuleOut, SiteOut, SCHEMA,
 };
-use crate::mol::Molecule;
+use crate::mol::{symbol, Molecule};
 use crate::sites::{self, Regio, SiteReport};
 use crate::smarts::{Pattern, PatternError};
 
@@ -229,7 +229,9 @@ fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<Stri
             labels.push(Label {
                 span: atom.span.clone(),
                 bracket: atom.bracket,
-                hydrogens: atom.hydrogens,
+                // Folded `[H]` atoms stay in the text, so only the implicit
+                // hydrogens move into the new bracket.
+                hydrogens: mol.implicit_hydrogens(a),
                 map: s.rank,
             });
         }
@@ -237,10 +239,141 @@ fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<Stri
     atom_mapped_smiles(smiles, &labels).ok()
 }
 
-/// Formula of the whole input and its components.
+/// Formula of the whole input and its components (main component first, then
+/// the counter-ions in input order).
 fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
-    let _ = (smiles, mol);
-    (String::new(), Vec::new())
+    let all: Vec<usize> = (0..mol.atoms.len()).collect();
+    let formula = hill_formula(mol, &all);
+    let comps = components(mol);
+    let main = main_component(mol, &comps);
+    let chars: Vec<char> = smiles.chars().collect();
+    let mut out = Vec::with_capacity(comps.len());
+    for (ci, atoms) in comps.iter().enumerate() {
+        let start = atoms
+            .iter()
+            .filter_map(|&a| mol.atoms.get(a))
+            .map(|a| a.span.start)
+            .min();
+        let end = atoms
+            .iter()
+            .filter_map(|&a| mol.atoms.get(a))
+            .map(|a| a.span.end)
+            .max();
+        let text = match (start, end) {
+            (Some(s), Some(e)) if s < e && e <= chars.len() => chars[s..e].iter().collect(),
+            _ => String::new(),
+        };
+        let comp = ComponentOut {
+            role: if Some(ci) == main {
+                "main"
+            } else {
+                "counter_ion"
+            }
+            .to_string(),
+            smiles: text,
+            formula: hill_formula(mol, atoms),
+            charge: atoms
+                .iter()
+                .filter_map(|&a| mol.atoms.get(a))
+                .map(|a| a.charge as i32)
+                .sum(),
+        };
+        if Some(ci) == main {
+            out.insert(0, comp);
+        } else {
+            out.push(comp);
+        }
+    }
+    (formula, out)
+}
+
+/// Connected components (atom lists in input order), ordered by first atom.
+fn components(mol: &Molecule) -> Vec<Vec<usize>> {
+    let n = mol.atoms.len();
+    let mut comp = vec![usize::MAX; n];
+    let mut out: Vec<Vec<usize>> = Vec::new();
+    for start in 0..n {
+        if comp[start] != usize::MAX {
+            continue;
+        }
+        let id = out.len();
+        let mut stack = vec![start];
+        let mut members = Vec::new();
+        comp[start] = id;
+        while let Some(a) = stack.pop() {
+            members.push(a);
+            for nb in mol.neighbors(a) {
+                if nb.atom < n && comp[nb.atom] == usize::MAX {
+                    comp[nb.atom] = id;
+                    stack.push(nb.atom);
+                }
+            }
+        }
+        members.sort_unstable();
+        out.push(members);
+    }
+    out
+}
+
+/// The component analysed: the one with most carbon atoms, then most heavy
+/// atoms, then the first written.
+fn main_component(mol: &Molecule, comps: &[Vec<usize>]) -> Option<usize> {
+    let key = |c: &Vec<usize>| {
+        let carbons = c
+            .iter()
+            .filter(|&&a| mol.atoms.get(a).is_some_and(|x| x.element == 6))
+            .count();
+        let heavy = c
+            .iter()
+            .filter(|&&a| mol.atoms.get(a).is_some_and(|x| x.element > 1))
+            .count();
+        (carbons, heavy)
+    };
+    let mut best: Option<(usize, (usize, usize))> = None;
+    for (i, c) in comps.iter().enumerate() {
+        let k = key(c);
+        if best.is_none_or(|(_, bk)| k > bk) {
+            best = Some((i, k));
+        }
+    }
+    best.map(|(i, _)| i)
+}
+
+/// Hill-order formula of some atoms: every hydrogen counted, isotopes folded
+/// into their element, no charge; `*` atoms left out.
+fn hill_formula(mol: &Molecule, atoms: &[usize]) -> String {
+    let mut counts: std::collections::BTreeMap<&'static str, u64> = Default::default();
+    for a in atoms.iter().filter_map(|&i| mol.atoms.get(i)) {
+        if a.element > 0 {
+            *counts.entry(symbol(a.element)).or_default() += 1;
+        }
+        if a.hydrogens > 0 {
+            *counts.entry("H").or_default() += a.hydrogens as u64;
+        }
+    }
+    let mut s = String::new();
+    let mut push = |sym: &str, n: u64| {
+        s.push_str(sym);
+        if n > 1 {
+            s.push_str(&n.to_string());
+        }
+    };
+    if let Some(&c) = counts.get("C") {
+        push("C", c);
+        if let Some(&h) = counts.get("H") {
+            push("H", h);
+        }
+        for (sym, &n) in &counts {
+            if *sym != "C" && *sym != "H" {
+                push(sym, n);
+            }
+        }
+    } else {
+        for (sym, &n) in &counts {
+            push(sym, n);
+        }
+    }
+    s
 }
 
 /// Advice for the target site, or None when there is nothing to target.
