@@ -26,9 +26,14 @@
 //! Inputs over [`MAX_CHARS`] characters or [`MAX_ATOMS`] atoms give
 //! [`ErrorKind::TooLarge`].
 
+mod aromatic;
 mod elements;
 mod error;
+mod kekule;
 mod read;
+mod rings;
+mod symmetry;
+mod valence_table;
 
 pub use elements::{atomic_number, symbol};
 pub use error::{ErrorKind, MolError};
@@ -130,6 +135,11 @@ pub struct Molecule {
     adjacency: Vec<Neighbor>,
     /// Hydrogens added by the valence rules (organic-subset atoms only).
     implicit_h: Vec<u8>,
+    rings: rings::RingInfo,
+    /// Connected component of each atom (numbered by first atom).
+    component: Vec<u32>,
+    component_count: usize,
+    main_component: u32,
 }
 
 impl Molecule {
@@ -204,6 +214,172 @@ impl Molecule {
             .map(|a| a.hydrogens as u32 + (a.element == 1) as u32)
             .sum()
     }
+
+    // ----- rings -----
+
+    /// Atom `i` is in a ring.
+    pub fn in_ring(&self, i: usize) -> bool {
+        self.rings.atom_ring_bonds.get(i).is_some_and(|c| *c > 0)
+    }
+
+    /// Number of rings of [`Molecule::rings`] containing atom `i`: SMARTS
+    /// `R<n>` as RDKit defines it (over its symmetrized SSSR).
+    pub fn ring_count(&self, i: usize) -> usize {
+        self.rings.atom_rings.get(i).map_or(0, |c| *c as usize)
+    }
+
+    /// Size of the smallest ring containing atom `i` (0 when not in a
+    /// ring): SMARTS `r<n>`.
+    pub fn smallest_ring(&self, i: usize) -> usize {
+        self.rings.atom_smallest.get(i).map_or(0, |c| *c as usize)
+    }
+
+    /// Number of ring bonds at atom `i`: SMARTS `x<n>`.
+    pub fn ring_bond_count(&self, i: usize) -> usize {
+        self.rings.atom_ring_bonds.get(i).map_or(0, |c| *c as usize)
+    }
+
+    /// Bond `b` is in a ring: SMARTS `@`.
+    pub fn bond_in_ring(&self, b: usize) -> bool {
+        self.rings.bond_in_ring.get(b).copied().unwrap_or(false)
+    }
+
+    /// Number of rings of [`Molecule::rings`] containing bond `b`.
+    pub fn bond_ring_count(&self, b: usize) -> usize {
+        self.rings.bond_rings.get(b).map_or(0, |c| *c as usize)
+    }
+
+    /// The rings: the relevant cycles (union of all smallest sets of
+    /// smallest rings), each as atom indices in cycle order. For ordinary
+    /// molecules this is the SSSR; for cages it is RDKit's symmetrized SSSR.
+    pub fn rings(&self) -> &[Vec<usize>] {
+        &self.rings.rings
+    }
+
+    /// The rings as bond indices, in the order of [`Molecule::rings`].
+    pub fn ring_bonds(&self) -> &[Vec<usize>] {
+        &self.rings.ring_bonds
+    }
+
+    /// Size of the smallest set of smallest rings (the cycle rank:
+    /// bonds - atoms + components).
+    pub fn sssr_count(&self) -> usize {
+        self.rings.sssr_count
+    }
+
+    // ----- components -----
+
+    /// Number of connected components (`.`-separated parts).
+    pub fn component_count(&self) -> usize {
+        self.component_count
+    }
+
+    /// Component of atom `i` (components are numbered in order of their
+    /// first written atom).
+    pub fn component_of(&self, i: usize) -> usize {
+        self.component.get(i).map_or(0, |c| *c as usize)
+    }
+
+    /// The main component: the one with the most heavy atoms among those
+    /// containing carbon (among all when none does); the first written wins
+    /// a tie.
+    pub fn main_component(&self) -> usize {
+        self.main_component as usize
+    }
+
+    /// Atoms of the main component, in index order.
+    pub fn main_component_atoms(&self) -> Vec<usize> {
+        self.component_atoms(self.main_component as usize)
+    }
+
+    /// Atoms of component `c`, in index order.
+    pub fn component_atoms(&self, c: usize) -> Vec<usize> {
+        (0..self.atoms.len())
+            .filter(|&i| self.component[i] as usize == c)
+            .collect()
+    }
+
+    /// Components other than the main one (counter-ions, solvents), each as
+    /// its atom list.
+    pub fn counter_ions(&self) -> Vec<Vec<usize>> {
+        (0..self.component_count)
+            .filter(|&c| c != self.main_component as usize)
+            .map(|c| self.component_atoms(c))
+            .collect()
+    }
+
+    // ----- formula -----
+
+    /// Molecular formula in Hill order (C, H, then alphabetical; all
+    /// alphabetical without carbon), every hydrogen counted, isotopes
+    /// counted as their element, no charge: `C2H3NaO2` for sodium acetate.
+    /// Wildcard atoms are written `*` at the end.
+    pub fn formula(&self) -> String {
+        formula_of(self.atoms.iter())
+    }
+
+    /// Formula of the atoms listed (e.g. one component).
+    pub fn formula_of_atoms(&self, atoms: &[usize]) -> String {
+        formula_of(atoms.iter().filter_map(|&i| self.atoms.get(i)))
+    }
+
+    /// Net formal charge.
+    pub fn net_charge(&self) -> i32 {
+        self.atoms.iter().map(|a| a.charge as i32).sum()
+    }
+
+    // ----- symmetry -----
+
+    /// Symmetry classes: atoms that are topologically equivalent share a
+    /// class (acetone's two methyl carbons; the two ethoxy groups of diethyl
+    /// malonate). Classes come from iterative refinement of an atom
+    /// invariant (element, isotope, charge, hydrogens and deuterium/tritium
+    /// count, degree, aromaticity, ring membership) by the sorted classes
+    /// and bond orders of the neighbours, until the partition stops
+    /// splitting. Class numbers are dense (0..k) and ordered by invariant,
+    /// so they do not depend on atom order. Refinement can leave rare
+    /// non-equivalent atoms together (regular graphs); it never separates
+    /// equivalent ones.
+    pub fn symmetry_classes(&self) -> Vec<u32> {
+        symmetry::classes(self)
+    }
+}
+
+fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
+    let mut counts = [0u32; 119];
+    let mut hydrogens = 0u32;
+    for a in atoms {
+        if let Some(c) = counts.get_mut(a.element as usize) {
+            *c += 1;
+        }
+        hydrogens += a.hydrogens as u32;
+    }
+    counts[1] += hydrogens;
+    let mut parts: Vec<(&str, u32)> = Vec::new();
+    let has_carbon = counts[6] > 0;
+    if has_carbon {
+        parts.push(("C", counts[6]));
+        if counts[1] > 0 {
+            parts.push(("H", counts[1]));
+        }
+    }
+    let mut rest: Vec<(&str, u32)> = (1..119)
+        .filter(|&z| counts[z] > 0 && !(has_carbon && (z == 6 || z == 1)))
+        .map(|z| (elements::SYMBOLS[z], counts[z]))
+        .collect();
+    rest.sort_unstable_by(|a, b| a.0.cmp(b.0));
+    parts.extend(rest);
+    if counts[0] > 0 {
+        parts.push(("*", counts[0]));
+    }
+    let mut out = String::new();
+    for (sym, c) in parts {
+        out.push_str(sym);
+        if c > 1 {
+            out.push_str(&c.to_string());
+        }
+    }
+    out
 }
 
 fn raw_order_value(o: RawOrder) -> u8 {
@@ -215,8 +391,133 @@ fn raw_order_value(o: RawOrder) -> u8 {
     }
 }
 
-/// Turn the written atoms and bonds into a molecule: fold hydrogens, add
-/// implicit hydrogens, build the adjacency.
+fn error_at(kind: ErrorKind, message: String, atom: &Atom, smiles: &str) -> MolError {
+    MolError::new(kind, message, Some(atom.span.start), smiles)
+}
+
+fn describe(atom: &Atom) -> String {
+    let sym = atom.symbol();
+    if atom.aromatic {
+        sym.to_lowercase()
+    } else {
+        sym.to_string()
+    }
+}
+
+/// Borrowed view of the compressed adjacency rows.
+pub(crate) struct Adj<'a> {
+    start: &'a [u32],
+    list: &'a [Neighbor],
+}
+
+impl<'a> Adj<'a> {
+    #[inline]
+    pub(crate) fn get(&self, i: usize) -> &'a [Neighbor] {
+        &self.list[self.start[i] as usize..self.start[i + 1] as usize]
+    }
+}
+
+/// Compressed adjacency rows from a bond list.
+fn adjacency_of(n: usize, bonds: &[Bond]) -> (Vec<u32>, Vec<Neighbor>) {
+    let mut start = vec![0u32; n + 1];
+    for b in bonds {
+        start[b.atoms[0] + 1] += 1;
+        start[b.atoms[1] + 1] += 1;
+    }
+    for i in 0..n {
+        start[i + 1] += start[i];
+    }
+    let mut fill: Vec<u32> = start[..n].to_vec();
+    let mut adjacency = vec![Neighbor { atom: 0, bond: 0 }; bonds.len() * 2];
+    for (k, b) in bonds.iter().enumerate() {
+        let [x, y] = b.atoms;
+        adjacency[fill[x] as usize] = Neighbor { atom: y, bond: k };
+        fill[x] += 1;
+        adjacency[fill[y] as usize] = Neighbor { atom: x, bond: k };
+        fill[y] += 1;
+    }
+    (start, adjacency)
+}
+
+/// Valence a (possibly charged) atom may have, as RDKit accepts it.
+fn valence_allowed(z: u8, charge: i8, valence: u32) -> bool {
+    let Some(row) = valence_table::TABLE.get(z as usize) else {
+        return false;
+    };
+    let any = 0x3ff;
+    if !(valence_table::CHARGE_MIN..=valence_table::CHARGE_MAX).contains(&charge) {
+        // Unusual charges: only elements without a valence rule.
+        return row.2[4] == any;
+    }
+    let mask = row.2[(charge - valence_table::CHARGE_MIN) as usize];
+    mask == any || (valence <= 9 && mask & (1 << valence) != 0)
+}
+
+/// Charge-separate pentavalent nitrogen (nitro, N-oxide, azide written with
+/// five bonds) and halogen oxides written with double bonds, as RDKit's
+/// clean-up does: `CN(=O)=O` is read as `C[N+](=O)[O-]`, `OCl(=O)(=O)=O`
+/// as `O[Cl+3]([O-])([O-])[O-]`.
+fn charge_separate(atoms: &mut [Atom], bonds: &mut [Bond], start: &[u32], adj: &[Neighbor]) {
+    let nb = |i: usize| &adj[start[i] as usize..start[i + 1] as usize];
+    for i in 0..atoms.len() {
+        let z = atoms[i].element;
+        if atoms[i].charge != 0 || !matches!(z, 7 | 17 | 35 | 53) {
+            continue;
+        }
+        let v: u32 = nb(i)
+            .iter()
+            .map(|x| bonds[x.bond].kekule as u32)
+            .sum::<u32>()
+            + atoms[i].hydrogens as u32;
+        let terminal_o = |x: &Neighbor, atoms: &[Atom], bonds: &[Bond]| {
+            bonds[x.bond].kekule == 2
+                && bonds[x.bond].order != BondOrder::Aromatic
+                && atoms[x.atom].element == 8
+                && atoms[x.atom].charge == 0
+                && nb(x.atom).len() == 1
+        };
+        if z == 7 {
+            let pentavalent = v == 5 || (atoms[i].aromatic && v == 4);
+            if !pentavalent {
+                continue;
+            }
+            if let Some(x) = nb(i).iter().find(|x| terminal_o(x, atoms, bonds)) {
+                let x = *x;
+                bonds[x.bond].kekule = 1;
+                bonds[x.bond].order = BondOrder::Single;
+                atoms[x.atom].charge = -1;
+                atoms[i].charge = 1;
+            } else if let Some(x) = nb(i).iter().find(|x| {
+                bonds[x.bond].kekule == 3
+                    && atoms[x.atom].element == 7
+                    && atoms[x.atom].charge == 0
+                    && nb(x.atom).len() == 1
+            }) {
+                let x = *x;
+                bonds[x.bond].kekule = 2;
+                bonds[x.bond].order = BondOrder::Double;
+                atoms[x.atom].charge = -1;
+                atoms[i].charge = 1;
+            }
+        } else if v > 1 {
+            let oxo: Vec<Neighbor> = nb(i)
+                .iter()
+                .filter(|x| terminal_o(x, atoms, bonds))
+                .copied()
+                .collect();
+            for x in &oxo {
+                bonds[x.bond].kekule = 1;
+                bonds[x.bond].order = BondOrder::Single;
+                atoms[x.atom].charge = -1;
+            }
+            atoms[i].charge = oxo.len() as i8;
+        }
+    }
+}
+
+/// Turn the written atoms and bonds into a validated molecule: fold
+/// hydrogens, add implicit hydrogens, kekulize aromatic input, check
+/// valences, find rings, perceive aromaticity, find components.
 fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     let read::Raw {
         atoms: raw_atoms,
@@ -234,8 +535,6 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         let a = &raw_atoms[i];
         a.element == 1 && a.charge == 0 && a.hcount.unwrap_or(0) == 0 && raw_degree[i] == 1
     };
-    // new_index[i] = index after folding, or usize::MAX for a folded H.
-    let mut new_index = vec![usize::MAX; n_raw];
     let mut fold = vec![false; n_raw];
     for b in &raw_bonds {
         if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
@@ -247,6 +546,8 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
             }
         }
     }
+    // new_index[i] = index after folding (unused for a folded H).
+    let mut new_index = vec![usize::MAX; n_raw];
     let mut atoms = Vec::with_capacity(n_raw);
     for (i, a) in raw_atoms.iter().enumerate() {
         if fold[i] {
@@ -267,7 +568,6 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     }
     let n = atoms.len();
     let mut bonds: Vec<Bond> = Vec::with_capacity(raw_bonds.len());
-    let mut written_aromatic: Vec<bool> = Vec::with_capacity(raw_bonds.len());
     for b in &raw_bonds {
         let (fa, fb) = (fold[b.a], fold[b.b]);
         if fa || fb {
@@ -296,33 +596,23 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
                 _ => BondOrder::Single,
             }
         };
-        written_aromatic.push(aromatic);
         bonds.push(Bond {
             atoms: [x, y],
             order,
             kekule: raw_order_value(b.order),
         });
     }
-    // Compressed adjacency in bond order of appearance.
-    let mut adjacency_start = vec![0u32; n + 1];
-    for b in &bonds {
-        adjacency_start[b.atoms[0] + 1] += 1;
-        adjacency_start[b.atoms[1] + 1] += 1;
-    }
-    for i in 0..n {
-        adjacency_start[i + 1] += adjacency_start[i];
-    }
-    let mut fill: Vec<u32> = adjacency_start[..n].to_vec();
-    let mut adjacency = vec![Neighbor { atom: 0, bond: 0 }; bonds.len() * 2];
-    for (k, b) in bonds.iter().enumerate() {
-        let [x, y] = b.atoms;
-        adjacency[fill[x] as usize] = Neighbor { atom: y, bond: k };
-        fill[x] += 1;
-        adjacency[fill[y] as usize] = Neighbor { atom: x, bond: k };
-        fill[y] += 1;
-    }
-    // Implicit hydrogens by the organic-subset valence rules.
+    let (adjacency_start, adjacency) = adjacency_of(n, &bonds);
+    charge_separate(&mut atoms, &mut bonds, &adjacency_start, &adjacency);
+    let nb = Adj {
+        start: &adjacency_start,
+        list: &adjacency,
+    };
+
+    // Implicit hydrogens by the organic-subset valence rules; aromatic atoms
+    // that have room for a pi bond must get a double bond in kekulization.
     let mut implicit_h = vec![0u8; n];
+    let mut needs_pi = vec![false; n];
     let mut bond_sum = vec![0u32; n];
     for b in &bonds {
         let v = b.kekule as u32;
@@ -330,35 +620,215 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         bond_sum[b.atoms[1]] += v;
     }
     for (i, atom) in atoms.iter_mut().enumerate() {
-        if atom.bracket {
-            continue;
-        }
         let v = bond_sum[i] + atom.hydrogens as u32;
-        let targets = elements::normal_valences(atom.element);
+        let targets = if atom.bracket || atom.charge != 0 {
+            elements::charged_valences(atom.element, atom.charge)
+        } else {
+            elements::normal_valences(atom.element)
+        };
         let Some(&t) = targets.iter().find(|&&t| t as u32 >= v) else {
             continue;
         };
         let t = t as u32;
-        let h = if atom.aromatic {
-            // One valence unit goes to the aromatic pi bond when there is room.
-            if t > v {
+        if atom.aromatic && t > v {
+            needs_pi[i] = true;
+        }
+        if !atom.bracket {
+            let h = if atom.aromatic && t > v {
                 t - v - 1
             } else {
-                0
-            }
-        } else {
-            t - v
-        };
-        implicit_h[i] = h as u8;
-        atom.hydrogens = atom.hydrogens.saturating_add(h as u8);
+                t - v
+            };
+            implicit_h[i] = h as u8;
+            atom.hydrogens = atom.hydrogens.saturating_add(h as u8);
+        }
     }
-    let _ = (smiles, written_aromatic);
+
+    let ring_info = rings::perceive(n, &bonds, &nb, smiles)?;
+
+    // Aromatic input: every aromatic atom must be in a ring, and the pi
+    // atoms must pair up along ring bonds written aromatic.
+    if atoms.iter().any(|a| a.aromatic) {
+        for (i, a) in atoms.iter().enumerate() {
+            if a.aromatic && ring_info.atom_rings[i] == 0 {
+                return Err(error_at(
+                    ErrorKind::Aromaticity,
+                    format!("aromatic atom '{}' is not in a ring", describe(a)),
+                    a,
+                    smiles,
+                ));
+            }
+        }
+        let pi_atoms: Vec<usize> = (0..n).filter(|&i| needs_pi[i]).collect();
+        let mut local = vec![usize::MAX; n];
+        for (k, &i) in pi_atoms.iter().enumerate() {
+            local[i] = k;
+        }
+        let mut adj: Vec<Vec<(usize, usize)>> = vec![Vec::new(); pi_atoms.len()];
+        for (k, &i) in pi_atoms.iter().enumerate() {
+            for x in nb.get(i) {
+                if bonds[x.bond].order == BondOrder::Aromatic
+                    && ring_info.bond_in_ring[x.bond]
+                    && local[x.atom] != usize::MAX
+                {
+                    adj[k].push((local[x.atom], x.bond));
+                }
+            }
+        }
+        let mate = kekule::perfect_matching(&adj);
+        if let Some(k) = mate.iter().position(|m| *m == usize::MAX) {
+            let a = &atoms[pi_atoms[k]];
+            let hint = if a.element == 7 && !a.bracket {
+                " (a pyrrole-type nitrogen is written [nH])"
+            } else {
+                ""
+            };
+            return Err(error_at(
+                ErrorKind::Aromaticity,
+                format!(
+                    "cannot kekulize the aromatic ring system at this '{}': its atoms cannot be given alternating double bonds{}",
+                    describe(a),
+                    hint
+                ),
+                a,
+                smiles,
+            ));
+        }
+        for b in bonds.iter_mut() {
+            if b.order == BondOrder::Aromatic {
+                b.kekule = 1;
+            }
+        }
+        for (k, &m) in mate.iter().enumerate() {
+            if m > k {
+                if let Some(&(_, bond)) = adj[k].iter().find(|(w, _)| *w == m) {
+                    bonds[bond].kekule = 2;
+                }
+            }
+        }
+        for b in bonds.iter_mut() {
+            if b.order == BondOrder::Aromatic {
+                b.order = if b.kekule == 2 {
+                    BondOrder::Double
+                } else {
+                    BondOrder::Single
+                };
+            }
+        }
+        for s in bond_sum.iter_mut() {
+            *s = 0;
+        }
+        for b in &bonds {
+            bond_sum[b.atoms[0]] += b.kekule as u32;
+            bond_sum[b.atoms[1]] += b.kekule as u32;
+        }
+    }
+
+    // Valence check on the Kekulé structure.
+    for (i, a) in atoms.iter().enumerate() {
+        let v = bond_sum[i] + a.hydrogens as u32;
+        if !valence_allowed(a.element, a.charge, v) {
+            let charge = match a.charge {
+                0 => String::new(),
+                c => format!(" with charge {:+}", c),
+            };
+            return Err(error_at(
+                ErrorKind::Valence,
+                format!("valence {} is not allowed for {}{}", v, a.symbol(), charge),
+                a,
+                smiles,
+            ));
+        }
+    }
+
+    // Aromaticity perception from scratch on the Kekulé structure.
+    let facts: Vec<aromatic::AtomFacts> = (0..n)
+        .map(|i| {
+            let a = &atoms[i];
+            let degree = nb.get(i).len() as i32;
+            let v = bond_sum[i] as i32 + a.hydrogens as i32;
+            let radicals = if a.bracket && a.element != 0 {
+                elements::charged_valences(a.element, a.charge)
+                    .iter()
+                    .find(|&&t| t as i32 >= v)
+                    .map_or(0, |&t| t as i32 - v)
+            } else {
+                0
+            };
+            aromatic::AtomFacts {
+                degree,
+                bond_order_sum: bond_sum[i] as i32,
+                explicit_h: (a.hydrogens - implicit_h[i]) as i32,
+                radicals,
+            }
+        })
+        .collect();
+    let (atom_arom, bond_arom) = aromatic::perceive(&atoms, &bonds, &nb, &facts, &ring_info);
+    for (a, &ar) in atoms.iter_mut().zip(&atom_arom) {
+        a.aromatic = ar;
+    }
+    for (b, &ar) in bonds.iter_mut().zip(&bond_arom) {
+        if ar && matches!(b.kekule, 1 | 2) {
+            b.order = BondOrder::Aromatic;
+        }
+    }
+
+    // Connected components, numbered in order of their first atom.
+    let mut component = vec![u32::MAX; n];
+    let mut count = 0u32;
+    let mut stack = Vec::new();
+    for s in 0..n {
+        if component[s] != u32::MAX {
+            continue;
+        }
+        component[s] = count;
+        stack.push(s);
+        while let Some(v) = stack.pop() {
+            for x in nb.get(v) {
+                if component[x.atom] == u32::MAX {
+                    component[x.atom] = count;
+                    stack.push(x.atom);
+                }
+            }
+        }
+        count += 1;
+    }
+    // Main component: most heavy atoms among those containing carbon (else
+    // among all); the first written wins a tie.
+    let mut heavy = vec![0usize; count as usize];
+    let mut carbon = vec![false; count as usize];
+    for (i, a) in atoms.iter().enumerate() {
+        let c = component[i] as usize;
+        if a.element != 1 {
+            heavy[c] += 1;
+        }
+        if a.element == 6 {
+            carbon[c] = true;
+        }
+    }
+    let any_carbon = carbon.iter().any(|c| *c);
+    let mut main = 0u32;
+    let mut best = None;
+    for c in 0..count as usize {
+        if any_carbon && !carbon[c] {
+            continue;
+        }
+        if best.is_none_or(|b| heavy[c] > b) {
+            best = Some(heavy[c]);
+            main = c as u32;
+        }
+    }
+
     Ok(Molecule {
         atoms,
         bonds,
         adjacency_start,
         adjacency,
         implicit_h,
+        rings: ring_info,
+        component,
+        component_count: count as usize,
+        main_component: main,
     })
 }
 

@@ -32,8 +32,6 @@ pub(crate) struct RawAtom {
     pub hcount: Option<u8>,
     pub map: Option<u16>,
     pub bracket: bool,
-    /// Non-tetrahedral or tetrahedral stereo tag present (ignored).
-    pub stereo: bool,
 }
 
 /// Bond order as written.
@@ -124,7 +122,6 @@ fn convert(kind: AtomKind) -> RawAtom {
         hcount: None,
         map: None,
         bracket: false,
-        stereo: false,
     };
     match kind {
         AtomKind::Star => plain(0, false),
@@ -133,7 +130,7 @@ fn convert(kind: AtomKind) -> RawAtom {
         AtomKind::Bracket {
             isotope,
             symbol,
-            configuration,
+            configuration: _,
             hcount,
             charge,
             map,
@@ -152,7 +149,6 @@ fn convert(kind: AtomKind) -> RawAtom {
                 hcount: Some(hcount.as_ref().map(|h| h.into()).unwrap_or(0)),
                 map: map.as_ref().map(u16::from),
                 bracket: true,
-                stereo: configuration.is_some(),
             }
         }
     }
