@@ -1,17 +1,63 @@
 //! Substructure patterns: a documented SMARTS subset parsed into a query
 //! graph, and a non-induced backtracking matcher over [`crate::mol::Molecule`].
 //!
-//! OWNER: patterns work (issue 3). Contract used by other modules:
-//! `Pattern::parse`, `Pattern::anchor`, `Pattern::count_unique`,
-//! `Pattern::matches_at`, `Pattern::unique_matches`.
+//! # Supported SMARTS
+//!
+//! * Atoms outside brackets: the organic subset `B C N O P S F Cl Br I`,
+//!   aromatic `b c n o p s`, `*`, `A`, `a`.
+//! * Bracket primitives: element symbols (upper case aliphatic, lower case
+//!   aromatic, two-letter symbols), `#n`, `*`, `A`, `a`, `H n` (total H),
+//!   `h n` (hydrogens on the atom; alone: at least one), `D n` (explicit
+//!   connections), `X n` (connections including H), `v n` (total valence),
+//!   `R` / `R n` (number of SSSR rings), `r` / `r n` (smallest SSSR ring
+//!   size), `x` / `x n` (ring bonds), charges `+ - +n -n ++ --`, isotope
+//!   (`[13C]`), atom map `:n`, recursive `$( … )`. A number left off means
+//!   1 for `H D X v`, and "any ring / at least one" for `R r x h`.
+//! * Logic: `!` binds tightest, then `&` (and the implicit "and" of
+//!   juxtaposition), then `,`, then `;`.
+//! * Bonds: `- = # : ~ @` with `! & , ;`; no symbol means single or
+//!   aromatic. Branches, ring closures (`1`, `%12`, `%(123)`), `.`
+//!   components (which may match atoms of one molecular fragment).
+//! * Not supported (clear error with position): chirality `@` in atoms,
+//!   directional bonds `/ \`, `$name` macros, reaction SMARTS `>`,
+//!   component grouping `( … ).( … )`, ranges `{…}`, RDKit extensions
+//!   such as `^`, `z`, `Z`.
+//!
+//! Primitives follow RDKit's meaning on a hydrogen-suppressed molecule:
+//! every hydrogen is folded into its heavy atom, so `h n` equals `H n`.
+//! Ring primitives use the SSSR symmetrised as RDKit does.
+//!
+//! # Matching
+//!
+//! Matching is non-induced (pattern bonds must be present; extra molecule
+//! bonds between matched atoms are allowed), by backtracking over an atom
+//! order that starts at the most selective atom (or the anchor) and grows
+//! through connected atoms. Unique matches count each set of molecule atoms
+//! once, as RDKit's `uniquify` does. For many patterns over one molecule,
+//! build a [`Target`] once and use the `*_in` methods.
+
+mod expr;
+mod matcher;
+mod parse;
+mod rings;
+mod target;
+
+pub use expr::{AtomExpr, AtomPrim, BondExpr, BondPrim};
+pub use parse::{MAX_ATOMS, MAX_RECURSION_DEPTH};
+pub use target::Target;
 
 use crate::mol::Molecule;
+use matcher::{new_cache, query_atom_matches, search};
+use std::collections::HashSet;
 
 /// A parse error with the character position in the pattern.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct PatternError {
+    /// What is wrong, naming the unsupported feature where there is one.
     pub message: String,
+    /// 0-based character position in the pattern.
     pub position: usize,
+    /// The pattern text.
     pub pattern: String,
 }
 
@@ -27,42 +73,423 @@ impl std::fmt::Display for PatternError {
 
 impl std::error::Error for PatternError {}
 
+/// One pattern atom.
+#[derive(Debug, Clone)]
+pub(crate) struct QueryAtom {
+    pub expr: AtomExpr,
+    pub map: Option<u16>,
+    /// Character position of the atom in the pattern text.
+    pub position: usize,
+    /// Element every match must have (fast rejection), if implied.
+    pub element: Option<u8>,
+}
+
+/// One pattern bond.
+#[derive(Debug, Clone)]
+pub(crate) struct QueryBond {
+    pub atoms: [usize; 2],
+    pub expr: BondExpr,
+}
+
+/// One step of a matching order: the pattern atom placed, the already
+/// placed atom it is reached from (with the pattern bond), and the further
+/// bonds to already placed atoms that must be checked (ring closures).
+#[derive(Debug, Clone)]
+pub(crate) struct Step {
+    pub atom: usize,
+    pub parent: Option<(usize, usize)>,
+    pub closures: Vec<(usize, usize)>,
+}
+
+/// A query graph (the main pattern or one recursive part).
+#[derive(Debug, Clone, Default)]
+pub(crate) struct Query {
+    pub atoms: Vec<QueryAtom>,
+    pub bonds: Vec<QueryBond>,
+    /// Pattern adjacency: (neighbour pattern atom, pattern bond).
+    pub adj: Vec<Vec<(usize, usize)>>,
+    /// Order starting at the most selective atom.
+    pub plan_free: Vec<Step>,
+    /// Order starting at the anchor (atom 0 until [`Query::set_anchor`]).
+    pub plan_anchor: Vec<Step>,
+}
+
+impl Query {
+    /// Build adjacency and matching orders once parsing is done.
+    pub(crate) fn finish(&mut self) {
+        for a in &mut self.atoms {
+            a.element = a.expr.required_element();
+        }
+        self.adj = vec![Vec::new(); self.atoms.len()];
+        for (i, b) in self.bonds.iter().enumerate() {
+            let [x, y] = b.atoms;
+            if x < self.atoms.len() && y < self.atoms.len() {
+                self.adj[x].push((y, i));
+                self.adj[y].push((x, i));
+            }
+        }
+        let best = (0..self.atoms.len())
+            .max_by_key(|&i| (self.score(i), std::cmp::Reverse(i)))
+            .unwrap_or(0);
+        self.plan_free = self.plan(best);
+        self.plan_anchor = self.plan(0);
+    }
+
+    fn set_anchor(&mut self, anchor: usize) {
+        self.plan_anchor = self.plan(anchor);
+    }
+
+    fn score(&self, i: usize) -> u32 {
+        self.atoms[i].expr.selectivity() * 4 + self.adj[i].len() as u32
+    }
+
+    /// Greedy order: start at `start`, then repeatedly the unplaced atom
+    /// with most bonds to placed atoms (ties: most selective); a new
+    /// component starts at its most selective atom.
+    fn plan(&self, start: usize) -> Vec<Step> {
+        let n = self.atoms.len();
+        let mut placed = vec![false; n];
+        let mut steps: Vec<Step> = Vec::with_capacity(n);
+        let mut next = Some(start.min(n.saturating_sub(1)));
+        while steps.len() < n {
+            let a = match next.take() {
+                Some(a) => a,
+                None => {
+                    // Frontier: unplaced atoms bonded to placed ones.
+                    let frontier = (0..n)
+                        .filter(|&i| !placed[i])
+                        .filter(|&i| self.adj[i].iter().any(|&(x, _)| placed[x]))
+                        .max_by_key(|&i| {
+                            let links = self.adj[i].iter().filter(|&&(x, _)| placed[x]).count();
+                            (links, self.score(i), std::cmp::Reverse(i))
+                        });
+                    match frontier {
+                        Some(i) => i,
+                        None => match (0..n)
+                            .filter(|&i| !placed[i])
+                            .max_by_key(|&i| (self.score(i), std::cmp::Reverse(i)))
+                        {
+                            Some(i) => i,
+                            None => break,
+                        },
+                    }
+                }
+            };
+            let mut parent = None;
+            let mut closures = Vec::new();
+            for &(x, b) in &self.adj[a] {
+                if placed[x] {
+                    if parent.is_none() {
+                        parent = Some((x, b));
+                    } else {
+                        closures.push((x, b));
+                    }
+                }
+            }
+            placed[a] = true;
+            steps.push(Step {
+                atom: a,
+                parent,
+                closures,
+            });
+        }
+        steps
+    }
+}
+
+/// Lower bounds a molecule must meet before matching is tried.
+#[derive(Debug, Clone, Default)]
+struct Screen {
+    atoms: usize,
+    elements: Vec<(u8, u16)>,
+    aromatic: usize,
+    ring: bool,
+}
+
 /// A compiled SMARTS pattern.
 #[derive(Debug, Clone)]
 pub struct Pattern {
+    /// The pattern text as given.
     pub source: String,
+    main: Query,
+    recursive: Vec<Query>,
+    anchor: Option<usize>,
+    screen: Screen,
 }
 
 impl Pattern {
+    /// Parse a SMARTS pattern of the supported subset (see the module
+    /// documentation). Errors carry the 0-based character position.
     pub fn parse(smarts: &str) -> Result<Pattern, PatternError> {
-        Err(PatternError {
-            message: "pattern parser not built yet".into(),
-            position: 0,
-            pattern: smarts.into(),
+        let parse::Parsed {
+            mut main,
+            recursive,
+        } = parse::parse(smarts)?;
+        let anchor = main.atoms.iter().position(|a| a.map == Some(1));
+        if let Some(a) = anchor {
+            main.set_anchor(a);
+        }
+        let mut screen = Screen {
+            atoms: main.atoms.len(),
+            ..Screen::default()
+        };
+        let mut counts = [0u16; 256];
+        for a in &main.atoms {
+            if let Some(e) = a.element {
+                counts[e as usize] = counts[e as usize].saturating_add(1);
+            }
+            if a.expr.requires_aromatic() {
+                screen.aromatic += 1;
+            }
+            if a.expr.requires_ring() {
+                screen.ring = true;
+            }
+        }
+        if main.bonds.iter().any(|b| b.expr.requires_ring()) {
+            screen.ring = true;
+        }
+        screen.elements = counts
+            .iter()
+            .enumerate()
+            .filter(|(_, &c)| c > 0)
+            .map(|(e, &c)| (e as u8, c))
+            .collect();
+        Ok(Pattern {
+            source: smarts.to_string(),
+            main,
+            recursive,
+            anchor,
+            screen,
         })
     }
 
     /// Index (in the pattern) of the atom labelled with atom-map `:1`, the
     /// anchor whose hydrogen a rule is about; None if unlabelled.
     pub fn anchor(&self) -> Option<usize> {
-        None
+        self.anchor
+    }
+
+    /// The atom [`Pattern::matches_at`] places: the `:1` atom, else atom 0.
+    pub fn anchor_or_first(&self) -> usize {
+        self.anchor.unwrap_or(0)
+    }
+
+    /// Number of atoms in the pattern (not counting recursive parts).
+    pub fn atom_count(&self) -> usize {
+        self.main.atoms.len()
+    }
+
+    /// Number of bonds in the pattern (not counting recursive parts).
+    pub fn bond_count(&self) -> usize {
+        self.main.bonds.len()
+    }
+
+    /// Atom-map label of pattern atom `i`, if it has one.
+    pub fn map_label(&self, i: usize) -> Option<u16> {
+        self.main.atoms.get(i).and_then(|a| a.map)
+    }
+
+    /// First pattern atom carrying atom-map label `label`.
+    pub fn atom_with_map(&self, label: u16) -> Option<usize> {
+        self.main.atoms.iter().position(|a| a.map == Some(label))
+    }
+
+    /// Character position of pattern atom `i` in the pattern text.
+    pub fn atom_position(&self, i: usize) -> Option<usize> {
+        self.main.atoms.get(i).map(|a| a.position)
+    }
+
+    /// Could the pattern match this molecule at all? Cheap checks only
+    /// (atom count, element counts, aromatic atoms, rings); `false` means
+    /// it certainly does not match.
+    pub fn passes_screen(&self, t: &Target) -> bool {
+        let s = &self.screen;
+        if t.atom_count() < s.atoms || t.aromatic_count < s.aromatic {
+            return false;
+        }
+        if s.ring && t.ring_count == 0 {
+            return false;
+        }
+        s.elements
+            .iter()
+            .all(|&(e, c)| t.element_count.get(e as usize).copied().unwrap_or(0) >= c)
     }
 
     /// Unique matches (the same set of molecule atoms counts once). Each
     /// match maps pattern atom index -> molecule atom index.
     pub fn unique_matches(&self, mol: &Molecule) -> Vec<Vec<usize>> {
-        let _ = mol;
-        Vec::new()
+        self.unique_matches_in(&Target::new(mol))
     }
 
+    /// Number of unique matches (see [`Pattern::unique_matches`]).
     pub fn count_unique(&self, mol: &Molecule) -> usize {
-        self.unique_matches(mol).len()
+        self.count_unique_in(&Target::new(mol))
+    }
+
+    /// Does the pattern match anywhere?
+    pub fn is_match(&self, mol: &Molecule) -> bool {
+        self.is_match_in(&Target::new(mol))
     }
 
     /// Does the pattern match with its anchor atom on molecule atom `atom`?
-    /// Returns one such mapping.
+    /// Returns one such mapping (pattern atom -> molecule atom).
     pub fn matches_at(&self, mol: &Molecule, atom: usize) -> Option<Vec<usize>> {
-        let _ = (mol, atom);
-        None
+        self.matches_at_in(&Target::new(mol), atom)
+    }
+
+    /// All unique matches with the anchor atom on molecule atom `atom`.
+    pub fn matches_at_all(&self, mol: &Molecule, atom: usize) -> Vec<Vec<usize>> {
+        self.matches_at_all_in(&Target::new(mol), atom)
+    }
+
+    /// Molecule atoms (ascending) on which the anchor atom can be placed.
+    pub fn anchored_atoms(&self, mol: &Molecule) -> Vec<usize> {
+        self.anchored_atoms_in(&Target::new(mol))
+    }
+
+    /// [`Pattern::unique_matches`] on a prepared molecule.
+    pub fn unique_matches_in(&self, t: &Target) -> Vec<Vec<usize>> {
+        let mut out = Vec::new();
+        self.each_unique(t, None, &mut |m| {
+            out.push(m.to_vec());
+            true
+        });
+        out
+    }
+
+    /// [`Pattern::count_unique`] on a prepared molecule.
+    pub fn count_unique_in(&self, t: &Target) -> usize {
+        let mut n = 0;
+        self.each_unique(t, None, &mut |_| {
+            n += 1;
+            true
+        });
+        n
+    }
+
+    /// [`Pattern::is_match`] on a prepared molecule.
+    pub fn is_match_in(&self, t: &Target) -> bool {
+        if !self.passes_screen(t) {
+            return false;
+        }
+        let mut cache = new_cache(self);
+        let mut found = false;
+        search(
+            self,
+            &self.main,
+            &self.main.plan_free,
+            t,
+            &mut cache,
+            None,
+            &mut |_| {
+                found = true;
+                false
+            },
+        );
+        found
+    }
+
+    /// [`Pattern::matches_at`] on a prepared molecule.
+    pub fn matches_at_in(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
+        if atom >= t.atom_count() || !self.passes_screen(t) {
+            return None;
+        }
+        let mut cache = new_cache(self);
+        self.anchored_one(t, atom, &mut cache)
+    }
+
+    /// [`Pattern::matches_at_all`] on a prepared molecule.
+    pub fn matches_at_all_in(&self, t: &Target, atom: usize) -> Vec<Vec<usize>> {
+        let mut out = Vec::new();
+        if atom >= t.atom_count() {
+            return out;
+        }
+        self.each_unique(t, Some(atom), &mut |m| {
+            out.push(m.to_vec());
+            true
+        });
+        out
+    }
+
+    /// [`Pattern::anchored_atoms`] on a prepared molecule.
+    pub fn anchored_atoms_in(&self, t: &Target) -> Vec<usize> {
+        let mut out = Vec::new();
+        if !self.passes_screen(t) {
+            return out;
+        }
+        let mut cache = new_cache(self);
+        let anchor = self.anchor_or_first();
+        let candidates: Box<dyn Iterator<Item = usize>> =
+            match self.main.atoms.get(anchor).and_then(|a| a.element) {
+                Some(e) => Box::new(
+                    t.by_element
+                        .get(e as usize)
+                        .map(|v| v.as_slice())
+                        .unwrap_or(&[])
+                        .iter()
+                        .copied(),
+                ),
+                None => Box::new(0..t.atom_count()),
+            };
+        for a in candidates {
+            if self.anchored_one(t, a, &mut cache).is_some() {
+                out.push(a);
+            }
+        }
+        out
+    }
+
+    fn anchored_one(
+        &self,
+        t: &Target,
+        atom: usize,
+        cache: &mut matcher::RecCache,
+    ) -> Option<Vec<usize>> {
+        let anchor = self.anchor_or_first();
+        if !query_atom_matches(&self.main, anchor, atom, t, self, cache) {
+            return None;
+        }
+        let mut result = None;
+        search(
+            self,
+            &self.main,
+            &self.main.plan_anchor,
+            t,
+            cache,
+            Some(atom),
+            &mut |m| {
+                result = Some(m.to_vec());
+                false
+            },
+        );
+        result
+    }
+
+    /// Visit each unique match (optionally with the anchor fixed).
+    fn each_unique(
+        &self,
+        t: &Target,
+        anchored: Option<usize>,
+        f: &mut dyn FnMut(&[usize]) -> bool,
+    ) {
+        if !self.passes_screen(t) {
+            return;
+        }
+        let mut cache = new_cache(self);
+        let mut seen: HashSet<Vec<usize>> = HashSet::new();
+        let plan = if anchored.is_some() {
+            &self.main.plan_anchor
+        } else {
+            &self.main.plan_free
+        };
+        search(self, &self.main, plan, t, &mut cache, anchored, &mut |m| {
+            let mut key = m.to_vec();
+            key.sort_unstable();
+            if seen.insert(key) {
+                f(m)
+            } else {
+                true
+            }
+        });
     }
 }

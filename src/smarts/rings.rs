@@ -1,0 +1,489 @@
+//! Ring perception for matching: ring bonds (bonds that are not bridges),
+//! and a smallest set of smallest rings "symmetrised" the way RDKit's ring
+//! information is (rings of the same size that are interchangeable in the
+//! basis are all kept, so cubane has six four-membered rings).
+//!
+//! The molecule core may perceive rings too; this private copy keeps the
+//! SMARTS primitives `R`, `r`, `x` and `@` on exactly the ring set RDKit
+//! uses, which the reference checks compare against.
+
+/// Ring information per atom and bond.
+pub(crate) struct Rings {
+    pub bond_in_ring: Vec<bool>,
+    pub atom_rings: Vec<u8>,
+    pub atom_min_ring: Vec<u8>,
+    pub count: usize,
+}
+
+/// Ring systems larger than this (vertices × edges) get an approximate
+/// ring set (one ring per atom, smallest ring by breadth-first search)
+/// instead of the full basis, so hostile input cannot make perception slow.
+const EXACT_LIMIT: usize = 4_000_000;
+
+pub(crate) fn perceive(n: usize, adj: &[Vec<(usize, usize)>], n_bonds: usize) -> Rings {
+    let mut out = Rings {
+        bond_in_ring: vec![false; n_bonds],
+        atom_rings: vec![0; n],
+        atom_min_ring: vec![0; n],
+        count: 0,
+    };
+    // Quick exit: a forest has no rings. Count distinct valid bonds.
+    let edges: usize = adj.iter().map(|v| v.len()).sum::<usize>() / 2;
+    if edges + 1 <= n && is_forest(n, adj) {
+        return out;
+    }
+    mark_ring_bonds(n, adj, &mut out.bond_in_ring);
+    // Ring systems: components over ring bonds.
+    let mut system = vec![usize::MAX; n];
+    let mut n_systems = 0;
+    for s in 0..n {
+        if system[s] != usize::MAX || !adj[s].iter().any(|&(_, b)| out.bond_in_ring[b]) {
+            continue;
+        }
+        let mut stack = vec![s];
+        system[s] = n_systems;
+        while let Some(a) = stack.pop() {
+            for &(x, b) in &adj[a] {
+                if out.bond_in_ring[b] && system[x] == usize::MAX {
+                    system[x] = n_systems;
+                    stack.push(x);
+                }
+            }
+        }
+        n_systems += 1;
+    }
+    let mut members: Vec<Vec<usize>> = vec![Vec::new(); n_systems];
+    for (a, &s) in system.iter().enumerate() {
+        if s != usize::MAX {
+            members[s].push(a);
+        }
+    }
+    for atoms in &members {
+        ring_system(atoms, adj, &out.bond_in_ring.clone(), &mut out);
+    }
+    out
+}
+
+fn is_forest(n: usize, adj: &[Vec<(usize, usize)>]) -> bool {
+    let mut seen = vec![false; n];
+    for s in 0..n {
+        if seen[s] {
+            continue;
+        }
+        seen[s] = true;
+        // (atom, bond used to reach it)
+        let mut stack = vec![(s, usize::MAX)];
+        while let Some((a, via)) = stack.pop() {
+            for &(x, b) in &adj[a] {
+                if b == via {
+                    continue;
+                }
+                if seen[x] {
+                    return false;
+                }
+                seen[x] = true;
+                stack.push((x, b));
+            }
+        }
+    }
+    true
+}
+
+/// Bridges by iterative depth-first search with low-links; every other
+/// bond is a ring bond.
+fn mark_ring_bonds(n: usize, adj: &[Vec<(usize, usize)>], ring: &mut [bool]) {
+    let mut disc = vec![usize::MAX; n];
+    let mut low = vec![0usize; n];
+    let mut time = 0;
+    for root in 0..n {
+        if disc[root] != usize::MAX {
+            continue;
+        }
+        // Frame: (atom, bond used to enter, next neighbour index)
+        let mut stack: Vec<(usize, usize, usize)> = vec![(root, usize::MAX, 0)];
+        disc[root] = time;
+        low[root] = time;
+        time += 1;
+        while let Some(frame) = stack.last_mut() {
+            let (a, via, i) = *frame;
+            if i < adj[a].len() {
+                frame.2 += 1;
+                let (x, b) = adj[a][i];
+                if b == via {
+                    continue;
+                }
+                if disc[x] == usize::MAX {
+                    disc[x] = time;
+                    low[x] = time;
+                    time += 1;
+                    stack.push((x, b, 0));
+                } else {
+                    // A back edge closes a cycle.
+                    low[a] = low[a].min(disc[x]);
+                    if let Some(r) = ring.get_mut(b) {
+                        *r = true;
+                    }
+                }
+            } else {
+                stack.pop();
+                if let Some(&(p, _, _)) = stack.last() {
+                    low[p] = low[p].min(low[a]);
+                    if low[a] <= disc[p] {
+                        // Not a bridge: the subtree at `a` reaches back.
+                        if let Some(r) = ring.get_mut(via) {
+                            *r = true;
+                        }
+                    }
+                }
+            }
+        }
+    }
+}
+
+type Bits = Vec<u64>;
+
+fn bit_set(b: &mut Bits, i: usize) {
+    b[i / 64] |= 1 << (i % 64);
+}
+
+fn xor_into(a: &mut Bits, b: &Bits) {
+    for (x, y) in a.iter_mut().zip(b) {
+        *x ^= *y;
+    }
+}
+
+fn lowest_bit(b: &Bits) -> Option<usize> {
+    b.iter()
+        .enumerate()
+        .find(|(_, w)| **w != 0)
+        .map(|(i, w)| i * 64 + w.trailing_zeros() as usize)
+}
+
+/// A GF(2) basis in echelon form keyed by lowest set bit.
+struct Basis {
+    rows: Vec<(usize, Bits)>,
+}
+
+impl Basis {
+    fn new() -> Self {
+        Basis { rows: Vec::new() }
+    }
+    /// Reduce `v`; true if it was independent (and is then added).
+    fn insert(&mut self, mut v: Bits) -> bool {
+        loop {
+            let Some(p) = lowest_bit(&v) else {
+                return false;
+            };
+            match self.rows.iter().find(|(q, _)| *q == p) {
+                Some((_, row)) => xor_into(&mut v, row),
+                None => {
+                    self.rows.push((p, v));
+                    return true;
+                }
+            }
+        }
+    }
+}
+
+fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out: &mut Rings) {
+    // Local edge numbering for this system's ring bonds.
+    let mut local_edge: std::collections::HashMap<usize, usize> = Default::default();
+    for &a in atoms {
+        for &(_, b) in &adj[a] {
+            if ring.get(b).copied().unwrap_or(false) {
+                let k = local_edge.len();
+                local_edge.entry(b).or_insert(k);
+            }
+        }
+    }
+    let e = local_edge.len();
+    let v = atoms.len();
+    let nullity = (e + 1).saturating_sub(v);
+    if nullity == 0 {
+        return;
+    }
+    if nullity == 1 {
+        out.count += 1;
+        let size = v.min(255) as u8;
+        for &a in atoms {
+            out.atom_rings[a] = out.atom_rings[a].saturating_add(1);
+            out.atom_min_ring[a] = size;
+        }
+        return;
+    }
+    if v.saturating_mul(e) > EXACT_LIMIT {
+        approximate(atoms, adj, ring, out);
+        return;
+    }
+    let words = e.div_ceil(64);
+    let in_system = |x: usize| atoms.binary_search(&x).is_ok();
+    // Candidate cycles: for each root, breadth-first tree over ring bonds;
+    // each non-tree edge (x, y) closes P(root, x) + (x, y) + P(y, root).
+    let mut seen: std::collections::HashSet<Bits> = Default::default();
+    let mut cands: Vec<(usize, Bits, Vec<usize>)> = Vec::new();
+    let n = adj.len();
+    let mut dist = vec![usize::MAX; n];
+    let mut parent = vec![(usize::MAX, usize::MAX); n];
+    for &root in atoms {
+        for &a in atoms {
+            dist[a] = usize::MAX;
+            parent[a] = (usize::MAX, usize::MAX);
+        }
+        dist[root] = 0;
+        let mut queue = std::collections::VecDeque::from([root]);
+        let mut order = Vec::with_capacity(v);
+        while let Some(a) = queue.pop_front() {
+            order.push(a);
+            for &(x, b) in &adj[a] {
+                if ring[b] && in_system(x) && dist[x] == usize::MAX {
+                    dist[x] = dist[a] + 1;
+                    parent[x] = (a, b);
+                    queue.push_back(x);
+                }
+            }
+        }
+        for &x in &order {
+            for &(y, b) in &adj[x] {
+                if !ring[b] || x > y || parent[x].1 == b || parent[y].1 == b {
+                    continue;
+                }
+                // Paths to the root must meet only at the root.
+                let mut path_x = vec![x];
+                let mut c = x;
+                while c != root {
+                    c = parent[c].0;
+                    path_x.push(c);
+                }
+                let mut path_y = vec![y];
+                let mut c = y;
+                while c != root {
+                    c = parent[c].0;
+                    path_y.push(c);
+                }
+                if path_x[..path_x.len() - 1]
+                    .iter()
+                    .any(|a| path_y[..path_y.len() - 1].contains(a))
+                {
+                    continue;
+                }
+                let mut bits = vec![0u64; words];
+                bit_set(&mut bits, local_edge[&b]);
+                for path in [&path_x, &path_y] {
+                    for w in path.windows(2) {
+                        let pb = parent[w[0]].1;
+                        bit_set(&mut bits, local_edge[&pb]);
+                    }
+                }
+                if seen.insert(bits.clone()) {
+                    let mut cyc: Vec<usize> = path_x.clone();
+                    cyc.extend(path_y[..path_y.len() - 1].iter());
+                    cands.push((cyc.len(), bits, cyc));
+                }
+            }
+        }
+    }
+    cands.sort_by_key(|c| c.0);
+    let mut basis = Basis::new();
+    let mut chosen: Vec<usize> = Vec::new();
+    for (i, c) in cands.iter().enumerate() {
+        if chosen.len() == nullity {
+            break;
+        }
+        if basis.insert(c.1.clone()) {
+            chosen.push(i);
+        }
+    }
+    // Symmetrise as RDKit does: a further ring joins if it could replace
+    // one chosen ring of the same size, sharing a bond with it and keeping
+    // every bond that only that ring provides.
+    let mut bond_count = vec![0u32; e];
+    for &i in &chosen {
+        for (k, c) in bond_count.iter_mut().enumerate() {
+            if cands[i].1[k / 64] >> (k % 64) & 1 == 1 {
+                *c += 1;
+            }
+        }
+    }
+    let has = |bits: &Bits, k: usize| bits[k / 64] >> (k % 64) & 1 == 1;
+    // Edge list of the system in local numbering.
+    let mut ends = vec![(0usize, 0usize); e];
+    for &a in atoms {
+        for &(x, b) in &adj[a] {
+            if let Some(&k) = local_edge.get(&b) {
+                ends[k] = (a.min(x), a.max(x));
+            }
+        }
+    }
+    let mut extra_rings: Vec<Vec<usize>> = Vec::new();
+    let mut known: std::collections::HashSet<Bits> =
+        chosen.iter().map(|&i| cands[i].1.clone()).collect();
+    for &j in &chosen {
+        let (len, bits, _) = &cands[j];
+        let unique: Vec<usize> = (0..e)
+            .filter(|&k| has(bits, k) && bond_count[k] == 1)
+            .collect();
+        let starts: Vec<usize> = if unique.is_empty() {
+            (0..e).filter(|&k| has(bits, k)).collect()
+        } else {
+            vec![unique[0]]
+        };
+        for k in starts {
+            for (cyc, cbits) in cycles_through(k, *len, &ends, &local_edge, adj, ring, words) {
+                if unique.iter().all(|&u| has(&cbits, u)) && known.insert(cbits) {
+                    extra_rings.push(cyc);
+                }
+            }
+        }
+    }
+    let extra_cycles: Vec<(usize, Vec<usize>)> =
+        extra_rings.into_iter().map(|c| (c.len(), c)).collect();
+    let all = chosen
+        .iter()
+        .map(|&i| (cands[i].0, &cands[i].2))
+        .chain(extra_cycles.iter().map(|(l, c)| (*l, c)));
+    for (len, cyc) in all {
+        let len = len.min(255) as u8;
+        out.count += 1;
+        for &a in cyc {
+            out.atom_rings[a] = out.atom_rings[a].saturating_add(1);
+            if out.atom_min_ring[a] == 0 || out.atom_min_ring[a] > len {
+                out.atom_min_ring[a] = len;
+            }
+        }
+    }
+}
+
+/// Cheap stand-in for very large ring systems: each atom counts one ring,
+/// of the size of the shortest cycle through it.
+fn approximate(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out: &mut Rings) {
+    let n = adj.len();
+    let mut dist = vec![usize::MAX; n];
+    for &a in atoms {
+        out.atom_rings[a] = 1;
+        out.count += 1;
+        // Shortest cycle through `a`: BFS labelling each vertex with the
+        // first neighbour of `a` it came through.
+        let mut touched = vec![a];
+        let mut branch = std::collections::HashMap::new();
+        dist[a] = 0;
+        let mut queue = std::collections::VecDeque::from([a]);
+        let mut best = usize::MAX;
+        while let Some(x) = queue.pop_front() {
+            if dist[x] * 2 >= best {
+                break;
+            }
+            for &(y, b) in &adj[x] {
+                if !ring[b] {
+                    continue;
+                }
+                let bx = if x == a {
+                    y
+                } else {
+                    branch.get(&x).copied().unwrap_or(y)
+                };
+                if dist[y] == usize::MAX {
+                    dist[y] = dist[x] + 1;
+                    branch.insert(y, bx);
+                    touched.push(y);
+                    queue.push_back(y);
+                } else if y != a && branch.get(&y) != Some(&bx) {
+                    best = best.min(dist[x] + dist[y] + 1);
+                }
+            }
+        }
+        for t in touched {
+            dist[t] = usize::MAX;
+        }
+        out.atom_min_ring[a] = best.min(255) as u8;
+    }
+}
+
+/// Most search steps spent looking for the cycles through one bond.
+const CYCLE_STEP_LIMIT: usize = 200_000;
+
+/// Simple cycles of exactly `len` atoms through local edge `k`, within the
+/// ring bonds of one system, as (atoms, edge bits). Depth-first with an
+/// explicit stack and distance pruning; stops after [`CYCLE_STEP_LIMIT`]
+/// steps.
+fn cycles_through(
+    k: usize,
+    len: usize,
+    ends: &[(usize, usize)],
+    local_edge: &std::collections::HashMap<usize, usize>,
+    adj: &[Vec<(usize, usize)>],
+    ring: &[bool],
+    words: usize,
+) -> Vec<(Vec<usize>, Bits)> {
+    let mut out = Vec::new();
+    let Some(&(a, b)) = ends.get(k) else {
+        return out;
+    };
+    // Distances to `a` over system ring bonds, not using edge k.
+    let mut dist: std::collections::HashMap<usize, usize> = Default::default();
+    dist.insert(a, 0);
+    let mut queue = std::collections::VecDeque::from([a]);
+    while let Some(x) = queue.pop_front() {
+        let dx = dist[&x];
+        for &(y, bond) in &adj[x] {
+            if !ring.get(bond).copied().unwrap_or(false) || local_edge.get(&bond) == Some(&k) {
+                continue;
+            }
+            if !local_edge.contains_key(&bond) || dist.contains_key(&y) {
+                continue;
+            }
+            dist.insert(y, dx + 1);
+            queue.push_back(y);
+        }
+    }
+    // Path from b to a with len - 1 edges.
+    let mut path = vec![b];
+    let mut edges: Vec<usize> = Vec::new();
+    let mut cursor = vec![0usize];
+    let mut steps = 0usize;
+    while let Some(&x) = path.last() {
+        steps += 1;
+        if steps > CYCLE_STEP_LIMIT {
+            break;
+        }
+        let depth = path.len() - 1; // edges used so far
+        let i = cursor[depth];
+        let nbrs = &adj[x];
+        if x == a || i >= nbrs.len() {
+            if x == a && depth == len - 1 {
+                let mut bits = vec![0u64; words];
+                bit_set(&mut bits, k);
+                for &le in &edges {
+                    bit_set(&mut bits, le);
+                }
+                out.push((path.clone(), bits));
+            }
+            path.pop();
+            cursor.pop();
+            edges.pop();
+            continue;
+        }
+        cursor[depth] += 1;
+        let (y, bond) = nbrs[i];
+        let Some(&le) = local_edge.get(&bond) else {
+            continue;
+        };
+        if le == k || path.contains(&y) {
+            continue;
+        }
+        if depth + 2 > len {
+            continue;
+        }
+        let remaining = len - 2 - depth;
+        match dist.get(&y) {
+            Some(&d) if d <= remaining => {}
+            _ => continue,
+        }
+        if y == a && remaining != 0 {
+            continue;
+        }
+        path.push(y);
+        cursor.push(0);
+        edges.push(le);
+    }
+    out
+}

@@ -1,0 +1,288 @@
+//! Unit tests of the SMARTS matcher, one per primitive and operator
+//! (issue 3). Every expected count was checked with RDKit 2026.09
+//! (`len(mol.GetSubstructMatches(Chem.MolFromSmarts(p), uniquify=True))`)
+//! unless a comment says otherwise.
+
+use acidsite::mol::Molecule;
+use acidsite::smarts::{Pattern, Target};
+
+fn mol(smiles: &str) -> Molecule {
+    Molecule::from_smiles(smiles).unwrap_or_else(|e| panic!("{smiles}: {e}"))
+}
+
+fn count(pattern: &str, smiles: &str) -> usize {
+    let p = Pattern::parse(pattern).unwrap_or_else(|e| panic!("{pattern}: {e}"));
+    p.count_unique(&mol(smiles))
+}
+
+#[test]
+fn count_unique_given_branch_in_small_ring_is_non_induced() {
+    // Issue 3: isobutyraldehyde pattern in methyl cyclopropanecarboxylate;
+    // an induced matcher misses it because C-C(ring)-C is closed by a bond.
+    assert_eq!(count("CC(C)C=O", "COC(=O)C1CC1"), 1);
+}
+
+#[test]
+fn count_unique_given_symmetric_pattern_counts_each_atom_set_once() {
+    assert_eq!(count("CCC", "CC(C)C"), 3);
+    assert_eq!(count("C(C)(C)C", "CC(C)(C)C"), 4);
+    assert_eq!(count("C1CC1", "C1CC1"), 1);
+}
+
+#[test]
+fn count_unique_given_element_symbols() {
+    assert_eq!(count("[#6]", "CCO"), 2);
+    assert_eq!(count("C", "c1ccccc1C"), 1);
+    assert_eq!(count("c", "c1ccccc1C"), 6);
+    assert_eq!(count("[Cl]", "ClCCl"), 2);
+    assert_eq!(count("Cl", "ClCCl"), 2);
+    assert_eq!(count("Br", "BrC"), 1);
+    assert_eq!(count("[Sn]", "C[Sn](C)(C)C"), 1);
+    assert_eq!(count("[#7]", "c1ccncc1N"), 2);
+}
+
+#[test]
+fn count_unique_given_nh_reads_as_nitrogen_with_hydrogen() {
+    // RDKit reads [Nh] as N & h (nihonium is not a SMARTS symbol there).
+    assert_eq!(count("[Nh]", "CN"), 1);
+}
+
+#[test]
+fn count_unique_given_wildcard_and_aromaticity_primitives() {
+    assert_eq!(count("*", "CCO"), 3);
+    assert_eq!(count("A", "c1ccccc1O"), 1);
+    assert_eq!(count("a", "c1ccccc1O"), 6);
+}
+
+#[test]
+fn count_unique_given_total_hydrogen_count() {
+    assert_eq!(count("[H3]", "CCO"), 1);
+    assert_eq!(count("[CH3]", "CC(C)O"), 2);
+    assert_eq!(count("[CH0]", "CC(C)(C)O"), 1);
+    assert_eq!(count("[NH2]", "NCC[NH3+]"), 1);
+    // Folded explicit hydrogens count too (RDKit removes them into the atom).
+    assert_eq!(count("[CH3]", "[H]C([H])([H])C"), 2);
+}
+
+#[test]
+fn count_unique_given_implicit_hydrogen_count() {
+    // RDKit's h counts the hydrogens carried by the atom, bracket or not.
+    assert_eq!(count("[h]", "CC(C)(C)O"), 4);
+    assert_eq!(count("[h3]", "C[CH2]O"), 1);
+    assert_eq!(count("[h2]", "C[CH2]O"), 1);
+}
+
+#[test]
+fn count_unique_given_degree() {
+    assert_eq!(count("[D1]", "CC(C)O"), 3);
+    assert_eq!(count("[D3]", "CC(C)O"), 1);
+    assert_eq!(count("[D]", "CC(C)O"), 3);
+}
+
+#[test]
+fn count_unique_given_total_connections() {
+    assert_eq!(count("[X4]", "CC(C)O"), 3);
+    assert_eq!(count("[X2]", "CC(C)O"), 1);
+    assert_eq!(count("[X]", "C"), 0);
+}
+
+#[test]
+fn count_unique_given_valence() {
+    assert_eq!(count("[v4]", "C[N+](C)(C)C"), 5);
+    assert_eq!(count("[v3]", "CN"), 1);
+    assert_eq!(count("[v2]", "C=O"), 1);
+    assert_eq!(count("[v]", "C=O"), 0);
+}
+
+#[test]
+fn count_unique_given_ring_membership_count() {
+    assert_eq!(count("[R]", "C1CC1C"), 3);
+    assert_eq!(count("[R0]", "C1CC1C"), 1);
+    // Norbornane: two five-membered SSSR rings share three atoms.
+    assert_eq!(count("[R2]", "C1CC2CCC1C2"), 3);
+    assert_eq!(count("[R1]", "C1CC2CCC1C2"), 4);
+    // Cubane: RDKit keeps all six faces, so every atom is in three rings.
+    assert_eq!(count("[R3]", "C12C3C4C1C5C2C3C45"), 8);
+}
+
+#[test]
+fn count_unique_given_smallest_ring_size() {
+    assert_eq!(count("[r5]", "C1CC2CCC1C2"), 7);
+    assert_eq!(count("[r6]", "c1ccc2ccccc2c1"), 10);
+    assert_eq!(count("[r]", "C1CC1C"), 3);
+    assert_eq!(count("[r3]", "C1CC1C1CCCC1"), 3);
+}
+
+#[test]
+fn count_unique_given_ring_bond_count() {
+    assert_eq!(count("[x2]", "C1CC2CCC1C2"), 5);
+    assert_eq!(count("[x3]", "C1CC2CCC1C2"), 2);
+    assert_eq!(count("[x]", "C1CC1C"), 3);
+    assert_eq!(count("[x0]", "C1CC1C"), 1);
+}
+
+#[test]
+fn count_unique_given_charges() {
+    assert_eq!(count("[+]", "C[N+](C)(C)C"), 1);
+    assert_eq!(count("[-]", "CC(=O)[O-]"), 1);
+    assert_eq!(count("[+0]", "C[N+](C)(C)C"), 4);
+    assert_eq!(count("[++]", "[Ca++]"), 1);
+    assert_eq!(count("[+2]", "[Ca+2]"), 1);
+    assert_eq!(count("[--]", "[O-2]"), 1);
+    assert_eq!(count("[-2]", "[O--]"), 1);
+    assert_eq!(count("[-1]", "[O-]C[O-]"), 2);
+}
+
+#[test]
+fn count_unique_given_isotopes() {
+    assert_eq!(count("[13C]", "[13CH3]C"), 1);
+    assert_eq!(count("[12C]", "[13CH3]C"), 0);
+    assert_eq!(count("[13#6]", "[13CH3]C"), 1);
+}
+
+#[test]
+fn count_unique_given_not_operator() {
+    assert_eq!(count("[!C]", "CCO"), 1);
+    assert_eq!(count("[!!C]", "CCO"), 2);
+    assert_eq!(count("[!C;!N]", "CC(=O)N"), 1);
+}
+
+#[test]
+fn count_unique_given_and_operators() {
+    assert_eq!(count("[C&X4]", "CC=O"), 1);
+    assert_eq!(count("[CX4]", "CC=O"), 1);
+}
+
+#[test]
+fn count_unique_given_or_operator() {
+    assert_eq!(count("[C,O]", "CCN"), 2);
+}
+
+#[test]
+fn count_unique_given_operator_precedence() {
+    // ';' binds loosest, then ',', then '&' / juxtaposition.
+    assert_eq!(count("[C,N;X3]", "CC(=O)N"), 2);
+    assert_eq!(count("[C;X3,X4]", "CC(=O)N"), 2);
+    assert_eq!(count("[C,N&X3]", "CC(=O)N"), 3);
+    assert_eq!(count("[N,C&X3]", "CC(=O)N"), 2);
+}
+
+#[test]
+fn count_unique_given_recursive_smarts() {
+    assert_eq!(count("[$(CO)]", "CCOC"), 2);
+    assert_eq!(count("[C;!$(C=O)]", "CC(=O)C"), 2);
+    assert_eq!(count("[$([C;$(C=O)])]", "CC(=O)C"), 1);
+    assert_eq!(count("[$(C=O),$(C#N)]", "CC(=O)CC#N"), 2);
+}
+
+#[test]
+fn count_unique_given_bond_orders() {
+    assert_eq!(count("C-C", "CC=CC"), 2);
+    assert_eq!(count("C=C", "CC=CC"), 1);
+    assert_eq!(count("C#C", "CC#C"), 1);
+    assert_eq!(count("c:c", "c1ccccc1"), 6);
+    assert_eq!(count("C~C", "CC=CC#C"), 4);
+}
+
+#[test]
+fn count_unique_given_implicit_bond_is_single_or_aromatic() {
+    assert_eq!(count("c-c", "c1ccccc1-c1ccccc1"), 1);
+    assert_eq!(count("cc", "c1ccccc1-c1ccccc1"), 13);
+    assert_eq!(count("c!:c", "c1ccccc1-c1ccccc1"), 1);
+}
+
+#[test]
+fn count_unique_given_ring_bond_primitive() {
+    assert_eq!(count("*@*", "C1CC1CC"), 3);
+    assert_eq!(count("*!@*", "C1CC1CC"), 2);
+    assert_eq!(count("C-&!@C", "C1CC1CC"), 2);
+    assert_eq!(count("C-;@C", "C1CC1CC"), 3);
+}
+
+#[test]
+fn count_unique_given_bond_logic() {
+    assert_eq!(count("C-,=C", "CC=CC#C"), 3);
+    assert_eq!(count("C!-C", "CC=CC#C"), 2);
+}
+
+#[test]
+fn count_unique_given_ring_closures() {
+    assert_eq!(count("C1CC1", "C1CC1"), 1);
+    assert_eq!(count("C1CCC1", "C1CC1"), 0);
+    assert_eq!(count("C%10CC%10", "C1CC1"), 1);
+    assert_eq!(count("C%(10)CC%(10)", "C1CC1"), 1);
+    assert_eq!(count("C-1CC1", "C1CC1"), 1);
+    assert_eq!(count("C=1CC1", "C1CC1"), 0);
+}
+
+#[test]
+fn count_unique_given_dot_components() {
+    assert_eq!(count("C.C", "CC"), 1);
+    assert_eq!(count("C.O", "CCO"), 2);
+    assert_eq!(count("[OH].[OH]", "OCCO"), 1);
+}
+
+#[test]
+fn anchor_given_map_label_one() {
+    let p = Pattern::parse("O=C[CH2:1]").unwrap();
+    assert_eq!(p.anchor(), Some(2));
+    assert_eq!(p.anchor_or_first(), 2);
+    assert_eq!(p.map_label(2), Some(1));
+    assert_eq!(p.atom_with_map(1), Some(2));
+    let q = Pattern::parse("CC=O").unwrap();
+    assert_eq!(q.anchor(), None);
+    assert_eq!(q.anchor_or_first(), 0);
+}
+
+#[test]
+fn matches_at_given_anchor_on_alpha_carbon() {
+    // Butan-2-one CC(=O)CC: alpha carbons are atoms 0 and 3; atom 4 is beta
+    // (common practice).
+    let m = mol("CC(=O)CC");
+    let p = Pattern::parse("[CX4;!H0:1][CX3](=O)[#6]").unwrap();
+    assert!(p.matches_at(&m, 0).is_some());
+    assert!(p.matches_at(&m, 3).is_some());
+    assert!(p.matches_at(&m, 4).is_none());
+    assert!(p.matches_at(&m, 1).is_none());
+    assert!(p.matches_at(&m, 99).is_none());
+    let hit = p.matches_at(&m, 3).unwrap();
+    assert_eq!(hit[0], 3);
+    assert_eq!(hit[1], 1);
+    assert_eq!(p.anchored_atoms(&m), vec![0, 3]);
+}
+
+#[test]
+fn matches_at_all_given_two_carbonyl_partners() {
+    // Pentane-2,4-dione: C3 is alpha to both carbonyls (common practice).
+    let m = mol("CC(=O)CC(C)=O");
+    let p = Pattern::parse("[CH2:1]C=O").unwrap();
+    assert_eq!(p.matches_at_all(&m, 3).len(), 2);
+    assert_eq!(p.matches_at_all(&m, 0).len(), 0);
+}
+
+#[test]
+fn unique_matches_given_pattern_maps_every_pattern_atom() {
+    let m = mol("OCC(=O)O");
+    let p = Pattern::parse("C(=O)[OH]").unwrap();
+    let all = p.unique_matches(&m);
+    assert_eq!(all, vec![vec![2, 3, 4]]);
+}
+
+#[test]
+fn count_unique_in_given_shared_target_equals_per_call() {
+    let m = mol("CC(=O)OCC(C#N)c1ccccc1");
+    let t = Target::new(&m);
+    for s in ["[CX4;!H0]", "c", "C#N", "[$(C=O)]", "*~*", "[R]"] {
+        let p = Pattern::parse(s).unwrap();
+        assert_eq!(p.count_unique_in(&t), p.count_unique(&m), "{s}");
+    }
+}
+
+#[test]
+fn passes_screen_given_missing_element_is_false() {
+    let m = mol("CCO");
+    let t = Target::new(&m);
+    assert!(!Pattern::parse("C#N").unwrap().passes_screen(&t));
+    assert!(!Pattern::parse("[R]").unwrap().passes_screen(&t));
+    assert!(Pattern::parse("CO").unwrap().passes_screen(&t));
+}
