@@ -4,7 +4,74 @@
 //! OWNER: acidic-sites work (issue 4). Contract used by advice and report:
 //! `find_sites`, `SiteReport`, `Site`, `Regio`, `RuleUse`.
 
+use std::sync::OnceLock;
+
 use crate::mol::Molecule;
+
+mod estimate;
+mod hammett;
+mod rules;
+
+pub use hammett::{SigmaEntry, SigmaTable};
+pub use rules::{
+    parse_rule_set, Hammett, Increment, Rule, RuleError, RuleSet, SigmaKind, SUBSTITUENT_KINDS,
+};
+
+/// Embedded rule files: (file name, text).
+const RULES: (&str, &str) = ("fragments/rules.tsv", include_str!("../../fragments/rules.tsv"));
+const INCREMENTS: (&str, &str) = (
+    "fragments/increments.tsv",
+    include_str!("../../fragments/increments.tsv"),
+);
+const SOURCES: (&str, &str) = (
+    "fragments/sources.tsv",
+    include_str!("../../fragments/sources.tsv"),
+);
+const SIGMA: (&str, &str) = ("fragments/sigma.tsv", include_str!("../../fragments/sigma.tsv"));
+
+struct Loaded {
+    rules: RuleSet,
+    sigma: SigmaTable,
+}
+
+static LOADED: OnceLock<Result<Loaded, RuleError>> = OnceLock::new();
+
+fn loaded() -> Result<&'static Loaded, &'static RuleError> {
+    LOADED
+        .get_or_init(|| {
+            let rules = parse_rule_set(RULES, INCREMENTS, SOURCES)?;
+            let sigma = SigmaTable::parse(SIGMA.0, SIGMA.1)?;
+            Ok(Loaded { rules, sigma })
+        })
+        .as_ref()
+}
+
+/// The embedded rule set, parsed and validated on first use. An error names
+/// the file and line of the first bad row.
+pub fn rule_set() -> Result<&'static RuleSet, &'static RuleError> {
+    loaded().map(|l| &l.rules)
+}
+
+/// The embedded Hammett σ table.
+pub fn sigma_table() -> Result<&'static SigmaTable, &'static RuleError> {
+    loaded().map(|l| &l.sigma)
+}
+
+/// Which pKa scale ranks the sites.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Scale {
+    /// DMSO where the site has a DMSO estimate, else its water estimate.
+    #[default]
+    Dmso,
+    /// Water where available, else DMSO.
+    Water,
+}
+
+/// Options for [`find_sites_with`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub struct Options {
+    pub scale: Scale,
+}
 
 /// Kinetic / thermodynamic side of an unsymmetrical ketone.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
@@ -59,13 +126,34 @@ pub struct SiteReport {
     pub top_overall: Option<usize>,
 }
 
-/// Find and rank every acidic site of the molecule's main component.
+/// Find and rank every acidic site of the molecule's main component
+/// (largest connected component: the cation of an ammonium salt, the
+/// organic acid of a sodium salt), ranked on the DMSO scale (water where a
+/// site has no DMSO estimate).
+///
+/// Returns an empty report only if the embedded rule data failed
+/// validation, which [`rule_set`] reports (and the test suite forbids).
 pub fn find_sites(mol: &Molecule) -> SiteReport {
-    let _ = mol;
-    SiteReport::default()
+    find_sites_with(mol, &Options::default())
+}
+
+/// [`find_sites`] with options (ranking scale).
+pub fn find_sites_with(mol: &Molecule, opts: &Options) -> SiteReport {
+    match loaded() {
+        Ok(l) => estimate::run(mol, &l.rules, &l.sigma, opts),
+        Err(_) => SiteReport::default(),
+    }
 }
 
 /// Version of the embedded rule set, stamped into every output.
 pub fn rule_set_version() -> &'static str {
-    "unbuilt"
+    match rule_set() {
+        Ok(r) => r.version.as_str(),
+        Err(_) => "invalid",
+    }
+}
+
+/// Symmetry class of every atom (equal numbers = topologically equivalent).
+pub(crate) fn symmetry_classes(mol: &Molecule) -> Vec<u32> {
+    mol.symmetry_classes()
 }

@@ -1,0 +1,533 @@
+//! The estimation engine: class rule, substituent increments, ring effects,
+//! Hammett term; grouping of symmetry-equivalent atoms; ranking and
+//! regiochemistry.
+
+use super::hammett::{ring_positions, SigmaTable};
+use super::rules::{Hammett, Rule, RuleSet, SigmaKind};
+use super::{Options, Regio, RuleUse, Scale, Site, SiteReport};
+use crate::mol::{BondOrder, Molecule};
+use crate::smarts::Target;
+
+/// One acidic atom before grouping.
+#[derive(Debug, Clone)]
+struct Raw {
+    atom: usize,
+    rule: usize,
+    site: Site,
+}
+
+fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
+    let mut m = 0u128;
+    for &i in atoms {
+        if let Some(a) = mol.atoms.get(i) {
+            if a.element < 128 {
+                m |= 1u128 << a.element;
+            }
+        }
+    }
+    m
+}
+
+fn has_multiple_bond(mol: &Molecule, i: usize) -> bool {
+    mol.neighbors(i)
+        .iter()
+        .any(|nb| !matches!(mol.bonds[nb.bond].order, BondOrder::Single))
+}
+
+/// Cheap test: can a C–H on atom `i` be activated at all? Non-activated
+/// sp3 C–H (all neighbours saturated and uncharged) is not a site.
+fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
+    let a = &mol.atoms[i];
+    if a.aromatic {
+        // Azole C2–H: an aromatic C–H in a five-membered ring flanked by two
+        // ring heteroatoms (imidazole, oxazole, thiazole and their cations).
+        let het = mol
+            .neighbors(i)
+            .iter()
+            .filter(|nb| {
+                let b = &mol.atoms[nb.atom];
+                b.aromatic && matches!(b.element, 7 | 8 | 16)
+            })
+            .count();
+        return het >= 2;
+    }
+    if a.charge < 0 {
+        return false;
+    }
+    let own_multiple = has_multiple_bond(mol, i);
+    if own_multiple {
+        // sp C–H of a terminal alkyne; vinyl and aldehyde C–H are not sites.
+        return mol
+            .neighbors(i)
+            .iter()
+            .any(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Triple))
+            && a.element == 6;
+    }
+    mol.neighbors(i).iter().any(|nb| {
+        let b = &mol.atoms[nb.atom];
+        b.charge > 0 || b.aromatic || has_multiple_bond(mol, nb.atom)
+    })
+}
+
+/// Kind of a substituent atom `s` on the acidic atom `site`.
+fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static str> {
+    let a = &mol.atoms[s];
+    let others = || mol.neighbors(s).iter().filter(move |nb| nb.atom != site);
+    let double_to = |el: u8| {
+        others().any(|nb| {
+            mol.atoms[nb.atom].element == el
+                && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
+        })
+    };
+    match a.element {
+        6 => {
+            if a.aromatic {
+                let all_c = ring_positions(mol, s).is_some_and(|r| r.all_carbon);
+                return Some(if all_c { "aryl" } else { "heteroaryl" });
+            }
+            if others().any(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Triple)) {
+                return Some(if others().any(|nb| mol.atoms[nb.atom].element == 7) {
+                    "cyano"
+                } else {
+                    "alkynyl"
+                });
+            }
+            if double_to(8) {
+                let single_o = others().any(|nb| {
+                    mol.atoms[nb.atom].element == 8
+                        && matches!(mol.bonds[nb.bond].order, BondOrder::Single)
+                });
+                return Some(if single_o { "ester" } else { "acyl" });
+            }
+            if double_to(6) {
+                return Some("vinyl");
+            }
+            if has_multiple_bond(mol, s) {
+                return None;
+            }
+            // A CH2/CH/C carrying a heteroatom or an acceptor: the β
+            // inductive effect differs from plain alkyl.
+            let ewg = others().any(|nb| {
+                let b = &mol.atoms[nb.atom];
+                b.charge != 0
+                    || matches!(b.element, 7 | 8 | 9 | 16 | 17 | 35 | 53)
+                    || (b.element == 6 && !b.aromatic && has_multiple_bond(mol, nb.atom))
+            });
+            Some(if ewg { "alkyl_ewg" } else { "alkyl" })
+        }
+        7 => {
+            let o = others().filter(|nb| mol.atoms[nb.atom].element == 8).count();
+            if o >= 2 {
+                Some("nitro")
+            } else if !has_multiple_bond(mol, s) && a.charge == 0 {
+                Some("amino")
+            } else {
+                None
+            }
+        }
+        8 => {
+            let other = others().next().map(|nb| nb.atom);
+            match other {
+                Some(o) if mol.atoms[o].aromatic => Some("aryloxy"),
+                Some(o) if double_to_any(mol, o, 8) && mol.atoms[o].element == 6 => {
+                    Some("acyloxy")
+                }
+                _ if a.charge == 0 => Some("alkoxy"),
+                _ => None,
+            }
+        }
+        16 => {
+            let o = others()
+                .filter(|nb| mol.atoms[nb.atom].element == 8)
+                .count();
+            if o >= 2 {
+                Some("sulfonyl")
+            } else if o == 0 && a.charge == 0 && !a.aromatic {
+                Some("thio")
+            } else {
+                None
+            }
+        }
+        9 => Some("fluoro"),
+        17 => Some("chloro"),
+        35 => Some("bromo"),
+        53 => Some("iodo"),
+        _ => None,
+    }
+}
+
+fn double_to_any(mol: &Molecule, i: usize, el: u8) -> bool {
+    mol.neighbors(i).iter().any(|nb| {
+        mol.atoms[nb.atom].element == el && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
+    })
+}
+
+/// Smallest ring (3 or 4) through `i` that is not wholly inside `matched`.
+fn small_ring(mol: &Molecule, i: usize, matched: &[usize]) -> Option<&'static str> {
+    let nbs = mol.neighbors(i);
+    for (x, a) in nbs.iter().enumerate() {
+        for b in &nbs[x + 1..] {
+            if bonded(mol, a.atom, b.atom)
+                && !(matched.contains(&a.atom) && matched.contains(&b.atom))
+            {
+                return Some("ring3");
+            }
+        }
+    }
+    for (x, a) in nbs.iter().enumerate() {
+        for b in &nbs[x + 1..] {
+            for c in mol.neighbors(a.atom) {
+                if c.atom != i
+                    && bonded(mol, c.atom, b.atom)
+                    && !(matched.contains(&a.atom)
+                        && matched.contains(&b.atom)
+                        && matched.contains(&c.atom))
+                {
+                    return Some("ring4");
+                }
+            }
+        }
+    }
+    None
+}
+
+fn add(total: &mut Option<f64>, part: Option<f64>) {
+    *total = match (*total, part) {
+        (Some(t), Some(p)) => Some(t + p),
+        _ => None,
+    };
+}
+
+/// Hammett terms for the ring whose ipso atom is `ipso` (reached from the
+/// acidic side through `from`).
+fn hammett_terms(
+    mol: &Molecule,
+    ipso: usize,
+    from: usize,
+    h: &Hammett,
+    owner: &str,
+    sigma: &SigmaTable,
+    uses: &mut Vec<RuleUse>,
+    var: &mut f64,
+) {
+    let Some(ring) = ring_positions(mol, ipso) else {
+        return;
+    };
+    let _ = from;
+    for (pos, atom) in ring.meta.iter().map(|&a| ('m', a)).chain(ring.para.map(|a| ('p', a))) {
+        for nb in mol.neighbors(atom) {
+            if ring.atoms.contains(&nb.atom) {
+                continue;
+            }
+            let Some(entry) = sigma.lookup(mol, atom, nb.atom) else {
+                // Unknown substituent (or a fused ring): no term, wider error.
+                *var += 0.5 * 0.5;
+                continue;
+            };
+            let s = match (pos, h.sigma) {
+                ('m', _) => Some(entry.sigma_m),
+                (_, SigmaKind::Para) => Some(entry.sigma_p),
+                (_, SigmaKind::ParaMinus) => entry.sigma_p_minus.or(Some(entry.sigma_p)),
+            };
+            let Some(s) = s else { continue };
+            if s == 0.0 {
+                continue;
+            }
+            let dmso = h.rho_dmso.map(|r| -r * s);
+            let water = h.rho_water.map(|r| -r * s);
+            let big = dmso.unwrap_or(0.0).abs().max(water.unwrap_or(0.0).abs());
+            *var += (0.15 * big).powi(2);
+            if dmso.is_none() || water.is_none() {
+                // No ρ on one scale: that scale gets no term; allow for a
+                // ρ of up to about 2.5 there.
+                *var += (2.5 * s).powi(2) / 4.0;
+            }
+            let kind = match (pos, h.sigma) {
+                ('m', _) => "m",
+                (_, SigmaKind::Para) => "p",
+                (_, SigmaKind::ParaMinus) => "p-",
+            };
+            uses.push(RuleUse {
+                id: format!("{owner}/sigma-{kind}:{}", entry.name),
+                dmso,
+                water,
+            });
+        }
+    }
+}
+
+fn round2(x: f64) -> f64 {
+    (x * 100.0).round() / 100.0
+}
+
+/// Estimate the site on atom `i` given its class rule and match.
+fn estimate_atom(
+    mol: &Molecule,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    i: usize,
+    rule: &Rule,
+    matched: &[usize],
+) -> Site {
+    let mut uses = vec![RuleUse {
+        id: rule.id.clone(),
+        dmso: rule.pka_dmso,
+        water: rule.pka_water,
+    }];
+    let mut var = rule.uncertainty * rule.uncertainty;
+    // Hammett term of the class rule: the first aromatic atom of the match
+    // (pattern order) is the ipso atom of the ring conjugated with the site.
+    if let Some(h) = &rule.hammett {
+        if let Some(&ipso) = matched.iter().find(|&&a| mol.atoms[a].aromatic && a != i) {
+            hammett_terms(mol, ipso, i, h, &rule.id, sigma, &mut uses, &mut var);
+        }
+    }
+    if rule.element == "C" && rule.family != "none" {
+        let mut counts: Vec<(&'static str, u8)> = Vec::new();
+        let mut kinds: Vec<(&'static str, usize)> = Vec::new();
+        for nb in mol.neighbors(i) {
+            if matched.contains(&nb.atom) || mol.atoms[nb.atom].element == 1 {
+                continue;
+            }
+            match substituent_kind(mol, i, nb.atom) {
+                Some(k) => kinds.push((k, nb.atom)),
+                None => var += 1.0,
+            }
+        }
+        if let Some(k) = small_ring(mol, i, matched) {
+            kinds.push((k, i));
+        }
+        for (kind, atom) in kinds {
+            let n = match counts.iter_mut().find(|(k, _)| *k == kind) {
+                Some(c) => {
+                    c.1 += 1;
+                    c.1
+                }
+                None => {
+                    counts.push((kind, 1));
+                    1
+                }
+            };
+            let find = |kind: &str| {
+                set.increments
+                    .iter()
+                    .filter(|r| {
+                        r.kind == kind
+                            && r.nth <= n
+                            && r.families.iter().any(|f| f == "*" || *f == rule.family)
+                    })
+                    .max_by_key(|r| r.nth)
+            };
+            // A family without its own row for a substituted alkyl uses
+            // the plain alkyl row.
+            let inc = find(kind).or_else(|| {
+                if kind == "alkyl_ewg" {
+                    find("alkyl")
+                } else {
+                    None
+                }
+            });
+            match inc {
+                Some(inc) => {
+                    uses.push(RuleUse {
+                        id: inc.id.clone(),
+                        dmso: inc.dmso,
+                        water: inc.water,
+                    });
+                    var += inc.uncertainty * inc.uncertainty;
+                    if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
+                        hammett_terms(mol, atom, i, h, &inc.id, sigma, &mut uses, &mut var);
+                    }
+                }
+                None => var += 1.5 * 1.5,
+            }
+        }
+    }
+    let mut dmso = Some(0.0);
+    let mut water = Some(0.0);
+    for u in &uses {
+        // A Hammett term without ρ on one scale adds nothing there (its
+        // uncertainty was widened when the term was made).
+        let hammett = u.id.contains("/sigma-");
+        if !(hammett && u.dmso.is_none()) {
+            add(&mut dmso, u.dmso);
+        }
+        if !(hammett && u.water.is_none()) {
+            add(&mut water, u.water);
+        }
+    }
+    let a = &mol.atoms[i];
+    Site {
+        atoms: vec![i],
+        element: a.symbol().to_string(),
+        hydrogens: a.hydrogens,
+        class: rule.class.clone(),
+        pka_dmso: dmso.map(round2),
+        pka_water: water.map(round2),
+        uncertainty: round2(var.sqrt()),
+        rules: uses,
+        regio: None,
+    }
+}
+
+fn rank_key(s: &Site, scale: Scale) -> f64 {
+    let v = match scale {
+        Scale::Dmso => s.pka_dmso.or(s.pka_water),
+        Scale::Water => s.pka_water.or(s.pka_dmso),
+    };
+    v.unwrap_or(f64::INFINITY)
+}
+
+/// Ketone regiochemistry: for a ketone carbonyl with two enolisable
+/// α-carbons in different sites, the side with more hydrogens (less
+/// substituted) is kinetic and the other thermodynamic; with equal
+/// hydrogen counts the more acidic side is thermodynamic.
+fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
+    let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
+    for c in 0..mol.atom_count() {
+        let at = &mol.atoms[c];
+        if at.element != 6 || at.aromatic || !double_to_any(mol, c, 8) {
+            continue;
+        }
+        let alphas: Vec<usize> = mol
+            .neighbors(c)
+            .iter()
+            .filter(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Single))
+            .map(|nb| nb.atom)
+            .collect();
+        if alphas.len() != 2 || alphas.iter().any(|&a| mol.atoms[a].element != 6) {
+            continue;
+        }
+        let (Some(x), Some(y)) = (site_of(sites, alphas[0]), site_of(sites, alphas[1])) else {
+            continue;
+        };
+        if x == y || !sites[x].class.starts_with("ketone") || !sites[y].class.starts_with("ketone")
+        {
+            continue;
+        }
+        let (hx, hy) = (sites[x].hydrogens, sites[y].hydrogens);
+        let (kin, thermo) = if hx != hy {
+            if hx > hy {
+                (x, y)
+            } else {
+                (y, x)
+            }
+        } else {
+            let (kx, ky) = (rank_key(&sites[x], Scale::Dmso), rank_key(&sites[y], Scale::Dmso));
+            if (kx - ky).abs() < 0.05 {
+                continue;
+            }
+            if kx < ky {
+                (y, x)
+            } else {
+                (x, y)
+            }
+        };
+        sites[kin].regio = Some(Regio::Kinetic);
+        sites[thermo].regio = Some(Regio::Thermodynamic);
+    }
+}
+
+/// Run the rule set over the molecule's main component.
+pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Options) -> SiteReport {
+    let atoms = mol.main_component_atoms();
+    let target = Target::new(mol);
+    let mask = elem_mask(mol, &atoms);
+    let mut raws: Vec<Raw> = Vec::new();
+    for &i in &atoms {
+        let a = &mol.atoms[i];
+        if a.hydrogens == 0 {
+            continue;
+        }
+        let sym = match a.element {
+            6 => {
+                if !carbon_candidate(mol, i) {
+                    continue;
+                }
+                "C"
+            }
+            7 => "N",
+            8 => "O",
+            16 => "S",
+            _ => continue,
+        };
+        for (r, rule) in set.rules.iter().enumerate() {
+            if rule.element != sym || rule.required_elements & !mask != 0 {
+                continue;
+            }
+            if let Some(m) = rule.pattern.matches_at_in(&target, i) {
+                let site = estimate_atom(mol, set, sigma, i, rule, &m);
+                raws.push(Raw {
+                    atom: i,
+                    rule: r,
+                    site,
+                });
+                break;
+            }
+        }
+    }
+    let mut sites = group(mol, raws);
+    sites.sort_by(|a, b| {
+        rank_key(a, opts.scale)
+            .total_cmp(&rank_key(b, opts.scale))
+            .then(a.atoms.cmp(&b.atoms))
+    });
+    mark_regio(mol, &mut sites);
+    let top_overall = if sites.is_empty() { None } else { Some(0) };
+    let top_carbon = sites.iter().position(|s| s.is_carbon());
+    SiteReport {
+        sites,
+        top_carbon,
+        top_overall,
+    }
+}
+
+/// Merge symmetry-equivalent atoms with the same estimate into one site.
+fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
+    let same = |a: &Raw, b: &Raw| {
+        a.rule == b.rule && a.site.rules == b.site.rules && a.site.hydrogens == b.site.hydrogens
+    };
+    // Symmetry classes are computed only if two atoms could be merged.
+    let need = raws
+        .iter()
+        .enumerate()
+        .any(|(x, a)| raws[x + 1..].iter().any(|b| same(a, b)));
+    let classes = if need {
+        super::symmetry_classes(mol)
+    } else {
+        Vec::new()
+    };
+    let mut out: Vec<Site> = Vec::new();
+    let mut reps: Vec<usize> = Vec::new();
+    for (x, raw) in raws.iter().enumerate() {
+        let found = reps.iter().position(|&r| {
+            let rep = &raws[r];
+            same(rep, raw)
+                && classes.get(rep.atom).is_some()
+                && classes.get(rep.atom) == classes.get(raw.atom)
+        });
+        match found {
+            Some(k) => out[k].atoms.push(raw.atom),
+            None => {
+                reps.push(x);
+                out.push(raw.site.clone());
+            }
+        }
+    }
+    out
+}
+
+fn bonded(mol: &Molecule, a: usize, b: usize) -> bool {
+    mol.neighbors(a).iter().any(|nb| nb.atom == b)
+}
+
+/// Bond order as a small code (aromatic distinct from single).
+pub(crate) fn order_code(o: BondOrder) -> u8 {
+    match o {
+        BondOrder::Single => 1,
+        BondOrder::Double => 2,
+        BondOrder::Triple => 3,
+        BondOrder::Quadruple => 4,
+        BondOrder::Aromatic => 5,
+    }
+}

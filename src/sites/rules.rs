@@ -1,0 +1,555 @@
+//! Rule data: the tab-separated files in `fragments/`, their reader and
+//! validation.
+//!
+//! Three files are read, all embedded at build time:
+//!
+//! * `fragments/rules.tsv`: one class rule per row (SMARTS with the acidic
+//!   atom mapped `:1`, class, base pKa on the DMSO and water scales,
+//!   uncertainty, optional Hammett ρ, citation key);
+//! * `fragments/increments.tsv`: substituent increments for what sits on the
+//!   acidic atom, keyed by substituent kind and rule family;
+//! * `fragments/sources.tsv`: citation keys with full references.
+//!
+//! The format: lines starting with `#` are comments; the header comment of
+//! `rules.tsv` carries `# version: <text>`. The first non-comment line names
+//! the columns (order is free, names are fixed); every later non-empty line
+//! is one row. Empty cells are allowed only where a column says so. A bad row
+//! fails the whole set with the file name and 1-based line number.
+
+use std::collections::{HashMap, HashSet};
+use std::fmt;
+
+use crate::smarts::Pattern;
+
+/// A problem in a rule file: which file, which line (1-based), what.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub struct RuleError {
+    pub file: String,
+    /// 1-based line number in the file; 0 when the problem concerns the
+    /// file as a whole.
+    pub line: usize,
+    pub message: String,
+}
+
+impl fmt::Display for RuleError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        write!(f, "{}:{}: {}", self.file, self.line, self.message)
+    }
+}
+
+impl std::error::Error for RuleError {}
+
+/// Which σ constant a para substituent uses in a Hammett term (meta
+/// substituents always use σm).
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum SigmaKind {
+    /// σp: the aryl ring is not directly conjugated with the lone pair.
+    Para,
+    /// σp⁻: through-conjugation of the carbanion / anion with the ring.
+    ParaMinus,
+}
+
+/// Hammett term attached to a class rule or an increment: ρ per scale.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Hammett {
+    pub rho_dmso: Option<f64>,
+    pub rho_water: Option<f64>,
+    pub sigma: SigmaKind,
+}
+
+/// One class rule.
+#[derive(Debug, Clone)]
+pub struct Rule {
+    pub id: String,
+    /// Element symbol of the acidic atom ("C", "N", "O", "S").
+    pub element: String,
+    pub smarts: String,
+    pub pattern: Pattern,
+    pub class: String,
+    /// Increment family (which rows of `increments.tsv` apply).
+    pub family: String,
+    pub pka_dmso: Option<f64>,
+    pub pka_water: Option<f64>,
+    pub uncertainty: f64,
+    pub hammett: Option<Hammett>,
+    pub source: String,
+    pub note: String,
+    /// Elements written unbracketed in the SMARTS: all must be present in
+    /// the molecule for the rule to match (a cheap prescreen).
+    pub required_elements: u128,
+    /// 1-based line in `rules.tsv`.
+    pub line: usize,
+}
+
+/// One substituent increment.
+#[derive(Debug, Clone)]
+pub struct Increment {
+    pub id: String,
+    /// Substituent kind (see [`SUBSTITUENT_KINDS`]).
+    pub kind: String,
+    /// Families this row applies to; `*` = every family.
+    pub families: Vec<String>,
+    /// Applies to the n-th substituent of this kind (1 = first, 2 = second…).
+    pub nth: u8,
+    pub dmso: Option<f64>,
+    pub water: Option<f64>,
+    pub uncertainty: f64,
+    pub hammett: Option<Hammett>,
+    pub source: String,
+    pub note: String,
+    pub line: usize,
+}
+
+/// Substituent kinds recognised on the acidic atom (see `estimate`).
+pub const SUBSTITUENT_KINDS: &[&str] = &[
+    "alkyl",
+    "alkyl_ewg",
+    "aryl",
+    "heteroaryl",
+    "vinyl",
+    "alkynyl",
+    "alkoxy",
+    "aryloxy",
+    "acyloxy",
+    "thio",
+    "amino",
+    "fluoro",
+    "chloro",
+    "bromo",
+    "iodo",
+    "acyl",
+    "ester",
+    "cyano",
+    "nitro",
+    "sulfonyl",
+    "ring3",
+    "ring4",
+];
+
+/// A validated rule set.
+#[derive(Debug, Clone)]
+pub struct RuleSet {
+    pub version: String,
+    pub match_order: String,
+    pub rules: Vec<Rule>,
+    pub increments: Vec<Increment>,
+    /// Citation key -> full reference.
+    pub sources: HashMap<String, String>,
+}
+
+/// One parsed line of a table: 1-based line number and cells by column.
+struct Row<'a> {
+    line: usize,
+    cells: Vec<&'a str>,
+}
+
+/// A parsed table: header comments, column names, rows.
+struct Table<'a> {
+    file: &'a str,
+    comments: Vec<&'a str>,
+    columns: Vec<&'a str>,
+    rows: Vec<Row<'a>>,
+}
+
+impl<'a> Table<'a> {
+    fn error(&self, line: usize, message: impl Into<String>) -> RuleError {
+        RuleError {
+            file: self.file.to_string(),
+            line,
+            message: message.into(),
+        }
+    }
+
+    fn column(&self, name: &str) -> Result<usize, RuleError> {
+        self.columns
+            .iter()
+            .position(|c| *c == name)
+            .ok_or_else(|| self.error(0, format!("missing column `{name}`")))
+    }
+}
+
+// table := { comment | blank } header { row | comment | blank }
+// comment := '#' text ; header := name { TAB name } ; row := cell { TAB cell }
+fn read_table<'a>(file: &'a str, text: &'a str) -> Result<Table<'a>, RuleError> {
+    let mut table = Table {
+        file,
+        comments: Vec::new(),
+        columns: Vec::new(),
+        rows: Vec::new(),
+    };
+    for (i, raw) in text.lines().enumerate() {
+        let line = i + 1;
+        let l = raw.strip_suffix('\r').unwrap_or(raw);
+        if let Some(c) = l.strip_prefix('#') {
+            if table.columns.is_empty() {
+                table.comments.push(c.trim());
+            }
+            continue;
+        }
+        if l.trim().is_empty() {
+            continue;
+        }
+        let cells: Vec<&str> = l.split('\t').map(str::trim).collect();
+        if table.columns.is_empty() {
+            let mut seen = HashSet::new();
+            for c in &cells {
+                if c.is_empty() || !seen.insert(*c) {
+                    return Err(table.error(line, format!("bad or repeated column name `{c}`")));
+                }
+            }
+            table.columns = cells;
+            continue;
+        }
+        if cells.len() != table.columns.len() {
+            return Err(table.error(
+                line,
+                format!(
+                    "expected {} tab-separated cells, found {}",
+                    table.columns.len(),
+                    cells.len()
+                ),
+            ));
+        }
+        table.rows.push(Row { line, cells });
+    }
+    if table.columns.is_empty() {
+        return Err(table.error(0, "no header line"));
+    }
+    Ok(table)
+}
+
+fn cell<'a>(t: &Table, row: &Row<'a>, name: &str) -> Result<&'a str, RuleError> {
+    let i = t.column(name)?;
+    row.cells
+        .get(i)
+        .copied()
+        .ok_or_else(|| t.error(row.line, format!("missing cell `{name}`")))
+}
+
+fn required<'a>(t: &Table, row: &Row<'a>, name: &str) -> Result<&'a str, RuleError> {
+    let v = cell(t, row, name)?;
+    if v.is_empty() {
+        return Err(t.error(row.line, format!("`{name}` must not be empty")));
+    }
+    Ok(v)
+}
+
+/// A pKa-like number: empty -> None; otherwise finite and within ±100.
+fn number(t: &Table, row: &Row, name: &str) -> Result<Option<f64>, RuleError> {
+    let v = cell(t, row, name)?;
+    if v.is_empty() {
+        return Ok(None);
+    }
+    match v.parse::<f64>() {
+        Ok(x) if x.is_finite() && x.abs() <= 100.0 => Ok(Some(x)),
+        _ => Err(t.error(row.line, format!("`{name}`: `{v}` is not a number in -100..100"))),
+    }
+}
+
+fn uncertainty(t: &Table, row: &Row) -> Result<f64, RuleError> {
+    match number(t, row, "uncertainty")? {
+        Some(u) if u > 0.0 && u <= 20.0 => Ok(u),
+        _ => Err(t.error(row.line, "`uncertainty` must be a number in (0, 20]")),
+    }
+}
+
+fn hammett(t: &Table, row: &Row) -> Result<Option<Hammett>, RuleError> {
+    let rho_dmso = number(t, row, "rho_dmso")?;
+    let rho_water = number(t, row, "rho_water")?;
+    let sigma = cell(t, row, "sigma")?;
+    if rho_dmso.is_none() && rho_water.is_none() {
+        if !sigma.is_empty() {
+            return Err(t.error(row.line, "`sigma` given without any rho"));
+        }
+        return Ok(None);
+    }
+    let sigma = match sigma {
+        "p" => SigmaKind::Para,
+        "p-" => SigmaKind::ParaMinus,
+        other => {
+            return Err(t.error(
+                row.line,
+                format!("`sigma` must be `p` or `p-` when a rho is given, found `{other}`"),
+            ))
+        }
+    };
+    Ok(Some(Hammett {
+        rho_dmso,
+        rho_water,
+        sigma,
+    }))
+}
+
+fn check_id(t: &Table, row: &Row, id: &str, seen: &mut HashSet<String>) -> Result<(), RuleError> {
+    let ok = id
+        .chars()
+        .all(|c| c.is_ascii_uppercase() || c.is_ascii_digit() || c == '-');
+    if !ok {
+        return Err(t.error(row.line, format!("id `{id}` must be A-Z, 0-9 and `-`")));
+    }
+    if !seen.insert(id.to_string()) {
+        return Err(t.error(row.line, format!("duplicate id `{id}`")));
+    }
+    Ok(())
+}
+
+fn check_source(
+    t: &Table,
+    row: &Row,
+    key: &str,
+    sources: &HashMap<String, String>,
+) -> Result<(), RuleError> {
+    for k in key.split(',').map(str::trim) {
+        if !sources.contains_key(k) {
+            return Err(t.error(
+                row.line,
+                format!("citation key `{k}` is not in fragments/sources.tsv"),
+            ));
+        }
+    }
+    Ok(())
+}
+
+/// Read `sources.tsv`: key -> reference.
+pub fn parse_sources(file: &str, text: &str) -> Result<HashMap<String, String>, RuleError> {
+    let t = read_table(file, text)?;
+    let mut out = HashMap::new();
+    for row in &t.rows {
+        let key = required(&t, row, "key")?;
+        let reference = required(&t, row, "reference")?;
+        if out.insert(key.to_string(), reference.to_string()).is_some() {
+            return Err(t.error(row.line, format!("duplicate key `{key}`")));
+        }
+    }
+    Ok(out)
+}
+
+/// Atomic numbers of the elements written unbracketed in a SMARTS (organic
+/// subset, aliphatic or aromatic). Bracket atoms are skipped, so the set is
+/// conservative: a molecule lacking one of them cannot match.
+pub fn unbracketed_elements(smarts: &str) -> u128 {
+    let b = smarts.as_bytes();
+    let mut mask = 0u128;
+    let mut depth = 0usize;
+    let mut i = 0;
+    while i < b.len() {
+        let c = b[i];
+        if c == b'[' {
+            depth += 1;
+        } else if c == b']' {
+            depth = depth.saturating_sub(1);
+        } else if depth == 0 {
+            let two = b.get(i + 1).copied();
+            let z = match (c, two) {
+                (b'C', Some(b'l')) => {
+                    i += 1;
+                    17
+                }
+                (b'B', Some(b'r')) => {
+                    i += 1;
+                    35
+                }
+                (b'B', _) | (b'b', _) => 5,
+                (b'C', _) | (b'c', _) => 6,
+                (b'N', _) | (b'n', _) => 7,
+                (b'O', _) | (b'o', _) => 8,
+                (b'F', _) => 9,
+                (b'P', _) | (b'p', _) => 15,
+                (b'S', _) | (b's', _) => 16,
+                (b'I', _) => 53,
+                _ => 0,
+            };
+            if z != 0 {
+                mask |= 1u128 << z;
+            }
+        }
+        i += 1;
+    }
+    mask
+}
+
+fn element_symbol_ok(s: &str) -> bool {
+    matches!(s, "C" | "N" | "O" | "S" | "P" | "Se")
+}
+
+/// Parse `rules.tsv` text (patterns compiled; citation keys checked).
+pub fn parse_rules(
+    file: &str,
+    text: &str,
+    sources: &HashMap<String, String>,
+) -> Result<(String, String, Vec<Rule>), RuleError> {
+    let t = read_table(file, text)?;
+    let mut version = None;
+    let mut order = None;
+    for c in &t.comments {
+        if let Some(v) = c.strip_prefix("version:") {
+            version = Some(v.trim().to_string());
+        }
+        if let Some(v) = c.strip_prefix("match order:") {
+            order = Some(v.trim().to_string());
+        }
+    }
+    let version = version.ok_or_else(|| t.error(0, "header comment `# version: …` missing"))?;
+    let order = order.ok_or_else(|| t.error(0, "header comment `# match order: …` missing"))?;
+    let mut seen = HashSet::new();
+    let mut rules = Vec::new();
+    for row in &t.rows {
+        let id = required(&t, row, "id")?;
+        check_id(&t, row, id, &mut seen)?;
+        let element = required(&t, row, "element")?;
+        if !element_symbol_ok(element) {
+            return Err(t.error(row.line, format!("unsupported element `{element}`")));
+        }
+        let smarts = required(&t, row, "smarts")?;
+        let class = required(&t, row, "class")?;
+        let family = required(&t, row, "family")?;
+        let pka_dmso = number(&t, row, "pka_dmso")?;
+        let pka_water = number(&t, row, "pka_water")?;
+        if pka_dmso.is_none() && pka_water.is_none() {
+            return Err(t.error(row.line, format!("rule {id}: no pKa on either scale")));
+        }
+        let uncertainty = uncertainty(&t, row)?;
+        let hammett = hammett(&t, row)?;
+        let source = required(&t, row, "source")?;
+        check_source(&t, row, source, sources)?;
+        let note = cell(&t, row, "note")?;
+        let pattern = Pattern::parse(smarts)
+            .map_err(|e| t.error(row.line, format!("rule {id}: {e}")))?;
+        if pattern.anchor().is_none() {
+            return Err(t.error(
+                row.line,
+                format!("rule {id}: SMARTS has no atom mapped `:1` (the acidic atom)"),
+            ));
+        }
+        rules.push(Rule {
+            id: id.to_string(),
+            element: element.to_string(),
+            smarts: smarts.to_string(),
+            required_elements: unbracketed_elements(smarts),
+            pattern,
+            class: class.to_string(),
+            family: family.to_string(),
+            pka_dmso,
+            pka_water,
+            uncertainty,
+            hammett,
+            source: source.to_string(),
+            note: note.to_string(),
+            line: row.line,
+        });
+    }
+    if rules.is_empty() {
+        return Err(t.error(0, "no rules"));
+    }
+    Ok((version, order, rules))
+}
+
+/// Parse `increments.tsv` text.
+pub fn parse_increments(
+    file: &str,
+    text: &str,
+    sources: &HashMap<String, String>,
+    rule_ids: &HashSet<String>,
+) -> Result<Vec<Increment>, RuleError> {
+    let t = read_table(file, text)?;
+    let mut seen = rule_ids.clone();
+    let mut out = Vec::new();
+    for row in &t.rows {
+        let id = required(&t, row, "id")?;
+        check_id(&t, row, id, &mut seen)?;
+        let kind = required(&t, row, "kind")?;
+        if !SUBSTITUENT_KINDS.contains(&kind) {
+            return Err(t.error(row.line, format!("unknown substituent kind `{kind}`")));
+        }
+        let families: Vec<String> = required(&t, row, "families")?
+            .split(',')
+            .map(|s| s.trim().to_string())
+            .collect();
+        let nth = required(&t, row, "nth")?;
+        let nth: u8 = match nth.parse() {
+            Ok(n) if (1..=3).contains(&n) => n,
+            _ => return Err(t.error(row.line, format!("`nth` must be 1, 2 or 3, found `{nth}`"))),
+        };
+        let dmso = number(&t, row, "pka_dmso")?;
+        let water = number(&t, row, "pka_water")?;
+        if dmso.is_none() && water.is_none() {
+            return Err(t.error(row.line, format!("increment {id}: no value on either scale")));
+        }
+        let uncertainty = uncertainty(&t, row)?;
+        let hammett = hammett(&t, row)?;
+        let source = required(&t, row, "source")?;
+        check_source(&t, row, source, sources)?;
+        out.push(Increment {
+            id: id.to_string(),
+            kind: kind.to_string(),
+            families,
+            nth,
+            dmso,
+            water,
+            uncertainty,
+            hammett,
+            source: source.to_string(),
+            note: cell(&t, row, "note")?.to_string(),
+            line: row.line,
+        });
+    }
+    Ok(out)
+}
+
+/// Build a rule set from the three texts (file names are for messages).
+pub fn parse_rule_set(
+    rules: (&str, &str),
+    increments: (&str, &str),
+    sources: (&str, &str),
+) -> Result<RuleSet, RuleError> {
+    let src = parse_sources(sources.0, sources.1)?;
+    let (version, match_order, rule_rows) = parse_rules(rules.0, rules.1, &src)?;
+    let ids: HashSet<String> = rule_rows.iter().map(|r| r.id.clone()).collect();
+    let incs = parse_increments(increments.0, increments.1, &src, &ids)?;
+    let families: HashSet<&str> = rule_rows.iter().map(|r| r.family.as_str()).collect();
+    for inc in &incs {
+        for f in &inc.families {
+            if f != "*" && !families.contains(f.as_str()) {
+                return Err(RuleError {
+                    file: increments.0.to_string(),
+                    line: inc.line,
+                    message: format!("family `{f}` is used by no rule"),
+                });
+            }
+        }
+    }
+    Ok(RuleSet {
+        version,
+        match_order,
+        rules: rule_rows,
+        increments: incs,
+        sources: src,
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn unbracketed_elements_given_mixed_smarts() {
+        let m = unbracketed_elements("[CH2:1]C(=O)c1ccccc1Cl");
+        assert_eq!(m, (1 << 6) | (1 << 8) | (1 << 17));
+        assert_eq!(unbracketed_elements("[N,O:1]"), 0);
+        assert_eq!(unbracketed_elements("[#6:1]S(=O)(=O)Br"), (1 << 16) | (1 << 8) | (1 << 35));
+    }
+
+    #[test]
+    fn parse_sources_given_duplicate_key() {
+        let text = "# c\nkey\treference\na\tA\na\tB\n";
+        let e = parse_sources("s.tsv", text).unwrap_err();
+        assert_eq!(e.file, "s.tsv");
+        assert_eq!(e.line, 4);
+    }
+
+    #[test]
+    fn read_table_given_wrong_cell_count() {
+        let e = read_table("x.tsv", "a\tb\n1\t2\n1\n").err().map(|e| e.line);
+        assert_eq!(e, Some(3));
+    }
+}

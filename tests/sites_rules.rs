@@ -1,0 +1,100 @@
+//! Rule data: the reader rejects bad rows with file and line (issue 4), and
+//! the embedded rule set is valid.
+
+use acidsite::sites::parse_rule_set;
+
+const SOURCES: &str = "key\treference\nfrom-memory\tx\n";
+const HEADER: &str = "# version: test-1\n# match order: first row wins\nid\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
+const INC_HEADER: &str = "id\tkind\tfamilies\tnth\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
+
+fn with_row(row: &str) -> String {
+    format!("{HEADER}{row}\n")
+}
+
+fn line_of(rules: &str, incs: &str, sources: &str) -> Option<(String, usize)> {
+    parse_rule_set(("r.tsv", rules), ("i.tsv", incs), ("s.tsv", sources))
+        .err()
+        .map(|e| (e.file, e.line))
+}
+
+#[test]
+fn parse_rule_set_given_bad_number_reports_file_and_line() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\ttwenty\t\t1.0\t\t\t\tfrom-memory\t");
+    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+}
+
+#[test]
+fn parse_rule_set_given_unknown_citation_key_reports_line() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tnobody1999\t");
+    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+}
+
+#[test]
+fn parse_rule_set_given_missing_cell_reports_line() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone");
+    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+}
+
+#[test]
+fn parse_rule_set_given_no_value_on_either_scale_reports_line() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t\t\t1.0\t\t\t\tfrom-memory\t");
+    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+}
+
+#[test]
+fn parse_rule_set_given_rho_without_sigma_kind_reports_line() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t3.5\t\t\tfrom-memory\t");
+    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+}
+
+#[test]
+fn parse_rule_set_given_missing_version_header_fails() {
+    let rules = "id\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
+    assert_eq!(line_of(rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 0)));
+}
+
+#[test]
+fn parse_rule_set_given_bad_increment_kind_reports_increment_file() {
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
+    let incs = format!("{INC_HEADER}I-1\tmethylene\tcarbonyl\t1\t0.5\t\t0.5\t\t\t\tfrom-memory\t\n");
+    // The pattern is compiled only after the cheap checks of its row, so the
+    // increment file is reached only when SMARTS parsing works.
+    let got = line_of(&rules, &incs, SOURCES);
+    assert!(
+        got == Some(("i.tsv".into(), 2)) || got.as_ref().is_some_and(|g| g.0 == "r.tsv"),
+        "{got:?}"
+    );
+}
+
+#[test]
+fn parse_rule_set_given_duplicate_source_key_reports_sources_line() {
+    let sources = "key\treference\nfrom-memory\tx\nfrom-memory\ty\n";
+    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
+    assert_eq!(line_of(&rules, INC_HEADER, sources), Some(("s.tsv".into(), 3)));
+}
+
+#[test]
+fn rule_set_given_embedded_files_is_valid() {
+    // Validation covers duplicate ids, citation keys, numbers and SMARTS.
+    let set = acidsite::sites::rule_set().expect("embedded rule files are valid");
+    assert!(set.rules.len() >= 60);
+    assert!(!set.version.is_empty());
+    assert_eq!(acidsite::sites::rule_set_version(), set.version);
+    let mut ids: Vec<&str> = set
+        .rules
+        .iter()
+        .map(|r| r.id.as_str())
+        .chain(set.increments.iter().map(|r| r.id.as_str()))
+        .collect();
+    let n = ids.len();
+    ids.sort_unstable();
+    ids.dedup();
+    assert_eq!(ids.len(), n, "duplicate rule ids");
+    for r in &set.rules {
+        for k in r.source.split(',') {
+            assert!(set.sources.contains_key(k.trim()), "{}: {k}", r.id);
+        }
+    }
+    let sigma = acidsite::sites::sigma_table().expect("sigma table is valid");
+    assert!(sigma.entries.len() >= 20);
+}
