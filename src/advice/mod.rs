@@ -1,4 +1,37 @@
-//! Base advice: the base catalogue (data in `fragments/`), the deprotonation
-//! equilibrium solver, and the recommender with warnings and cautions.
+//! Base advice: the base catalogue (data in `fragments/bases.tsv`), the
+//! deprotonation equilibrium solver, and the recommender with warnings and
+//! cautions.
 //!
 //! OWNER: base-advice work (issue 5).
+//!
+//! Public entry points:
+//! - [`catalogue`]: the embedded base catalogue, validated on first use.
+//! - [`solve`]: equilibrium composition for a set of acidic units and one base.
+//! - [`equilibrium_for`]: the same, set up from a [`SiteReport`] and a catalogue base.
+//! - [`advise`]: base, equivalents, solvent, temperature, alternatives,
+//!   rejections, warnings and cautions for one molecule.
+//!
+//! The library does no printing: every result is plain data for the report
+//! and command-line layers to render.
+
+mod catalogue;
+mod cautions;
+mod equilibrium;
+mod features;
+mod recommend;
+
+pub use catalogue::{
+    catalogue, Base, BaseFamily, Catalogue, CatalogueError, CitedPka, Hazard, Nucleophilicity,
+    ProticSolvent, Scale, BASES_FILE,
+};
+pub use cautions::{caution_for, Caution, DEFERRAL};
+pub use equilibrium::{
+    equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
+    EquilibriumOptions, Microsite, SiteFraction,
+};
+pub use features::{detect_features, MoleculeFeatures, SiteFeatures};
+pub use recommend::{
+    advise, advise_with_features, Advice, AdviceError, AdviceOptions, Alternative, CountedProton,
+    Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection, Target, Temperature, Warning,
+    WarningKind,
+};

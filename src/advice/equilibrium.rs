@@ -1,0 +1,456 @@
+//! Deprotonation equilibrium of one substrate with one base.
+//!
+//! Model. The substrate's acidic hydrogens are grouped into *units*. A unit
+//! gives up at most one proton, at one of its alternative *microsites*
+//! (the two α-carbons of an unsymmetrical ketone are alternatives of one
+//! unit: the second deprotonation of an enolate is not considered). Units are
+//! independent proton-transfer equilibria coupled only through the shared
+//! base:
+//!
+//! ```text
+//! HA_j + B-  <=>  A_j- + BH      K_j = 10^(pKa(BH) - pKa(HA_j))
+//! ```
+//!
+//! With r = [B-]/[BH], microsite j of a unit carries x_j = K_j r and the unit
+//! is deprotonated with fraction X/(1+X), X = sum of x_j. Mass balance
+//! (C substrate, B0 base, A0 conjugate acid present from the start, e.g. the
+//! solvent ethanol at 17.1 M for NaOEt in EtOH):
+//!
+//! ```text
+//! D = C * sum_u F_u(r),   [B-] = B0 - D,   [BH] = A0 + D,   r = [B-]/[BH]
+//! ```
+//!
+//! The single unknown s = log10 r is found by bisection on a bracket that
+//! always contains the root (the residual is monotone in s), so the solver
+//! converges for any pKa difference; concentrations are molar and activity
+//! coefficients are taken as 1.
+
+use super::catalogue::{catalogue, Base, CatalogueError, Scale};
+use super::features::{detect_features, site_units};
+use crate::mol::Molecule;
+use crate::sites::SiteReport;
+use std::fmt;
+
+/// One place a unit can lose its proton.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Microsite {
+    /// Index into `SiteReport::sites` (or any caller-chosen label).
+    pub site: usize,
+    /// Atoms of the site (input order).
+    pub atoms: Vec<usize>,
+    /// pKa on the scale of the calculation.
+    pub pka: f64,
+}
+
+/// A group of alternative microsites that gives up at most one proton.
+#[derive(Debug, Clone, PartialEq)]
+pub struct AcidUnit {
+    pub alternatives: Vec<Microsite>,
+}
+
+/// Numerical problem statement.
+#[derive(Debug, Clone, PartialEq)]
+pub struct EquilibriumInput {
+    pub units: Vec<AcidUnit>,
+    /// pKa of the base's conjugate acid on the same scale as the units.
+    pub base_pka: f64,
+    /// Base equivalents relative to substrate.
+    pub equivalents: f64,
+    /// Substrate concentration, mol/L.
+    pub concentration: f64,
+    /// Conjugate acid present from the start (the protic solvent), mol/L; 0 if none.
+    pub acid_solvent_molar: f64,
+}
+
+/// Deprotonated fraction of one site.
+#[derive(Debug, Clone, PartialEq)]
+pub struct SiteFraction {
+    pub site: usize,
+    pub atoms: Vec<usize>,
+    pub pka: f64,
+    /// Fraction of substrate molecules deprotonated at this site, 0..=1.
+    pub deprotonated: f64,
+}
+
+/// Equilibrium composition.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Equilibrium {
+    /// Base name (empty when solved from a bare [`EquilibriumInput`]).
+    pub base: String,
+    pub scale: Scale,
+    pub base_pka: f64,
+    pub equivalents: f64,
+    pub concentration: f64,
+    /// Protic solvent that is the base's conjugate acid, with its molarity.
+    pub acid_solvent: Option<(String, f64)>,
+    /// One entry per microsite, in input order.
+    pub sites: Vec<SiteFraction>,
+    /// Deprotonated fraction of each unit.
+    pub units: Vec<f64>,
+    /// `anions[k]`: fraction of substrate carrying k removed protons
+    /// (k = 0 neutral, 1 mono-anion, 2 di-anion ...). Sums to 1.
+    pub anions: Vec<f64>,
+    /// Free base left, mol/L, and as a fraction of the base added.
+    pub free_base_molar: f64,
+    pub free_base_fraction: f64,
+    /// Conjugate acid at equilibrium, mol/L (solvent included).
+    pub conjugate_acid_molar: f64,
+    /// log10([B-]/[BH]) at equilibrium.
+    pub log_ratio: f64,
+    /// |free base + protons removed - base added| / max(base, substrate).
+    pub mass_balance_residual: f64,
+    pub iterations: u32,
+    /// Plain-language notes on the scale and conditions used.
+    pub notes: Vec<String>,
+}
+
+impl Equilibrium {
+    /// Fraction of substrate deprotonated at any microsite of `site`.
+    pub fn site_fraction(&self, site: usize) -> f64 {
+        self.sites
+            .iter()
+            .filter(|s| s.site == site)
+            .map(|s| s.deprotonated)
+            .sum()
+    }
+}
+
+/// What the solver or its set-up could not do.
+#[derive(Debug, Clone, PartialEq)]
+pub enum EquilibriumError {
+    /// A number outside its allowed range (name, value).
+    Invalid(&'static str, f64),
+    UnknownBase(String),
+    /// The base has no conjugate-acid pKa comparable with the sites.
+    NoCommonScale(String),
+    NoSites,
+    Catalogue(CatalogueError),
+}
+
+impl fmt::Display for EquilibriumError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            EquilibriumError::Invalid(what, v) => write!(f, "invalid {what}: {v}"),
+            EquilibriumError::UnknownBase(b) => {
+                write!(f, "unknown base {b:?} (see `acidsite bases`)")
+            }
+            EquilibriumError::NoCommonScale(b) => write!(
+                f,
+                "no pKa scale on which both {b} and the molecule's sites have values"
+            ),
+            EquilibriumError::NoSites => write!(f, "the molecule has no acidic site with a pKa"),
+            EquilibriumError::Catalogue(e) => write!(f, "base catalogue: {e}"),
+        }
+    }
+}
+
+impl std::error::Error for EquilibriumError {}
+
+const S_LO: f64 = -400.0;
+const S_HI: f64 = 400.0;
+
+fn log10_sum_exp10(values: impl Iterator<Item = f64>) -> f64 {
+    let v: Vec<f64> = values.collect();
+    let m = v.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+    if !m.is_finite() {
+        return m;
+    }
+    m + v.iter().map(|x| 10f64.powf(x - m)).sum::<f64>().log10()
+}
+
+/// Deprotonated fraction of each unit at log ratio `s`.
+fn unit_fractions(units: &[AcidUnit], base_pka: f64, s: f64) -> Vec<f64> {
+    units
+        .iter()
+        .map(|u| {
+            let lx = log10_sum_exp10(u.alternatives.iter().map(|m| base_pka - m.pka + s));
+            if lx == f64::NEG_INFINITY {
+                0.0
+            } else {
+                1.0 / (1.0 + 10f64.powf(-lx))
+            }
+        })
+        .collect()
+}
+
+/// Solve the equilibrium numerically.
+pub fn solve(input: &EquilibriumInput) -> Result<Equilibrium, EquilibriumError> {
+    let c = input.concentration;
+    if !(c.is_finite() && c > 0.0 && c <= 100.0) {
+        return Err(EquilibriumError::Invalid("concentration (mol/L)", c));
+    }
+    let eq = input.equivalents;
+    if !(eq.is_finite() && (0.0..=1000.0).contains(&eq)) {
+        return Err(EquilibriumError::Invalid("equivalents", eq));
+    }
+    let a0 = input.acid_solvent_molar;
+    if !(a0.is_finite() && (0.0..=100.0).contains(&a0)) {
+        return Err(EquilibriumError::Invalid("conjugate acid (mol/L)", a0));
+    }
+    if !input.base_pka.is_finite() || input.base_pka.abs() > 200.0 {
+        return Err(EquilibriumError::Invalid("base pKa", input.base_pka));
+    }
+    for u in &input.units {
+        for m in &u.alternatives {
+            if !m.pka.is_finite() || m.pka.abs() > 200.0 {
+                return Err(EquilibriumError::Invalid("site pKa", m.pka));
+            }
+        }
+    }
+    let b0 = eq * c;
+    let units = &input.units;
+    // h(s) = log10(B0 - D) - log10(A0 + D) - s, strictly decreasing in s.
+    let h = |s: f64| -> f64 {
+        let d = c * unit_fractions(units, input.base_pka, s).iter().sum::<f64>();
+        let free = b0 - d;
+        if free <= 0.0 {
+            return f64::NEG_INFINITY;
+        }
+        let acid = a0 + d;
+        if acid <= 0.0 {
+            return f64::INFINITY;
+        }
+        free.log10() - acid.log10() - s
+    };
+    let (mut lo, mut hi) = (S_LO, S_HI);
+    let mut iterations = 0u32;
+    let s = if b0 == 0.0 {
+        f64::NEG_INFINITY
+    } else {
+        while hi - lo > 1e-13 && iterations < 400 {
+            let mid = 0.5 * (lo + hi);
+            if h(mid) > 0.0 {
+                lo = mid;
+            } else {
+                hi = mid;
+            }
+            iterations += 1;
+        }
+        0.5 * (lo + hi)
+    };
+    let fractions: Vec<f64> = if b0 == 0.0 {
+        vec![0.0; units.len()]
+    } else {
+        unit_fractions(units, input.base_pka, s)
+    };
+    let d = c * fractions.iter().sum::<f64>();
+    let r = if b0 == 0.0 { 0.0 } else { 10f64.powf(s) };
+    let acid = a0 + d;
+    let free = (r * acid).min(b0).max(0.0);
+    let residual = (free + d - b0).abs() / b0.max(c);
+
+    let mut sites = Vec::new();
+    for (u, f) in units.iter().zip(&fractions) {
+        let lx = log10_sum_exp10(u.alternatives.iter().map(|m| input.base_pka - m.pka));
+        for m in &u.alternatives {
+            let share = if lx.is_finite() {
+                10f64.powf(input.base_pka - m.pka - lx)
+            } else {
+                0.0
+            };
+            sites.push(SiteFraction {
+                site: m.site,
+                atoms: m.atoms.clone(),
+                pka: m.pka,
+                deprotonated: (f * share).clamp(0.0, 1.0),
+            });
+        }
+    }
+    // Populations of k-fold deprotonated substrate (independent units).
+    let mut anions = vec![1.0];
+    for f in &fractions {
+        let mut next = vec![0.0; anions.len() + 1];
+        for (k, p) in anions.iter().enumerate() {
+            next[k] += p * (1.0 - f);
+            next[k + 1] += p * f;
+        }
+        anions = next;
+    }
+    Ok(Equilibrium {
+        base: String::new(),
+        scale: Scale::Dmso,
+        base_pka: input.base_pka,
+        equivalents: eq,
+        concentration: c,
+        acid_solvent: None,
+        sites,
+        units: fractions,
+        anions,
+        free_base_molar: free,
+        free_base_fraction: if b0 > 0.0 { free / b0 } else { 0.0 },
+        conjugate_acid_molar: acid,
+        log_ratio: s,
+        mass_balance_residual: residual,
+        iterations,
+        notes: Vec::new(),
+    })
+}
+
+/// Options for [`equilibrium_for`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct EquilibriumOptions {
+    /// Base name as in the catalogue.
+    pub base: String,
+    pub equivalents: f64,
+    /// Substrate concentration, mol/L.
+    pub concentration: f64,
+    /// Solvent name; when it is the base's conjugate acid (EtOH for NaOEt)
+    /// the solvent enters the mass balance at its neat molarity.
+    /// None: the base's usual solvent.
+    pub solvent: Option<String>,
+    /// Force a pKa scale; None chooses as documented in [`choose_scale`].
+    pub scale: Option<Scale>,
+}
+
+impl Default for EquilibriumOptions {
+    fn default() -> Self {
+        EquilibriumOptions {
+            base: "LDA".into(),
+            equivalents: 1.0,
+            concentration: 0.5,
+            solvent: None,
+            scale: None,
+        }
+    }
+}
+
+/// Scale choice for a base and a set of sites in a solvent:
+/// the water scale when the solvent is the base's own protic conjugate acid
+/// (the nearest guide for a hydroxylic medium); otherwise DMSO when the base
+/// and the sites have DMSO values; then water; then the base's THF value
+/// against the sites' DMSO values (an approximation, said in the notes).
+/// Returns (scale for the sites, base pKa, note).
+pub(crate) fn choose_scale(
+    base: &Base,
+    protic: bool,
+    forced: Option<Scale>,
+    site_has: impl Fn(Scale) -> bool,
+) -> Option<(Scale, f64, String)> {
+    let src = |s: Scale| base.pka_source(s).unwrap_or("-").to_string();
+    if let Some(f) = forced {
+        if let Some(p) = base.pka(f) {
+            if site_has(f) {
+                return Some((
+                    f,
+                    p,
+                    format!(
+                        "{} scale as requested ({} pKa {p}, {})",
+                        f.name(),
+                        base.name,
+                        src(f)
+                    ),
+                ));
+            }
+        }
+    }
+    if protic {
+        if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {
+            return Some((
+                Scale::Water,
+                p,
+                format!(
+                    "water scale, the nearer guide in a protic solvent ({} conjugate acid pKa {p}, {})",
+                    base.name,
+                    src(Scale::Water)
+                ),
+            ));
+        }
+    }
+    for sc in [Scale::Dmso, Scale::Water] {
+        if let (Some(p), true) = (base.pka(sc), site_has(sc)) {
+            return Some((
+                sc,
+                p,
+                format!(
+                    "{} scale ({} conjugate acid pKa {p}, {})",
+                    sc.name(),
+                    base.name,
+                    src(sc)
+                ),
+            ));
+        }
+    }
+    if let (Some(p), true) = (base.pka(Scale::Thf), site_has(Scale::Dmso)) {
+        return Some((
+            Scale::Dmso,
+            p,
+            format!(
+                "no DMSO value for {}: its THF value {p} ({}) is compared with the sites' DMSO values (approximate; ion-pair scale)",
+                base.name,
+                src(Scale::Thf)
+            ),
+        ));
+    }
+    None
+}
+
+/// Equilibrium for a molecule and a catalogue base: every acidic site of
+/// the report takes part (alternative α-positions of one carbonyl form one
+/// unit; each O–H, N–H, S–H atom is its own unit).
+pub fn equilibrium_for(
+    mol: &Molecule,
+    sites: &SiteReport,
+    opts: &EquilibriumOptions,
+) -> Result<Equilibrium, EquilibriumError> {
+    let cat = catalogue().map_err(EquilibriumError::Catalogue)?;
+    let base = cat
+        .get(&opts.base)
+        .ok_or_else(|| EquilibriumError::UnknownBase(opts.base.clone()))?;
+    let features = detect_features(mol, sites);
+    solve_for_base(sites, &features.site_unit, base, opts)
+}
+
+/// Shared by [`equilibrium_for`] and the recommender.
+pub(crate) fn solve_for_base(
+    sites: &SiteReport,
+    site_unit: &[usize],
+    base: &Base,
+    opts: &EquilibriumOptions,
+) -> Result<Equilibrium, EquilibriumError> {
+    let mut notes = Vec::new();
+    let solvent = opts
+        .solvent
+        .clone()
+        .unwrap_or_else(|| base.usual_solvent().to_string());
+    let protic = base
+        .acid_solvent
+        .as_ref()
+        .filter(|p| p.name.eq_ignore_ascii_case(solvent.trim()));
+    let site_has = |sc: Scale| {
+        sites.sites.iter().any(|s| match sc {
+            Scale::Dmso => s.pka_dmso.is_some(),
+            Scale::Water => s.pka_water.is_some(),
+            Scale::Thf => false,
+        })
+    };
+    let (scale, base_pka, note) = choose_scale(base, protic.is_some(), opts.scale, site_has)
+        .ok_or_else(|| EquilibriumError::NoCommonScale(base.name.clone()))?;
+    notes.push(note);
+    let units = site_units(sites, site_unit, scale, &mut notes);
+    if units.is_empty() {
+        return Err(EquilibriumError::NoSites);
+    }
+    let a0 = protic.map(|p| p.molar).unwrap_or(0.0);
+    if let Some(p) = protic {
+        notes.push(format!(
+            "the solvent {} is the base's conjugate acid and is counted at {} mol/L (neat liquid)",
+            p.name, p.molar
+        ));
+    }
+    notes.push(format!(
+        "substrate {} mol/L, {} equiv {} in {}; activities taken as concentrations",
+        opts.concentration, opts.equivalents, base.name, solvent
+    ));
+    let mut e = solve(&EquilibriumInput {
+        units,
+        base_pka,
+        equivalents: opts.equivalents,
+        concentration: opts.concentration,
+        acid_solvent_molar: a0,
+    })?;
+    e.base = base.name.clone();
+    e.scale = scale;
+    e.acid_solvent = protic.map(|p| (p.name.clone(), p.molar));
+    e.notes = notes;
+    Ok(e)
+}

@@ -1,0 +1,1180 @@
+//! The recommender: target site, counted protons, equivalents, candidate
+//! bases, rejections, warnings, regiochemistry and cautions.
+
+use super::catalogue::{
+    catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
+};
+use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
+use super::equilibrium::{choose_scale, solve, Equilibrium, EquilibriumInput};
+use super::features::{detect_features, site_units, MoleculeFeatures};
+use crate::mol::Molecule;
+use crate::sites::{Regio, Site, SiteReport};
+use std::fmt;
+
+/// Practical excess added to the stoichiometric equivalents (titre of
+/// organometallic solutions, adventitious moisture).
+pub const PRACTICAL_EXCESS: f64 = 0.1;
+/// Conversion a base must reach at equilibrium to be a candidate.
+pub const MIN_CONVERSION: f64 = 0.99;
+/// In its own protic solvent (NaOEt in EtOH) the anion must at least be the
+/// major species at equilibrium; the electrophile pulls the rest over.
+pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
+/// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
+pub const MIN_CATALYTIC_FRACTION: f64 = 1e-6;
+/// Catalytic amount of base, equivalents (on top of counted protons).
+pub const CATALYTIC_EQUIVALENTS: f64 = 0.1;
+
+/// What the base is for.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum Purpose {
+    /// A preformed anion: the base must convert the target (≥ 99 %).
+    Stoichiometric,
+    /// A catalytic amount suffices (Henry, Michael, Knoevenagel, aldol
+    /// condensations where the anion is consumed as it forms).
+    Catalytic,
+}
+
+/// Options of [`advise`].
+#[derive(Debug, Clone, PartialEq)]
+pub struct AdviceOptions {
+    /// Evaluate this base (catalogue name) as the recommendation.
+    pub base: Option<String>,
+    /// Target the site containing this atom (0-based input index).
+    pub site: Option<usize>,
+    /// Use these equivalents instead of the computed ones.
+    pub equivalents: Option<f64>,
+    /// Substrate concentration, mol/L.
+    pub concentration: f64,
+    /// Solvent for every base (None: each base's usual solvent).
+    pub solvent: Option<String>,
+    /// Force a pKa scale.
+    pub scale: Option<Scale>,
+    pub purpose: Purpose,
+}
+
+impl Default for AdviceOptions {
+    fn default() -> Self {
+        AdviceOptions {
+            base: None,
+            site: None,
+            equivalents: None,
+            concentration: 0.5,
+            solvent: None,
+            scale: None,
+            purpose: Purpose::Stoichiometric,
+        }
+    }
+}
+
+/// The site the advice is about.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Target {
+    /// Index into `SiteReport::sites`.
+    pub site: usize,
+    pub atoms: Vec<usize>,
+    pub element: String,
+    pub class: String,
+    pub pka_dmso: Option<f64>,
+    pub pka_water: Option<f64>,
+    pub uncertainty: f64,
+    pub regio: Option<Regio>,
+    /// How the target was chosen.
+    pub chosen_by: String,
+}
+
+/// A proton the base removes before (or with) the target.
+#[derive(Debug, Clone, PartialEq)]
+pub struct CountedProton {
+    pub site: usize,
+    pub atoms: Vec<usize>,
+    pub element: String,
+    pub class: String,
+    pub pka: Option<f64>,
+    /// Protons consumed by this site.
+    pub protons: usize,
+    pub reason: String,
+}
+
+/// Temperature range, °C.
+#[derive(Debug, Clone, Copy, PartialEq)]
+pub struct Temperature {
+    pub low_c: f64,
+    pub high_c: f64,
+}
+
+/// An acceptable base other than the recommendation.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Alternative {
+    pub base: String,
+    pub equivalents: f64,
+    pub conversion: f64,
+    pub scale: Scale,
+    pub solvent: String,
+    pub temperature: Temperature,
+    pub note: String,
+}
+
+/// Why a base was rejected.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum RejectKind {
+    TooWeak,
+    Nucleophile,
+    Transesterification,
+    Hydrolysis,
+    UncountedProton,
+    NoComparablePka,
+}
+
+impl RejectKind {
+    pub fn name(self) -> &'static str {
+        match self {
+            RejectKind::TooWeak => "too-weak",
+            RejectKind::Nucleophile => "nucleophile",
+            RejectKind::Transesterification => "transesterification",
+            RejectKind::Hydrolysis => "hydrolysis",
+            RejectKind::UncountedProton => "uncounted-proton",
+            RejectKind::NoComparablePka => "no-comparable-pka",
+        }
+    }
+}
+
+/// A rejected base with every reason found (`kind` is the first).
+#[derive(Debug, Clone, PartialEq)]
+pub struct Rejection {
+    pub base: String,
+    pub kind: RejectKind,
+    pub kinds: Vec<RejectKind>,
+    pub reason: String,
+}
+
+/// Warning categories.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+pub enum WarningKind {
+    SelfAldol,
+    SelfCondensation,
+    BetaElimination,
+    Epimerisation,
+    AlkylHalide,
+    OVersusCAlkylation,
+    CountedProtons,
+    Uncertainty,
+    IncompleteEquilibrium,
+    RequestedBase,
+    RequestedEquivalents,
+    NoBase,
+}
+
+impl WarningKind {
+    pub fn name(self) -> &'static str {
+        match self {
+            WarningKind::SelfAldol => "self-aldol",
+            WarningKind::SelfCondensation => "self-condensation",
+            WarningKind::BetaElimination => "beta-elimination",
+            WarningKind::Epimerisation => "epimerisation",
+            WarningKind::AlkylHalide => "alkyl-halide",
+            WarningKind::OVersusCAlkylation => "o-versus-c-alkylation",
+            WarningKind::CountedProtons => "counted-protons",
+            WarningKind::Uncertainty => "uncertainty",
+            WarningKind::IncompleteEquilibrium => "incomplete-equilibrium",
+            WarningKind::RequestedBase => "requested-base",
+            WarningKind::RequestedEquivalents => "requested-equivalents",
+            WarningKind::NoBase => "no-base",
+        }
+    }
+}
+
+#[derive(Debug, Clone, PartialEq)]
+pub struct Warning {
+    pub kind: WarningKind,
+    pub message: String,
+}
+
+/// Conditions favouring one side of an unsymmetrical ketone.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RegioConditions {
+    pub base: String,
+    pub equivalents: f64,
+    pub solvent: String,
+    pub temperature: Temperature,
+    pub procedure: String,
+    /// Site index and atoms of the α-carbon this side deprotonates.
+    pub favours_site: Option<usize>,
+    pub favours_atoms: Vec<usize>,
+}
+
+/// Kinetic and thermodynamic conditions for an unsymmetrical ketone.
+#[derive(Debug, Clone, PartialEq)]
+pub struct RegioAdvice {
+    pub kinetic: RegioConditions,
+    pub thermodynamic: RegioConditions,
+}
+
+/// The advice for one molecule.
+#[derive(Debug, Clone, PartialEq)]
+pub struct Advice {
+    pub target: Target,
+    pub purpose: Purpose,
+    /// Recommended (or requested) base; None when no catalogue base qualifies.
+    pub base: Option<String>,
+    pub equivalents: f64,
+    /// How the equivalents were reached.
+    pub equivalents_note: String,
+    /// Fraction of the target deprotonated at equilibrium with the
+    /// recommended base in its solvent.
+    pub conversion: Option<f64>,
+    pub equilibrium: Option<Equilibrium>,
+    pub solvent: Option<String>,
+    pub temperature: Option<Temperature>,
+    pub scale: Option<Scale>,
+    pub scale_note: String,
+    pub concentration: f64,
+    /// Protons removed before the target.
+    pub counted: Vec<CountedProton>,
+    pub counted_note: Option<String>,
+    pub alternatives: Vec<Alternative>,
+    pub rejected: Vec<Rejection>,
+    pub warnings: Vec<Warning>,
+    pub cautions: Vec<Caution>,
+    pub regio: Option<RegioAdvice>,
+    pub catalogue_version: String,
+}
+
+impl Advice {
+    /// Is `base` rejected?
+    pub fn is_rejected(&self, base: &str) -> bool {
+        self.rejected
+            .iter()
+            .any(|r| r.base.eq_ignore_ascii_case(base))
+    }
+    /// Is `base` recommended or an alternative?
+    pub fn is_acceptable(&self, base: &str) -> bool {
+        (self
+            .base
+            .as_deref()
+            .map(|b| b.eq_ignore_ascii_case(base))
+            .unwrap_or(false)
+            && !self.is_rejected(base))
+            || self
+                .alternatives
+                .iter()
+                .any(|a| a.base.eq_ignore_ascii_case(base))
+    }
+    pub fn has_warning(&self, kind: WarningKind) -> bool {
+        self.warnings.iter().any(|w| w.kind == kind)
+    }
+}
+
+/// What the recommender could not do.
+#[derive(Debug, Clone, PartialEq)]
+pub enum AdviceError {
+    /// The molecule has no acidic site with a pKa estimate.
+    NoSites,
+    /// `--site N`: atom N carries no acidic hydrogen (or is out of range).
+    NotAcidicAtom(usize),
+    UnknownBase(String),
+    Invalid(&'static str, f64),
+    Catalogue(CatalogueError),
+}
+
+impl fmt::Display for AdviceError {
+    fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
+        match self {
+            AdviceError::NoSites => write!(f, "no acidic site with a pKa estimate"),
+            AdviceError::NotAcidicAtom(a) => {
+                write!(f, "atom {a} is not part of an acidic site")
+            }
+            AdviceError::UnknownBase(b) => write!(f, "unknown base {b:?} (see `acidsite bases`)"),
+            AdviceError::Invalid(w, v) => write!(f, "invalid {w}: {v}"),
+            AdviceError::Catalogue(e) => write!(f, "base catalogue: {e}"),
+        }
+    }
+}
+
+impl std::error::Error for AdviceError {}
+
+/// Advice for a molecule and its sites.
+pub fn advise(
+    mol: &Molecule,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    let features = detect_features(mol, sites);
+    advise_with_features(&features, sites, opts)
+}
+
+fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
+    match scale {
+        Scale::Water => site.pka_water,
+        _ => site.pka_dmso,
+    }
+}
+
+fn alkoxy_of(base: &Base) -> Option<&'static str> {
+    match base.conjugate_acid.as_str() {
+        "CO" => Some("methyl"),
+        "CCO" => Some("ethyl"),
+        "CC(C)(C)O" => Some("tert-butyl"),
+        "CC(C)O" => Some("isopropyl"),
+        _ => None,
+    }
+}
+
+fn carbonyl_class(class: &str) -> bool {
+    let c = class.to_ascii_lowercase();
+    [
+        "ketone", "ester", "aldehyde", "amide", "lactone", "lactam", "acid", "carboxyl",
+    ]
+    .iter()
+    .any(|k| c.contains(k))
+}
+
+/// Per-base evaluation.
+struct Eval<'a> {
+    base: &'a Base,
+    solvent: String,
+    scale: Option<Scale>,
+    scale_note: String,
+    counted: Vec<CountedProton>,
+    equivalents: f64,
+    conversion: f64,
+    criterion_conversion: f64,
+    equilibrium: Option<Equilibrium>,
+    reasons: Vec<(RejectKind, String)>,
+    notes: Vec<String>,
+    score: f64,
+}
+
+struct Ctx<'a> {
+    f: &'a MoleculeFeatures,
+    sites: &'a SiteReport,
+    opts: &'a AdviceOptions,
+    target: usize,
+    target_unit: Vec<usize>,
+}
+
+fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
+    let t = &ctx.sites.sites[ctx.target];
+    let t_pka = pka_on(t, scale);
+    let mut out: Vec<CountedProton> = Vec::new();
+    let mut units_seen: Vec<usize> = Vec::new();
+    for (i, s) in ctx.sites.sites.iter().enumerate() {
+        if ctx.target_unit.contains(&i) {
+            continue;
+        }
+        // Compare on the chosen scale, else on the other one.
+        let cmp = match (pka_on(s, scale), t_pka) {
+            (Some(a), Some(b)) => Some((a, b)),
+            _ => match (s.pka_dmso.or(s.pka_water), t.pka_dmso.or(t.pka_water)) {
+                (Some(a), Some(b)) if s.pka_dmso.is_some() == t.pka_dmso.is_some() => Some((a, b)),
+                _ => None,
+            },
+        };
+        let hetero = matches!(s.element.as_str(), "O" | "N" | "S");
+        let more_acidic = cmp.map(|(a, b)| a < b).unwrap_or(false);
+        let metal_rule = hetero
+            && base.family.is_metal_base()
+            && !protic
+            && match s.element.as_str() {
+                "O" | "S" => true,
+                _ => match (s.pka_dmso, t.pka_dmso) {
+                    (Some(a), Some(b)) => a <= b + 6.0,
+                    _ => false,
+                },
+            };
+        if !(more_acidic || metal_rule) {
+            continue;
+        }
+        let protons = if hetero {
+            s.atoms.len()
+        } else {
+            let u = ctx.f.site_unit.get(i).copied().unwrap_or(usize::MAX - i);
+            if units_seen.contains(&u) {
+                continue;
+            }
+            units_seen.push(u);
+            1
+        };
+        let reason = if more_acidic {
+            format!(
+                "more acidic than the target ({} pKa {:.1} vs {:.1})",
+                scale.name(),
+                cmp.map(|c| c.0).unwrap_or(f64::NAN),
+                cmp.map(|c| c.1).unwrap_or(f64::NAN)
+            )
+        } else {
+            format!(
+                "{}–H proton transfer is fast: {} bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)",
+                s.element,
+                base.counter_ion.as_deref().unwrap_or("metal")
+            )
+        };
+        out.push(CountedProton {
+            site: i,
+            atoms: s.atoms.clone(),
+            element: s.element.clone(),
+            class: s.class.clone(),
+            pka: pka_on(s, scale),
+            protons,
+            reason,
+        });
+    }
+    out
+}
+
+fn solve_with(
+    ctx: &Ctx,
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    notes: &mut Vec<String>,
+) -> Option<Equilibrium> {
+    let units = site_units(ctx.sites, &ctx.f.site_unit, scale, notes);
+    solve(&EquilibriumInput {
+        units,
+        base_pka,
+        equivalents,
+        concentration: ctx.opts.concentration,
+        acid_solvent_molar: a0,
+    })
+    .ok()
+}
+
+fn target_conversion(ctx: &Ctx, e: &Equilibrium) -> f64 {
+    e.sites
+        .iter()
+        .filter(|s| ctx.target_unit.contains(&s.site))
+        .map(|s| s.deprotonated)
+        .sum::<f64>()
+        .clamp(0.0, 1.0)
+}
+
+fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
+    let opts = ctx.opts;
+    let t = &ctx.sites.sites[ctx.target];
+    let solvent = opts
+        .solvent
+        .clone()
+        .unwrap_or_else(|| base.usual_solvent().to_string());
+    let protic_solvent = base
+        .acid_solvent
+        .as_ref()
+        .filter(|p| p.name.eq_ignore_ascii_case(solvent.trim()));
+    let mut ev = Eval {
+        base,
+        solvent: solvent.clone(),
+        scale: None,
+        scale_note: String::new(),
+        counted: Vec::new(),
+        equivalents: 0.0,
+        conversion: 0.0,
+        criterion_conversion: 0.0,
+        equilibrium: None,
+        reasons: Vec::new(),
+        notes: Vec::new(),
+        score: 0.0,
+    };
+    let target_has = |sc: Scale| match sc {
+        Scale::Dmso => t.pka_dmso.is_some(),
+        Scale::Water => t.pka_water.is_some(),
+        Scale::Thf => false,
+    };
+    // Criterion scale: consistent, DMSO first.
+    let Some((scale, base_pka, note)) = choose_scale(base, false, opts.scale, target_has) else {
+        ev.reasons.push((
+            RejectKind::NoComparablePka,
+            "no pKa scale on which both this base and the target have values".into(),
+        ));
+        return ev;
+    };
+    ev.scale = Some(scale);
+    ev.scale_note = note;
+    let Some(t_pka) = pka_on(t, scale) else {
+        ev.reasons.push((
+            RejectKind::NoComparablePka,
+            "the target has no value on this scale".into(),
+        ));
+        return ev;
+    };
+    ev.counted = count_protons(ctx, base, scale, protic_solvent.is_some());
+    let n_counted: usize = ev.counted.iter().map(|c| c.protons).sum();
+    ev.equivalents = match (opts.equivalents, opts.purpose) {
+        (Some(x), _) => x,
+        (None, Purpose::Stoichiometric) => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
+        (None, Purpose::Catalytic) => n_counted as f64 + CATALYTIC_EQUIVALENTS,
+    };
+    let mut notes = Vec::new();
+    let crit = solve_with(ctx, base_pka, scale, ev.equivalents, 0.0, &mut notes);
+    let crit_conv = crit
+        .as_ref()
+        .map(|e| target_conversion(ctx, e))
+        .unwrap_or(0.0);
+    ev.criterion_conversion = crit_conv;
+    ev.conversion = crit_conv;
+    ev.equilibrium = crit;
+    // In the base's own protic solvent: water scale, solvent counted.
+    if let Some(p) = protic_solvent {
+        if let Some((sc2, bp2, note2)) = choose_scale(base, true, None, target_has) {
+            if sc2 == Scale::Water {
+                let mut n2 = Vec::new();
+                if let Some(mut e2) = solve_with(ctx, bp2, sc2, ev.equivalents, p.molar, &mut n2) {
+                    let c2 = target_conversion(ctx, &e2);
+                    e2.notes = vec![
+                        note2,
+                        format!(
+                            "{} counted at {} mol/L as the base's conjugate acid",
+                            p.name, p.molar
+                        ),
+                    ];
+                    ev.notes.push(format!(
+                        "in {} ({} mol/L, water scale) {:.3}% of the target is deprotonated at equilibrium",
+                        p.name,
+                        p.molar,
+                        100.0 * c2
+                    ));
+                    ev.conversion = c2;
+                    ev.scale = Some(sc2);
+                    ev.scale_note = format!(
+                        "{} (criterion checked on {}: {:.1}%)",
+                        e2.notes[0],
+                        scale.name(),
+                        100.0 * crit_conv
+                    );
+                    ev.equilibrium = Some(e2);
+                }
+            }
+        }
+    }
+    if let Some(e) = &ev.equilibrium {
+        for n in &notes {
+            if !e.notes.contains(n) {
+                ev.notes.push(n.clone());
+            }
+        }
+    }
+    let conv_text = |c: f64| {
+        if c < 1e-3 {
+            format!("{c:.1e}")
+        } else {
+            format!("{:.1}%", 100.0 * c)
+        }
+    };
+    match opts.purpose {
+        Purpose::Stoichiometric => {
+            let weak_crit = crit_conv < MIN_CONVERSION;
+            let weak_solvent =
+                protic_solvent.is_some() && ev.conversion < MIN_IN_SOLVENT_CONVERSION;
+            if weak_crit || weak_solvent {
+                let uncounted = ev.equilibrium.as_ref().and_then(|e| {
+                    e.sites.iter().find(|s| {
+                        !ctx.target_unit.contains(&s.site)
+                            && !ev.counted.iter().any(|c| c.site == s.site)
+                            && s.deprotonated > 0.01
+                    })
+                });
+                match uncounted {
+                    Some(u) if weak_crit => ev.reasons.push((
+                        RejectKind::UncountedProton,
+                        format!(
+                            "also removes the proton at atoms {:?} (pKa {:.1}), which the count did not include, and leaves the target at {}",
+                            u.atoms,
+                            u.pka,
+                            conv_text(crit_conv)
+                        ),
+                    )),
+                    _ => {
+                        let (conv, where_) = if weak_solvent {
+                            (ev.conversion, format!("in {}", ev.solvent))
+                        } else {
+                            (crit_conv, format!("on the {} scale", scale.name()))
+                        };
+                        ev.reasons.push((
+                            RejectKind::TooWeak,
+                            format!(
+                                "too weak: conjugate-acid pKa {:.1} against target {:.1}; {} of the target deprotonated at equilibrium {} with {:.2} equiv",
+                                base_pka, t_pka, conv_text(conv), where_, ev.equivalents
+                            ),
+                        ));
+                    }
+                }
+            } else if protic_solvent.is_some() && ev.conversion < MIN_CONVERSION {
+                ev.notes.push(format!(
+                    "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
+                    ev.solvent,
+                    100.0 * ev.conversion
+                ));
+            }
+        }
+        Purpose::Catalytic => {
+            if ev.conversion < MIN_CATALYTIC_FRACTION {
+                ev.reasons.push((
+                    RejectKind::TooWeak,
+                    format!(
+                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {:.1} against {:.1}, {} scale)",
+                        conv_text(ev.conversion),
+                        base_pka,
+                        t_pka,
+                        scale.name()
+                    ),
+                ));
+            }
+        }
+    }
+    side_reaction_checks(ctx.f, base, &mut ev.reasons);
+    ev.score = score(ctx, &ev, base_pka - t_pka);
+    ev
+}
+
+fn side_reaction_checks(
+    f: &MoleculeFeatures,
+    base: &Base,
+    reasons: &mut Vec<(RejectKind, String)>,
+) {
+    let mut groups: Vec<&str> = Vec::new();
+    let fam = base.family;
+    let attacks_all = matches!(fam, BaseFamily::Alkyllithium | BaseFamily::MetalAmide);
+    match base.nucleophilic {
+        Nucleophilicity::Yes => {
+            let carbonyl_ok = !matches!(fam, BaseFamily::Pyridine);
+            if f.ketone && carbonyl_ok {
+                groups.push("ketone");
+            }
+            if f.aldehyde && carbonyl_ok {
+                groups.push("aldehyde");
+            }
+            if f.ester && carbonyl_ok {
+                groups.push("ester");
+            }
+            if f.nitrile
+                && (attacks_all
+                    || !matches!(fam, BaseFamily::SecondaryAmine | BaseFamily::Pyridine))
+            {
+                groups.push("nitrile");
+            }
+            if f.amide && attacks_all {
+                groups.push("amide");
+            }
+            if f.acyl_halide {
+                groups.push("acyl halide");
+            }
+            if f.anhydride {
+                groups.push("anhydride");
+            }
+            if !groups.is_empty() {
+                let how = match fam {
+                    BaseFamily::Alkyllithium => "adds to",
+                    BaseFamily::MetalAmide => "attacks",
+                    BaseFamily::SecondaryAmine => {
+                        "condenses with or acylates on (enamine, iminium or amide formation)"
+                    }
+                    BaseFamily::Pyridine => "is acylated by",
+                    _ => "attacks",
+                };
+                reasons.push((
+                    RejectKind::Nucleophile,
+                    format!(
+                        "nucleophilic base: {how} the {} (addition or substitution)",
+                        groups.join(", ")
+                    ),
+                ));
+            }
+        }
+        Nucleophilicity::Weak => {
+            if f.acyl_halide {
+                groups.push("acyl halide");
+            }
+            if f.anhydride {
+                groups.push("anhydride");
+            }
+            if !groups.is_empty() {
+                reasons.push((
+                    RejectKind::Nucleophile,
+                    format!("reacts with the {} (acyl substitution)", groups.join(", ")),
+                ));
+            }
+        }
+        Nucleophilicity::No => {}
+    }
+    if fam == BaseFamily::Alkoxide && f.ester {
+        if let Some(mine) = alkoxy_of(base) {
+            let other: Vec<&str> = f
+                .ester_alkoxy
+                .iter()
+                .map(String::as_str)
+                .filter(|a| *a != mine)
+                .collect();
+            if !other.is_empty() {
+                reasons.push((
+                    RejectKind::Transesterification,
+                    format!(
+                        "transesterification: the {mine} alkoxide exchanges the {} ester group(s); use the alkoxide that matches the ester",
+                        other.join(", ")
+                    ),
+                ));
+            }
+        }
+    }
+    if fam == BaseFamily::Hydroxide && (f.ester || f.anhydride || f.acyl_halide) {
+        reasons.push((
+            RejectKind::Hydrolysis,
+            "hydroxide hydrolyses the ester (saponification) or acyl group".into(),
+        ));
+    }
+}
+
+fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
+    let b = ev.base;
+    let t = &ctx.sites.sites[ctx.target];
+    let f = ctx.f;
+    let mut s = 0.0;
+    // Stronger than needed invites side reactions; keep a sensible margin.
+    s += 0.1 * (margin - 8.0).max(0.0);
+    s += 0.2 * (3.0 - margin).max(0.0);
+    if b.has_hazard(Hazard::Pyrophoric) {
+        s += 3.0;
+    }
+    if b.has_hazard(Hazard::HydrogenEvolution) {
+        s += 0.4;
+    }
+    if b.has_hazard(Hazard::Cryogenic) {
+        s += 0.4;
+    }
+    if b.has_hazard(Hazard::Toxic) {
+        s += 0.3;
+    }
+    let carbonyls = f.ketone || f.aldehyde || f.ester || f.nitrile;
+    if b.nucleophilic == Nucleophilicity::Weak && carbonyls {
+        s += 0.7;
+    }
+    let dicarbonyl = f
+        .sites
+        .get(ctx.target)
+        .map(|x| x.dicarbonyl)
+        .unwrap_or(false);
+    let monocarbonyl =
+        carbonyl_class(&t.class) && !dicarbonyl && ctx.opts.purpose == Purpose::Stoichiometric;
+    if monocarbonyl && !matches!(b.family, BaseFamily::LithiumAmide | BaseFamily::Silylamide) {
+        // Self-condensation competes unless enolisation is fast and complete.
+        s += 2.0;
+    }
+    if monocarbonyl && b.family == BaseFamily::LithiumAmide && b.name == "LDA" {
+        s -= 0.5;
+    }
+    if matches!(b.family, BaseFamily::Carbonate | BaseFamily::Hydride) {
+        s += 0.3;
+    }
+    if b.family == BaseFamily::Alkoxide
+        && f.ester
+        && alkoxy_of(b)
+            .map(|a| f.ester_alkoxy.iter().all(|e| e == a))
+            .unwrap_or(false)
+    {
+        s -= 0.8;
+    }
+    if b.family == BaseFamily::Phosphazene {
+        // Costly; kept for metal-free needs.
+        s += 1.0;
+    }
+    if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
+        s -= 1.0;
+    }
+    s
+}
+
+fn temperature(base: &Base) -> Temperature {
+    Temperature {
+        low_c: base.temp_min_c,
+        high_c: base.temp_max_c,
+    }
+}
+
+/// Advice from precomputed features (tests can build these by hand).
+pub fn advise_with_features(
+    f: &MoleculeFeatures,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    let cat = catalogue().map_err(AdviceError::Catalogue)?;
+    let c = opts.concentration;
+    if !(c.is_finite() && c > 0.0 && c <= 20.0) {
+        return Err(AdviceError::Invalid("concentration (mol/L)", c));
+    }
+    if let Some(e) = opts.equivalents {
+        if !(e.is_finite() && e > 0.0 && e <= 100.0) {
+            return Err(AdviceError::Invalid("equivalents", e));
+        }
+    }
+    let requested = match &opts.base {
+        Some(name) => Some(
+            cat.get(name)
+                .ok_or_else(|| AdviceError::UnknownBase(name.clone()))?,
+        ),
+        None => None,
+    };
+    let has_pka = |s: &Site| s.pka_dmso.is_some() || s.pka_water.is_some();
+    let (target, chosen_by) = match opts.site {
+        Some(atom) => {
+            let i = sites
+                .sites
+                .iter()
+                .position(|s| s.atoms.contains(&atom) && has_pka(s))
+                .ok_or(AdviceError::NotAcidicAtom(atom))?;
+            (i, format!("the site containing atom {atom}, as requested"))
+        }
+        None => match sites
+            .top_carbon
+            .filter(|&i| sites.sites.get(i).map(has_pka).unwrap_or(false))
+        {
+            Some(i) => (i, "the most acidic C–H site".to_string()),
+            None => {
+                let i = sites
+                    .top_overall
+                    .filter(|&i| sites.sites.get(i).map(has_pka).unwrap_or(false))
+                    .or_else(|| sites.sites.iter().position(has_pka))
+                    .ok_or(AdviceError::NoSites)?;
+                (
+                    i,
+                    "the most acidic site (the molecule has no acidic C–H with an estimate)"
+                        .to_string(),
+                )
+            }
+        },
+    };
+    let tsite = &sites.sites[target];
+    let tunit = f.site_unit.get(target).copied();
+    let target_unit: Vec<usize> = (0..sites.sites.len())
+        .filter(|&i| {
+            i == target
+                || (tunit.is_some()
+                    && f.site_unit.get(i).copied() == tunit
+                    && sites.sites[i].is_carbon()
+                    && tsite.is_carbon())
+        })
+        .collect();
+    let ctx = Ctx {
+        f,
+        sites,
+        opts,
+        target,
+        target_unit,
+    };
+    let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
+    let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
+    accepted.sort_by(|a, b| {
+        a.score
+            .partial_cmp(&b.score)
+            .unwrap_or(std::cmp::Ordering::Equal)
+    });
+    let rejected: Vec<Rejection> = evals
+        .iter()
+        .filter(|e| !e.reasons.is_empty())
+        .map(|e| Rejection {
+            base: e.base.name.clone(),
+            kind: e.reasons[0].0,
+            kinds: e.reasons.iter().map(|r| r.0).collect(),
+            reason: e
+                .reasons
+                .iter()
+                .map(|r| r.1.as_str())
+                .collect::<Vec<_>>()
+                .join("; "),
+        })
+        .collect();
+    let mut warnings: Vec<Warning> = Vec::new();
+    let chosen: Option<&Eval> = match requested {
+        Some(b) => {
+            let e = evals.iter().find(|e| e.base.name == b.name);
+            if let Some(e) = e {
+                if !e.reasons.is_empty() {
+                    warnings.push(Warning {
+                        kind: WarningKind::RequestedBase,
+                        message: format!(
+                            "the requested base {} is not suitable here: {}",
+                            b.name,
+                            e.reasons
+                                .iter()
+                                .map(|r| r.1.as_str())
+                                .collect::<Vec<_>>()
+                                .join("; ")
+                        ),
+                    });
+                }
+            }
+            e
+        }
+        None => accepted.first().copied(),
+    };
+    if chosen.is_none() {
+        warnings.push(Warning {
+            kind: WarningKind::NoBase,
+            message: "no catalogue base meets the criteria for this target; see the rejections"
+                .into(),
+        });
+    }
+    let alternatives: Vec<Alternative> = accepted
+        .iter()
+        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
+        .take(6)
+        .map(|e| Alternative {
+            base: e.base.name.clone(),
+            equivalents: e.equivalents,
+            conversion: e.conversion,
+            scale: e.scale.unwrap_or(Scale::Dmso),
+            solvent: e.solvent.clone(),
+            temperature: temperature(e.base),
+            note: e.notes.join("; "),
+        })
+        .collect();
+
+    // Counted protons and equivalents of the chosen base.
+    let (counted, equivalents, equivalents_note, counted_note) = match chosen {
+        Some(e) => {
+            let n: usize = e.counted.iter().map(|c| c.protons).sum();
+            let note = match (opts.equivalents, opts.purpose) {
+                (Some(x), _) => format!("{x} equiv as requested"),
+                (None, Purpose::Stoichiometric) => format!(
+                    "1 for the target + {n} counted proton(s) + {PRACTICAL_EXCESS} practical excess (titre of the base solution, adventitious moisture)"
+                ),
+                (None, Purpose::Catalytic) => format!(
+                    "{CATALYTIC_EQUIVALENTS} equiv catalytic + {n} counted proton(s)"
+                ),
+            };
+            let cn = if n > 0 {
+                Some(format!(
+                    "{n} proton(s) are removed before the target and consume base: {}. Proton transfer from O–H, N–H and S–H is fast; with lithium and sodium bases in THF, alcohols and carbamate N–H are deprotonated before a ketone's α-C–H even where their DMSO pKa is somewhat higher, so they are counted (common practice).",
+                    e.counted
+                        .iter()
+                        .map(|c| format!("{} {} at atoms {:?}", c.element, c.class, c.atoms))
+                        .collect::<Vec<_>>()
+                        .join(", ")
+                ))
+            } else {
+                None
+            };
+            if let (Some(x), Purpose::Stoichiometric) = (opts.equivalents, opts.purpose) {
+                if x < 1.0 + n as f64 {
+                    warnings.push(Warning {
+                        kind: WarningKind::RequestedEquivalents,
+                        message: format!(
+                            "{x} equiv does not cover the target plus the {n} counted proton(s): at least {} equiv is needed",
+                            1 + n
+                        ),
+                    });
+                }
+            }
+            (e.counted.clone(), e.equivalents, note, cn)
+        }
+        None => (Vec::new(), 0.0, "no base chosen".to_string(), None),
+    };
+    if let Some(n) = &counted_note {
+        warnings.push(Warning {
+            kind: WarningKind::CountedProtons,
+            message: n.clone(),
+        });
+    }
+    molecule_warnings(&ctx, chosen, &mut warnings);
+
+    let regio = regio_advice(&ctx, cat);
+    // Cautions: chosen, alternatives, regio reagents, then a general one.
+    let mut cautions: Vec<Caution> = Vec::new();
+    let mut push = |c: Option<Caution>| {
+        if let Some(c) = c {
+            if !cautions.iter().any(|x| x.reagent == c.reagent) {
+                cautions.push(c);
+            }
+        }
+    };
+    if let Some(e) = chosen {
+        push(caution_for(e.base, Some(&e.solvent)));
+    }
+    for a in &alternatives {
+        if let Some(b) = cat.get(&a.base) {
+            push(caution_for(b, Some(&a.solvent)));
+        }
+    }
+    if let Some(r) = &regio {
+        for name in ["LDA", "NaH", "KOtBu", "Et3N"] {
+            if r.kinetic.base.contains(name) || r.thermodynamic.base.contains(name) {
+                if let Some(b) = cat.get(name) {
+                    push(caution_for(b, None));
+                }
+            }
+        }
+        if r.thermodynamic.procedure.contains("TMSCl") {
+            push(caution_for_reagent(
+                "TMSCl",
+                &[Hazard::Flammable, Hazard::Corrosive, Hazard::WaterReactive],
+                &["releases hydrogen chloride with moisture"],
+            ));
+        }
+    }
+    push(Some(general_caution()));
+
+    let t = Target {
+        site: target,
+        atoms: tsite.atoms.clone(),
+        element: tsite.element.clone(),
+        class: tsite.class.clone(),
+        pka_dmso: tsite.pka_dmso,
+        pka_water: tsite.pka_water,
+        uncertainty: tsite.uncertainty,
+        regio: tsite.regio,
+        chosen_by,
+    };
+    Ok(Advice {
+        target: t,
+        purpose: opts.purpose,
+        base: chosen.map(|e| e.base.name.clone()),
+        equivalents,
+        equivalents_note,
+        conversion: chosen.map(|e| e.conversion),
+        equilibrium: chosen.and_then(|e| e.equilibrium.clone()),
+        solvent: chosen.map(|e| e.solvent.clone()),
+        temperature: chosen.map(|e| temperature(e.base)),
+        scale: chosen.and_then(|e| e.scale),
+        scale_note: chosen.map(|e| e.scale_note.clone()).unwrap_or_default(),
+        concentration: c,
+        counted,
+        counted_note,
+        alternatives,
+        rejected,
+        warnings,
+        cautions,
+        regio,
+        catalogue_version: cat.version.clone(),
+    })
+}
+
+fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
+    let f = ctx.f;
+    let t = &ctx.sites.sites[ctx.target];
+    let sf = f.sites.get(ctx.target).cloned().unwrap_or_default();
+    let mut add = |kind, message: String| w.push(Warning { kind, message });
+    if f.aldehyde {
+        add(
+            WarningKind::SelfAldol,
+            "the molecule is an aldehyde: its enolate adds to unreacted aldehyde (self-aldol) faster than most electrophiles; use an enolate equivalent (enamine, imine anion, silyl enol ether) or add the aldehyde last and cold".into(),
+        );
+    }
+    if let Some(lg) = &sf.beta_leaving_group {
+        add(
+            WarningKind::BetaElimination,
+            format!("a {lg} leaving group sits on the carbon next to the target: the anion can expel it (E1cB elimination); keep cold and trap fast"),
+        );
+    }
+    if sf.stereocentre {
+        add(
+            WarningKind::Epimerisation,
+            format!("the target carbon (atoms {:?}) is a stereocentre: deprotonation planarises it and it will epimerise or racemise", t.atoms),
+        );
+    }
+    if f.alkyl_halide {
+        add(
+            WarningKind::AlkylHalide,
+            "the molecule contains an alkyl halide or sulfonate: the anion can alkylate itself (intra- or intermolecularly) and strong bases can eliminate HX".into(),
+        );
+    }
+    if sf.dicarbonyl {
+        add(
+            WarningKind::OVersusCAlkylation,
+            "1,3-dicarbonyl anions react at O as well as C: hard electrophiles (sulfonates, sulfates, silyl and acyl chlorides), polar aprotic solvents and K+/Cs+ favour O; alkyl iodides and bromides with Na+/Li+ in THF or alcohol favour C (common practice)".into(),
+        );
+    }
+    if let Some(e) = chosen {
+        let dicarbonyl = sf.dicarbonyl;
+        if carbonyl_class(&t.class)
+            && !dicarbonyl
+            && ctx.opts.purpose == Purpose::Stoichiometric
+            && !matches!(
+                e.base.family,
+                BaseFamily::LithiumAmide | BaseFamily::Silylamide
+            )
+        {
+            add(
+                WarningKind::SelfCondensation,
+                format!("{} forms the enolate slowly or reversibly: unreacted carbonyl compound and enolate coexist and self-condensation (aldol or Claisen) competes", e.base.name),
+            );
+        }
+        if e.conversion < MIN_CONVERSION && ctx.opts.purpose == Purpose::Stoichiometric {
+            add(
+                WarningKind::IncompleteEquilibrium,
+                format!(
+                    "only {:.1}% of the target is deprotonated at equilibrium in {}; the reaction relies on the electrophile consuming the anion",
+                    100.0 * e.conversion,
+                    e.solvent
+                ),
+            );
+        }
+        if let (Some(sc), Some(t_pka)) = (e.scale, pka_on(t, e.scale.unwrap_or(Scale::Dmso))) {
+            let bp = e
+                .equilibrium
+                .as_ref()
+                .map(|q| q.base_pka)
+                .unwrap_or(f64::NAN);
+            let margin = bp - t_pka;
+            if margin.is_finite()
+                && margin < 2.0 + 2.0 * t.uncertainty
+                && ctx.opts.purpose == Purpose::Stoichiometric
+            {
+                add(
+                    WarningKind::Uncertainty,
+                    format!(
+                        "the target pKa estimate carries ±{:.1} units and the base is only {:.1} units stronger on the {} scale: the conversion could be lower than computed",
+                        t.uncertainty,
+                        margin,
+                        sc.name()
+                    ),
+                );
+            }
+        }
+    }
+}
+
+fn regio_advice(ctx: &Ctx, cat: &super::catalogue::Catalogue) -> Option<RegioAdvice> {
+    let t = &ctx.sites.sites[ctx.target];
+    if !t.class.to_ascii_lowercase().contains("ketone") {
+        return None;
+    }
+    let find = |r: Regio| {
+        ctx.target_unit
+            .iter()
+            .copied()
+            .find(|&i| ctx.sites.sites.get(i).and_then(|s| s.regio) == Some(r))
+    };
+    let (k, th) = (find(Regio::Kinetic), find(Regio::Thermodynamic));
+    if k.is_none() && th.is_none() {
+        return None;
+    }
+    let atoms = |i: Option<usize>| {
+        i.and_then(|i| ctx.sites.sites.get(i))
+            .map(|s| s.atoms.clone())
+            .unwrap_or_default()
+    };
+    let lda = cat.get("LDA");
+    Some(RegioAdvice {
+        kinetic: RegioConditions {
+            base: "LDA (or LiHMDS)".into(),
+            equivalents: 1.0 + PRACTICAL_EXCESS,
+            solvent: "THF".into(),
+            temperature: Temperature {
+                low_c: lda.map(|b| b.temp_min_c).unwrap_or(-78.0),
+                high_c: -78.0,
+            },
+            procedure: "add the ketone slowly to a slight excess of the hindered amide base at -78 C so base is always in excess and no free ketone equilibrates the enolate; react with the electrophile cold".into(),
+            favours_site: k,
+            favours_atoms: atoms(k),
+        },
+        thermodynamic: RegioConditions {
+            base: "NaH or KOtBu (or Et3N with TMSCl in DMF for the silyl enol ether)".into(),
+            equivalents: 0.95,
+            solvent: "THF, tBuOH or DMF".into(),
+            temperature: Temperature {
+                low_c: 20.0,
+                high_c: 80.0,
+            },
+            procedure: "use a slight excess of ketone (about 0.95 equiv base) with a weaker or equilibrating base at room temperature or above and allow time to equilibrate: proton exchange with free ketone converts the enolates to the more substituted one (Et3N/TMSCl traps it as the silyl enol ether)".into(),
+            favours_site: th,
+            favours_atoms: atoms(th),
+        },
+    })
+}
