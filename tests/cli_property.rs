@@ -9,7 +9,9 @@ use std::process::{Command, Stdio};
 const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
 
 fn pool() -> Vec<String> {
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/bulk/real.smi")).unwrap();
+    let text =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/bulk/real.smi"))
+            .unwrap();
     text.lines()
         .filter(|l| !l.starts_with('#'))
         .step_by(50)

@@ -8,7 +8,11 @@ use std::process::Command;
 const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
 
 fn scan(args: &[&str]) -> String {
-    let out = Command::new(BIN).arg("scan").args(args).output().expect("run acidsite");
+    let out = Command::new(BIN)
+        .arg("scan")
+        .args(args)
+        .output()
+        .expect("run acidsite");
     let mut text = String::from_utf8(out.stdout).expect("UTF-8 report");
     text.push_str(&format!("[exit {}]\n", out.status.code().unwrap_or(-1)));
     text
@@ -47,7 +51,13 @@ fn scan_given_aldehyde() {
 #[test]
 fn scan_given_water_scale_and_chosen_base() {
     // diethyl malonate with sodium ethoxide, ranked on the water scale.
-    insta::assert_snapshot!(scan(&["CCOC(=O)CC(=O)OCC", "--scale", "water", "--base", "NaOEt"]));
+    insta::assert_snapshot!(scan(&[
+        "CCOC(=O)CC(=O)OCC",
+        "--scale",
+        "water",
+        "--base",
+        "NaOEt"
+    ]));
 }
 
 #[test]

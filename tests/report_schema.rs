@@ -26,6 +26,7 @@ struct RecordMirror {
     rule_set: Option<String>,
     sites: Option<Vec<SiteMirror>>,
     advice: Option<AdviceMirror>,
+    advice_note: Option<String>,
     mapped_smiles: Option<String>,
     flags: Option<BTreeMap<String, u64>>,
     error: Option<ErrorMirror>,
@@ -77,10 +78,68 @@ struct AdviceMirror {
     solvent: Option<String>,
     temperature_c: Option<f64>,
     scale: Option<String>,
-    alternatives: Vec<String>,
+    alternatives: Vec<AlternativeMirror>,
     rejected: Vec<RejectedMirror>,
     warnings: Vec<String>,
-    cautions: Vec<String>,
+    cautions: Vec<CautionMirror>,
+    target_note: String,
+    equivalents_note: String,
+    counted: Vec<CountedMirror>,
+    temperature_range_c: Option<[f64; 2]>,
+    scale_note: String,
+    regio_conditions: Option<RegioMirror>,
+    catalogue: String,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct CautionMirror {
+    reagent: String,
+    hazards: Vec<String>,
+    text: String,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct CountedMirror {
+    atoms: Vec<usize>,
+    class: String,
+    protons: usize,
+    reason: String,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct AlternativeMirror {
+    base: String,
+    equivalents: f64,
+    conversion: f64,
+    solvent: String,
+    temperature_range_c: [f64; 2],
+    note: String,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct RegioMirror {
+    kinetic: RegioSideMirror,
+    thermodynamic: RegioSideMirror,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct RegioSideMirror {
+    base: String,
+    equivalents: f64,
+    solvent: String,
+    temperature_range_c: [f64; 2],
+    procedure: String,
+    favours: Vec<usize>,
 }
 
 #[derive(Debug, Deserialize)]
@@ -88,6 +147,7 @@ struct AdviceMirror {
 #[allow(dead_code)]
 struct RejectedMirror {
     base: String,
+    kind: String,
     reason: String,
 }
 

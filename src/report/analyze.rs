@@ -3,9 +3,11 @@
 
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
-    round, AdviceOut, ComponentOut, ErrorOut, Pairs, Record, RejectedOut, RuleOut, SiteOut, SCHEMA,
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
+    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, SCHEMA,
 };
-use crate::mol::{symbol, Molecule};
+use crate::advice::{advise, AdviceOptions, RegioConditions, Temperature};
+use crate::mol::Molecule;
 use crate::sites::{self, Regio, SiteReport};
 use crate::smarts::{Pattern, PatternError};
 
@@ -83,7 +85,7 @@ pub struct Options {
     pub site: Option<usize>,
     /// Use this base instead of the recommended one.
     pub base: Option<String>,
-    /// Scale used for ranking display (the sites come ranked from the library).
+    /// Scale on which the sites are ranked.
     pub scale: Scale,
     /// Patterns to count.
     pub flags: Vec<Flag>,
@@ -134,9 +136,17 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
             )
         }
     };
-    let report = sites::find_sites(&mol);
-    let sites_out = site_records(&report, opts.scale);
-    let advice = advice_record(&mol, &report, opts);
+    let report = sites::find_sites_with(
+        &mol,
+        &sites::Options {
+            scale: match opts.scale {
+                Scale::Dmso => sites::Scale::Dmso,
+                Scale::Water => sites::Scale::Water,
+            },
+        },
+    );
+    let sites_out = site_records(&report);
+    let (advice, advice_note) = advice_record(&mol, &report, opts);
     let mapped = mapped_smiles(smiles, &mol, &sites_out);
     let flags = if opts.flags.is_empty() {
         None
@@ -161,29 +171,16 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         rule_set: Some(sites::rule_set_version().to_string()),
         sites: Some(sites_out),
         advice: Some(advice),
+        advice_note,
         mapped_smiles: mapped,
         flags,
         error: None,
     }
 }
 
-/// Sites as output records, ranked on the chosen scale (sites without a
-/// value on that scale keep their library order after those with one).
-fn site_records(report: &SiteReport, scale: Scale) -> Vec<SiteOut> {
-    let mut order: Vec<usize> = (0..report.sites.len()).collect();
-    if scale == Scale::Water {
-        // Stable sort: library order breaks ties and orders the unvalued.
-        order.sort_by(|&a, &b| {
-            let ka = report.sites[a].pka_water;
-            let kb = report.sites[b].pka_water;
-            match (ka, kb) {
-                (Some(x), Some(y)) => x.total_cmp(&y),
-                (Some(_), None) => std::cmp::Ordering::Less,
-                (None, Some(_)) => std::cmp::Ordering::Greater,
-                (None, None) => std::cmp::Ordering::Equal,
-            }
-        });
-    }
+/// Sites as output records, in the library's ranking (rank 1 = most acidic).
+fn site_records(report: &SiteReport) -> Vec<SiteOut> {
+    let order: Vec<usize> = (0..report.sites.len()).collect();
     order
         .into_iter()
         .enumerate()
@@ -242,150 +239,158 @@ fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<Stri
 /// Formula of the whole input and its components (main component first, then
 /// the counter-ions in input order).
 fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
-    let all: Vec<usize> = (0..mol.atoms.len()).collect();
-    let formula = hill_formula(mol, &all);
-    let comps = components(mol);
-    let main = main_component(mol, &comps);
-    let chars: Vec<char> = smiles.chars().collect();
-    let mut out = Vec::with_capacity(comps.len());
-    for (ci, atoms) in comps.iter().enumerate() {
-        let start = atoms
-            .iter()
-            .filter_map(|&a| mol.atoms.get(a))
-            .map(|a| a.span.start)
-            .min();
-        let end = atoms
-            .iter()
-            .filter_map(|&a| mol.atoms.get(a))
-            .map(|a| a.span.end)
-            .max();
-        let text = match (start, end) {
-            (Some(s), Some(e)) if s < e && e <= chars.len() => chars[s..e].iter().collect(),
-            _ => String::new(),
-        };
-        let comp = ComponentOut {
-            role: if Some(ci) == main {
-                "main"
-            } else {
-                "counter_ion"
-            }
-            .to_string(),
-            smiles: text,
-            formula: hill_formula(mol, atoms),
-            charge: atoms
+    let pieces = dot_pieces(smiles);
+    let main = mol.main_component();
+    let mut order: Vec<usize> = (0..mol.component_count()).collect();
+    order.sort_by_key(|&c| (c != main, c));
+    let out = order
+        .into_iter()
+        .map(|c| {
+            let atoms = mol.component_atoms(c);
+            // The text pieces whose first atom belongs to this component.
+            let text: Vec<&str> = pieces
                 .iter()
-                .filter_map(|&a| mol.atoms.get(a))
-                .map(|a| a.charge as i32)
-                .sum(),
-        };
-        if Some(ci) == main {
-            out.insert(0, comp);
-        } else {
-            out.push(comp);
-        }
-    }
-    (formula, out)
+                .filter(|(range, _)| {
+                    atoms
+                        .iter()
+                        .filter_map(|&a| mol.atoms.get(a))
+                        .any(|a| a.span.start >= range.start && a.span.start < range.end)
+                })
+                .map(|(_, t)| t.as_str())
+                .collect();
+            ComponentOut {
+                role: if c == main { "main" } else { "counter_ion" }.to_string(),
+                smiles: text.join("."),
+                formula: mol.formula_of_atoms(&atoms),
+                charge: atoms
+                    .iter()
+                    .filter_map(|&a| mol.atoms.get(a))
+                    .map(|a| a.charge as i32)
+                    .sum(),
+            }
+        })
+        .collect();
+    (mol.formula(), out)
 }
 
-/// Connected components (atom lists in input order), ordered by first atom.
-fn components(mol: &Molecule) -> Vec<Vec<usize>> {
-    let n = mol.atoms.len();
-    let mut comp = vec![usize::MAX; n];
-    let mut out: Vec<Vec<usize>> = Vec::new();
-    for start in 0..n {
-        if comp[start] != usize::MAX {
-            continue;
-        }
-        let id = out.len();
-        let mut stack = vec![start];
-        let mut members = Vec::new();
-        comp[start] = id;
-        while let Some(a) = stack.pop() {
-            members.push(a);
-            for nb in mol.neighbors(a) {
-                if nb.atom < n && comp[nb.atom] == usize::MAX {
-                    comp[nb.atom] = id;
-                    stack.push(nb.atom);
-                }
+/// The input split at `.` outside brackets: (character range, text) of each piece.
+fn dot_pieces(smiles: &str) -> Vec<(std::ops::Range<usize>, String)> {
+    let mut out = Vec::new();
+    let mut start = 0usize;
+    let mut cur = String::new();
+    let mut depth = 0i32;
+    let mut n = 0usize;
+    for (i, c) in smiles.chars().enumerate() {
+        n = i + 1;
+        match c {
+            '[' => depth += 1,
+            ']' => depth -= 1,
+            '.' if depth <= 0 => {
+                out.push((start..i, std::mem::take(&mut cur)));
+                start = i + 1;
+                continue;
             }
+            _ => {}
         }
-        members.sort_unstable();
-        out.push(members);
+        cur.push(c);
     }
+    out.push((start..n.max(start), cur));
     out
 }
 
-/// The component analysed: the one with most carbon atoms, then most heavy
-/// atoms, then the first written.
-fn main_component(mol: &Molecule, comps: &[Vec<usize>]) -> Option<usize> {
-    let key = |c: &Vec<usize>| {
-        let carbons = c
-            .iter()
-            .filter(|&&a| mol.atoms.get(a).is_some_and(|x| x.element == 6))
-            .count();
-        let heavy = c
-            .iter()
-            .filter(|&&a| mol.atoms.get(a).is_some_and(|x| x.element > 1))
-            .count();
-        (carbons, heavy)
+/// Advice for the target site, or None with the reason when there is
+/// nothing to target.
+fn advice_record(
+    mol: &Molecule,
+    report: &SiteReport,
+    opts: &Options,
+) -> (Option<AdviceOut>, Option<String>) {
+    let aopts = AdviceOptions {
+        base: opts.base.clone(),
+        site: opts.site,
+        ..AdviceOptions::default()
     };
-    let mut best: Option<(usize, (usize, usize))> = None;
-    for (i, c) in comps.iter().enumerate() {
-        let k = key(c);
-        if best.is_none_or(|(_, bk)| k > bk) {
-            best = Some((i, k));
-        }
-    }
-    best.map(|(i, _)| i)
-}
-
-/// Hill-order formula of some atoms: every hydrogen counted, isotopes folded
-/// into their element, no charge; `*` atoms left out.
-fn hill_formula(mol: &Molecule, atoms: &[usize]) -> String {
-    let mut counts: std::collections::BTreeMap<&'static str, u64> = Default::default();
-    for a in atoms.iter().filter_map(|&i| mol.atoms.get(i)) {
-        if a.element > 0 {
-            *counts.entry(symbol(a.element)).or_default() += 1;
-        }
-        if a.hydrogens > 0 {
-            *counts.entry("H").or_default() += a.hydrogens as u64;
-        }
-    }
-    let mut s = String::new();
-    let mut push = |sym: &str, n: u64| {
-        s.push_str(sym);
-        if n > 1 {
-            s.push_str(&n.to_string());
-        }
+    let a = match advise(mol, report, &aopts) {
+        Ok(a) => a,
+        Err(e) => return (None, Some(e.to_string())),
     };
-    if let Some(&c) = counts.get("C") {
-        push("C", c);
-        if let Some(&h) = counts.get("H") {
-            push("H", h);
-        }
-        for (sym, &n) in &counts {
-            if *sym != "C" && *sym != "H" {
-                push(sym, n);
+    let range = |t: Temperature| [t.low_c, t.high_c];
+    let out = AdviceOut {
+        target: a.target.atoms.clone(),
+        target_note: a.target.chosen_by.clone(),
+        base: a.base.clone(),
+        equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
+        equivalents_note: a.equivalents_note.clone(),
+        counted: a
+            .counted
+            .iter()
+            .map(|c| CountedOut {
+                atoms: c.atoms.clone(),
+                class: c.class.clone(),
+                protons: c.protons,
+                reason: c.reason.clone(),
+            })
+            .collect(),
+        conversion: a.conversion.and_then(significant),
+        solvent: a.solvent.clone(),
+        temperature_c: a.temperature.and_then(|t| round(t.low_c, 0.1)),
+        temperature_range_c: a.temperature.map(range),
+        scale: a.scale.map(|s| s.name().to_string()),
+        scale_note: a.scale_note.clone(),
+        alternatives: a
+            .alternatives
+            .iter()
+            .map(|x| AlternativeOut {
+                base: x.base.clone(),
+                equivalents: round(x.equivalents, 0.01).unwrap_or(0.0),
+                conversion: significant(x.conversion).unwrap_or(0.0),
+                solvent: x.solvent.clone(),
+                temperature_range_c: range(x.temperature),
+                note: x.note.clone(),
+            })
+            .collect(),
+        rejected: a
+            .rejected
+            .iter()
+            .map(|r| RejectedOut {
+                base: r.base.clone(),
+                kind: r.kind.name().to_string(),
+                reason: r.reason.clone(),
+            })
+            .collect(),
+        warnings: a.warnings.iter().map(|w| w.message.clone()).collect(),
+        regio_conditions: a.regio.as_ref().map(|r| {
+            let side = |c: &RegioConditions| RegioSideOut {
+                base: c.base.clone(),
+                equivalents: round(c.equivalents, 0.01).unwrap_or(0.0),
+                solvent: c.solvent.clone(),
+                temperature_range_c: range(c.temperature),
+                procedure: c.procedure.clone(),
+                favours: c.favours_atoms.clone(),
+            };
+            RegioOut {
+                kinetic: side(&r.kinetic),
+                thermodynamic: side(&r.thermodynamic),
             }
-        }
-    } else {
-        for (sym, &n) in &counts {
-            push(sym, n);
-        }
-    }
-    s
+        }),
+        cautions: a
+            .cautions
+            .iter()
+            .map(|c| CautionOut {
+                reagent: c.reagent.clone(),
+                hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
+                text: c.text.clone(),
+            })
+            .collect(),
+        catalogue: a.catalogue_version.clone(),
+    };
+    (Some(out), None)
 }
 
-/// Advice for the target site, or None when there is nothing to target.
-fn advice_record(mol: &Molecule, report: &SiteReport, opts: &Options) -> Option<AdviceOut> {
-    let _ = (
-        mol,
-        report,
-        opts,
-        RejectedOut {
-            base: String::new(),
-            reason: String::new(),
-        },
-    );
-    None
+/// Six significant digits; None for non-finite values.
+fn significant(x: f64) -> Option<f64> {
+    if !x.is_finite() {
+        return None;
+    }
+    format!("{x:.5e}").parse().ok()
 }

@@ -28,6 +28,7 @@
 //! | `rule_set` | string | version of the fragment rule set used |
 //! | `sites` | array | acidic sites, ranked most acidic first (see [`SiteOut`]) |
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
+//! | `advice_note` | string | only when `advice` is null: why |
 //! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number |
 //! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given |
 //!
@@ -66,6 +67,10 @@ pub struct Record {
     /// `Some(None)` serializes as `"advice": null` (no target site).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub advice: Option<Option<AdviceOut>>,
+    /// Why `advice` is null (no site with an estimate, `--site` atom not
+    /// acidic); absent when there is advice.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub advice_note: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub mapped_smiles: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
@@ -89,6 +94,7 @@ impl Record {
             rule_set: None,
             sites: None,
             advice: None,
+            advice_note: None,
             mapped_smiles: None,
             flags: None,
             error: Some(error),
@@ -176,30 +182,103 @@ pub struct RuleOut {
 pub struct AdviceOut {
     /// Atoms of the target site.
     pub target: Vec<usize>,
-    /// Recommended base (short trade name), or null when no catalogue base fits.
+    /// How the target was chosen (default most acidic C–H, or `--site`).
+    pub target_note: String,
+    /// Recommended (or requested) base, short trade name; null when no
+    /// catalogue base qualifies.
     pub base: Option<String>,
-    /// Equivalents of base per equivalent of substrate.
+    /// Equivalents of base per equivalent of substrate (protons removed
+    /// before the target counted, plus the stated practical excess).
     pub equivalents: Option<f64>,
+    /// How the equivalents were reached.
+    pub equivalents_note: String,
+    /// Protons the base removes before the target.
+    pub counted: Vec<CountedOut>,
     /// Predicted fraction of the target deprotonated at equilibrium (0..1).
     pub conversion: Option<f64>,
     pub solvent: Option<String>,
+    /// Temperature to start at, °C (low end of `temperature_range_c`).
     pub temperature_c: Option<f64>,
-    /// pKa scale the comparison used: `"dmso"` or `"water"`.
+    /// Usual working range, °C: `[low, high]`.
+    pub temperature_range_c: Option<[f64; 2]>,
+    /// pKa scale the comparison used: `"dmso"`, `"water"` or `"thf"`.
     pub scale: Option<String>,
+    /// Why that scale, with the base's conjugate-acid pKa and its source.
+    pub scale_note: String,
     /// Other acceptable bases, best first.
-    pub alternatives: Vec<String>,
+    pub alternatives: Vec<AlternativeOut>,
     /// Bases ruled out, each with its reason.
     pub rejected: Vec<RejectedOut>,
     /// Chemistry warnings (side reactions, selectivity, proton counting).
     pub warnings: Vec<String>,
-    /// Safety cautions for hazardous reagents.
-    pub cautions: Vec<String>,
+    /// Kinetic and thermodynamic conditions for an unsymmetrical ketone.
+    pub regio_conditions: Option<RegioOut>,
+    /// Safety cautions for the hazardous reagents named (recommended base
+    /// first), each closing with the deferral to local regulations, the
+    /// safety data sheet and the judgement of qualified chemists.
+    pub cautions: Vec<CautionOut>,
+    /// Version of the base catalogue used.
+    pub catalogue: String,
+}
+
+/// A safety caution for one reagent.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct CautionOut {
+    /// Reagent named (or "all reagents named" for the general caution).
+    pub reagent: String,
+    /// Hazard codes: `pyrophoric`, `water-reactive`, `hydrogen-evolution`,
+    /// `corrosive`, `toxic`, `cryogenic`, `flammable`, `irritant`.
+    pub hazards: Vec<String>,
+    /// Full text, ending with the deferral.
+    pub text: String,
+}
+
+/// A proton removed before the target.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct CountedOut {
+    pub atoms: Vec<usize>,
+    pub class: String,
+    pub protons: usize,
+    pub reason: String,
+}
+
+/// An acceptable base other than the recommendation.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct AlternativeOut {
+    pub base: String,
+    pub equivalents: f64,
+    pub conversion: f64,
+    pub solvent: String,
+    pub temperature_range_c: [f64; 2],
+    pub note: String,
+}
+
+/// Conditions for each side of an unsymmetrical ketone.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RegioOut {
+    pub kinetic: RegioSideOut,
+    pub thermodynamic: RegioSideOut,
+}
+
+/// Conditions favouring one enolate side.
+#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+pub struct RegioSideOut {
+    pub base: String,
+    pub equivalents: f64,
+    pub solvent: String,
+    pub temperature_range_c: [f64; 2],
+    pub procedure: String,
+    /// Atoms of the α-carbon this side deprotonates.
+    pub favours: Vec<usize>,
 }
 
 /// A base ruled out, with the reason.
 #[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
 pub struct RejectedOut {
     pub base: String,
+    /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
+    /// `hydrolysis`, `uncounted-proton`, `no-comparable-pka`.
+    pub kind: String,
     pub reason: String,
 }
 

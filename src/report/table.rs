@@ -3,7 +3,8 @@
 //! two never disagree.
 
 use super::analyze::Scale;
-use super::record::Record;
+use super::record::{CautionOut, Record};
+use crate::advice::DEFERRAL;
 use std::fmt::Write;
 
 /// Render one record as the scan report.
@@ -145,7 +146,8 @@ pub fn render(rec: &Record, scale: Scale) -> String {
     let _ = writeln!(o);
     match rec.advice.as_ref().and_then(|a| a.as_ref()) {
         None => {
-            let _ = writeln!(o, "   advice         none (no site to target)");
+            let why = rec.advice_note.as_deref().unwrap_or("no site to target");
+            let _ = writeln!(o, "   advice         none: {why}");
         }
         Some(a) => {
             let target = a
@@ -154,7 +156,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                 .map(|t| t.to_string())
                 .collect::<Vec<_>>()
                 .join(",");
-            let _ = writeln!(o, "   advice for atom {target}");
+            let _ = writeln!(o, "   advice for atom {target}  ({})", a.target_note);
             match &a.base {
                 Some(b) => {
                     let eq = a
@@ -170,45 +172,171 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     );
                 }
             }
+            if !a.equivalents_note.is_empty() {
+                wrap(
+                    &mut o,
+                    &a.equivalents_note,
+                    "                  = ",
+                    "                    ",
+                );
+            }
+            for c in &a.counted {
+                let atoms = c
+                    .atoms
+                    .iter()
+                    .map(|t| t.to_string())
+                    .collect::<Vec<_>>()
+                    .join(",");
+                wrap(
+                    &mut o,
+                    &format!(
+                        "{} H on atom {atoms} ({}) goes first: {}",
+                        c.protons, c.class, c.reason
+                    ),
+                    "                  + ",
+                    "                    ",
+                );
+            }
             if let Some(s) = &a.solvent {
                 let _ = writeln!(o, "   solvent        {s}");
             }
-            if let Some(t) = a.temperature_c {
-                let _ = writeln!(o, "   temperature    {t} °C");
+            if let Some(range) = a.temperature_range_c {
+                let _ = writeln!(o, "   temperature    {}", temps(range));
             }
             if let Some(c) = a.conversion {
-                let scale = a
-                    .scale
-                    .as_deref()
-                    .map(|s| format!(" ({s} pKa values)"))
-                    .unwrap_or_default();
                 let _ = writeln!(
                     o,
-                    "   at equilibrium {} of the target deprotonated{scale}",
+                    "   at equilibrium {} of the target deprotonated",
                     percent(c)
                 );
             }
+            if !a.scale_note.is_empty() {
+                wrap(
+                    &mut o,
+                    &a.scale_note,
+                    "   pKa basis      ",
+                    "                  ",
+                );
+            }
+            if let Some(r) = &a.regio_conditions {
+                let _ = writeln!(o, "   enolate side");
+                for (label, side) in [("kinetic", &r.kinetic), ("thermodynamic", &r.thermodynamic)]
+                {
+                    let fav = side
+                        .favours
+                        .iter()
+                        .map(|t| t.to_string())
+                        .collect::<Vec<_>>()
+                        .join(",");
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "{label} (atom {fav}): {} {:.2} equiv, {}, {}. {}",
+                            side.base,
+                            side.equivalents,
+                            side.solvent,
+                            temps(side.temperature_range_c),
+                            side.procedure
+                        ),
+                        "     > ",
+                        "       ",
+                    );
+                }
+            }
             if !a.alternatives.is_empty() {
-                let _ = writeln!(o, "   also suitable  {}", a.alternatives.join(", "));
+                let _ = writeln!(o, "   also suitable");
+                for x in &a.alternatives {
+                    let note = if x.note.is_empty() {
+                        String::new()
+                    } else {
+                        format!(" ({})", x.note)
+                    };
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "{} {:.2} equiv in {}, {} at equilibrium{note}",
+                            x.base,
+                            x.equivalents,
+                            x.solvent,
+                            percent(x.conversion)
+                        ),
+                        "     + ",
+                        "       ",
+                    );
+                }
             }
             if !a.rejected.is_empty() {
                 let _ = writeln!(o, "   ruled out");
-                for r in &a.rejected {
-                    let _ = writeln!(o, "     - {}: {}", r.base, r.reason);
+                for r in a.rejected.iter().filter(|r| r.kind != "too-weak") {
+                    wrap(
+                        &mut o,
+                        &format!("{}: {}", r.base, r.reason),
+                        "     - ",
+                        "       ",
+                    );
+                }
+                let weak: Vec<&str> = a
+                    .rejected
+                    .iter()
+                    .filter(|r| r.kind == "too-weak")
+                    .map(|r| r.base.as_str())
+                    .collect();
+                if !weak.is_empty() {
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "too weak to deprotonate the target to 99 % at equilibrium: {} (details in --json)",
+                            weak.join(", ")
+                        ),
+                        "     - ",
+                        "       ",
+                    );
                 }
             }
             if !a.warnings.is_empty() {
                 let _ = writeln!(o, "   watch out");
                 for w in &a.warnings {
-                    let _ = writeln!(o, "     ! {w}");
+                    wrap(&mut o, w, "     ! ", "       ");
                 }
             }
             if !a.cautions.is_empty() {
                 let _ = writeln!(o);
                 let _ = writeln!(o, "   SAFETY");
-                for c in &a.cautions {
-                    let _ = writeln!(o, "     * {c}");
+                // The recommended base in full; other reagents by their hazards
+                // (full texts in --json); the closing deferral once.
+                let text = |c: &CautionOut| {
+                    c.text
+                        .strip_suffix(DEFERRAL)
+                        .unwrap_or(&c.text)
+                        .trim_end()
+                        .to_string()
+                };
+                let is_base = |c: &CautionOut| Some(&c.reagent) == a.base.as_ref();
+                for c in a.cautions.iter().filter(|c| is_base(c)) {
+                    wrap(&mut o, &text(c), "     * ", "       ");
                 }
+                let short: Vec<String> = a
+                    .cautions
+                    .iter()
+                    .filter(|c| !is_base(c) && !c.hazards.is_empty())
+                    .map(|c| format!("{} ({})", c.reagent, c.hazards.join(", ")))
+                    .collect();
+                if !short.is_empty() {
+                    wrap(
+                        &mut o,
+                        &format!("also named here: {}", short.join("; ")),
+                        "     * ",
+                        "       ",
+                    );
+                }
+                for c in a
+                    .cautions
+                    .iter()
+                    .filter(|c| !is_base(c) && c.hazards.is_empty())
+                {
+                    wrap(&mut o, &text(c), "     * ", "       ");
+                }
+                wrap(&mut o, DEFERRAL, "     ", "     ");
             }
         }
     }
@@ -221,6 +349,40 @@ pub fn render(rec: &Record, scale: Scale) -> String {
         let _ = writeln!(o, "   flags          {}", list.join("  "));
     }
     o
+}
+
+/// Width the report is wrapped to.
+const WIDTH: usize = 100;
+
+/// Append `text` word-wrapped to [`WIDTH`], the first line after `first`,
+/// the others after `rest`.
+fn wrap(o: &mut String, text: &str, first: &str, rest: &str) {
+    let mut line = String::from(first);
+    let mut empty = true;
+    for word in text.split_whitespace() {
+        let len = line.chars().count();
+        if !empty && len + 1 + word.chars().count() > WIDTH {
+            o.push_str(line.trim_end());
+            o.push('\n');
+            line = String::from(rest);
+            empty = true;
+        }
+        if !empty {
+            line.push(' ');
+        }
+        line.push_str(word);
+        empty = false;
+    }
+    o.push_str(line.trim_end());
+    o.push('\n');
+}
+
+fn temps([lo, hi]: [f64; 2]) -> String {
+    if lo == hi {
+        format!("{lo} °C")
+    } else {
+        format!("{lo} to {hi} °C, start at the low end")
+    }
 }
 
 fn pka(x: Option<f64>) -> String {
@@ -239,8 +401,10 @@ fn charge(c: i32) -> String {
 
 fn percent(c: f64) -> String {
     let p = c * 100.0;
-    if p >= 99.99 {
-        format!("{p:.3} %")
+    if p >= 99.995 {
+        "> 99.99 %".to_string()
+    } else if p >= 99.0 {
+        format!("{p:.2} %")
     } else if p >= 1.0 {
         format!("{p:.1} %")
     } else {
