@@ -94,6 +94,7 @@ struct Context_ {
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let started = Instant::now();
+    super::check_base(args.base.as_deref())?;
     let path = args.input.clone().filter(|p| p.as_os_str() != "-");
     let format = args.input_format.unwrap_or_else(|| match &path {
         Some(p) => InputFormat::from_path(p),

@@ -49,3 +49,15 @@ impl From<ScaleArg> for Scale {
 pub fn parse_flag(spec: &str) -> Result<Flag, String> {
     Flag::parse(spec).map_err(|e| e.to_string())
 }
+
+/// Refuse an unknown `--base` before any work (a bad option: exit 2).
+pub fn check_base(name: Option<&str>) -> anyhow::Result<()> {
+    if let Some(n) = name {
+        let cat = acidsite::advice::catalogue()
+            .map_err(|e| anyhow::anyhow!("the embedded base catalogue is invalid: {e}"))?;
+        if cat.get(n).is_none() {
+            anyhow::bail!("no base named {n:?} in the catalogue (run `acidsite bases`)");
+        }
+    }
+    Ok(())
+}
