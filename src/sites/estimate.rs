@@ -343,6 +343,11 @@ fn estimate_atom(
             }
         }
     }
+    // Contributions are rounded first so that the listed values add up.
+    for u in &mut uses {
+        u.dmso = u.dmso.map(round2);
+        u.water = u.water.map(round2);
+    }
     let mut dmso = Some(0.0);
     let mut water = Some(0.0);
     for u in &uses {
