@@ -314,72 +314,86 @@ impl Default for EquilibriumOptions {
     }
 }
 
-/// Scale choice for a base and a set of sites in a solvent:
-/// the water scale when the solvent is the base's own protic conjugate acid
-/// (the nearest guide for a hydroxylic medium); otherwise DMSO when the base
-/// and the sites have DMSO values; then water; then the base's THF value
-/// against the sites' DMSO values (an approximation, said in the notes).
-/// Returns (scale for the sites, base pKa, note).
+/// Extra uncertainty (pKa units) when a base's THF value stands in for its
+/// DMSO value.
+pub const THF_FOR_DMSO_UNCERTAINTY: f64 = 2.0;
+/// Extra uncertainty when a base's DMSO or THF value is compared with a
+/// site's water value (carbon acids differ by several units between them).
+pub const CROSS_SCALE_UNCERTAINTY: f64 = 4.0;
+
+/// The pKa scale used for one base against the sites.
+#[derive(Debug, Clone, PartialEq)]
+pub(crate) struct ScaleChoice {
+    /// Scale of the site values.
+    pub site_scale: Scale,
+    /// Conjugate-acid pKa used (possibly from another scale).
+    pub base_pka: f64,
+    pub note: String,
+    /// Extra uncertainty from comparing values of different scales.
+    pub mismatch: f64,
+}
+
+/// Scale choice for a base and a set of sites in a solvent, in order:
+/// a requested scale; the water scale when the solvent is the base's own
+/// protic conjugate acid (the nearer guide in a hydroxylic medium); DMSO
+/// when base and sites have DMSO values; water when both have water values;
+/// the base's THF value against DMSO site values; finally the base's DMSO
+/// (or THF) value against water site values. Mixed comparisons say so in
+/// the note and carry an extra uncertainty.
 pub(crate) fn choose_scale(
     base: &Base,
     protic: bool,
     forced: Option<Scale>,
     site_has: impl Fn(Scale) -> bool,
-) -> Option<(Scale, f64, String)> {
+) -> Option<ScaleChoice> {
     let src = |s: Scale| base.pka_source(s).unwrap_or("-").to_string();
+    let same = |sc: Scale, p: f64, why: &str| ScaleChoice {
+        site_scale: sc,
+        base_pka: p,
+        note: format!("{} scale{why} ({} conjugate acid pKa {p}, {})", sc.name(), base.name, src(sc)),
+        mismatch: 0.0,
+    };
     if let Some(f) = forced {
-        if let Some(p) = base.pka(f) {
-            if site_has(f) {
-                return Some((
-                    f,
-                    p,
-                    format!(
-                        "{} scale as requested ({} pKa {p}, {})",
-                        f.name(),
-                        base.name,
-                        src(f)
-                    ),
-                ));
-            }
+        if let (Some(p), true) = (base.pka(f), site_has(f)) {
+            return Some(same(f, p, " as requested"));
         }
     }
     if protic {
         if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {
-            return Some((
-                Scale::Water,
-                p,
-                format!(
-                    "water scale, the nearer guide in a protic solvent ({} conjugate acid pKa {p}, {})",
-                    base.name,
-                    src(Scale::Water)
-                ),
-            ));
+            return Some(same(Scale::Water, p, ", the nearer guide in a protic solvent"));
         }
     }
     for sc in [Scale::Dmso, Scale::Water] {
         if let (Some(p), true) = (base.pka(sc), site_has(sc)) {
-            return Some((
-                sc,
-                p,
-                format!(
-                    "{} scale ({} conjugate acid pKa {p}, {})",
+            return Some(same(sc, p, ""));
+        }
+    }
+    if let (Some(p), true) = (base.pka(Scale::Thf), site_has(Scale::Dmso)) {
+        return Some(ScaleChoice {
+            site_scale: Scale::Dmso,
+            base_pka: p,
+            note: format!(
+                "no DMSO value for {}: its THF value {p} ({}) is compared with DMSO values of the sites (approximate)",
+                base.name,
+                src(Scale::Thf)
+            ),
+            mismatch: THF_FOR_DMSO_UNCERTAINTY,
+        });
+    }
+    for sc in [Scale::Dmso, Scale::Thf] {
+        if let (Some(p), true) = (base.pka(sc), site_has(Scale::Water)) {
+            return Some(ScaleChoice {
+                site_scale: Scale::Water,
+                base_pka: p,
+                note: format!(
+                    "no common scale: the {} value {p} of {} ({}) is compared with water values of the sites (rough; carbon acids differ by several units between the scales)",
                     sc.name(),
                     base.name,
                     src(sc)
                 ),
-            ));
+                mismatch: CROSS_SCALE_UNCERTAINTY,
+            });
         }
-    }
-    if let (Some(p), true) = (base.pka(Scale::Thf), site_has(Scale::Dmso)) {
-        return Some((
-            Scale::Dmso,
-            p,
-            format!(
-                "no DMSO value for {}: its THF value {p} ({}) is compared with the sites' DMSO values (approximate; ion-pair scale)",
-                base.name,
-                src(Scale::Thf)
-            ),
-        ));
     }
     None
 }
@@ -423,9 +437,10 @@ pub(crate) fn solve_for_base(
             Scale::Thf => false,
         })
     };
-    let (scale, base_pka, note) = choose_scale(base, protic.is_some(), opts.scale, site_has)
+    let choice = choose_scale(base, protic.is_some(), opts.scale, site_has)
         .ok_or_else(|| EquilibriumError::NoCommonScale(base.name.clone()))?;
-    notes.push(note);
+    let (scale, base_pka) = (choice.site_scale, choice.base_pka);
+    notes.push(choice.note);
     let units = site_units(sites, site_unit, scale, &mut notes);
     if units.is_empty() {
         return Err(EquilibriumError::NoSites);

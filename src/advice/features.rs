@@ -2,11 +2,16 @@
 //! the detection method (graph walks today, SMARTS patterns when the
 //! pattern matcher is available) can change without touching the advice.
 //!
+//! Functional groups, β-leaving groups and 1,3-dicarbonyl sites are found
+//! with SMARTS patterns ([`crate::smarts::Pattern`]); stereocentres and the
+//! grouping of alternative sites use a short walk over the bond graph.
 //! Everything here is plain data and can be built by hand in tests.
 
 use super::catalogue::Scale;
 use super::equilibrium::{AcidUnit, Microsite};
 use crate::mol::{BondOrder, Molecule};
+use crate::smarts::{Pattern, Target as SmartsTarget};
+use std::sync::OnceLock;
 use crate::sites::SiteReport;
 
 /// Facts about the molecule as a whole and about each site.
@@ -49,9 +54,6 @@ pub struct SiteFeatures {
 }
 
 const C: u8 = 6;
-const N: u8 = 7;
-const O: u8 = 8;
-const S: u8 = 16;
 
 struct Graph<'a> {
     mol: &'a Molecule,
@@ -95,37 +97,10 @@ impl<'a> Graph<'a> {
     fn aromatic(&self, i: usize) -> bool {
         self.mol.atoms.get(i).map(|a| a.aromatic).unwrap_or(false)
     }
-    /// C=O carbon (exocyclic double bond to O, not aromatic).
-    fn is_carbonyl(&self, i: usize) -> bool {
-        self.el(i) == C
-            && self
-                .nbrs(i)
-                .iter()
-                .any(|&(j, b)| self.el(j) == O && self.order(b) == 2)
-    }
-    fn single_o(&self, i: usize) -> impl Iterator<Item = usize> + '_ {
-        self.nbrs(i)
-            .iter()
-            .filter(move |&&(j, b)| self.el(j) == O && self.order(b) == 1)
-            .map(|&(j, _)| j)
-    }
     fn is_sp3_carbon(&self, i: usize) -> bool {
         self.el(i) == C
             && !self.aromatic(i)
             && self.nbrs(i).iter().all(|&(_, b)| self.order(b) == 1)
-    }
-    fn is_halogen(el: u8) -> bool {
-        matches!(el, 9 | 17 | 35 | 53)
-    }
-    /// Sulfonyl sulfur: S with two S=O.
-    fn is_sulfonyl(&self, i: usize) -> bool {
-        self.el(i) == S
-            && self
-                .nbrs(i)
-                .iter()
-                .filter(|&&(j, b)| self.el(j) == O && self.order(b) == 2)
-                .count()
-                >= 2
     }
 
     /// Bounded environment signature of the branch entered from `parent` at `atom`.
@@ -155,78 +130,122 @@ impl<'a> Graph<'a> {
     }
 }
 
-/// Gather the features of `mol` for the sites of `sites`.
+/// SMARTS patterns for the molecule-wide groups (name, pattern).
+const GROUP_PATTERNS: [(&str, &str); 14] = [
+    ("ketone", "[#6][CX3](=O)[#6]"),
+    ("aldehyde", "[CX3H1](=O)[#6]"),
+    ("aldehyde", "[CH2X3]=O"),
+    ("ester", "[CX3;!$(C[#7])](=O)[OX2][#6;!$([#6]=O)]"),
+    ("carboxylic_acid", "[CX3](=O)[OX2H1]"),
+    ("amide", "[CX3](=O)[#7]"),
+    ("nitrile", "[CX2]#[NX1]"),
+    ("acyl_halide", "[CX3](=O)[F,Cl,Br,I]"),
+    ("anhydride", "[CX3](=O)[OX2][CX3]=O"),
+    ("alkyl_halide", "[CX4][Cl,Br,I]"),
+    ("alkyl_halide", "[CX4][OX2][SX4](=O)=O"),
+    ("nitro", "[#6][N+](=O)[O-]"),
+    ("nitro", "[#6]N(=O)=O"),
+    ("ester_alkoxy", "[CX3;!$(C[#7])](=O)[OX2:1][#6;!$([#6]=O)]"),
+];
+
+/// Alkoxy groups of esters, anchored on the ester oxygen.
+const ALKOXY_PATTERNS: [(&str, &str); 6] = [
+    ("methyl", "[OX2:1]([CH3])[CX3]=O"),
+    ("ethyl", "[OX2:1]([CH2][CH3])[CX3]=O"),
+    ("isopropyl", "[OX2:1]([CH1]([CH3])[CH3])[CX3]=O"),
+    ("tert-butyl", "[OX2:1](C([CH3])([CH3])[CH3])[CX3]=O"),
+    ("benzyl", "[OX2:1]([CH2]c)[CX3]=O"),
+    ("aryl", "[OX2:1](c)[CX3]=O"),
+];
+
+/// Leaving groups on the carbon next to a site carbon (anchored on the site).
+const BETA_LG_PATTERNS: [(&str, &str); 9] = [
+    ("fluoride", "[#6:1]-[CX4]-F"),
+    ("chloride", "[#6:1]-[CX4]-Cl"),
+    ("bromide", "[#6:1]-[CX4]-Br"),
+    ("iodide", "[#6:1]-[CX4]-I"),
+    ("sulfonate", "[#6:1]-[CX4]-[OX2]-[SX4](=O)=O"),
+    ("acyloxy", "[#6:1]-[CX4]-[OX2]-[CX3]=O"),
+    ("alkoxy/hydroxy", "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]"),
+    ("ammonium", "[#6:1]-[CX4]-[NX4+]"),
+    ("sulfonyl", "[#6:1]-[CX4]-[SX4](=O)(=O)[#6]"),
+];
+
+const DICARBONYL_PATTERN: &str = "[#6:1]([CX3]=O)[CX3]=O";
+
+struct Compiled {
+    groups: Vec<(&'static str, Pattern)>,
+    alkoxy: Vec<(&'static str, Pattern)>,
+    beta: Vec<(&'static str, Pattern)>,
+    dicarbonyl: Option<Pattern>,
+}
+
+fn compiled() -> &'static Compiled {
+    static CELL: OnceLock<Compiled> = OnceLock::new();
+    CELL.get_or_init(|| {
+        let list = |v: &[(&'static str, &'static str)]| {
+            v.iter()
+                .filter_map(|(n, p)| Pattern::parse(p).ok().map(|pat| (*n, pat)))
+                .collect::<Vec<_>>()
+        };
+        Compiled {
+            groups: list(&GROUP_PATTERNS),
+            alkoxy: list(&ALKOXY_PATTERNS),
+            beta: list(&BETA_LG_PATTERNS),
+            dicarbonyl: Pattern::parse(DICARBONYL_PATTERN).ok(),
+        }
+    })
+}
+
+/// Every SMARTS pattern used here parses (checked by a test).
+pub fn patterns_all_parse() -> Result<(), crate::smarts::PatternError> {
+    for (_, p) in GROUP_PATTERNS
+        .iter()
+        .chain(ALKOXY_PATTERNS.iter())
+        .chain(BETA_LG_PATTERNS.iter())
+    {
+        Pattern::parse(p)?;
+    }
+    Pattern::parse(DICARBONYL_PATTERN).map(|_| ())
+}
+
+/// Gather the features of `mol` for the sites of `sites`: functional groups
+/// by SMARTS pattern, per-site facts, and the grouping of alternative sites.
 pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
     let g = Graph::new(mol);
-    let n = mol.atoms.len();
+    let pats = compiled();
+    let target = SmartsTarget::new(mol);
     let mut f = MoleculeFeatures::default();
-    for i in 0..n {
-        let el = g.el(i);
-        if el == C && g.is_carbonyl(i) {
-            let nb = g.nbrs(i);
-            let carbons = nb
-                .iter()
-                .filter(|&&(j, b)| g.el(j) == C && g.order(b) == 1)
-                .count();
-            let has_n = nb.iter().any(|&(j, _)| g.el(j) == N);
-            let halide = nb.iter().any(|&(j, _)| Graph::is_halogen(g.el(j)));
-            let mut ester_like = false;
-            for o in g.single_o(i) {
-                let others: Vec<usize> = g
-                    .nbrs(o)
+    for (name, p) in &pats.groups {
+        if *name == "ester_alkoxy" {
+            let oxygen = p.anchor().unwrap_or(0);
+            for m in p.unique_matches_in(&target) {
+                let Some(&o) = m.get(oxygen) else { continue };
+                let kind = pats
+                    .alkoxy
                     .iter()
-                    .map(|&(k, _)| k)
-                    .filter(|&k| k != i)
-                    .collect();
-                if others.is_empty() {
-                    if g.h(o) > 0 && !has_n {
-                        f.carboxylic_acid = true;
-                    }
-                } else if others.iter().any(|&k| g.is_carbonyl(k)) {
-                    f.anhydride = true;
-                } else if let Some(&k) = others.iter().find(|&&k| g.el(k) == C) {
-                    ester_like = true;
-                    if !has_n {
-                        f.ester = true;
-                        f.ester_alkoxy.push(alkoxy_name(&g, k));
-                    }
-                }
+                    .find(|(_, a)| a.matches_at_in(&target, o).is_some())
+                    .map(|(n, _)| *n)
+                    .unwrap_or("other");
+                f.ester_alkoxy.push(kind.to_string());
             }
-            if halide {
-                f.acyl_halide = true;
-            } else if has_n {
-                f.amide = true;
-            } else if !ester_like && g.single_o(i).next().is_none() {
-                if carbons >= 2 {
-                    f.ketone = true;
-                } else if g.h(i) >= 1 {
-                    f.aldehyde = true;
-                }
-            }
+            continue;
         }
-        if el == C
-            && g.nbrs(i)
-                .iter()
-                .any(|&(j, b)| g.el(j) == N && g.order(b) == 3)
-        {
-            f.nitrile = true;
+        if !p.is_match_in(&target) {
+            continue;
         }
-        if el == N
-            && g.nbrs(i).iter().filter(|&&(j, _)| g.el(j) == O).count() >= 2
-            && g.nbrs(i).iter().any(|&(j, _)| g.el(j) == C)
-        {
-            f.nitro = true;
-        }
-        if g.is_sp3_carbon(i) {
-            for &(j, _) in g.nbrs(i) {
-                let ej = g.el(j);
-                if matches!(ej, 17 | 35 | 53) {
-                    f.alkyl_halide = true;
-                }
-                if ej == O && g.nbrs(j).iter().any(|&(k, _)| k != i && g.is_sulfonyl(k)) {
-                    f.alkyl_halide = true;
-                }
-            }
+        match *name {
+            "ketone" => f.ketone = true,
+            "aldehyde" => f.aldehyde = true,
+            "ester" => f.ester = true,
+            "carboxylic_acid" => f.carboxylic_acid = true,
+            "amide" => f.amide = true,
+            "nitrile" => f.nitrile = true,
+            "acyl_halide" => f.acyl_halide = true,
+            "anhydride" => f.anhydride = true,
+            "alkyl_halide" => f.alkyl_halide = true,
+            "nitro" => f.nitro = true,
+            _ => {}
         }
     }
     f.ester_alkoxy.sort();
@@ -237,18 +256,23 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
         if site.is_carbon() {
             for &t in &site.atoms {
                 if sf.beta_leaving_group.is_none() {
-                    sf.beta_leaving_group = beta_leaving_group(&g, t);
+                    sf.beta_leaving_group = pats
+                        .beta
+                        .iter()
+                        .find(|(_, p)| p.matches_at_in(&target, t).is_some())
+                        .map(|(n, _)| n.to_string());
                 }
-                let carbonyls = g.nbrs(t).iter().filter(|&&(j, _)| g.is_carbonyl(j)).count();
-                if carbonyls >= 2 {
+                if pats
+                    .dicarbonyl
+                    .as_ref()
+                    .map(|p| p.matches_at_in(&target, t).is_some())
+                    .unwrap_or(false)
+                {
                     sf.dicarbonyl = true;
                 }
                 if g.h(t) == 1 && g.is_sp3_carbon(t) && g.nbrs(t).len() == 3 {
-                    let mut sigs: Vec<String> = g
-                        .nbrs(t)
-                        .iter()
-                        .map(|&(j, _)| g.signature(j, t, 4))
-                        .collect();
+                    let mut sigs: Vec<String> =
+                        g.nbrs(t).iter().map(|&(j, _)| g.signature(j, t, 4)).collect();
                     sigs.sort();
                     sigs.dedup();
                     if sigs.len() == 3 {
@@ -261,85 +285,6 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
     }
     f.site_unit = group_units(&g, sites);
     f
-}
-
-fn alkoxy_name(g: &Graph, k: usize) -> String {
-    let carbons: Vec<usize> = g
-        .nbrs(k)
-        .iter()
-        .map(|&(j, _)| j)
-        .filter(|&j| g.el(j) == C)
-        .collect();
-    let heavy = g.nbrs(k).len();
-    if g.aromatic(k) {
-        return "aryl".into();
-    }
-    match (g.h(k), heavy) {
-        (3, 1) => "methyl".into(),
-        (2, 2) if carbons.len() == 1 => {
-            let other = carbons
-                .iter()
-                .find(|&&c| g.nbrs(c).iter().all(|&(x, _)| x == k || g.el(x) != O));
-            match other {
-                Some(&c) if g.h(c) == 3 && g.nbrs(c).len() == 1 => "ethyl".into(),
-                Some(&c) if g.aromatic(c) => "benzyl".into(),
-                _ => "other".into(),
-            }
-        }
-        (1, 3) if carbons.len() == 2 && carbons.iter().filter(|&&c| g.h(c) == 3).count() == 2 => {
-            "isopropyl".into()
-        }
-        (0, 4)
-            if carbons
-                .iter()
-                .filter(|&&c| g.h(c) == 3 && g.nbrs(c).len() == 1)
-                .count()
-                == 3 =>
-        {
-            "tert-butyl".into()
-        }
-        _ => "other".into(),
-    }
-}
-
-fn beta_leaving_group(g: &Graph, t: usize) -> Option<String> {
-    for &(a, b) in g.nbrs(t) {
-        if g.el(a) != C || g.order(b) != 1 || g.is_carbonyl(a) || !g.is_sp3_carbon(a) {
-            continue;
-        }
-        for &(x, _) in g.nbrs(a) {
-            if x == t {
-                continue;
-            }
-            let ex = g.el(x);
-            let name = match ex {
-                9 => Some("fluoride"),
-                17 => Some("chloride"),
-                35 => Some("bromide"),
-                53 => Some("iodide"),
-                O => {
-                    if g.nbrs(x).iter().any(|&(k, _)| k != a && g.is_sulfonyl(k)) {
-                        Some("sulfonate")
-                    } else if g.nbrs(x).iter().any(|&(k, _)| k != a && g.is_carbonyl(k)) {
-                        Some("acyloxy")
-                    } else {
-                        Some("alkoxy/hydroxy")
-                    }
-                }
-                N if g.mol.atoms.get(x).map(|a| a.charge > 0).unwrap_or(false)
-                    && g.nbrs(x).iter().all(|&(k, _)| g.el(k) == C) =>
-                {
-                    Some("ammonium")
-                }
-                S if g.is_sulfonyl(x) => Some("sulfonyl"),
-                _ => None,
-            };
-            if let Some(nm) = name {
-                return Some(nm.to_string());
-            }
-        }
-    }
-    None
 }
 
 fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {

@@ -29,7 +29,7 @@ pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
     EquilibriumOptions, Microsite, SiteFraction,
 };
-pub use features::{detect_features, MoleculeFeatures, SiteFeatures};
+pub use features::{detect_features, patterns_all_parse, MoleculeFeatures, SiteFeatures};
 pub use recommend::{
     advise, advise_with_features, Advice, AdviceError, AdviceOptions, Alternative, CountedProton,
     Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection, Target, Temperature, Warning,

@@ -5,7 +5,7 @@ use super::catalogue::{
     catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
 };
 use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
-use super::equilibrium::{choose_scale, solve, Equilibrium, EquilibriumInput};
+use super::equilibrium::{choose_scale, solve, Equilibrium, EquilibriumInput, ScaleChoice};
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
@@ -19,8 +19,11 @@ pub const MIN_CONVERSION: f64 = 0.99;
 /// In its own protic solvent (NaOEt in EtOH) the anion must at least be the
 /// major species at equilibrium; the electrophile pulls the rest over.
 pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
+/// A base that reaches [`MIN_CONVERSION`] only within the uncertainty of the
+/// estimates must still reach this at the central values (accepted as marginal).
+pub const MIN_MARGINAL_CONVERSION: f64 = 0.5;
 /// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
-pub const MIN_CATALYTIC_FRACTION: f64 = 1e-6;
+pub const MIN_CATALYTIC_FRACTION: f64 = 1e-7;
 /// Catalytic amount of base, equivalents (on top of counted protons).
 pub const CATALYTIC_EQUIVALENTS: f64 = 0.1;
 
@@ -123,6 +126,9 @@ pub enum RejectKind {
     Hydrolysis,
     UncountedProton,
     NoComparablePka,
+    /// Consumed irreversibly (organolithiums, metal amides, hydrides): a
+    /// stoichiometric reagent, not a catalyst.
+    NotCatalytic,
 }
 
 impl RejectKind {
@@ -134,6 +140,7 @@ impl RejectKind {
             RejectKind::Hydrolysis => "hydrolysis",
             RejectKind::UncountedProton => "uncounted-proton",
             RejectKind::NoComparablePka => "no-comparable-pka",
+            RejectKind::NotCatalytic => "not-catalytic",
         }
     }
 }
@@ -342,6 +349,8 @@ struct Eval<'a> {
     reasons: Vec<(RejectKind, String)>,
     notes: Vec<String>,
     score: f64,
+    marginal: bool,
+    no_solvent_check: bool,
 }
 
 struct Ctx<'a> {
@@ -473,6 +482,8 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         reasons: Vec::new(),
         notes: Vec::new(),
         score: 0.0,
+        marginal: false,
+        no_solvent_check: false,
     };
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
@@ -480,15 +491,16 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         Scale::Thf => false,
     };
     // Criterion scale: consistent, DMSO first.
-    let Some((scale, base_pka, note)) = choose_scale(base, false, opts.scale, target_has) else {
+    let Some(choice) = choose_scale(base, false, opts.scale, target_has) else {
         ev.reasons.push((
             RejectKind::NoComparablePka,
             "no pKa scale on which both this base and the target have values".into(),
         ));
         return ev;
     };
+    let (scale, base_pka, mismatch) = (choice.site_scale, choice.base_pka, choice.mismatch);
     ev.scale = Some(scale);
-    ev.scale_note = note;
+    ev.scale_note = choice.note;
     let Some(t_pka) = pka_on(t, scale) else {
         ev.reasons.push((
             RejectKind::NoComparablePka,
@@ -514,8 +526,18 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     ev.equilibrium = crit;
     // In the base's own protic solvent: water scale, solvent counted.
     if let Some(p) = protic_solvent {
-        if let Some((sc2, bp2, note2)) = choose_scale(base, true, None, target_has) {
-            if sc2 == Scale::Water {
+        let in_solvent = choose_scale(base, true, None, target_has)
+            .filter(|c| c.mismatch == 0.0 && c.site_scale == Scale::Water);
+        if in_solvent.is_none() {
+            ev.no_solvent_check = true;
+            ev.notes.push(format!(
+                "the target has no water-scale value, so the equilibrium in {} was not computed; the {} comparison overstates an alkoxide or hydroxide in its own solvent",
+                p.name,
+                scale.name()
+            ));
+        }
+        if let Some(ScaleChoice { site_scale: sc2, base_pka: bp2, note: note2, .. }) = in_solvent {
+            {
                 let mut n2 = Vec::new();
                 if let Some(mut e2) = solve_with(ctx, bp2, sc2, ev.equivalents, p.molar, &mut n2) {
                     let c2 = target_conversion(ctx, &e2);
@@ -561,7 +583,27 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
-            let weak_crit = crit_conv < MIN_CONVERSION;
+            let mut weak_crit = crit_conv < MIN_CONVERSION;
+            if weak_crit {
+                // Within the combined uncertainty of the target estimate and
+                // any scale mismatch?
+                let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
+                let mixed = mismatch > 0.0;
+                let mut n_opt = Vec::new();
+                let optimistic = solve_with(ctx, base_pka + sigma, scale, ev.equivalents, 0.0, &mut n_opt)
+                    .map(|e| target_conversion(ctx, &e))
+                    .unwrap_or(0.0);
+                if sigma > 0.0 && optimistic >= MIN_CONVERSION && crit_conv >= MIN_MARGINAL_CONVERSION {
+                    weak_crit = false;
+                    ev.marginal = true;
+                    ev.notes.push(format!(
+                        "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
+                        100.0 * crit_conv,
+                        100.0 * optimistic,
+                        if mixed { ", including the scale mismatch" } else { "" }
+                    ));
+                }
+            }
             let weak_solvent =
                 protic_solvent.is_some() && ev.conversion < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
@@ -606,6 +648,19 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
         }
         Purpose::Catalytic => {
+            if matches!(
+                base.family,
+                BaseFamily::LithiumAmide
+                    | BaseFamily::Silylamide
+                    | BaseFamily::Alkyllithium
+                    | BaseFamily::Hydride
+                    | BaseFamily::MetalAmide
+            ) {
+                ev.reasons.push((
+                    RejectKind::NotCatalytic,
+                    "a stoichiometric reagent that is consumed irreversibly; not used in catalytic amounts".into(),
+                ));
+            }
             if ev.conversion < MIN_CATALYTIC_FRACTION {
                 ev.reasons.push((
                     RejectKind::TooWeak,
@@ -653,6 +708,9 @@ fn side_reaction_checks(
             }
             if f.amide && attacks_all {
                 groups.push("amide");
+            }
+            if f.carboxylic_acid && fam == BaseFamily::Alkyllithium {
+                groups.push("carboxylate (ketone formation)");
             }
             if f.acyl_halide {
                 groups.push("acyl halide");
@@ -727,9 +785,19 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
     let mut s = 0.0;
+    if ev.marginal {
+        s += 2.5;
+    }
+    if ev.no_solvent_check {
+        s += 1.0;
+    }
     // Stronger than needed invites side reactions; keep a sensible margin.
     s += 0.1 * (margin - 8.0).max(0.0);
-    s += 0.2 * (3.0 - margin).max(0.0);
+    match ctx.opts.purpose {
+        Purpose::Stoichiometric => s += 0.2 * (3.0 - margin).max(0.0),
+        // A catalyst need not convert the substrate: prefer the mildest.
+        Purpose::Catalytic => s += 0.2 * (margin + 2.0).max(0.0),
+    }
     if b.has_hazard(Hazard::Pyrophoric) {
         s += 3.0;
     }
@@ -776,7 +844,9 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         s += 1.0;
     }
     if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
-        s -= 1.0;
+        // Amines and amidines are the usual catalytic bases; pyridines are
+        // acyl-transfer catalysts and weak Brønsted bases.
+        s -= if b.family == BaseFamily::Pyridine { -0.5 } else { 1.0 };
     }
     s
 }
@@ -914,7 +984,6 @@ pub fn advise_with_features(
     let alternatives: Vec<Alternative> = accepted
         .iter()
         .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
-        .take(6)
         .map(|e| Alternative {
             base: e.base.name.clone(),
             equivalents: e.equivalents,
@@ -1056,11 +1125,19 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
             "the molecule is an aldehyde: its enolate adds to unreacted aldehyde (self-aldol) faster than most electrophiles; use an enolate equivalent (enamine, imine anion, silyl enol ether) or add the aldehyde last and cold".into(),
         );
     }
-    if let Some(lg) = &sf.beta_leaving_group {
-        add(
-            WarningKind::BetaElimination,
-            format!("a {lg} leaving group sits on the carbon next to the target: the anion can expel it (E1cB elimination); keep cold and trap fast"),
-        );
+    for &i in &ctx.target_unit {
+        if let (Some(lg), Some(site)) = (
+            f.sites.get(i).and_then(|x| x.beta_leaving_group.as_ref()),
+            ctx.sites.sites.get(i),
+        ) {
+            add(
+                WarningKind::BetaElimination,
+                format!(
+                    "a leaving group ({lg}) sits on the carbon next to the acidic carbon at atoms {:?}: the anion there can expel it (E1cB elimination); keep cold, avoid equilibrating conditions and trap fast",
+                    site.atoms
+                ),
+            );
+        }
     }
     if sf.stereocentre {
         add(
@@ -1082,7 +1159,8 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
     }
     if let Some(e) = chosen {
         let dicarbonyl = sf.dicarbonyl;
-        if carbonyl_class(&t.class)
+        if t.is_carbon()
+            && carbonyl_class(&t.class)
             && !dicarbonyl
             && ctx.opts.purpose == Purpose::Stoichiometric
             && !matches!(
@@ -1096,14 +1174,19 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
             );
         }
         if e.conversion < MIN_CONVERSION && ctx.opts.purpose == Purpose::Stoichiometric {
-            add(
-                WarningKind::IncompleteEquilibrium,
+            let msg = if e.marginal {
                 format!(
-                    "only {:.1}% of the target is deprotonated at equilibrium in {}; the reaction relies on the electrophile consuming the anion",
+                    "{:.1}% of the target is deprotonated at the central pKa estimates and 99% is reached only within their uncertainty: check the conversion (for example by a deuterium quench of an aliquot) before adding the electrophile",
+                    100.0 * e.conversion
+                )
+            } else {
+                format!(
+                    "only {:.1}% of the target is deprotonated at equilibrium in {}; the reaction relies on the electrophile consuming the anion as it forms",
                     100.0 * e.conversion,
                     e.solvent
-                ),
-            );
+                )
+            };
+            add(WarningKind::IncompleteEquilibrium, msg);
         }
         if let (Some(sc), Some(t_pka)) = (e.scale, pka_on(t, e.scale.unwrap_or(Scale::Dmso))) {
             let bp = e
