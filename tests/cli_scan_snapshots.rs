@@ -62,8 +62,8 @@ fn scan_given_water_scale_and_chosen_base() {
 
 #[test]
 fn scan_given_chosen_site() {
-    // 2-butanone, target the methyl carbon (atom 0) instead of the default site.
-    insta::assert_snapshot!(scan(&["CC(=O)CC", "--site", "0"]));
+    // 2-butanone, target the CH2 (atom 3, the more substituted side) instead of the default site.
+    insta::assert_snapshot!(scan(&["CC(=O)CC", "--site", "3"]));
 }
 
 #[test]

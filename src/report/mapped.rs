@@ -138,7 +138,7 @@ mod tests {
     fn atom_mapped_smiles_given_aromatic_and_two_letter_symbols() {
         let s = atom_mapped_smiles("c1ccccc1CCl", &[label(9..11, false, 0, 3)]).unwrap();
         assert_eq!(s, "c1ccccc1C[Cl:3]");
-        let s = atom_mapped_smiles("c1ccccc1", &[label(1..2, false, 1, 1)]).unwrap();
+        let s = atom_mapped_smiles("c1ccccc1", &[label(2..3, false, 1, 1)]).unwrap();
         assert_eq!(s, "c1[cH:1]cccc1");
     }
 
