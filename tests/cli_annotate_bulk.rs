@@ -65,7 +65,7 @@ fn hostile(rng: &mut Rng, real: &[Vec<u8>], k: usize) -> Vec<u8> {
             .map(|_| 0x21 + rng.below(0x5e) as u8)
             .collect(),
         // mutated real SMILES
-        1 | 2 | 3 => mutate(rng, base),
+        1..=3 => mutate(rng, base),
         // NUL inside a SMILES
         4 => {
             let mut s = base.clone();

@@ -37,7 +37,7 @@ pub struct Args {
 
 fn percent(x: f64) -> String {
     let p = 100.0 * x;
-    if p >= 99.995 && p < 100.0 {
+    if (99.995..100.0).contains(&p) {
         "> 99.99 %".into()
     } else if p >= 0.01 || p == 0.0 {
         format!("{p:.2} %")
