@@ -76,7 +76,7 @@ pub(crate) fn perceive(
     let n = atoms.len();
     let mut atom_arom = vec![false; n];
     let mut bond_arom = vec![false; bonds.len()];
-    if rings.rings.is_empty() {
+    if rings.list.is_empty() {
         return (atom_arom, bond_arom);
     }
     // Donor types and candidacy, computed for ring atoms only.
@@ -90,12 +90,11 @@ pub(crate) fn perceive(
         cand[i] = is_candidate(i, donor[i], atoms, bonds, nb, facts);
     }
     // Candidate rings.
-    let cand_rings: Vec<usize> = (0..rings.rings.len())
-        .filter(|&r| {
-            let ring = &rings.rings[r];
-            ring.iter().all(|&a| cand[a]) && !ring.iter().all(|&a| atoms[a].element == 0)
-        })
-        .collect();
+    let mut cand_rings: Vec<usize> = Vec::with_capacity(rings.list.len());
+    cand_rings.extend((0..rings.list.len()).filter(|&r| {
+        let ring = rings.list.atoms(r);
+        ring.iter().all(|&a| cand[a]) && !ring.iter().all(|&a| atoms[a].element == 0)
+    }));
     if cand_rings.is_empty() {
         return (atom_arom, bond_arom);
     }
@@ -103,12 +102,12 @@ pub(crate) fn perceive(
     // Ring neighbour map: rings (up to 24 atoms) sharing exactly one bond.
     let mut neigh: Vec<Vec<usize>> = vec![Vec::new(); nc];
     for i in 0..nc {
-        let bi = &rings.ring_bonds[cand_rings[i]];
+        let bi = rings.list.bonds(cand_rings[i]);
         if bi.len() > 24 {
             continue;
         }
         for j in i + 1..nc {
-            let bj = &rings.ring_bonds[cand_rings[j]];
+            let bj = rings.list.bonds(cand_rings[j]);
             if bj.len() > 24 {
                 continue;
             }
@@ -120,10 +119,19 @@ pub(crate) fn perceive(
         }
     }
     let mut budget = MAX_RING_SETS;
+    let mut times = vec![0u8; n];
     // Fused systems: connected components of the neighbour map.
     let mut done = vec![false; nc];
     for start in 0..nc {
         if done[start] {
+            continue;
+        }
+        if neigh[start].is_empty() {
+            // A ring fused to no other candidate ring: tested alone.
+            done[start] = true;
+            if huckel(&[start], &cand_rings, rings, &donor, &mut times) {
+                mark(&[start], &cand_rings, rings, &mut atom_arom, &mut bond_arom);
+            }
             continue;
         }
         let mut system = Vec::new();
@@ -142,7 +150,7 @@ pub(crate) fn perceive(
         // Stop once every ring bond of the system is aromatic.
         let mut system_bond = vec![false; bonds.len()];
         for &k in &system {
-            for &b in &rings.ring_bonds[cand_rings[k]] {
+            for &b in rings.list.bonds(cand_rings[k]) {
                 system_bond[b] = true;
             }
         }
@@ -161,10 +169,10 @@ pub(crate) fn perceive(
                     break;
                 }
                 budget -= 1;
-                if huckel(set, &cand_rings, rings, &donor, n) {
+                if huckel(set, &cand_rings, rings, &donor, &mut times) {
                     mark(set, &cand_rings, rings, &mut atom_arom, &mut bond_arom);
                     for &k in set {
-                        for &b in &rings.ring_bonds[cand_rings[k]] {
+                        for &b in rings.list.bonds(cand_rings[k]) {
                             if bond_arom[b] && !done_bonds[b] {
                                 done_bonds[b] = true;
                                 n_done_bonds += 1;
@@ -210,34 +218,41 @@ fn huckel(
     cand_rings: &[usize],
     rings: &RingInfo,
     donor: &[Donor],
-    n: usize,
+    times: &mut [u8],
 ) -> bool {
-    let mut times = vec![0u8; n];
     for &k in set {
-        for &a in &rings.rings[cand_rings[k]] {
+        for &a in rings.list.atoms(cand_rings[k]) {
             times[a] = times[a].saturating_add(1);
         }
     }
     let (mut lo, mut hi) = (0i32, 0i32);
     let mut wildcards = 0;
-    for (a, &t) in times.iter().enumerate() {
-        if t == 0 || t > 2 {
-            continue;
-        }
-        if donor[a] == Donor::Any {
-            wildcards += 1;
-            if wildcards > 1 {
-                return false;
+    let mut result = None;
+    for &k in set {
+        for &a in rings.list.atoms(cand_rings[k]) {
+            let t = times[a];
+            times[a] = 0; // count each atom once and leave the buffer clean
+            if result.is_some() || t == 0 || t > 2 {
+                continue;
             }
+            if donor[a] == Donor::Any {
+                wildcards += 1;
+                if wildcards > 1 {
+                    result = Some(false);
+                }
+            }
+            let (l, h) = match donor[a] {
+                Donor::Any => (1, 2),
+                Donor::One => (1, 1),
+                Donor::Two => (2, 2),
+                Donor::Vacant | Donor::No => (0, 0),
+            };
+            lo += l;
+            hi += h;
         }
-        let (l, h) = match donor[a] {
-            Donor::Any => (1, 2),
-            Donor::One => (1, 1),
-            Donor::Two => (2, 2),
-            Donor::Vacant | Donor::No => (0, 0),
-        };
-        lo += l;
-        hi += h;
+    }
+    if let Some(r) = result {
+        return r;
     }
     if hi >= 6 {
         (lo..=hi).any(|e| (e - 2) % 4 == 0)
@@ -254,15 +269,15 @@ fn mark(
     bond_arom: &mut [bool],
 ) {
     for &k in set {
-        for &a in &rings.rings[cand_rings[k]] {
+        for &a in rings.list.atoms(cand_rings[k]) {
             atom_arom[a] = true;
         }
     }
     for &k in set {
-        for &b in &rings.ring_bonds[cand_rings[k]] {
+        for &b in rings.list.bonds(cand_rings[k]) {
             let count = set
                 .iter()
-                .filter(|&&o| rings.ring_bonds[cand_rings[o]].contains(&b))
+                .filter(|&&o| rings.list.bonds(cand_rings[o]).contains(&b))
                 .count();
             if count == 1 {
                 bond_arom[b] = true;

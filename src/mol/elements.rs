@@ -26,8 +26,8 @@ pub fn atomic_number(symbol: &str) -> Option<u8> {
 
 /// Normal valences of the main-group elements that SMILES gives implicit
 /// hydrogens to (OpenSMILES organic subset: B 3; C 4; N 3; O 2; P 3, 5;
-/// S 2, 4, 6; halogens 1; OpenSMILES also lists 5 for N, which RDKit, our
-/// reference, does not accept for neutral N), extended to the same-group elements used by the
+/// S 2, 4, 6; halogens 1), as RDKit, our reference, applies them: neutral
+/// N has only 3 (OpenSMILES also lists 5) and I has 1, 3, 5, extended to the same-group elements used by the
 /// isoelectronic rule for charged bracket atoms (Si, Ge 4; As, Sb 3, 5;
 /// Se, Te 2, 4, 6). Source: OpenSMILES specification, section 3.1.5.
 pub(crate) fn normal_valences(z: u8) -> &'static [u8] {
@@ -38,7 +38,8 @@ pub(crate) fn normal_valences(z: u8) -> &'static [u8] {
         15 | 33 | 51 => &[3, 5],
         8 => &[2],
         16 | 34 | 52 => &[2, 4, 6],
-        9 | 17 | 35 | 53 | 85 | 117 => &[1],
+        53 => &[1, 3, 5],
+        9 | 17 | 35 | 85 | 117 => &[1],
         _ => &[],
     }
 }
@@ -63,4 +64,11 @@ pub(crate) fn charged_valences(z: u8, charge: i8) -> &'static [u8] {
         return &[];
     }
     normal_valences(shifted as u8)
+}
+
+/// Metals, for treating a bond from an over-valent donor atom (N, O, P, S)
+/// to a metal as dative: alkali and alkaline-earth metals, Al, Ga, In, Sn,
+/// Tl, Pb, Bi, Po and the transition, lanthanide and actinide metals.
+pub(crate) fn is_metal(z: u8) -> bool {
+    matches!(z, 3 | 4 | 11 | 12 | 13 | 19..=31 | 37..=50 | 55..=84 | 87..=112)
 }

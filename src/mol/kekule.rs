@@ -5,15 +5,34 @@
 //! first) and completed with Edmonds' blossom augmenting paths, so fused
 //! odd rings (azulene) are handled. An atom left unmatched is reported.
 
-/// `adj[i]`: candidate partners of local vertex `i` as (vertex, bond).
+/// Candidate partners in compressed rows: partners of vertex `i` are
+/// `list[start[i]..start[i + 1]]` as (vertex, bond).
+pub(crate) struct Graph {
+    pub start: Vec<usize>,
+    pub list: Vec<(usize, usize)>,
+}
+
+impl std::ops::Index<usize> for Graph {
+    type Output = [(usize, usize)];
+    fn index(&self, i: usize) -> &[(usize, usize)] {
+        &self.list[self.start[i]..self.start[i + 1]]
+    }
+}
+
+impl Graph {
+    fn len(&self) -> usize {
+        self.start.len().saturating_sub(1)
+    }
+}
+
 /// Returns the partner of each vertex (usize::MAX when unmatched).
-pub(crate) fn perfect_matching(adj: &[Vec<(usize, usize)>]) -> Vec<usize> {
+pub(crate) fn perfect_matching(adj: &Graph) -> Vec<usize> {
     const NONE: usize = usize::MAX;
     let n = adj.len();
     let mut mate = vec![NONE; n];
     // Greedy: match vertices with one free neighbour first (forced
     // choices), otherwise the next free vertex with its first free neighbour.
-    let mut free_deg: Vec<usize> = adj.iter().map(|a| a.len()).collect();
+    let mut free_deg: Vec<usize> = (0..n).map(|v| adj[v].len()).collect();
     let mut forced: Vec<usize> = (0..n).filter(|&v| free_deg[v] == 1).collect();
     let mut next_any = 0;
     loop {
@@ -38,7 +57,7 @@ pub(crate) fn perfect_matching(adj: &[Vec<(usize, usize)>]) -> Vec<usize> {
         mate[v] = w;
         mate[w] = v;
         for &u in &[v, w] {
-            for &(x, _) in &adj[u] {
+            for &(x, _) in adj[u].iter() {
                 if mate[x] == NONE {
                     free_deg[x] = free_deg[x].saturating_sub(1);
                     if free_deg[x] == 1 {
@@ -72,7 +91,7 @@ pub(crate) fn perfect_matching(adj: &[Vec<(usize, usize)>]) -> Vec<usize> {
 }
 
 struct Blossom<'a> {
-    adj: &'a [Vec<(usize, usize)>],
+    adj: &'a Graph,
     mate: Vec<usize>,
     parent: Vec<usize>,
     base: Vec<usize>,

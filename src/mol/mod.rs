@@ -140,6 +140,8 @@ pub struct Molecule {
     component: Vec<u32>,
     component_count: usize,
     main_component: u32,
+    /// Per bond: the donor atom when the bond is treated as dative.
+    dative_donor: Vec<u32>,
 }
 
 impl Molecule {
@@ -189,14 +191,29 @@ impl Molecule {
     }
 
     /// Valence as RDKit computes it: the sum of Kekulé bond orders plus all
-    /// hydrogens: SMARTS `v`.
+    /// hydrogens (a dative bond does not count for its donor): SMARTS `v`.
     pub fn valence(&self, i: usize) -> u32 {
         let bonds: u32 = self
             .neighbors(i)
             .iter()
+            .filter(|n| !self.is_dative_from(n.bond, i))
             .map(|n| self.bonds[n.bond].kekule as u32)
             .sum();
         bonds + self.atoms.get(i).map_or(0, |a| a.hydrogens as u32)
+    }
+
+    /// Bond `b` is a dative bond from donor atom `i` to a metal (an
+    /// over-valent N, O, P or S bonded to a metal with a plain bond).
+    pub fn is_dative_from(&self, b: usize, i: usize) -> bool {
+        self.dative_donor.get(b).is_some_and(|d| *d as usize == i)
+    }
+
+    /// The donor atom of bond `b` if it is treated as dative.
+    pub fn dative_donor(&self, b: usize) -> Option<usize> {
+        self.dative_donor
+            .get(b)
+            .filter(|d| **d != u32::MAX)
+            .map(|d| *d as usize)
     }
 
     /// The bond joining atoms `a` and `b`, if any.
@@ -249,16 +266,35 @@ impl Molecule {
         self.rings.bond_rings.get(b).map_or(0, |c| *c as usize)
     }
 
+    /// Number of rings in [`Molecule::rings`].
+    pub fn ring_total(&self) -> usize {
+        self.rings.list.len()
+    }
+
     /// The rings: the relevant cycles (union of all smallest sets of
     /// smallest rings), each as atom indices in cycle order. For ordinary
     /// molecules this is the SSSR; for cages it is RDKit's symmetrized SSSR.
-    pub fn rings(&self) -> &[Vec<usize>] {
-        &self.rings.rings
+    pub fn rings(&self) -> impl Iterator<Item = &[usize]> + '_ {
+        (0..self.rings.list.len()).map(|r| self.rings.list.atoms(r))
     }
 
-    /// The rings as bond indices, in the order of [`Molecule::rings`].
-    pub fn ring_bonds(&self) -> &[Vec<usize>] {
-        &self.rings.ring_bonds
+    /// Atoms of ring `r` in cycle order (empty when out of range).
+    pub fn ring_atoms(&self, r: usize) -> &[usize] {
+        if r < self.rings.list.len() {
+            self.rings.list.atoms(r)
+        } else {
+            &[]
+        }
+    }
+
+    /// Bonds of ring `r`, bond k joining atoms k and k+1 of
+    /// [`Molecule::ring_atoms`] (empty when out of range).
+    pub fn ring_bond_list(&self, r: usize) -> &[usize] {
+        if r < self.rings.list.len() {
+            self.rings.list.bonds(r)
+        } else {
+            &[]
+        }
     }
 
     /// Size of the smallest set of smallest rings (the cycle rank:
@@ -313,7 +349,7 @@ impl Molecule {
     /// Molecular formula in Hill order (C, H, then alphabetical; all
     /// alphabetical without carbon), every hydrogen counted, isotopes
     /// counted as their element, no charge: `C2H3NaO2` for sodium acetate.
-    /// Wildcard atoms are written `*` at the end.
+    /// Wildcard atoms are written `*`, sorted before the letters.
     pub fn formula(&self) -> String {
         formula_of(self.atoms.iter())
     }
@@ -363,15 +399,13 @@ fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
             parts.push(("H", counts[1]));
         }
     }
-    let mut rest: Vec<(&str, u32)> = (1..119)
+    // `*` sorts before the letters, as RDKit writes it.
+    let mut rest: Vec<(&str, u32)> = (0..119)
         .filter(|&z| counts[z] > 0 && !(has_carbon && (z == 6 || z == 1)))
         .map(|z| (elements::SYMBOLS[z], counts[z]))
         .collect();
     rest.sort_unstable_by(|a, b| a.0.cmp(b.0));
     parts.extend(rest);
-    if counts[0] > 0 {
-        parts.push(("*", counts[0]));
-    }
     let mut out = String::new();
     for (sym, c) in parts {
         out.push_str(sym);
@@ -659,21 +693,27 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
                 ));
             }
         }
-        let pi_atoms: Vec<usize> = (0..n).filter(|&i| needs_pi[i]).collect();
+        let mut pi_atoms: Vec<usize> = Vec::with_capacity(n);
+        pi_atoms.extend((0..n).filter(|&i| needs_pi[i]));
         let mut local = vec![usize::MAX; n];
         for (k, &i) in pi_atoms.iter().enumerate() {
             local[i] = k;
         }
-        let mut adj: Vec<Vec<(usize, usize)>> = vec![Vec::new(); pi_atoms.len()];
-        for (k, &i) in pi_atoms.iter().enumerate() {
+        let mut adj = kekule::Graph {
+            start: Vec::with_capacity(pi_atoms.len() + 1),
+            list: Vec::with_capacity(pi_atoms.len() * 3),
+        };
+        adj.start.push(0);
+        for &i in &pi_atoms {
             for x in nb.get(i) {
                 if bonds[x.bond].order == BondOrder::Aromatic
                     && ring_info.bond_in_ring[x.bond]
                     && local[x.atom] != usize::MAX
                 {
-                    adj[k].push((local[x.atom], x.bond));
+                    adj.list.push((local[x.atom], x.bond));
                 }
             }
+            adj.start.push(adj.list.len());
         }
         let mate = kekule::perfect_matching(&adj);
         if let Some(k) = mate.iter().position(|m| *m == usize::MAX) {
@@ -724,9 +764,30 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         }
     }
 
-    // Valence check on the Kekulé structure.
+    // Valence check on the Kekulé structure. A donor atom (N, O, P, S...)
+    // over its valence because of single bonds to metals has those bonds
+    // treated as dative (they do not count toward its valence), as RDKit does
+    // for organometallics written with plain bonds.
+    let mut dative_donor = vec![u32::MAX; bonds.len()];
     for (i, a) in atoms.iter().enumerate() {
-        let v = bond_sum[i] + a.hydrogens as u32;
+        let mut v = bond_sum[i] + a.hydrogens as u32;
+        if valence_allowed(a.element, a.charge, v) {
+            continue;
+        }
+        if !elements::is_metal(a.element) {
+            for x in nb.get(i) {
+                if bonds[x.bond].kekule == 1
+                    && elements::is_metal(atoms[x.atom].element)
+                    && dative_donor[x.bond] == u32::MAX
+                {
+                    dative_donor[x.bond] = i as u32;
+                    v -= 1;
+                    if valence_allowed(a.element, a.charge, v) {
+                        break;
+                    }
+                }
+            }
+        }
         if !valence_allowed(a.element, a.charge, v) {
             let charge = match a.charge {
                 0 => String::new(),
@@ -734,10 +795,20 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
             };
             return Err(error_at(
                 ErrorKind::Valence,
-                format!("valence {} is not allowed for {}{}", v, a.symbol(), charge),
+                format!(
+                    "valence {} is not allowed for {}{}",
+                    bond_sum[i] + a.hydrogens as u32,
+                    a.symbol(),
+                    charge
+                ),
                 a,
                 smiles,
             ));
+        }
+    }
+    for (b, &d) in dative_donor.iter().enumerate() {
+        if d != u32::MAX {
+            bond_sum[d as usize] -= bonds[b].kekule as u32;
         }
     }
 
@@ -745,7 +816,11 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     let facts: Vec<aromatic::AtomFacts> = (0..n)
         .map(|i| {
             let a = &atoms[i];
-            let degree = nb.get(i).len() as i32;
+            let degree = nb
+                .get(i)
+                .iter()
+                .filter(|x| dative_donor[x.bond] != i as u32)
+                .count() as i32;
             let v = bond_sum[i] as i32 + a.hydrogens as i32;
             let radicals = if a.bracket && a.element != 0 {
                 elements::charged_valences(a.element, a.charge)
@@ -776,7 +851,7 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     // Connected components, numbered in order of their first atom.
     let mut component = vec![u32::MAX; n];
     let mut count = 0u32;
-    let mut stack = Vec::new();
+    let mut stack = Vec::with_capacity(n);
     for s in 0..n {
         if component[s] != u32::MAX {
             continue;
@@ -829,6 +904,7 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         component,
         component_count: count as usize,
         main_component: main,
+        dative_donor,
     })
 }
 

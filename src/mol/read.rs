@@ -170,18 +170,19 @@ struct Builder {
     bonds: Vec<RawBond>,
     stack: Vec<usize>,
     /// Open ring closures by digit: (atom, bond kind, join index).
-    opens: Vec<Option<(usize, RawOrder, usize)>>,
+    /// Open ring closures: (digit, atom, bond kind, join index).
+    opens: Vec<(u8, usize, RawOrder, usize)>,
     joins: usize,
     trouble: Option<Trouble>,
 }
 
 impl Builder {
-    fn new() -> Self {
+    fn new(capacity: usize) -> Self {
         Builder {
-            atoms: Vec::new(),
-            bonds: Vec::new(),
-            stack: Vec::new(),
-            opens: vec![None; 100],
+            atoms: Vec::with_capacity(capacity),
+            bonds: Vec::with_capacity(capacity + 4),
+            stack: Vec::with_capacity(capacity),
+            opens: Vec::new(),
             joins: 0,
             trouble: None,
         }
@@ -225,14 +226,12 @@ impl Follower for Builder {
         let Some(&head) = self.stack.last() else {
             return;
         };
-        let digit = rnum as usize;
-        let Some(slot) = self.opens.get_mut(digit) else {
-            return;
-        };
+        let digit = rnum as u8;
         let order = order_of(&bond_kind);
-        match slot.take() {
-            None => *slot = Some((head, order, join)),
-            Some((other, other_order, _)) => {
+        match self.opens.iter().position(|o| o.0 == digit) {
+            None => self.opens.push((digit, head, order, join)),
+            Some(k) => {
+                let (_, other, other_order, _) = self.opens.swap_remove(k);
                 if other == head {
                     self.trouble.get_or_insert(Trouble::SelfBond(join));
                     return;
@@ -263,29 +262,32 @@ impl Follower for Builder {
 
 /// Character spans of the atoms and positions of the ring-closure digits
 /// of a string purr has accepted, in written order.
-pub(crate) fn lex(chars: &[char]) -> (Vec<Range<usize>>, Vec<usize>) {
-    let mut atoms = Vec::new();
-    let mut rnums = Vec::new();
+pub(crate) fn lex(chars: &[u8]) -> (Vec<Range<usize>>, Vec<usize>) {
+    let mut atoms = Vec::with_capacity(chars.len());
+    let mut rnums = Vec::with_capacity(16);
     let mut i = 0;
     while i < chars.len() {
         let c = chars[i];
         match c {
-            '[' => {
+            b'[' => {
                 let start = i;
-                while i < chars.len() && chars[i] != ']' {
+                while i < chars.len() && chars[i] != b']' {
                     i += 1;
                 }
                 atoms.push(start..(i + 1).min(chars.len()));
             }
-            '%' => {
+            b'%' => {
                 rnums.push(i);
                 i += 2;
             }
-            '0'..='9' => rnums.push(i),
-            'B' | 'C' | 'A' | 'T' => {
+            b'0'..=b'9' => rnums.push(i),
+            b'B' | b'C' | b'A' | b'T' => {
                 let two = matches!(
                     (c, chars.get(i + 1)),
-                    ('B', Some('r')) | ('C', Some('l')) | ('A', Some('t')) | ('T', Some('s'))
+                    (b'B', Some(b'r'))
+                        | (b'C', Some(b'l'))
+                        | (b'A', Some(b't'))
+                        | (b'T', Some(b's'))
                 );
                 if two {
                     atoms.push(i..i + 2);
@@ -294,9 +296,8 @@ pub(crate) fn lex(chars: &[char]) -> (Vec<Range<usize>>, Vec<usize>) {
                     atoms.push(i..i + 1);
                 }
             }
-            'N' | 'O' | 'P' | 'S' | 'F' | 'I' | 'b' | 'c' | 'n' | 'o' | 'p' | 's' | '*' => {
-                atoms.push(i..i + 1)
-            }
+            b'N' | b'O' | b'P' | b'S' | b'F' | b'I' | b'b' | b'c' | b'n' | b'o' | b'p' | b's'
+            | b'*' => atoms.push(i..i + 1),
             _ => {}
         }
         i += 1;
@@ -319,32 +320,57 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             smiles,
         ));
     }
-    let chars: Vec<char> = smiles.chars().collect();
-    if chars.len() > MAX_CHARS {
+    // Every valid SMILES is ASCII; for other input purr reports the first
+    // bad character and positions are counted in characters.
+    let chars: Vec<char> = if smiles.is_ascii() {
+        Vec::new()
+    } else {
+        smiles.chars().collect()
+    };
+    let bytes = smiles.as_bytes();
+    let n_chars = if smiles.is_ascii() {
+        bytes.len()
+    } else {
+        chars.len()
+    };
+    if n_chars > MAX_CHARS {
         return Err(MolError::new(
             ErrorKind::TooLarge,
             format!(
                 "input has {} characters; the limit is {}",
-                chars.len(),
-                MAX_CHARS
+                n_chars, MAX_CHARS
             ),
             Some(MAX_CHARS),
             smiles,
         ));
     }
-    let rough_atoms = chars
+    let rough_atoms = bytes
         .iter()
-        .filter(|c| c.is_ascii_alphabetic() || **c == '*')
+        .filter(|c| c.is_ascii_alphabetic() || **c == b'*')
         .count();
+    // purr does not know the aromatic tellurium symbol `[te]` (RDKit and
+    // common practice accept it): read it as `[se]`, which has the same
+    // length, and correct the element afterwards.
+    let tellurium = tellurium_brackets(bytes);
+    let rewritten: Option<String> = if tellurium.is_empty() || !smiles.is_ascii() {
+        None
+    } else {
+        let mut c2 = bytes.to_vec();
+        for &(_, t) in &tellurium {
+            c2[t] = b's';
+        }
+        String::from_utf8(c2).ok()
+    };
+    let to_read: &str = rewritten.as_deref().unwrap_or(smiles);
     let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
-        guarded_read(smiles)
+        guarded_read(to_read, rough_atoms)
     } else {
         // One stack frame chain per atom: give the reader room for it.
-        let owned = smiles.to_string();
+        let owned = to_read.to_string();
         let stack = (1 << 20) + rough_atoms * 2048;
         let handle = std::thread::Builder::new()
             .stack_size(stack)
-            .spawn(move || guarded_read(&owned));
+            .spawn(move || guarded_read(&owned, rough_atoms));
         match handle.map(|h| h.join()) {
             Ok(Ok(pair)) => pair,
             _ => {
@@ -360,10 +386,10 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
     let builder = match (result, builder) {
         (Ok(()), Some(b)) => b,
         (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
-            return Err(syntax_error(smiles, &chars, p))
+            return Err(syntax_error(smiles, p))
         }
         (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
-            return Err(syntax_error(smiles, &chars, chars.len()))
+            return Err(syntax_error(smiles, n_chars))
         }
         (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
             return Err(MolError::new(
@@ -374,7 +400,15 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             ))
         }
     };
-    let (spans, rnums) = lex(&chars);
+    if !smiles.is_ascii() {
+        return Err(MolError::new(
+            ErrorKind::Syntax,
+            "non-ASCII character in SMILES",
+            chars.iter().position(|c| !c.is_ascii()),
+            smiles,
+        ));
+    }
+    let (spans, rnums) = lex(bytes);
     let rnum_pos = |j: usize| rnums.get(j).copied();
     if let Some(t) = builder.trouble {
         return Err(match t {
@@ -398,7 +432,7 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             ),
         });
     }
-    if let Some(open) = builder.opens.iter().flatten().map(|o| o.2).min() {
+    if let Some(open) = builder.opens.iter().map(|o| o.3).min() {
         return Err(MolError::new(
             ErrorKind::RingClosure,
             "ring closure digit is opened but never closed",
@@ -433,11 +467,39 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             ));
         }
     }
+    let mut atoms = builder.atoms;
+    for &(start, _) in &tellurium {
+        if let Ok(k) = spans.binary_search_by_key(&start, |s| s.start) {
+            atoms[k].element = 52;
+        }
+    }
     Ok(Raw {
-        atoms: builder.atoms,
+        atoms,
         bonds: builder.bonds,
         spans,
     })
+}
+
+/// Bracket atoms written `[te...]` (optionally with an isotope): (bracket
+/// position, position of the `t`).
+fn tellurium_brackets(chars: &[u8]) -> Vec<(usize, usize)> {
+    let mut out = Vec::new();
+    if !chars.windows(2).any(|w| w == b"te") {
+        return out;
+    }
+    for (i, &c) in chars.iter().enumerate() {
+        if c != b'[' {
+            continue;
+        }
+        let mut j = i + 1;
+        while j < chars.len() && chars[j].is_ascii_digit() {
+            j += 1;
+        }
+        if chars.get(j) == Some(&b't') && chars.get(j + 1) == Some(&b'e') {
+            out.push((i, j));
+        }
+    }
+    out
 }
 
 enum ReadFailure {
@@ -445,9 +507,9 @@ enum ReadFailure {
     Panic,
 }
 
-fn guarded_read(smiles: &str) -> (Result<(), ReadFailure>, Option<Builder>) {
+fn guarded_read(smiles: &str, capacity: usize) -> (Result<(), ReadFailure>, Option<Builder>) {
     let run = std::panic::catch_unwind(|| {
-        let mut builder = Builder::new();
+        let mut builder = Builder::new(capacity.min(MAX_ATOMS));
         let r = purr::read::read(smiles, &mut builder, None);
         (r, builder)
     });
@@ -458,7 +520,12 @@ fn guarded_read(smiles: &str) -> (Result<(), ReadFailure>, Option<Builder>) {
     }
 }
 
-fn syntax_error(smiles: &str, chars: &[char], p: usize) -> MolError {
+fn is_bond_symbol(c: char) -> bool {
+    matches!(c, '-' | '=' | '#' | '$' | ':' | '/' | '\\')
+}
+
+fn syntax_error(smiles: &str, p: usize) -> MolError {
+    let chars: Vec<char> = smiles.chars().collect();
     let message = match chars.get(p) {
         None => {
             let open_brackets = chars.iter().filter(|c| **c == '[').count()
@@ -474,6 +541,18 @@ fn syntax_error(smiles: &str, chars: &[char], p: usize) -> MolError {
             }
         }
         Some(c) if c.is_whitespace() => "unexpected white space".to_string(),
+        Some(c)
+            if is_bond_symbol(*c)
+                && p > 0
+                && chars.get(p - 1).is_some_and(|b| is_bond_symbol(*b)) =>
+        {
+            if *c == '\\' && chars[p - 1] == '\\' {
+                "two bond symbols in a row: '\\\\' is usually an escaped '\\' (write it once)"
+                    .to_string()
+            } else {
+                format!("two bond symbols in a row ('{}{}')", chars[p - 1], c)
+            }
+        }
         Some(c) => format!("unexpected character '{}'", c),
     };
     MolError::new(ErrorKind::Syntax, message, Some(p), smiles)

@@ -23,12 +23,64 @@ pub(crate) const MAX_SYSTEM_WORK: usize = 4_000_000;
 /// graphs can have exponentially many).
 const EXTRA_RELEVANT_LIMIT: usize = 64;
 
+/// Rings stored flat: ring `r` is `atoms[atom_start[r]..atom_start[r+1]]`
+/// in cycle order, with its bonds in the same way.
+#[derive(Debug, Clone, Default)]
+pub(crate) struct RingList {
+    start: Vec<u32>,
+    atoms: Vec<usize>,
+    bonds: Vec<usize>,
+}
+
+impl RingList {
+    pub fn len(&self) -> usize {
+        self.start.len().saturating_sub(1)
+    }
+
+    pub fn is_empty(&self) -> bool {
+        self.len() == 0
+    }
+
+    fn reserve(&mut self, rings: usize, atoms: usize) {
+        self.start.reserve(rings + 1);
+        self.atoms.reserve(atoms);
+        self.bonds.reserve(atoms);
+    }
+
+    pub fn atoms(&self, r: usize) -> &[usize] {
+        &self.atoms[self.start[r] as usize..self.start[r + 1] as usize]
+    }
+
+    pub fn bonds(&self, r: usize) -> &[usize] {
+        &self.bonds[self.start[r] as usize..self.start[r + 1] as usize]
+    }
+
+    fn push(&mut self, atoms: impl IntoIterator<Item = usize>, nb: &Adj) {
+        if self.start.is_empty() {
+            self.start.push(0);
+        }
+        let from = self.atoms.len();
+        self.atoms.extend(atoms);
+        let to = self.atoms.len();
+        for i in from..to {
+            let (a, b) = (
+                self.atoms[i],
+                self.atoms[if i + 1 < to { i + 1 } else { from }],
+            );
+            if let Some(x) = nb.get(a).iter().find(|x| x.atom == b) {
+                self.bonds.push(x.bond);
+            }
+        }
+        // Keep bonds aligned with atoms even if a bond were missing.
+        self.bonds.resize(to, usize::MAX);
+        self.start.push(to as u32);
+    }
+}
+
 #[derive(Debug, Clone, Default)]
 pub(crate) struct RingInfo {
-    /// Rings as atom lists in cycle order.
-    pub rings: Vec<Vec<usize>>,
-    /// Rings as bond lists (same order as `rings`).
-    pub ring_bonds: Vec<Vec<usize>>,
+    /// The rings (relevant cycles).
+    pub list: RingList,
     /// Per atom: number of rings containing it.
     pub atom_rings: Vec<u16>,
     /// Per atom: size of the smallest ring containing it (0: none).
@@ -46,7 +98,7 @@ pub(crate) struct RingInfo {
 /// Mark bridges with an iterative Tarjan low-link search. Returns
 /// `in_ring` per bond.
 fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
-    let mut in_ring = vec![false; bonds.len()];
+    let mut in_ring = vec![true; bonds.len()];
     if bonds.is_empty() {
         return in_ring;
     }
@@ -55,8 +107,7 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
     let mut low = vec![0usize; n];
     let mut time = 0;
     // (atom, bond used to enter, next neighbour index)
-    let mut stack: Vec<(usize, usize, usize)> = Vec::new();
-    let mut is_bridge = vec![false; bonds.len()];
+    let mut stack: Vec<(usize, usize, usize)> = Vec::with_capacity(n);
     for root in 0..n {
         if disc[root] != NONE {
             continue;
@@ -89,14 +140,11 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
                         low[parent] = low[v];
                     }
                     if low[v] > disc[parent] {
-                        is_bridge[via] = true;
+                        in_ring[via] = false;
                     }
                 }
             }
         }
-    }
-    for (b, r) in in_ring.iter_mut().enumerate() {
-        *r = !is_bridge[b];
     }
     in_ring
 }
@@ -198,35 +246,101 @@ pub(crate) fn perceive(
             info.atom_ring_bonds[bond.atoms[1]] += 1;
         }
     }
-    // Group atoms and bonds by system root.
-    let mut system_of = vec![usize::MAX; n];
-    let mut systems: Vec<(Vec<usize>, Vec<usize>)> = Vec::new();
+    // Group atoms and bonds by system (flat arrays with offsets).
+    let mut system_of = vec![u32::MAX; n];
+    let mut n_systems = 0usize;
+    let mut ring_atom_total = 0usize;
     for a in 0..n {
         if info.atom_ring_bonds[a] == 0 {
             continue;
         }
+        ring_atom_total += 1;
         let r = find(&mut parent, a);
-        if system_of[r] == usize::MAX {
-            system_of[r] = systems.len();
-            systems.push((Vec::new(), Vec::new()));
+        if system_of[r] == u32::MAX {
+            system_of[r] = n_systems as u32;
+            n_systems += 1;
         }
-        let s = system_of[r];
-        systems[s].0.push(a);
+    }
+    let mut atom_off = vec![0usize; n_systems + 1];
+    let mut bond_off = vec![0usize; n_systems + 1];
+    for a in 0..n {
+        if info.atom_ring_bonds[a] > 0 {
+            let r = find(&mut parent, a);
+            atom_off[system_of[r] as usize + 1] += 1;
+        }
     }
     for (b, bond) in bonds.iter().enumerate() {
         if info.bond_in_ring[b] {
             let r = find(&mut parent, bond.atoms[0]);
-            systems[system_of[r]].1.push(b);
+            bond_off[system_of[r] as usize + 1] += 1;
         }
     }
-    for (atoms, sbonds) in &systems {
+    for k in 0..n_systems {
+        atom_off[k + 1] += atom_off[k];
+        bond_off[k + 1] += bond_off[k];
+    }
+    let mut sys_atoms = vec![0usize; ring_atom_total];
+    let mut sys_bonds = vec![0usize; ring_bond_total];
+    {
+        let mut fill_a: Vec<usize> = atom_off[..n_systems].to_vec();
+        let mut fill_b: Vec<usize> = bond_off[..n_systems].to_vec();
+        for a in 0..n {
+            if info.atom_ring_bonds[a] > 0 {
+                let k = system_of[find(&mut parent, a)] as usize;
+                sys_atoms[fill_a[k]] = a;
+                fill_a[k] += 1;
+            }
+        }
+        for (b, bond) in bonds.iter().enumerate() {
+            if info.bond_in_ring[b] {
+                let k = system_of[find(&mut parent, bond.atoms[0])] as usize;
+                sys_bonds[fill_b[k]] = b;
+                fill_b[k] += 1;
+            }
+        }
+    }
+    info.list.reserve(n_systems * 2, ring_atom_total * 2);
+    for k in 0..n_systems {
+        let atoms = &sys_atoms[atom_off[k]..atom_off[k + 1]];
+        let sbonds = &sys_bonds[bond_off[k]..bond_off[k + 1]];
         let rank = sbonds.len() + 1 - atoms.len();
         info.sssr_count += rank;
         if rank == 1 {
-            let ring = walk_simple_cycle(atoms, &info.bond_in_ring, nb);
-            let rb = cycle_bonds(&ring, nb);
-            info.rings.push(ring);
-            info.ring_bonds.push(rb);
+            // A single ring: walk it from its first atom.
+            let (start, in_ring) = (atoms[0], &info.bond_in_ring);
+            let mut prev_bond = usize::MAX;
+            let mut cur = start;
+            let mut steps = 0;
+            let walk = std::iter::from_fn(|| {
+                if steps > atoms.len() {
+                    return None;
+                }
+                let here = cur;
+                if steps > 0 && here == start {
+                    return None;
+                }
+                steps += 1;
+                if let Some(x) = nb
+                    .get(cur)
+                    .iter()
+                    .find(|x| in_ring[x.bond] && x.bond != prev_bond)
+                {
+                    prev_bond = x.bond;
+                    cur = x.atom;
+                }
+                Some(here)
+            });
+            info.list.push(walk, nb);
+        } else if rank == 2
+            && two_ring_system(
+                atoms,
+                &info.atom_ring_bonds,
+                &info.bond_in_ring,
+                nb,
+                &mut info.list,
+            )
+        {
+            // bicyclic system handled directly
         } else {
             if atoms.len().saturating_mul(sbonds.len()) > MAX_SYSTEM_WORK {
                 return Err(MolError::new(
@@ -248,11 +362,12 @@ pub(crate) fn perceive(
                 bonds,
                 &info.bond_in_ring,
                 nb,
-                (&mut info.rings, &mut info.ring_bonds),
+                &mut info.list,
             );
         }
     }
-    for (ring, rb) in info.rings.iter().zip(&info.ring_bonds) {
+    for r in 0..info.list.len() {
+        let (ring, rb) = (info.list.atoms(r), info.list.bonds(r));
         let size = ring.len() as u16;
         for &a in ring {
             info.atom_rings[a] += 1;
@@ -261,45 +376,132 @@ pub(crate) fn perceive(
             }
         }
         for &b in rb {
-            info.bond_rings[b] += 1;
+            if let Some(c) = info.bond_rings.get_mut(b) {
+                *c += 1;
+            }
         }
     }
     Ok(info)
 }
 
-/// Atoms of a single-cycle system in cycle order.
-fn walk_simple_cycle(atoms: &[usize], in_ring: &[bool], nb: &Adj) -> Vec<usize> {
-    let start = atoms[0];
-    let mut ring = vec![start];
-    let mut prev_bond = usize::MAX;
-    let mut cur = start;
-    loop {
-        let next = nb
+/// Follow a chain of two-connected ring atoms from bond `first` until an
+/// atom with more ring bonds, appending the atoms after the start to `out`.
+/// Returns the bond by which the last atom was reached.
+fn follow_chain(
+    first: Neighbor,
+    ring_degree: &[u8],
+    in_ring: &[bool],
+    nb: &Adj,
+    limit: usize,
+    out: &mut Vec<usize>,
+) -> usize {
+    out.push(first.atom);
+    let mut cur = first.atom;
+    let mut via = first.bond;
+    let mut steps = 0;
+    while ring_degree[cur] == 2 && steps <= limit {
+        let Some(next) = nb
             .get(cur)
             .iter()
-            .find(|x| in_ring[x.bond] && x.bond != prev_bond);
-        match next {
-            Some(x) if x.atom != start && ring.len() <= atoms.len() => {
-                prev_bond = x.bond;
-                cur = x.atom;
-                ring.push(cur);
-            }
-            _ => break,
-        }
+            .find(|x| in_ring[x.bond] && x.bond != via)
+        else {
+            break;
+        };
+        via = next.bond;
+        cur = next.atom;
+        out.push(cur);
+        steps += 1;
     }
-    ring
+    via
 }
 
-/// Bonds joining consecutive atoms of a cycle.
-fn cycle_bonds(ring: &[usize], nb: &Adj) -> Vec<usize> {
-    let mut out = Vec::with_capacity(ring.len());
-    for i in 0..ring.len() {
-        let (a, b) = (ring[i], ring[(i + 1) % ring.len()]);
-        if let Some(x) = nb.get(a).iter().find(|x| x.atom == b) {
-            out.push(x.bond);
+/// Rings of a system of cycle rank 2: three paths between two branch atoms
+/// (fused or bridged bicycle) or two loops at one atom (spiro). Relevant
+/// cycles: with path lengths l1 <= l2 <= l3 the rings p1+p2 and p1+p3, and
+/// p2+p3 too when l1 == l2 (bicyclo[2.2.2]octane). Returns false for any
+/// other shape (left to the general method).
+fn two_ring_system(
+    atoms: &[usize],
+    ring_degree: &[u8],
+    in_ring: &[bool],
+    nb: &Adj,
+    out: &mut RingList,
+) -> bool {
+    let mut branch = [usize::MAX; 2];
+    let mut n_branch = 0;
+    for &a in atoms {
+        if ring_degree[a] > 2 {
+            if n_branch == 2 {
+                return false;
+            }
+            branch[n_branch] = a;
+            n_branch += 1;
         }
     }
-    out
+    let limit = atoms.len();
+    let mut buf: Vec<usize> = Vec::with_capacity(atoms.len() + 4);
+    if n_branch == 2 && ring_degree[branch[0]] == 3 && ring_degree[branch[1]] == 3 {
+        let (a, b) = (branch[0], branch[1]);
+        // Paths as ranges of `buf`, each ending at b.
+        let mut paths = [(0usize, 0usize); 3];
+        let mut k = 0;
+        for &x in nb.get(a).iter().filter(|x| in_ring[x.bond]) {
+            if k == 3 {
+                return false;
+            }
+            let from = buf.len();
+            follow_chain(x, ring_degree, in_ring, nb, limit, &mut buf);
+            if buf.last() != Some(&b) {
+                return false;
+            }
+            paths[k] = (from, buf.len());
+            k += 1;
+        }
+        if k != 3 {
+            return false;
+        }
+        paths.sort_by_key(|p| p.1 - p.0);
+        let len = |p: (usize, usize)| p.1 - p.0;
+        let mut pairs = [(0, 1), (0, 2), (1, 2)].as_slice();
+        if len(paths[0]) != len(paths[1]) {
+            pairs = &pairs[..2];
+        }
+        for &(i, j) in pairs {
+            // a, path i (ending at b), then path j reversed back towards a.
+            let (pi, pj) = (paths[i], paths[j]);
+            let ring = std::iter::once(a)
+                .chain(buf[pi.0..pi.1].iter().copied())
+                .chain(buf[pj.0..pj.1].iter().rev().skip(1).copied());
+            out.push(ring, nb);
+        }
+        true
+    } else if n_branch == 1 && ring_degree[branch[0]] == 4 {
+        let c = branch[0];
+        let mut closing = [usize::MAX; 2];
+        let mut k = 0;
+        for &x in nb.get(c).iter().filter(|x| in_ring[x.bond]) {
+            if closing.contains(&x.bond) {
+                continue;
+            }
+            if k == 2 {
+                return false;
+            }
+            buf.clear();
+            let last = follow_chain(x, ring_degree, in_ring, nb, limit, &mut buf);
+            if buf.last() != Some(&c) {
+                return false;
+            }
+            closing[k] = last;
+            k += 1;
+            out.push(
+                std::iter::once(c).chain(buf[..buf.len() - 1].iter().copied()),
+                nb,
+            );
+        }
+        true
+    } else {
+        false
+    }
 }
 
 #[allow(clippy::too_many_arguments)]
@@ -311,7 +513,7 @@ fn relevant_cycles(
     bonds: &[Bond],
     in_ring: &[bool],
     nb: &Adj,
-    out: (&mut Vec<Vec<usize>>, &mut Vec<Vec<usize>>),
+    out: &mut RingList,
 ) {
     const NONE: u32 = u32::MAX;
     let v = atoms.len();
@@ -371,6 +573,7 @@ fn relevant_cycles(
     let mut shorter = Basis::new(sbonds.len());
     let mut current = Basis::new(sbonds.len());
     let mut found: Vec<Bits> = Vec::new();
+    let mut seen_keys: Vec<u64> = Vec::new();
     let mut extra = 0usize;
     let mut i = 0;
     while i < cands.len() {
@@ -385,9 +588,28 @@ fn relevant_cycles(
         for &(_, r, b) in &cands[i..j] {
             let (r, b) = (r as usize, b as usize);
             let base = r * v;
-            // Materialise the cycle: r .. x, y .. r.
             let [ga, gb] = bonds[b].atoms;
             let (x, y) = (local[ga] as usize, local[gb] as usize);
+            // Cheap identity of the cycle (xor of mixed bond numbers) to skip
+            // the copies found from its other atoms before materialising it.
+            let mix = |bond: u32| {
+                (bond as u64 + 1)
+                    .wrapping_mul(0x9E37_79B9_7F4A_7C15)
+                    .rotate_left(17)
+            };
+            let mut key = mix(b as u32);
+            for start in [x, y] {
+                let mut c = start;
+                while c != r {
+                    key ^= mix(pbond[base + c]);
+                    c = par[base + c] as usize;
+                }
+            }
+            if seen_keys.contains(&key) {
+                continue;
+            }
+            seen_keys.push(key);
+            // Materialise the cycle: r .. x, y .. r.
             let mut bits: Bits = vec![0; words];
             let mut set = |bond: usize| {
                 if let Some(&k) = local_bond.get(bond) {
@@ -429,11 +651,8 @@ fn relevant_cycles(
             found.push(bits);
             // Atom order: r .. x then y .. (child of r).
             path_x.reverse();
-            let mut ring: Vec<usize> = path_x.iter().map(|&l| atoms[l]).collect();
-            ring.extend(path_y.iter().map(|&l| atoms[l]));
-            let rb = cycle_bonds(&ring, nb);
-            out.0.push(ring);
-            out.1.push(rb);
+            let ring = path_x.iter().chain(path_y.iter()).map(|&l| atoms[l]);
+            out.push(ring, nb);
         }
         for vct in &current.vectors[shorter.rank()..] {
             shorter.insert(vct.clone());

@@ -65,7 +65,24 @@ def expectations(smiles):
     return ["ok", formula, str(total_h), str(aromatic), str(sssr), ",".join(smallest)]
 
 
+def full(out_path):
+    """Every molecule of the sources (plus MUV) in one TSV, for the ignored
+    large comparison test (ACIDSITE_MOL_FULL=<file> cargo test -- --ignored)."""
+    extra = [("muv", "moleculenet-deepchem/muv_smiles.csv", "smiles", ",", 0)]
+    with open(out_path, "w") as out:
+        out.write("# all molecules; expectations from RDKit %s\n" % rdBase.rdkitVersion)
+        out.write("smiles\trdkit\tformula\ttotal_h\taromatic_atoms\tsssr\tsmallest_rings\n")
+        for name, path, col, delim, _ in SOURCES + extra:
+            with open(os.path.join(DATA, path), newline="") as f:
+                rows = [r[col].strip() for r in csv.DictReader(f, delimiter=delim)]
+            for s in dict.fromkeys(x for x in rows if x):
+                out.write("\t".join([s] + expectations(s)) + "\n")
+
+
 def main():
+    if len(sys.argv) == 3 and sys.argv[1] == "--full":
+        full(sys.argv[2])
+        return
     rng = random.Random(SEED)
     os.makedirs(OUT, exist_ok=True)
     total = 0
@@ -80,7 +97,9 @@ def main():
         # Half of the sample from the "interesting" rows where there are enough.
         k_special = min(len(special), k // 2)
         chosen = rng.sample(special, k_special) + rng.sample(plain, min(len(plain), k - k_special))
-        chosen = rejected + chosen
+        # Every SMILES with a wildcard atom, as they are few.
+        wild = [s for s in unique if "*" in s and s not in rejected and s not in chosen]
+        chosen = rejected + wild + chosen
         out = os.path.join(OUT, name + ".tsv")
         with open(out, "w", newline="") as f:
             f.write("# source: %s (see ATTRIBUTION.md); expectations from RDKit %s\n" % (path, rdBase.rdkitVersion))
