@@ -286,3 +286,47 @@ fn passes_screen_given_missing_element_is_false() {
     assert!(!Pattern::parse("[R]").unwrap().passes_screen(&t));
     assert!(Pattern::parse("CO").unwrap().passes_screen(&t));
 }
+
+#[test]
+fn ring_count_given_cages_follows_rdkit_symmetrised_sssr() {
+    // RDKit 2026.09 RingInfo sizes: norbornane [5, 5]; bicyclo[2.2.2]octane
+    // [6, 6, 6]; cubane six 4-rings; the tricycle below [4, 6, 6, 6, 6];
+    // the para-cyclophane macrocycle 4 benzene rings + 8 equivalent
+    // 23-membered rings.
+    for (smiles, rings) in [
+        ("C1CC2CCC1C2", 2),
+        ("C1CC2CCC1CC2", 3),
+        ("C12C3C4C1C5C2C3C45", 6),
+        ("CC12CCC(=NNC(N)=O)C3C1CCCC32", 5),
+        ("C1=Nc2ccc(cc2)N=Cc2ccc(cc2)OCc2cccc(n2)COc2ccc1cc2", 12),
+        ("c1ccc2ccccc2c1", 2),
+        ("CCO", 0),
+    ] {
+        let m = mol(smiles);
+        assert_eq!(Target::new(&m).ring_count(), rings, "{smiles}");
+    }
+}
+
+#[test]
+fn atom_ring_count_given_bicyclooctane_bridgeheads() {
+    // RDKit 2026.09 NumAtomRings for C1CC2CCC1CC2: [2, 2, 3, 2, 2, 3, 2, 2].
+    let m = mol("C1CC2CCC1CC2");
+    let t = Target::new(&m);
+    let got: Vec<u8> = (0..m.atom_count()).map(|a| t.atom_ring_count(a)).collect();
+    assert_eq!(got, vec![2, 2, 3, 2, 2, 3, 2, 2]);
+}
+
+#[test]
+fn bond_in_ring_given_spiro_and_chain() {
+    // Spiro[4.4]nonane with a methyl: every ring bond is in a ring, the
+    // methyl bond is not (common practice).
+    let m = mol("CC1CCC2(C1)CCCC2");
+    let t = Target::new(&m);
+    assert!(t.has_ring());
+    assert!(!t.bond_in_ring(0));
+    assert!((1..m.bond_count()).all(|b| t.bond_in_ring(b)));
+    assert_eq!(t.ring_bond_count(4), 4);
+    assert_eq!(t.smallest_ring(4), 5);
+    assert_eq!(t.smallest_ring(0), 0);
+    assert!(!Target::new(&mol("CC(C)CO")).has_ring());
+}

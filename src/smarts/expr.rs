@@ -140,6 +140,16 @@ impl AtomExpr {
         }
     }
 
+    /// Recursive parts that must match for the expression to hold (those
+    /// and-ed at the top level).
+    pub fn required_recursions(&self) -> Vec<usize> {
+        match self {
+            AtomExpr::Prim(AtomPrim::Recursive(id)) => vec![*id],
+            AtomExpr::And(v) => v.iter().flat_map(|e| e.required_recursions()).collect(),
+            _ => Vec::new(),
+        }
+    }
+
     /// Does the expression contain a recursive primitive?
     pub fn has_recursion(&self) -> bool {
         match self {
@@ -151,6 +161,43 @@ impl AtomExpr {
 }
 
 impl BondExpr {
+    /// Value of the expression for a bond of this order and ring state.
+    pub fn eval(&self, order: crate::mol::BondOrder, in_ring: bool) -> bool {
+        use crate::mol::BondOrder as O;
+        match self {
+            BondExpr::Prim(p) => match p {
+                BondPrim::Single => order == O::Single,
+                BondPrim::Double => order == O::Double,
+                BondPrim::Triple => order == O::Triple,
+                BondPrim::Aromatic => order == O::Aromatic,
+                BondPrim::Any => true,
+                BondPrim::Ring => in_ring,
+                BondPrim::Implicit => matches!(order, O::Single | O::Aromatic),
+            },
+            BondExpr::Not(e) => !e.eval(order, in_ring),
+            BondExpr::And(v) => v.iter().all(|e| e.eval(order, in_ring)),
+            BondExpr::Or(v) => v.iter().any(|e| e.eval(order, in_ring)),
+        }
+    }
+
+    /// The bond order every match must have, if the expression fixes one
+    /// (double, triple or aromatic).
+    pub fn required_order(&self) -> Option<BondPrim> {
+        match self {
+            BondExpr::Prim(p @ (BondPrim::Double | BondPrim::Triple | BondPrim::Aromatic)) => {
+                Some(*p)
+            }
+            BondExpr::Prim(_) | BondExpr::Not(_) => None,
+            BondExpr::And(v) => v.iter().find_map(|e| e.required_order()),
+            BondExpr::Or(v) => {
+                let first = v.first()?.required_order()?;
+                v.iter()
+                    .all(|e| e.required_order() == Some(first))
+                    .then_some(first)
+            }
+        }
+    }
+
     /// Does every match have to be a ring bond?
     pub fn requires_ring(&self) -> bool {
         match self {
@@ -159,5 +206,85 @@ impl BondExpr {
             BondExpr::And(v) => v.iter().any(|e| e.requires_ring()),
             BondExpr::Or(v) => !v.is_empty() && v.iter().all(|e| e.requires_ring()),
         }
+    }
+}
+
+/// The simple conjunctive part of an atom expression, tested by plain
+/// comparisons before the remaining expression tree.
+#[derive(Debug, Clone, Default, PartialEq, Eq)]
+pub struct AtomFilter {
+    pub element: Option<u8>,
+    pub aromatic: Option<bool>,
+    pub hydrogens: Option<u8>,
+    pub degree: Option<u8>,
+    pub connectivity: Option<u8>,
+    pub charge: Option<i8>,
+    /// From `!H0`: at least one hydrogen.
+    pub some_hydrogen: bool,
+}
+
+impl AtomFilter {
+    /// Split `expr` into a filter and what is left (None if nothing).
+    pub fn split(expr: &AtomExpr) -> (AtomFilter, Option<AtomExpr>) {
+        let mut parts = Vec::new();
+        flatten_and(expr, &mut parts);
+        let mut f = AtomFilter::default();
+        let mut rest = Vec::new();
+        for p in parts {
+            if !f.absorb(p) {
+                rest.push(p.clone());
+            }
+        }
+        let rest = match rest.len() {
+            0 => None,
+            1 => rest.pop(),
+            _ => Some(AtomExpr::And(rest)),
+        };
+        (f, rest)
+    }
+
+    /// Take `p` into the filter if it is simple and its slot is free.
+    fn absorb(&mut self, p: &AtomExpr) -> bool {
+        fn put<T: Copy>(slot: &mut Option<T>, v: T) -> bool {
+            if slot.is_some() {
+                return false;
+            }
+            *slot = Some(v);
+            true
+        }
+        match p {
+            AtomExpr::Prim(AtomPrim::Element { number, aromatic }) => {
+                if self.element.is_some() || (aromatic.is_some() && self.aromatic.is_some()) {
+                    return false;
+                }
+                self.element = Some(*number);
+                if let Some(a) = aromatic {
+                    self.aromatic = Some(*a);
+                }
+                true
+            }
+            AtomExpr::Prim(AtomPrim::Aromatic(a)) => put(&mut self.aromatic, *a),
+            AtomExpr::Prim(AtomPrim::TotalH(n)) => put(&mut self.hydrogens, *n),
+            AtomExpr::Prim(AtomPrim::Degree(n)) => put(&mut self.degree, *n),
+            AtomExpr::Prim(AtomPrim::Connectivity(n)) => put(&mut self.connectivity, *n),
+            AtomExpr::Prim(AtomPrim::Charge(c)) => put(&mut self.charge, *c),
+            AtomExpr::Prim(AtomPrim::Any) => true,
+            AtomExpr::Not(inner) if **inner == AtomExpr::Prim(AtomPrim::TotalH(0)) => {
+                self.some_hydrogen = true;
+                true
+            }
+            _ => false,
+        }
+    }
+}
+
+fn flatten_and<'e>(e: &'e AtomExpr, out: &mut Vec<&'e AtomExpr>) {
+    match e {
+        AtomExpr::And(v) => {
+            for x in v {
+                flatten_and(x, out);
+            }
+        }
+        _ => out.push(e),
     }
 }

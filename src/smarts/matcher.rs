@@ -5,17 +5,42 @@
 //! `$( … )` primitive starts a nested search, whose depth is bounded by the
 //! nesting limit of the parser.
 
-use super::expr::{AtomExpr, AtomPrim, BondExpr, BondPrim};
+use super::expr::{AtomExpr, AtomPrim};
 use super::target::Target;
-use super::{Pattern, Query, Step};
+use super::{Pattern, Query, QueryBond, Step};
 use crate::mol::BondOrder;
+use std::cell::Cell;
 
-/// Per-call cache of recursive-primitive results: `cache[id][atom]` is 0
-/// (unknown), 1 (matches) or 2 (does not).
-pub(crate) type RecCache = Vec<Vec<u8>>;
+/// Per-call state: the cache of recursive-primitive results
+/// (`rec[id][atom]` is 0 unknown, 1 matches, 2 does not) and the search
+/// budget (candidate atoms tried).
+pub(crate) struct RecCache {
+    rec: Vec<Vec<u8>>,
+    steps_left: u64,
+    pub exhausted: bool,
+}
 
-pub(crate) fn new_cache(pat: &Pattern) -> RecCache {
-    vec![Vec::new(); pat.recursive.len()]
+impl RecCache {
+    fn get(&self, id: usize) -> Option<&Vec<u8>> {
+        self.rec.get(id)
+    }
+    /// The slot of recursive part `id` (of `count`), created on first use.
+    fn get_mut(&mut self, id: usize, count: usize) -> Option<&mut Vec<u8>> {
+        if self.rec.len() < count {
+            self.rec.resize(count, Vec::new());
+        }
+        self.rec.get_mut(id)
+    }
+}
+
+/// A fresh per-call state; allocates nothing until a recursive part is
+/// evaluated.
+pub(crate) fn new_cache(max_steps: u64) -> RecCache {
+    RecCache {
+        rec: Vec::new(),
+        steps_left: max_steps,
+        exhausted: false,
+    }
 }
 
 /// Does molecule atom `a` satisfy `expr`?
@@ -53,16 +78,18 @@ fn prim_matches(p: &AtomPrim, a: usize, t: &Target, pat: &Pattern, cache: &mut R
         AtomPrim::Connectivity(n) => info.degree as u16 + info.hydrogens as u16 == n as u16,
         AtomPrim::Valence(n) => info.valence == n,
         AtomPrim::RingCount(n) => match n {
-            Some(n) => info.rings == n,
-            None => info.rings > 0,
+            Some(0) => t.ring_bond_count(a) == 0,
+            Some(n) => t.atom_ring_count(a) == n,
+            None => t.ring_bond_count(a) > 0,
         },
         AtomPrim::RingSize(n) => match n {
-            Some(n) => info.min_ring == n,
-            None => info.min_ring > 0,
+            Some(0) => t.ring_bond_count(a) == 0,
+            Some(n) => t.smallest_ring(a) == n,
+            None => t.ring_bond_count(a) > 0,
         },
         AtomPrim::RingBonds(n) => match n {
-            Some(n) => info.ring_bonds == n,
-            None => info.ring_bonds > 0,
+            Some(n) => t.ring_bond_count(a) == n,
+            None => t.ring_bond_count(a) > 0,
         },
         AtomPrim::Charge(c) => info.charge == c,
         AtomPrim::Isotope(i) => info.isotope == i,
@@ -82,11 +109,14 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
         }
     }
     let mut found = false;
-    search(pat, q, &q.plan_anchor, t, cache, Some(a), &mut |_| {
+    search(pat, q, &q.plan_anchor, t, cache, Some(a), None, &mut |_| {
         found = true;
         false
     });
-    if let Some(slot) = cache.get_mut(id) {
+    if cache.exhausted {
+        return false;
+    }
+    if let Some(slot) = cache.get_mut(id, pat.recursive.len()) {
         if slot.len() != t.atoms.len() {
             *slot = vec![0; t.atoms.len()];
         }
@@ -97,27 +127,91 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
     found
 }
 
-/// Does molecule bond `b` satisfy `expr`?
-pub(crate) fn bond_matches(expr: &BondExpr, b: usize, t: &Target) -> bool {
-    match expr {
-        BondExpr::Prim(p) => {
-            let Some(&order) = t.bond_order.get(b) else {
-                return false;
-            };
-            match p {
-                BondPrim::Single => order == BondOrder::Single,
-                BondPrim::Double => order == BondOrder::Double,
-                BondPrim::Triple => order == BondOrder::Triple,
-                BondPrim::Aromatic => order == BondOrder::Aromatic,
-                BondPrim::Any => true,
-                BondPrim::Ring => t.bond_ring.get(b).copied().unwrap_or(false),
-                BondPrim::Implicit => matches!(order, BondOrder::Single | BondOrder::Aromatic),
+/// Molecule atoms already found as anchors: a bit set on the stack for
+/// molecules up to 128 atoms, a vector beyond.
+pub(crate) enum DoneSet {
+    Bits(Cell<u128>),
+    Vec(Vec<Cell<bool>>),
+}
+
+impl DoneSet {
+    pub(crate) fn new(n: usize) -> DoneSet {
+        if n <= 128 {
+            DoneSet::Bits(Cell::new(0))
+        } else {
+            DoneSet::Vec(vec![Cell::new(false); n])
+        }
+    }
+    #[inline]
+    pub(crate) fn get(&self, a: usize) -> bool {
+        match self {
+            DoneSet::Bits(b) => a < 128 && b.get() >> a & 1 == 1,
+            DoneSet::Vec(v) => v.get(a).is_some_and(|c| c.get()),
+        }
+    }
+    #[inline]
+    pub(crate) fn set(&self, a: usize) {
+        match self {
+            DoneSet::Bits(b) => {
+                if a < 128 {
+                    b.set(b.get() | 1 << a);
+                }
+            }
+            DoneSet::Vec(v) => {
+                if let Some(c) = v.get(a) {
+                    c.set(true);
+                }
             }
         }
-        BondExpr::Not(e) => !bond_matches(e, b, t),
-        BondExpr::And(v) => v.iter().all(|e| bond_matches(e, b, t)),
-        BondExpr::Or(v) => v.iter().any(|e| bond_matches(e, b, t)),
     }
+    /// The atoms in the set, ascending.
+    pub(crate) fn atoms(&self) -> Vec<usize> {
+        match self {
+            DoneSet::Bits(b) => {
+                let mut bits = b.get();
+                let mut out = Vec::with_capacity(bits.count_ones() as usize);
+                while bits != 0 {
+                    out.push(bits.trailing_zeros() as usize);
+                    bits &= bits - 1;
+                }
+                out
+            }
+            DoneSet::Vec(v) => v
+                .iter()
+                .enumerate()
+                .filter(|(_, c)| c.get())
+                .map(|(i, _)| i)
+                .collect(),
+        }
+    }
+}
+
+/// Bond orders in the order used by [`super::QueryBond::mask`].
+pub(crate) const ORDERS: [BondOrder; 5] = [
+    BondOrder::Single,
+    BondOrder::Double,
+    BondOrder::Triple,
+    BondOrder::Quadruple,
+    BondOrder::Aromatic,
+];
+
+/// Does molecule bond `b` satisfy pattern bond `q`?
+#[inline]
+pub(crate) fn bond_matches(q: &QueryBond, b: usize, t: &Target) -> bool {
+    let Some(&order) = t.bond_order.get(b) else {
+        return false;
+    };
+    let mut state = match order {
+        BondOrder::Single => 0,
+        BondOrder::Double => 1,
+        BondOrder::Triple => 2,
+        BondOrder::Quadruple => 3,
+        BondOrder::Aromatic => 4,
+    };
+    if q.ring_sensitive && t.bond_in_ring(b) {
+        state += 5;
+    }
+    q.mask >> state & 1 == 1
 }
 
 /// Cheap test of a pattern atom against a molecule atom, then the full
@@ -131,21 +225,33 @@ pub(crate) fn query_atom_matches(
     pat: &Pattern,
     cache: &mut RecCache,
 ) -> bool {
-    let Some(qa) = q.atoms.get(p) else {
+    let (Some(qa), Some(info)) = (q.atoms.get(p), t.atoms.get(a)) else {
         return false;
     };
-    if let Some(e) = qa.element {
-        match t.atoms.get(a) {
-            Some(info) if info.element == e => {}
-            _ => return false,
-        }
+    let f = &qa.filter;
+    if f.element.is_some_and(|e| e != info.element)
+        || f.aromatic.is_some_and(|x| x != info.aromatic)
+        || f.hydrogens.is_some_and(|h| h != info.hydrogens)
+        || f.degree.is_some_and(|d| d != info.degree)
+        || f.connectivity
+            .is_some_and(|x| x as u16 != info.degree as u16 + info.hydrogens as u16)
+        || f.charge.is_some_and(|c| c != info.charge)
+        || (f.some_hydrogen && info.hydrogens == 0)
+    {
+        return false;
     }
-    atom_matches(&qa.expr, a, t, pat, cache)
+    match &qa.rest {
+        None => true,
+        Some(rest) => atom_matches(rest, a, t, pat, cache),
+    }
 }
 
 /// Enumerate matches of `q` following `plan`. With `start`, the first plan
 /// atom is fixed to that molecule atom. `visit` receives the mapping
-/// (pattern atom -> molecule atom) and returns whether to continue.
+/// (pattern atom -> molecule atom) and returns whether to continue. With
+/// `skip = (p, done)`, pattern atom `p` is never placed on an atom marked
+/// done (used to find each anchor atom once).
+#[allow(clippy::too_many_arguments)] // internal; each argument is a distinct role
 pub(crate) fn search(
     pat: &Pattern,
     q: &Query,
@@ -153,6 +259,7 @@ pub(crate) fn search(
     t: &Target,
     cache: &mut RecCache,
     start: Option<usize>,
+    skip: Option<(usize, &DoneSet)>,
     visit: &mut dyn FnMut(&[usize]) -> bool,
 ) {
     let depth = plan.len();
@@ -160,11 +267,22 @@ pub(crate) fn search(
         return;
     }
     let n = t.atoms.len();
-    let mut map = vec![usize::MAX; depth];
-    // Molecule atom chosen at each plan step, and the cursor into that
-    // step's candidate list.
-    let mut chosen = vec![usize::MAX; depth];
-    let mut cursor = vec![0usize; depth];
+    // Mapping (by pattern atom), molecule atom chosen at each plan step, and
+    // the cursor into that step's candidate list; on the stack for the
+    // usual small patterns.
+    const SMALL: usize = 16;
+    let mut small = [usize::MAX; 3 * SMALL];
+    let mut large = Vec::new();
+    let buf: &mut [usize] = if depth <= SMALL {
+        &mut small[..3 * depth]
+    } else {
+        large.resize(3 * depth, usize::MAX);
+        &mut large
+    };
+    let (map, rest) = buf.split_at_mut(depth);
+    let (chosen, cursor) = rest.split_at_mut(depth);
+    cursor.fill(0);
+    let skip_depth = skip.and_then(|(p, _)| plan.iter().position(|st| st.atom == p));
     let mut d = 0usize;
     loop {
         let step = &plan[d];
@@ -182,14 +300,14 @@ pub(crate) fn search(
                 }
                 (_, _, Some((pp, qb))) => {
                     let from = map[pp];
-                    let nbrs = t.adj.get(from).map(|v| v.as_slice()).unwrap_or(&[]);
+                    let nbrs = t.neighbors(from);
                     let mut got = None;
                     while cursor[d] < nbrs.len() {
-                        let (x, b) = nbrs[cursor[d]];
+                        let (x, b) = (nbrs[cursor[d]].atom, nbrs[cursor[d]].bond);
                         cursor[d] += 1;
                         if q.bonds
                             .get(qb)
-                            .is_some_and(|qbond| bond_matches(&qbond.expr, b, t))
+                            .is_some_and(|qbond| bond_matches(qbond, b, t))
                         {
                             got = Some(x);
                             break;
@@ -197,18 +315,42 @@ pub(crate) fn search(
                     }
                     got
                 }
-                _ => {
-                    if cursor[d] < n {
-                        cursor[d] += 1;
-                        Some(cursor[d] - 1)
-                    } else {
-                        None
+                _ => match q.atoms.get(step.atom).and_then(|qa| qa.filter.element) {
+                    // Only atoms of the required element.
+                    Some(e) => {
+                        let list = t.atoms_of_element(e);
+                        if cursor[d] < list.len() {
+                            cursor[d] += 1;
+                            Some(list[cursor[d] - 1])
+                        } else {
+                            None
+                        }
                     }
-                }
+                    None => {
+                        if cursor[d] < n {
+                            cursor[d] += 1;
+                            Some(cursor[d] - 1)
+                        } else {
+                            None
+                        }
+                    }
+                },
             };
             let Some(a) = cand else { break };
+            if cache.steps_left == 0 {
+                cache.exhausted = true;
+            }
+            if cache.exhausted {
+                return;
+            }
+            cache.steps_left -= 1;
             if chosen[..d].contains(&a) {
                 continue;
+            }
+            if let Some((p, done)) = skip {
+                if p == step.atom && done.get(a) {
+                    continue;
+                }
             }
             if !query_atom_matches(q, step.atom, a, t, pat, cache) {
                 continue;
@@ -216,7 +358,7 @@ pub(crate) fn search(
             let closures_ok = step.closures.iter().all(|&(other, qb)| {
                 let m = map[other];
                 match (t.bond_between(a, m), q.bonds.get(qb)) {
-                    (Some(b), Some(qbond)) => bond_matches(&qbond.expr, b, t),
+                    (Some(b), Some(qbond)) => bond_matches(qbond, b, t),
                     _ => false,
                 }
             });
@@ -230,8 +372,13 @@ pub(crate) fn search(
                 map[step.atom] = a;
                 chosen[d] = a;
                 if d + 1 == depth {
-                    if !visit(&map) {
+                    if !visit(map) {
                         return;
+                    }
+                    // This anchor atom is done: go straight back to the
+                    // anchor's step for its next candidate.
+                    if let Some(ad) = skip_depth {
+                        d = ad;
                     }
                 } else {
                     d += 1;

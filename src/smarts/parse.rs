@@ -38,127 +38,35 @@ pub const MAX_ATOMS: usize = 1000;
 /// Two-letter element symbols accepted inside brackets (aliphatic form).
 /// `Nh`, `Lv` and heavier artificial elements are left out so that `[Nh]`
 /// reads as nitrogen with an implicit hydrogen, as RDKit reads it.
+#[rustfmt::skip]
 const TWO_LETTER: &[(&str, u8)] = &[
-    ("He", 2),
-    ("Li", 3),
-    ("Be", 4),
-    ("Ne", 10),
-    ("Na", 11),
-    ("Mg", 12),
-    ("Al", 13),
-    ("Si", 14),
-    ("Cl", 17),
-    ("Ar", 18),
-    ("Ca", 20),
-    ("Sc", 21),
-    ("Ti", 22),
-    ("Cr", 24),
-    ("Mn", 25),
-    ("Fe", 26),
-    ("Co", 27),
-    ("Ni", 28),
-    ("Cu", 29),
-    ("Zn", 30),
-    ("Ga", 31),
-    ("Ge", 32),
-    ("As", 33),
-    ("Se", 34),
-    ("Br", 35),
-    ("Kr", 36),
-    ("Rb", 37),
-    ("Sr", 38),
-    ("Zr", 40),
-    ("Nb", 41),
-    ("Mo", 42),
-    ("Tc", 43),
-    ("Ru", 44),
-    ("Rh", 45),
-    ("Pd", 46),
-    ("Ag", 47),
-    ("Cd", 48),
-    ("In", 49),
-    ("Sn", 50),
-    ("Sb", 51),
-    ("Te", 52),
-    ("Xe", 54),
-    ("Cs", 55),
-    ("Ba", 56),
-    ("La", 57),
-    ("Ce", 58),
-    ("Pr", 59),
-    ("Nd", 60),
-    ("Pm", 61),
-    ("Sm", 62),
-    ("Eu", 63),
-    ("Gd", 64),
-    ("Tb", 65),
-    ("Dy", 66),
-    ("Ho", 67),
-    ("Er", 68),
-    ("Tm", 69),
-    ("Yb", 70),
-    ("Lu", 71),
-    ("Hf", 72),
-    ("Ta", 73),
-    ("Re", 75),
-    ("Os", 76),
-    ("Ir", 77),
-    ("Pt", 78),
-    ("Au", 79),
-    ("Hg", 80),
-    ("Tl", 81),
-    ("Pb", 82),
-    ("Bi", 83),
-    ("Po", 84),
-    ("At", 85),
-    ("Rn", 86),
-    ("Fr", 87),
-    ("Ra", 88),
-    ("Ac", 89),
-    ("Th", 90),
-    ("Pa", 91),
-    ("Np", 93),
-    ("Pu", 94),
-    ("Am", 95),
-    ("Cm", 96),
-    ("Bk", 97),
-    ("Cf", 98),
-    ("Es", 99),
-    ("Fm", 100),
-    ("Md", 101),
-    ("No", 102),
-    ("Lr", 103),
+    ("He", 2), ("Li", 3), ("Be", 4), ("Ne", 10), ("Na", 11), ("Mg", 12), ("Al", 13), ("Si", 14),
+    ("Cl", 17), ("Ar", 18), ("Ca", 20), ("Sc", 21), ("Ti", 22), ("Cr", 24), ("Mn", 25),
+    ("Fe", 26), ("Co", 27), ("Ni", 28), ("Cu", 29), ("Zn", 30), ("Ga", 31), ("Ge", 32),
+    ("As", 33), ("Se", 34), ("Br", 35), ("Kr", 36), ("Rb", 37), ("Sr", 38), ("Zr", 40),
+    ("Nb", 41), ("Mo", 42), ("Tc", 43), ("Ru", 44), ("Rh", 45), ("Pd", 46), ("Ag", 47),
+    ("Cd", 48), ("In", 49), ("Sn", 50), ("Sb", 51), ("Te", 52), ("Xe", 54), ("Cs", 55),
+    ("Ba", 56), ("La", 57), ("Ce", 58), ("Pr", 59), ("Nd", 60), ("Pm", 61), ("Sm", 62),
+    ("Eu", 63), ("Gd", 64), ("Tb", 65), ("Dy", 66), ("Ho", 67), ("Er", 68), ("Tm", 69),
+    ("Yb", 70), ("Lu", 71), ("Hf", 72), ("Ta", 73), ("Re", 75), ("Os", 76), ("Ir", 77),
+    ("Pt", 78), ("Au", 79), ("Hg", 80), ("Tl", 81), ("Pb", 82), ("Bi", 83), ("Po", 84),
+    ("At", 85), ("Rn", 86), ("Fr", 87), ("Ra", 88), ("Ac", 89), ("Th", 90), ("Pa", 91),
+    ("Np", 93), ("Pu", 94), ("Am", 95), ("Cm", 96), ("Bk", 97), ("Cf", 98), ("Es", 99),
+    ("Fm", 100), ("Md", 101), ("No", 102), ("Lr", 103),
 ];
 
 /// One-letter element symbols accepted inside brackets.
+#[rustfmt::skip]
 const ONE_LETTER: &[(char, u8)] = &[
-    ('B', 5),
-    ('C', 6),
-    ('N', 7),
-    ('O', 8),
-    ('F', 9),
-    ('P', 15),
-    ('S', 16),
-    ('K', 19),
-    ('V', 23),
-    ('Y', 39),
-    ('I', 53),
-    ('W', 74),
-    ('U', 92),
+    ('B', 5), ('C', 6), ('N', 7), ('O', 8), ('F', 9), ('P', 15), ('S', 16), ('K', 19),
+    ('V', 23), ('Y', 39), ('I', 53), ('W', 74), ('U', 92),
 ];
 
 /// Aromatic symbols accepted inside brackets.
+#[rustfmt::skip]
 const AROMATIC: &[(&str, u8)] = &[
-    ("se", 34),
-    ("as", 33),
-    ("te", 52),
-    ("si", 14),
-    ("b", 5),
-    ("c", 6),
-    ("n", 7),
-    ("o", 8),
-    ("p", 15),
-    ("s", 16),
+    ("se", 34), ("as", 33), ("te", 52), ("si", 14), ("b", 5), ("c", 6), ("n", 7), ("o", 8),
+    ("p", 15), ("s", 16),
 ];
 
 /// Result of parsing a whole pattern: the main query and every recursive
@@ -256,8 +164,7 @@ impl<'a> Parser<'a> {
         let mut pending: Option<(BondExpr, usize)> = None;
         // Whether a '.' was just read (the next atom starts a component).
         let mut dot_at: Option<usize> = None;
-        loop {
-            let Some(c) = self.peek() else { break };
+        while let Some(c) = self.peek() {
             match c {
                 '(' => {
                     let Some(a) = prev else {
@@ -339,16 +246,15 @@ impl<'a> Parser<'a> {
                         map,
                         position: start,
                         element: None,
+                        filter: Default::default(),
+                        rest: None,
                     });
                     if let Some(p) = prev {
                         let bond = pending
                             .take()
                             .map(|(b, _)| b)
                             .unwrap_or(BondExpr::Prim(BondPrim::Implicit));
-                        q.bonds.push(QueryBond {
-                            atoms: [p, idx],
-                            expr: bond,
-                        });
+                        q.bonds.push(QueryBond::new([p, idx], bond));
                     } else if q.atoms.len() > 1 && dot_at.is_none() {
                         // Only reachable after a closing ')' at depth 0,
                         // which always sets prev; kept as a guard.
@@ -441,10 +347,7 @@ impl<'a> Parser<'a> {
             let expr = bond
                 .or(open.bond)
                 .unwrap_or(BondExpr::Prim(BondPrim::Implicit));
-            q.bonds.push(QueryBond {
-                atoms: [open.atom, atom],
-                expr,
-            });
+            q.bonds.push(QueryBond::new([open.atom, atom], expr));
         } else {
             rings.push(OpenRing {
                 label,

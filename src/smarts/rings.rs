@@ -7,7 +7,33 @@
 //! SMARTS primitives `R`, `r`, `x` and `@` on exactly the ring set RDKit
 //! uses, which the reference checks compare against.
 
+use crate::mol::Molecule;
+
 /// Ring information per atom and bond.
+pub(crate) struct Adj<'a>(pub &'a Molecule);
+
+impl Adj<'_> {
+    fn len(&self) -> usize {
+        self.0.atoms.len()
+    }
+    fn edge_count(&self) -> usize {
+        self.0.bonds.len()
+    }
+    fn degree(&self, a: usize) -> usize {
+        self.0.neighbors(a).len()
+    }
+    fn nth(&self, a: usize, i: usize) -> (usize, usize) {
+        self.0
+            .neighbors(a)
+            .get(i)
+            .map_or((a, usize::MAX), |n| (n.atom, n.bond))
+    }
+    fn of(&self, a: usize) -> impl Iterator<Item = (usize, usize)> + '_ {
+        self.0.neighbors(a).iter().map(|n| (n.atom, n.bond))
+    }
+}
+
+#[derive(Debug, Clone)]
 pub(crate) struct Rings {
     pub bond_in_ring: Vec<bool>,
     pub atom_rings: Vec<u8>,
@@ -20,31 +46,45 @@ pub(crate) struct Rings {
 /// instead of the full basis, so hostile input cannot make perception slow.
 const EXACT_LIMIT: usize = 4_000_000;
 
-pub(crate) fn perceive(n: usize, adj: &[Vec<(usize, usize)>], n_bonds: usize) -> Rings {
+/// Ring bonds only (cheap): bonds that are not bridges.
+pub(crate) fn ring_bonds(adj: &Adj) -> Vec<bool> {
+    let n = adj.len();
+    let mut ring = vec![false; adj.edge_count()];
+    if adj.edge_count() < n && is_forest(n, adj) {
+        return ring;
+    }
+    mark_ring_bonds(n, adj, &mut ring);
+    ring
+}
+
+/// The symmetrised SSSR, given the ring bonds.
+pub(crate) fn perceive(adj: &Adj, bond_in_ring: &[bool]) -> Rings {
+    let n = adj.len();
     let mut out = Rings {
-        bond_in_ring: vec![false; n_bonds],
+        bond_in_ring: bond_in_ring.to_vec(),
         atom_rings: vec![0; n],
         atom_min_ring: vec![0; n],
         count: 0,
     };
-    // Quick exit: a forest has no rings. Count distinct valid bonds.
-    let edges: usize = adj.iter().map(|v| v.len()).sum::<usize>() / 2;
-    if edges + 1 <= n && is_forest(n, adj) {
+    if !bond_in_ring.iter().any(|&r| r) {
         return out;
     }
-    mark_ring_bonds(n, adj, &mut out.bond_in_ring);
     // Ring systems: components over ring bonds.
     let mut system = vec![usize::MAX; n];
     let mut n_systems = 0;
     for s in 0..n {
-        if system[s] != usize::MAX || !adj[s].iter().any(|&(_, b)| out.bond_in_ring[b]) {
+        if system[s] != usize::MAX
+            || !adj
+                .of(s)
+                .any(|(_, b)| out.bond_in_ring.get(b) == Some(&true))
+        {
             continue;
         }
         let mut stack = vec![s];
         system[s] = n_systems;
         while let Some(a) = stack.pop() {
-            for &(x, b) in &adj[a] {
-                if out.bond_in_ring[b] && system[x] == usize::MAX {
+            for (x, b) in adj.of(a) {
+                if out.bond_in_ring.get(b) == Some(&true) && system[x] == usize::MAX {
                     system[x] = n_systems;
                     stack.push(x);
                 }
@@ -59,12 +99,12 @@ pub(crate) fn perceive(n: usize, adj: &[Vec<(usize, usize)>], n_bonds: usize) ->
         }
     }
     for atoms in &members {
-        ring_system(atoms, adj, &out.bond_in_ring.clone(), &mut out);
+        ring_system(atoms, adj, bond_in_ring, &mut out);
     }
     out
 }
 
-fn is_forest(n: usize, adj: &[Vec<(usize, usize)>]) -> bool {
+fn is_forest(n: usize, adj: &Adj) -> bool {
     let mut seen = vec![false; n];
     for s in 0..n {
         if seen[s] {
@@ -74,7 +114,7 @@ fn is_forest(n: usize, adj: &[Vec<(usize, usize)>]) -> bool {
         // (atom, bond used to reach it)
         let mut stack = vec![(s, usize::MAX)];
         while let Some((a, via)) = stack.pop() {
-            for &(x, b) in &adj[a] {
+            for (x, b) in adj.of(a) {
                 if b == via {
                     continue;
                 }
@@ -91,7 +131,7 @@ fn is_forest(n: usize, adj: &[Vec<(usize, usize)>]) -> bool {
 
 /// Bridges by iterative depth-first search with low-links; every other
 /// bond is a ring bond.
-fn mark_ring_bonds(n: usize, adj: &[Vec<(usize, usize)>], ring: &mut [bool]) {
+fn mark_ring_bonds(n: usize, adj: &Adj, ring: &mut [bool]) {
     let mut disc = vec![usize::MAX; n];
     let mut low = vec![0usize; n];
     let mut time = 0;
@@ -106,9 +146,9 @@ fn mark_ring_bonds(n: usize, adj: &[Vec<(usize, usize)>], ring: &mut [bool]) {
         time += 1;
         while let Some(frame) = stack.last_mut() {
             let (a, via, i) = *frame;
-            if i < adj[a].len() {
+            if i < adj.degree(a) {
                 frame.2 += 1;
-                let (x, b) = adj[a][i];
+                let (x, b) = adj.nth(a, i);
                 if b == via {
                     continue;
                 }
@@ -185,11 +225,11 @@ impl Basis {
     }
 }
 
-fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out: &mut Rings) {
+fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
     // Local edge numbering for this system's ring bonds.
     let mut local_edge: std::collections::HashMap<usize, usize> = Default::default();
     for &a in atoms {
-        for &(_, b) in &adj[a] {
+        for (_, b) in adj.of(a) {
             if ring.get(b).copied().unwrap_or(false) {
                 let k = local_edge.len();
                 local_edge.entry(b).or_insert(k);
@@ -234,7 +274,7 @@ fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
         let mut order = Vec::with_capacity(v);
         while let Some(a) = queue.pop_front() {
             order.push(a);
-            for &(x, b) in &adj[a] {
+            for (x, b) in adj.of(a) {
                 if ring[b] && in_system(x) && dist[x] == usize::MAX {
                     dist[x] = dist[a] + 1;
                     parent[x] = (a, b);
@@ -243,7 +283,7 @@ fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
             }
         }
         for &x in &order {
-            for &(y, b) in &adj[x] {
+            for (y, b) in adj.of(x) {
                 if !ring[b] || x > y || parent[x].1 == b || parent[y].1 == b {
                     continue;
                 }
@@ -308,7 +348,7 @@ fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
     // Edge list of the system in local numbering.
     let mut ends = vec![(0usize, 0usize); e];
     for &a in atoms {
-        for &(x, b) in &adj[a] {
+        for (x, b) in adj.of(a) {
             if let Some(&k) = local_edge.get(&b) {
                 ends[k] = (a.min(x), a.max(x));
             }
@@ -355,7 +395,7 @@ fn ring_system(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
 
 /// Cheap stand-in for very large ring systems: each atom counts one ring,
 /// of the size of the shortest cycle through it.
-fn approximate(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out: &mut Rings) {
+fn approximate(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
     let n = adj.len();
     let mut dist = vec![usize::MAX; n];
     for &a in atoms {
@@ -372,7 +412,7 @@ fn approximate(atoms: &[usize], adj: &[Vec<(usize, usize)>], ring: &[bool], out:
             if dist[x] * 2 >= best {
                 break;
             }
-            for &(y, b) in &adj[x] {
+            for (y, b) in adj.of(x) {
                 if !ring[b] {
                     continue;
                 }
@@ -410,7 +450,7 @@ fn cycles_through(
     len: usize,
     ends: &[(usize, usize)],
     local_edge: &std::collections::HashMap<usize, usize>,
-    adj: &[Vec<(usize, usize)>],
+    adj: &Adj,
     ring: &[bool],
     words: usize,
 ) -> Vec<(Vec<usize>, Bits)> {
@@ -424,7 +464,7 @@ fn cycles_through(
     let mut queue = std::collections::VecDeque::from([a]);
     while let Some(x) = queue.pop_front() {
         let dx = dist[&x];
-        for &(y, bond) in &adj[x] {
+        for (y, bond) in adj.of(x) {
             if !ring.get(bond).copied().unwrap_or(false) || local_edge.get(&bond) == Some(&k) {
                 continue;
             }
@@ -447,8 +487,7 @@ fn cycles_through(
         }
         let depth = path.len() - 1; // edges used so far
         let i = cursor[depth];
-        let nbrs = &adj[x];
-        if x == a || i >= nbrs.len() {
+        if x == a || i >= adj.degree(x) {
             if x == a && depth == len - 1 {
                 let mut bits = vec![0u64; words];
                 bit_set(&mut bits, k);
@@ -463,7 +502,7 @@ fn cycles_through(
             continue;
         }
         cursor[depth] += 1;
-        let (y, bond) = nbrs[i];
+        let (y, bond) = adj.nth(x, i);
         let Some(&le) = local_edge.get(&bond) else {
             continue;
         };

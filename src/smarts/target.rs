@@ -1,8 +1,11 @@
 //! A molecule prepared for matching: per-atom counts that the SMARTS
-//! primitives ask for, ring information, adjacency and element counts for
-//! the pre-screens. Built once per molecule and shared by every pattern.
+//! primitives ask for, element counts for the pre-screens, and ring
+//! information computed on first use (ring bonds when a pattern asks about
+//! rings at all, the ring set only for `R n` and `r n`).
 
+use super::rings::{self, Adj, Rings};
 use crate::mol::{BondOrder, Molecule};
+use std::cell::OnceCell;
 
 /// Per-atom values the primitives test.
 #[derive(Debug, Clone, Copy, Default)]
@@ -17,112 +20,101 @@ pub(crate) struct AtomInfo {
     pub degree: u8,
     /// Total valence (v): Kekulé bond orders plus hydrogens.
     pub valence: u8,
-    /// Number of SSSR rings containing the atom (R n).
-    pub rings: u8,
-    /// Smallest SSSR ring containing the atom, 0 if none (r n).
-    pub min_ring: u8,
-    /// Ring bonds on the atom (x n).
-    pub ring_bonds: u8,
+}
+
+/// Ring bonds and per-atom ring-bond counts.
+#[derive(Debug, Clone)]
+pub(crate) struct RingBonds {
+    pub bond_in_ring: Vec<bool>,
+    pub atom_ring_bonds: Vec<u8>,
+    pub any: bool,
 }
 
 /// A molecule prepared for matching many patterns. Build it once per
 /// molecule with [`Target::new`] and pass it to the `*_in` methods of
-/// [`super::Pattern`] when running more than one pattern.
+/// [`super::Pattern`] when running more than one pattern. Not shared
+/// between threads (ring information is filled in on first use).
 #[derive(Debug, Clone)]
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
     pub(crate) atoms: Vec<AtomInfo>,
-    /// Adjacency: (neighbour atom, bond index).
-    pub(crate) adj: Vec<Vec<(usize, usize)>>,
     pub(crate) bond_order: Vec<BondOrder>,
-    pub(crate) bond_ring: Vec<bool>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
     pub(crate) aromatic_count: usize,
-    pub(crate) ring_count: usize,
-    /// Atoms in input order grouped by atomic number, for anchored scans.
-    pub(crate) by_element: Vec<Vec<usize>>,
+    /// Non-aromatic double and triple bonds, aromatic bonds.
+    pub(crate) double_count: usize,
+    pub(crate) triple_count: usize,
+    pub(crate) aromatic_bond_count: usize,
+    /// Atom indices grouped by element (ascending within a group) and the
+    /// groups as (element, start, end).
+    by_element: Vec<usize>,
+    groups: Vec<(u8, usize, usize)>,
+    ring_bonds: OnceCell<RingBonds>,
+    ring_set: OnceCell<Rings>,
 }
 
 impl<'m> Target<'m> {
-    /// Prepare `mol` for matching. Bonds that name atoms out of range are
-    /// ignored, so a malformed molecule cannot make matching panic.
+    /// Prepare `mol` for matching.
     pub fn new(mol: &'m Molecule) -> Target<'m> {
-        let n = mol.atoms.len();
-        let mut adj: Vec<Vec<(usize, usize)>> = vec![Vec::new(); n];
-        let mut atoms: Vec<AtomInfo> = mol
-            .atoms
-            .iter()
-            .map(|a| AtomInfo {
+        let mut element_count = [0u16; 128];
+        let mut aromatic_count = 0;
+        let mut atoms: Vec<AtomInfo> = Vec::with_capacity(mol.atoms.len());
+        for (i, a) in mol.atoms.iter().enumerate() {
+            let nbrs = mol.neighbors(i);
+            let mut valence = a.hydrogens as u32;
+            for nb in nbrs {
+                valence += mol
+                    .bonds
+                    .get(nb.bond)
+                    .map_or(0, |b| match (b.kekule, b.order) {
+                        (k, _) if k > 0 => k as u32,
+                        (_, o) => o.as_u8() as u32,
+                    });
+            }
+            let e = (a.element as usize).min(127);
+            element_count[e] = element_count[e].saturating_add(1);
+            if a.aromatic {
+                aromatic_count += 1;
+            }
+            atoms.push(AtomInfo {
                 element: a.element,
                 aromatic: a.aromatic,
                 charge: a.charge,
                 isotope: a.isotope.unwrap_or(0),
                 hydrogens: a.hydrogens,
-                degree: 0,
-                valence: a.hydrogens,
-                rings: 0,
-                min_ring: 0,
-                ring_bonds: 0,
-            })
-            .collect();
-        let mut bond_order = Vec::with_capacity(mol.bonds.len());
-        for (bi, b) in mol.bonds.iter().enumerate() {
-            bond_order.push(b.order);
-            let [x, y] = b.atoms;
-            if x >= n || y >= n || x == y {
-                continue;
-            }
-            adj[x].push((y, bi));
-            adj[y].push((x, bi));
-            let order = match (b.kekule, b.order) {
-                (k, _) if k > 0 => k,
-                (_, BondOrder::Single | BondOrder::Aromatic) => 1,
-                (_, BondOrder::Double) => 2,
-                (_, BondOrder::Triple) => 3,
-                (_, BondOrder::Quadruple) => 4,
-            };
-            for a in [x, y] {
-                atoms[a].degree = atoms[a].degree.saturating_add(1);
-                atoms[a].valence = atoms[a].valence.saturating_add(order);
-            }
+                degree: nbrs.len().min(255) as u8,
+                valence: valence.min(255) as u8,
+            });
         }
-        let rings = super::rings::perceive(n, &adj, mol.bonds.len());
-        let mut bond_ring = rings.bond_in_ring;
-        bond_ring.resize(mol.bonds.len(), false);
-        for (i, info) in atoms.iter_mut().enumerate() {
-            info.rings = rings.atom_rings.get(i).copied().unwrap_or(0);
-            info.min_ring = rings.atom_min_ring.get(i).copied().unwrap_or(0);
-            info.ring_bonds = adj[i]
-                .iter()
-                .filter(|&&(_, b)| bond_ring.get(b).copied().unwrap_or(false))
-                .count()
-                .min(255) as u8;
-        }
-        let mut element_count = [0u16; 128];
-        let mut by_element: Vec<Vec<usize>> = Vec::new();
-        let mut aromatic_count = 0;
-        for (i, a) in atoms.iter().enumerate() {
-            let e = (a.element as usize).min(127);
-            element_count[e] = element_count[e].saturating_add(1);
-            if by_element.len() <= e {
-                by_element.resize(e + 1, Vec::new());
-            }
-            by_element[e].push(i);
-            if a.aromatic {
-                aromatic_count += 1;
+        let bond_order: Vec<BondOrder> = mol.bonds.iter().map(|b| b.order).collect();
+        let count = |o| bond_order.iter().filter(|&&x| x == o).count();
+        let double_count = count(BondOrder::Double);
+        let triple_count = count(BondOrder::Triple);
+        let aromatic_bond_count = count(BondOrder::Aromatic);
+        let mut by_element: Vec<usize> = (0..atoms.len()).collect();
+        by_element.sort_by_key(|&i| atoms[i].element);
+        let mut groups: Vec<(u8, usize, usize)> = Vec::new();
+        for (k, &i) in by_element.iter().enumerate() {
+            let e = atoms[i].element;
+            match groups.last_mut() {
+                Some(g) if g.0 == e => g.2 = k + 1,
+                _ => groups.push((e, k, k + 1)),
             }
         }
         Target {
             mol,
             atoms,
-            adj,
             bond_order,
-            bond_ring,
+            double_count,
+            triple_count,
+            aromatic_bond_count,
+            by_element,
+            groups,
             element_count,
             aromatic_count,
-            ring_count: rings.count,
-            by_element,
+            ring_bonds: OnceCell::new(),
+            ring_set: OnceCell::new(),
         }
     }
 
@@ -136,18 +128,93 @@ impl<'m> Target<'m> {
         self.atoms.len()
     }
 
-    /// Number of rings in the ring set used for `R` and `r` (SSSR,
-    /// symmetrised as RDKit does).
+    /// Number of rings in the ring set used for `R n` and `r n` (SSSR,
+    /// symmetrised as RDKit does: cubane has six).
     pub fn ring_count(&self) -> usize {
-        self.ring_count
+        self.ring_set().count
+    }
+
+    /// Number of rings (from the set above) containing atom `a`.
+    pub fn atom_ring_count(&self, a: usize) -> u8 {
+        self.ring_set().atom_rings.get(a).copied().unwrap_or(0)
+    }
+
+    /// Size of the smallest ring (from the set above) containing atom `a`;
+    /// 0 if none.
+    pub fn smallest_ring(&self, a: usize) -> u8 {
+        self.ring_set().atom_min_ring.get(a).copied().unwrap_or(0)
+    }
+
+    /// Is bond `b` in a ring?
+    pub fn bond_in_ring(&self, b: usize) -> bool {
+        self.ring_bonds()
+            .bond_in_ring
+            .get(b)
+            .copied()
+            .unwrap_or(false)
+    }
+
+    /// Number of ring bonds at atom `a`.
+    pub fn ring_bond_count(&self, a: usize) -> u8 {
+        self.ring_bonds()
+            .atom_ring_bonds
+            .get(a)
+            .copied()
+            .unwrap_or(0)
+    }
+
+    /// Does the molecule have any ring?
+    pub fn has_ring(&self) -> bool {
+        self.ring_bonds().any
+    }
+
+    pub(crate) fn ring_bonds(&self) -> &RingBonds {
+        self.ring_bonds.get_or_init(|| {
+            let bond_in_ring = rings::ring_bonds(&Adj(self.mol));
+            let atom_ring_bonds = (0..self.atoms.len())
+                .map(|a| {
+                    self.mol
+                        .neighbors(a)
+                        .iter()
+                        .filter(|nb| bond_in_ring.get(nb.bond).copied().unwrap_or(false))
+                        .count()
+                        .min(255) as u8
+                })
+                .collect();
+            let any = bond_in_ring.iter().any(|&r| r);
+            RingBonds {
+                bond_in_ring,
+                atom_ring_bonds,
+                any,
+            }
+        })
+    }
+
+    fn ring_set(&self) -> &Rings {
+        self.ring_set.get_or_init(|| {
+            let rb = self.ring_bonds();
+            rings::perceive(&Adj(self.mol), &rb.bond_in_ring)
+        })
+    }
+
+    /// Atoms of element `e`, ascending.
+    #[inline]
+    pub(crate) fn atoms_of_element(&self, e: u8) -> &[usize] {
+        match self.groups.iter().find(|g| g.0 == e) {
+            Some(&(_, s, x)) => self.by_element.get(s..x).unwrap_or(&[]),
+            None => &[],
+        }
+    }
+
+    /// Neighbours of atom `a`.
+    #[inline]
+    pub(crate) fn neighbors(&self, a: usize) -> &'m [crate::mol::Neighbor] {
+        self.mol.neighbors(a)
     }
 
     /// Bond index joining atoms `a` and `b`, if any.
+    #[inline]
     pub(crate) fn bond_between(&self, a: usize, b: usize) -> Option<usize> {
-        self.adj
-            .get(a)?
-            .iter()
-            .find(|&&(x, _)| x == b)
-            .map(|&(_, bond)| bond)
+        self.mol.bond_between(a, b)
     }
 }

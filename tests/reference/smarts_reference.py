@@ -10,7 +10,12 @@ atom (isotopic ones too) is removed into its heavy atom, which is the model
 acidsite's molecule core uses (hydrogens folded, no index). Counts are
 GetSubstructMatches(pattern, uniquify=True, maxMatches=10**6).
 
-Usage (from the repository root): python3 tests/reference/smarts_reference.py [data_dir]
+Usage (from the repository root):
+    python3 tests/reference/smarts_reference.py [data_dir]
+    python3 tests/reference/smarts_reference.py [data_dir] --out DIR --scale K
+The second form writes a K-times larger sample to DIR (not committed), for the
+ignored test `count_unique_given_large_sample_agrees_with_rdkit`
+(SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts_reference -- --ignored).
 """
 import csv
 import os
@@ -23,7 +28,18 @@ RDLogger.DisableLog("rdApp.*")
 HERE = os.path.dirname(os.path.abspath(__file__))
 ROOT = os.path.dirname(os.path.dirname(HERE))
 CORPUS = os.path.join(ROOT, "corpus", "smarts")
-DATA = sys.argv[1] if len(sys.argv) > 1 else os.path.join(ROOT, "..", "shared", "data")
+ARGS = sys.argv[1:]
+OUT = CORPUS
+SCALE = 1
+if "--out" in ARGS:
+    i = ARGS.index("--out")
+    OUT = ARGS[i + 1]
+    del ARGS[i : i + 2]
+if "--scale" in ARGS:
+    i = ARGS.index("--scale")
+    SCALE = int(ARGS[i + 1])
+    del ARGS[i : i + 2]
+DATA = ARGS[0] if ARGS else os.path.join(ROOT, "..", "shared", "data")
 
 # (label, path, smiles column, sample size)
 SOURCES = [
@@ -105,6 +121,7 @@ def sample():
         rows = sorted(set(rows))
         rng.shuffle(rows)
         taken = 0
+        k = k * SCALE
         for s in rows:
             if taken == k:
                 break
@@ -130,8 +147,9 @@ def main():
             sys.exit(f"RDKit cannot parse pattern {name}: {smarts}")
         queries.append(q)
     mols = sample()
-    with open(os.path.join(CORPUS, "molecules.tsv"), "w") as fm, open(
-        os.path.join(CORPUS, "expected.tsv"), "w"
+    os.makedirs(OUT, exist_ok=True)
+    with open(os.path.join(OUT, "molecules.tsv"), "w") as fm, open(
+        os.path.join(OUT, "expected.tsv"), "w"
     ) as fe:
         fm.write("# id\tsource\tsmiles\trdkit_atoms\trdkit_aromatic_atoms\trdkit_aromatic_bonds\n")
         fe.write(f"# RDKit {rdBase.rdkitVersion}; id then unique match counts in patterns.tsv order\n")
@@ -149,7 +167,7 @@ def main():
                 len(m.GetSubstructMatches(q, uniquify=True, maxMatches=10**6)) for q in queries
             ]
             fe.write(mid + "\t" + ",".join(map(str, counts)) + "\n")
-    print(f"{len(mols)} molecules x {len(patterns)} patterns written to {CORPUS}")
+    print(f"{len(mols)} molecules x {len(patterns)} patterns written to {OUT}")
 
 
 if __name__ == "__main__":
