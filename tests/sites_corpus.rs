@@ -123,8 +123,12 @@ fn run(rows: &[Row], label: &str) -> Outcome {
             .unwrap_or_else(|e| panic!("{}: {} does not parse: {e}", r.id, r.smiles));
         let report = find_sites(&mol);
         let Some(site) = site_for(&mol, &report.sites, r.site_atom) else {
-            println!("{:<8} {:<7} {:<40} MISSED site atom {}", r.id, r.split, r.name, r.site_atom);
-            o.missed.push(format!("{} {} atom {}", r.id, r.smiles, r.site_atom));
+            println!(
+                "{:<8} {:<7} {:<40} MISSED site atom {}",
+                r.id, r.split, r.name, r.site_atom
+            );
+            o.missed
+                .push(format!("{} {} atom {}", r.id, r.smiles, r.site_atom));
             continue;
         };
         let mut errs = [None, None];
@@ -139,7 +143,10 @@ fn run(rows: &[Row], label: &str) -> Outcome {
                 (Some(p), Some(l)) => {
                     let e = p - l;
                     errs[k] = Some(e);
-                    o.mae.entry((scale.into(), r.split.clone())).or_default().add(e);
+                    o.mae
+                        .entry((scale.into(), r.split.clone()))
+                        .or_default()
+                        .add(e);
                     o.by_class
                         .entry((r.class.clone(), scale.into()))
                         .or_default()
@@ -183,7 +190,10 @@ fn run(rows: &[Row], label: &str) -> Outcome {
     for ((class, scale), t) in &o.by_class {
         println!("   {class:<22} {scale:<6} n={:<4} MAE={:.2}", t.n, t.mae());
     }
-    println!("-- {label}: literature value but no estimate: {:?}", o.no_estimate);
+    println!(
+        "-- {label}: literature value but no estimate: {:?}",
+        o.no_estimate
+    );
     println!("-- {label}: missed sites: {}", o.missed.len());
     o
 }
@@ -228,7 +238,11 @@ fn find_sites_given_water_carbon_acids_finds_every_site() {
     println!("water MAE all {m:.2} (n={n}), train {mt:.2} (n={nt}), holdout {mh:.2} (n={nh})");
     // Water estimates exist only where a rule has a water basis; the
     // coverage is reported above. Limit chosen for this subset: 1.5.
-    assert!(n >= rows.len() / 2, "water estimates for only {n} of {} rows", rows.len());
+    assert!(
+        n >= rows.len() / 2,
+        "water estimates for only {n} of {} rows",
+        rows.len()
+    );
     assert!(m <= 1.5, "water MAE {m:.2} > 1.5");
 }
 
@@ -255,7 +269,10 @@ fn find_sites_given_common_practice_figures_agrees() {
         let tol = if r.water.is_some() { 1.5 } else { 8.5 };
         match pred {
             Some(p) if (p - lit).abs() <= tol => {}
-            other => bad.push(format!("{} {}: got {other:?}, common practice {lit}", r.id, r.name)),
+            other => bad.push(format!(
+                "{} {}: got {other:?}, common practice {lit}",
+                r.id, r.name
+            )),
         }
     }
     assert!(bad.is_empty(), "{bad:#?}");
@@ -337,6 +354,12 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CN(C)CC(C)=O", "I-CO-NR"),
     ("CC(=O)COC(C)=O", "I-CO-OAC"),
     ("CC(=O)CC=C", "I-CO-VIN1"),
+    ("CC(C#N)C#N", "I-MN-ALK1"),
+    ("CC=CC(C)=O", "C-VINCO-01"),
+    ("COCCO", "I-AL-HETB"),
+    ("[NH3+]CC(F)(F)F", "I-NH-FB"),
+    ("CC(=O)C1C(=O)CC(C)(C)CC1=O", "I-CD-ACY"),
+    ("O=C1C(c2ccccc2)C(=O)c2ccccc21", "I-CD-ARY1"),
     ("CC(=O)C1CC1", "I-CO-R3"),
     ("CC(=O)C1CCC1", "I-CO-R4"),
     ("O=CCS(=O)(=O)c1ccccc1", "I-CO-SO2"),
@@ -377,3 +400,44 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CS(=O)(=O)O", "O-SULFA-01"),
     ("O", "O-WATER-01"),
 ];
+
+/// Kinetic / thermodynamic sides of unsymmetrical ketones
+/// (`corpus/sites/regio.tsv`, common practice).
+#[test]
+fn find_sites_given_regio_table_marks_each_side() {
+    let text = std::fs::read_to_string("corpus/sites/regio.tsv").expect("regio.tsv");
+    let mut cols: Vec<&str> = Vec::new();
+    let mut bad = Vec::new();
+    let mut n = 0;
+    for line in text
+        .lines()
+        .filter(|l| !l.starts_with('#') && !l.trim().is_empty())
+    {
+        let cells: Vec<&str> = line.split('\t').collect();
+        if cols.is_empty() {
+            cols = cells;
+            continue;
+        }
+        let get = |c: &str| cells[cols.iter().position(|x| *x == c).expect(c)];
+        let mol = Molecule::from_smiles(get("smiles")).expect("parses");
+        let sites = find_sites(&mol).sites;
+        let atom: usize = get("site_atom").parse().expect("site_atom");
+        let got = site_for(&mol, &sites, atom)
+            .and_then(|s| s.regio)
+            .map(|r| match r {
+                acidsite::sites::Regio::Kinetic => "kinetic",
+                acidsite::sites::Regio::Thermodynamic => "thermodynamic",
+            });
+        n += 1;
+        if got != Some(get("regio")) {
+            bad.push(format!(
+                "{} {}: got {got:?}, expected {}",
+                get("id"),
+                get("name"),
+                get("regio")
+            ));
+        }
+    }
+    assert!(n >= 10);
+    assert!(bad.is_empty(), "{bad:#?}");
+}

@@ -19,44 +19,65 @@ fn line_of(rules: &str, incs: &str, sources: &str) -> Option<(String, usize)> {
 
 #[test]
 fn parse_rule_set_given_bad_number_reports_file_and_line() {
-    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\ttwenty\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    let rules =
+        with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\ttwenty\t\t1.0\t\t\t\tfrom-memory\t");
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_unknown_citation_key_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tnobody1999\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_missing_cell_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_no_value_on_either_scale_reports_line() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_rho_without_sigma_kind_reports_line() {
-    let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t3.5\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 4)));
+    let rules =
+        with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t3.5\t\t\tfrom-memory\t");
+    assert_eq!(
+        line_of(&rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 4))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_missing_version_header_fails() {
     let rules = "id\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
-    assert_eq!(line_of(rules, INC_HEADER, SOURCES), Some(("r.tsv".into(), 0)));
+    assert_eq!(
+        line_of(rules, INC_HEADER, SOURCES),
+        Some(("r.tsv".into(), 0))
+    );
 }
 
 #[test]
 fn parse_rule_set_given_bad_increment_kind_reports_increment_file() {
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
-    let incs = format!("{INC_HEADER}I-1\tmethylene\tcarbonyl\t1\t0.5\t\t0.5\t\t\t\tfrom-memory\t\n");
+    let incs =
+        format!("{INC_HEADER}I-1\tmethylene\tcarbonyl\t1\t0.5\t\t0.5\t\t\t\tfrom-memory\t\n");
     // The pattern is compiled only after the cheap checks of its row, so the
     // increment file is reached only when SMARTS parsing works.
     let got = line_of(&rules, &incs, SOURCES);
@@ -70,7 +91,10 @@ fn parse_rule_set_given_bad_increment_kind_reports_increment_file() {
 fn parse_rule_set_given_duplicate_source_key_reports_sources_line() {
     let sources = "key\treference\nfrom-memory\tx\nfrom-memory\ty\n";
     let rules = with_row("C-X-01\tC\t[CH3:1]C=O\tketone\tcarbonyl\t20\t\t1.0\t\t\t\tfrom-memory\t");
-    assert_eq!(line_of(&rules, INC_HEADER, sources), Some(("s.tsv".into(), 3)));
+    assert_eq!(
+        line_of(&rules, INC_HEADER, sources),
+        Some(("s.tsv".into(), 3))
+    );
 }
 
 #[test]
@@ -97,4 +121,39 @@ fn rule_set_given_embedded_files_is_valid() {
     }
     let sigma = acidsite::sites::sigma_table().expect("sigma table is valid");
     assert!(sigma.entries.len() >= 20);
+}
+
+#[test]
+fn sigma_table_parse_given_bad_value_reports_line() {
+    use acidsite::sites::SigmaTable;
+    let text = "# c\nid\tsubstituent_smiles\tname\tsigma_meta\tsigma_para\tsigma_para_minus\tsource\ns-x\t[*]Cl\tchloro\tlots\t0.23\t\tfrom-memory\n";
+    let e = SigmaTable::parse("sigma.tsv", text).expect_err("bad value");
+    assert_eq!((e.file.as_str(), e.line), ("sigma.tsv", 3));
+    let text = "id\tsubstituent_smiles\tname\tsigma_meta\tsigma_para\tsigma_para_minus\tsource\ns-x\tCl\tchloro\t0.37\t0.23\t\tfrom-memory\n";
+    let e = SigmaTable::parse("sigma.tsv", text).expect_err("no attachment point");
+    assert_eq!(e.line, 2);
+}
+
+#[test]
+fn sigma_table_lookup_given_para_nitro_finds_nitro() {
+    // fragments/sigma.tsv: nitro sigma_para 0.78 (Hansch, Leo & Taft 1991).
+    let sigma = acidsite::sites::sigma_table().expect("valid");
+    let nitro = sigma
+        .entries
+        .iter()
+        .find(|e| e.name == "nitro")
+        .expect("nitro row");
+    assert!((nitro.sigma_p - 0.78).abs() < 1e-9);
+    let mol = acidsite::mol::Molecule::from_smiles("Oc1ccc([N+](=O)[O-])cc1").expect("parses");
+    let r = acidsite::sites::find_sites(&mol);
+    let oh = r
+        .sites
+        .iter()
+        .find(|s| s.atoms == vec![0])
+        .expect("phenol O-H");
+    assert!(
+        oh.rules.iter().any(|u| u.id.ends_with("sigma-p-:nitro")),
+        "{:?}",
+        oh.rules
+    );
 }

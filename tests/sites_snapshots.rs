@@ -51,9 +51,15 @@ macro_rules! snap {
 // Simple carbonyls and carbon acids.
 snap!(find_sites_given_acetone, "CC(C)=O");
 snap!(find_sites_given_butanone_marks_regio, "CCC(C)=O");
-snap!(find_sites_given_2_methylcyclohexanone_marks_regio, "CC1CCCCC1=O");
+snap!(
+    find_sites_given_2_methylcyclohexanone_marks_regio,
+    "CC1CCCCC1=O"
+);
 snap!(find_sites_given_acetophenone, "CC(=O)c1ccccc1");
-snap!(find_sites_given_4_nitroacetophenone, "CC(=O)c1ccc([N+](=O)[O-])cc1");
+snap!(
+    find_sites_given_4_nitroacetophenone,
+    "CC(=O)c1ccc([N+](=O)[O-])cc1"
+);
 snap!(find_sites_given_ethyl_acetate, "CCOC(C)=O");
 snap!(find_sites_given_propanal, "CCC=O");
 snap!(find_sites_given_dimethylacetamide, "CN(C)C(C)=O");
@@ -74,8 +80,14 @@ snap!(find_sites_given_paracetamol, "CC(=O)Nc1ccc(O)cc1");
 snap!(find_sites_given_ibuprofen, "CC(C)Cc1ccc(C(C)C(=O)O)cc1");
 snap!(find_sites_given_aspirin, "CC(=O)Oc1ccccc1C(=O)O");
 // Salts: the main component is assessed.
-snap!(find_sites_given_triethylammonium_chloride, "CC[NH+](CC)CC.[Cl-]");
-snap!(find_sites_given_sodium_phenylacetate, "[O-]C(=O)Cc1ccccc1.[Na+]");
+snap!(
+    find_sites_given_triethylammonium_chloride,
+    "CC[NH+](CC)CC.[Cl-]"
+);
+snap!(
+    find_sites_given_sodium_phenylacetate,
+    "[O-]C(=O)Cc1ccccc1.[Na+]"
+);
 
 #[test]
 fn find_sites_given_no_hydrogen_returns_empty_report() {
@@ -106,14 +118,24 @@ fn find_sites_given_butanone_ranks_and_marks_sides() {
     // Kinetic enolate on CH3, thermodynamic on CH2 (common practice).
     let mol = Molecule::from_smiles("CCC(C)=O").expect("parses");
     let r = find_sites(&mol);
-    let side = |a: usize| r.sites.iter().find(|s| s.atoms.contains(&a)).and_then(|s| s.regio);
+    let side = |a: usize| {
+        r.sites
+            .iter()
+            .find(|s| s.atoms.contains(&a))
+            .and_then(|s| s.regio)
+    };
     assert_eq!(side(3), Some(Regio::Kinetic));
     assert_eq!(side(1), Some(Regio::Thermodynamic));
 }
 
 #[test]
 fn find_sites_given_rules_sum_to_estimate() {
-    for smiles in ["CC(=O)c1ccc(Cl)cc1", "N#CCc1ccc(C#N)cc1", "CCOC(=O)C(C)C(C)=O", "Oc1ccc([N+](=O)[O-])cc1"] {
+    for smiles in [
+        "CC(=O)c1ccc(Cl)cc1",
+        "N#CCc1ccc(C#N)cc1",
+        "CCOC(=O)C(C)C(C)=O",
+        "Oc1ccc([N+](=O)[O-])cc1",
+    ] {
         let mol = Molecule::from_smiles(smiles).expect("parses");
         for s in find_sites(&mol).sites {
             if let Some(p) = s.pka_dmso {
@@ -123,3 +145,22 @@ fn find_sites_given_rules_sum_to_estimate() {
         }
     }
 }
+
+#[test]
+fn find_sites_given_amine_with_neutral_hcl_reads_ammonium_salt() {
+    // Salts are often written with the neutral acid as its own component;
+    // the amine is then protonated (common practice).
+    for smiles in ["CCN(CC)CC.Cl", "Cl.CCN(CC)CC"] {
+        let mol = Molecule::from_smiles(smiles).expect("parses");
+        let r = find_sites(&mol);
+        let top = &r.sites[r.top_overall.expect("a site")];
+        assert_eq!(top.element, "N", "{smiles}");
+        assert!(top.class.starts_with("ammonium"), "{smiles}: {}", top.class);
+        assert_eq!(top.hydrogens, 1);
+    }
+    // An amide is not protonated by the acid.
+    let mol = Molecule::from_smiles("CC(=O)N(C)C.Cl").expect("parses");
+    assert!(find_sites(&mol).sites.iter().all(|s| s.element != "N"));
+}
+
+snap!(find_sites_given_pyridine_hydrochloride, "c1ccncc1.Cl");

@@ -79,6 +79,20 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
                 && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
         })
     };
+    if a.charge > 0 && !a.aromatic {
+        let ammonio = a.element == 7
+            && mol.neighbors(s).iter().all(|nb| {
+                !mol.atoms[nb.atom].aromatic
+                    && matches!(mol.bonds[nb.bond].order, BondOrder::Single)
+                    && mol.atoms[nb.atom].element != 8
+            });
+        if ammonio {
+            return Some("onium_n");
+        }
+        if matches!(a.element, 15 | 16) {
+            return Some("onium_p");
+        }
+    }
     match a.element {
         6 => {
             if a.aromatic {
@@ -116,7 +130,9 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
             Some(if ewg { "alkyl_ewg" } else { "alkyl" })
         }
         7 => {
-            let o = others().filter(|nb| mol.atoms[nb.atom].element == 8).count();
+            let o = others()
+                .filter(|nb| mol.atoms[nb.atom].element == 8)
+                .count();
             if o >= 2 {
                 Some("nitro")
             } else if !has_multiple_bond(mol, s) && a.charge == 0 {
@@ -129,9 +145,7 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
             let other = others().next().map(|nb| nb.atom);
             match other {
                 Some(o) if mol.atoms[o].aromatic => Some("aryloxy"),
-                Some(o) if double_to_any(mol, o, 8) && mol.atoms[o].element == 6 => {
-                    Some("acyloxy")
-                }
+                Some(o) if double_to_any(mol, o, 8) && mol.atoms[o].element == 6 => Some("acyloxy"),
                 _ if a.charge == 0 => Some("alkoxy"),
                 _ => None,
             }
@@ -203,7 +217,6 @@ fn add(total: &mut Option<f64>, part: Option<f64>) {
 fn hammett_terms(
     mol: &Molecule,
     ipso: usize,
-    from: usize,
     h: &Hammett,
     owner: &str,
     sigma: &SigmaTable,
@@ -213,8 +226,24 @@ fn hammett_terms(
     let Some(ring) = ring_positions(mol, ipso) else {
         return;
     };
-    let _ = from;
-    for (pos, atom) in ring.meta.iter().map(|&a| ('m', a)).chain(ring.para.map(|a| ('p', a))) {
+    // Ortho substituents take their para σ (electronic part only; steric
+    // and hydrogen-bond effects are not modelled and widen the
+    // uncertainty).
+    for &o in [ring.atoms[1], ring.atoms[5]].iter() {
+        let subs = mol
+            .neighbors(o)
+            .iter()
+            .filter(|nb| !ring.atoms.contains(&nb.atom) && mol.atoms[nb.atom].element > 1)
+            .count();
+        *var += 0.5 * 0.5 * subs as f64;
+    }
+    let positions = ring
+        .meta
+        .iter()
+        .map(|&a| ('m', a))
+        .chain(ring.para.map(|a| ('p', a)))
+        .chain([('o', ring.atoms[1]), ('o', ring.atoms[5])]);
+    for (pos, atom) in positions {
         for nb in mol.neighbors(atom) {
             if ring.atoms.contains(&nb.atom) {
                 continue;
@@ -224,10 +253,17 @@ fn hammett_terms(
                 *var += 0.5 * 0.5;
                 continue;
             };
+            // σp⁻ describes the exalted effect of π-acceptors in through
+            // conjugation with the anion; a donor is not exalted, so the
+            // larger (more withdrawing) of σp and σp⁻ is used.
             let s = match (pos, h.sigma) {
                 ('m', _) => Some(entry.sigma_m),
                 (_, SigmaKind::Para) => Some(entry.sigma_p),
-                (_, SigmaKind::ParaMinus) => entry.sigma_p_minus.or(Some(entry.sigma_p)),
+                (_, SigmaKind::ParaMinus) => Some(
+                    entry
+                        .sigma_p_minus
+                        .map_or(entry.sigma_p, |m| m.max(entry.sigma_p)),
+                ),
             };
             let Some(s) = s else { continue };
             if s == 0.0 {
@@ -244,9 +280,14 @@ fn hammett_terms(
             }
             let kind = match (pos, h.sigma) {
                 ('m', _) => "m",
+                ('o', SigmaKind::Para) => "o(p)",
+                ('o', SigmaKind::ParaMinus) => "o(p-)",
                 (_, SigmaKind::Para) => "p",
                 (_, SigmaKind::ParaMinus) => "p-",
             };
+            if pos == 'o' {
+                *var += (0.3 * big).powi(2);
+            }
             uses.push(RuleUse {
                 id: format!("{owner}/sigma-{kind}:{}", entry.name),
                 dmso,
@@ -254,6 +295,96 @@ fn hammett_terms(
             });
         }
     }
+}
+
+/// Add the increment rows for the classified substituents (`kinds`: kind
+/// and the substituent atom). The n-th substituent of a kind takes the row
+/// with the largest `nth` <= n for the rule's family.
+fn apply_increments(
+    mol: &Molecule,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    rule: &Rule,
+    kinds: Vec<(&'static str, usize)>,
+    uses: &mut Vec<RuleUse>,
+    var: &mut f64,
+) {
+    let mut counts: Vec<(&'static str, u8)> = Vec::new();
+    for (kind, atom) in kinds {
+        let n = match counts.iter_mut().find(|(k, _)| *k == kind) {
+            Some(c) => {
+                c.1 = c.1.saturating_add(1);
+                c.1
+            }
+            None => {
+                counts.push((kind, 1));
+                1
+            }
+        };
+        let find = |kind: &str| {
+            set.increments
+                .iter()
+                .filter(|r| {
+                    r.kind == kind
+                        && r.nth <= n
+                        && r.families.iter().any(|f| f == "*" || *f == rule.family)
+                })
+                .max_by_key(|r| r.nth)
+        };
+        // A family without its own row for a substituted alkyl uses the
+        // plain alkyl row.
+        let inc = find(kind).or_else(|| {
+            if kind == "alkyl_ewg" {
+                find("alkyl")
+            } else {
+                None
+            }
+        });
+        match inc {
+            Some(inc) => {
+                uses.push(RuleUse {
+                    id: inc.id.clone(),
+                    dmso: inc.dmso,
+                    water: inc.water,
+                });
+                *var += inc.uncertainty * inc.uncertainty;
+                if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
+                    hammett_terms(mol, atom, h, &inc.id, sigma, uses, var);
+                }
+            }
+            None => *var += 1.5 * 1.5,
+        }
+    }
+}
+
+/// Substituents of a heteroatom site (O–H, N–H): fluorine on a carbon two
+/// bonds from the acidic atom (`fluoro_beta`, per fluorine) and a nitrogen
+/// or oxygen on such a carbon (`hetero_beta`, per path X–C–C–Y). Atoms of
+/// the class match are skipped.
+fn hetero_kinds(mol: &Molecule, i: usize, matched: &[usize]) -> Vec<(&'static str, usize)> {
+    let mut out = Vec::new();
+    for c1 in mol.neighbors(i) {
+        if mol.atoms[c1.atom].element != 6 || mol.atoms[c1.atom].aromatic {
+            continue;
+        }
+        for c2 in mol.neighbors(c1.atom) {
+            let b = &mol.atoms[c2.atom];
+            if c2.atom == i || b.element != 6 || b.aromatic || matched.contains(&c2.atom) {
+                continue;
+            }
+            for y in mol.neighbors(c2.atom) {
+                if y.atom == c1.atom || matched.contains(&y.atom) {
+                    continue;
+                }
+                match mol.atoms[y.atom].element {
+                    9 => out.push(("fluoro_beta", y.atom)),
+                    7 | 8 if !mol.atoms[y.atom].aromatic => out.push(("hetero_beta", y.atom)),
+                    _ => {}
+                }
+            }
+        }
+    }
+    out
 }
 
 fn round2(x: f64) -> f64 {
@@ -279,11 +410,14 @@ fn estimate_atom(
     // (pattern order) is the ipso atom of the ring conjugated with the site.
     if let Some(h) = &rule.hammett {
         if let Some(&ipso) = matched.iter().find(|&&a| mol.atoms[a].aromatic && a != i) {
-            hammett_terms(mol, ipso, i, h, &rule.id, sigma, &mut uses, &mut var);
+            hammett_terms(mol, ipso, h, &rule.id, sigma, &mut uses, &mut var);
         }
     }
+    if rule.element != "C" && rule.family != "none" {
+        let kinds = hetero_kinds(mol, i, matched);
+        apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
+    }
     if rule.element == "C" && rule.family != "none" {
-        let mut counts: Vec<(&'static str, u8)> = Vec::new();
         let mut kinds: Vec<(&'static str, usize)> = Vec::new();
         for nb in mol.neighbors(i) {
             if matched.contains(&nb.atom) || mol.atoms[nb.atom].element == 1 {
@@ -297,51 +431,7 @@ fn estimate_atom(
         if let Some(k) = small_ring(mol, i, matched) {
             kinds.push((k, i));
         }
-        for (kind, atom) in kinds {
-            let n = match counts.iter_mut().find(|(k, _)| *k == kind) {
-                Some(c) => {
-                    c.1 += 1;
-                    c.1
-                }
-                None => {
-                    counts.push((kind, 1));
-                    1
-                }
-            };
-            let find = |kind: &str| {
-                set.increments
-                    .iter()
-                    .filter(|r| {
-                        r.kind == kind
-                            && r.nth <= n
-                            && r.families.iter().any(|f| f == "*" || *f == rule.family)
-                    })
-                    .max_by_key(|r| r.nth)
-            };
-            // A family without its own row for a substituted alkyl uses
-            // the plain alkyl row.
-            let inc = find(kind).or_else(|| {
-                if kind == "alkyl_ewg" {
-                    find("alkyl")
-                } else {
-                    None
-                }
-            });
-            match inc {
-                Some(inc) => {
-                    uses.push(RuleUse {
-                        id: inc.id.clone(),
-                        dmso: inc.dmso,
-                        water: inc.water,
-                    });
-                    var += inc.uncertainty * inc.uncertainty;
-                    if let (Some(h), true) = (&inc.hammett, mol.atoms[atom].aromatic) {
-                        hammett_terms(mol, atom, i, h, &inc.id, sigma, &mut uses, &mut var);
-                    }
-                }
-                None => var += 1.5 * 1.5,
-            }
-        }
+        apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
     }
     // Contributions are rounded first so that the listed values add up.
     for u in &mut uses {
@@ -418,7 +508,10 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
                 (y, x)
             }
         } else {
-            let (kx, ky) = (rank_key(&sites[x], Scale::Dmso), rank_key(&sites[y], Scale::Dmso));
+            let (kx, ky) = (
+                rank_key(&sites[x], Scale::Dmso),
+                rank_key(&sites[y], Scale::Dmso),
+            );
             if (kx - ky).abs() < 0.05 {
                 continue;
             }
@@ -434,8 +527,93 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
 }
 
 /// Run the rule set over the molecule's main component.
+/// Is this counter-ion component a neutral acid that would protonate an
+/// amine (hydrogen halide; sulfonic, sulfuric, phosphoric or carboxylic
+/// acid written as a separate neutral component)?
+fn is_acid_component(mol: &Molecule, comp: &[usize]) -> bool {
+    if comp.iter().any(|&i| mol.atoms[i].charge != 0) {
+        return false;
+    }
+    if let [x] = comp {
+        let a = &mol.atoms[*x];
+        return matches!(a.element, 17 | 35 | 53) && a.hydrogens == 1;
+    }
+    comp.iter().any(|&i| {
+        let a = &mol.atoms[i];
+        a.element == 8
+            && a.hydrogens == 1
+            && mol.neighbors(i).len() == 1
+            && mol.neighbors(i).iter().any(|nb| {
+                matches!(mol.atoms[nb.atom].element, 6 | 15 | 16) && double_to_any(mol, nb.atom, 8)
+            })
+    })
+}
+
+/// Basicity rank of a neutral nitrogen (lower = more basic): 0 for an
+/// alkylamine, 1 for an azine / azole nitrogen without hydrogen; None for
+/// amides, anilines, nitriles and the like.
+fn base_rank(mol: &Molecule, i: usize) -> Option<u8> {
+    let a = &mol.atoms[i];
+    if a.element != 7 || a.charge != 0 {
+        return None;
+    }
+    if a.aromatic {
+        return (a.hydrogens == 0 && mol.neighbors(i).len() == 2).then_some(1);
+    }
+    let alkyl = !has_multiple_bond(mol, i)
+        && mol.neighbors(i).iter().all(|nb| {
+            let b = &mol.atoms[nb.atom];
+            b.element == 6 && !b.aromatic && !has_multiple_bond(mol, nb.atom)
+        });
+    alkyl.then_some(0)
+}
+
+/// A salt written with the neutral acid as its own component
+/// (`CCN(CC)CC.Cl`): the copy of the molecule with the most basic
+/// nitrogen(s) of the main component protonated, one per acid component.
+fn protonated_salt(mol: &Molecule, main: &[usize]) -> Option<Molecule> {
+    let acids = mol
+        .counter_ions()
+        .iter()
+        .filter(|c| is_acid_component(mol, c))
+        .count();
+    if acids == 0 || main.iter().any(|&i| mol.atoms[i].charge > 0) {
+        return None;
+    }
+    let mut bases: Vec<(u8, usize)> = main
+        .iter()
+        .filter_map(|&i| base_rank(mol, i).map(|r| (r, i)))
+        .collect();
+    if bases.is_empty() {
+        return None;
+    }
+    bases.sort_unstable();
+    let mut out = mol.clone();
+    for &(_, i) in bases.iter().take(acids) {
+        let a = &mut out.atoms[i];
+        a.charge = 1;
+        a.hydrogens = a.hydrogens.saturating_add(1);
+    }
+    Some(out)
+}
+
+/// Run the rule set over the molecule's main component. A salt written as
+/// amine plus neutral acid is read as the ammonium salt.
 pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Options) -> SiteReport {
     let atoms = mol.main_component_atoms();
+    if let Some(salt) = protonated_salt(mol, &atoms) {
+        return run_on(&salt, atoms, set, sigma, opts);
+    }
+    run_on(mol, atoms, set, sigma, opts)
+}
+
+fn run_on(
+    mol: &Molecule,
+    atoms: Vec<usize>,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    opts: &Options,
+) -> SiteReport {
     let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();
@@ -444,20 +622,20 @@ pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Opti
         if a.hydrogens == 0 {
             continue;
         }
-        let sym = match a.element {
+        match a.element {
             6 => {
                 if !carbon_candidate(mol, i) {
                     continue;
                 }
-                "C"
             }
-            7 => "N",
-            8 => "O",
-            16 => "S",
+            7 | 8 | 16 => {}
             _ => continue,
-        };
+        }
         for (r, rule) in set.rules.iter().enumerate() {
-            if rule.element != sym || rule.required_elements & !mask != 0 {
+            if rule.z != a.element
+                || rule.required_elements & !mask != 0
+                || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
+            {
                 continue;
             }
             if let Some(m) = rule.pattern.matches_at_in(&target, i) {

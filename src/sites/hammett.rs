@@ -104,7 +104,11 @@ fn key_rec(
         "{}{}{}h{}",
         a.element,
         if a.aromatic { "a" } else { "" },
-        if a.charge != 0 { format!("q{}", a.charge) } else { String::new() },
+        if a.charge != 0 {
+            format!("q{}", a.charge)
+        } else {
+            String::new()
+        },
         a.hydrogens
     );
     let mut kids = Vec::new();
@@ -118,7 +122,10 @@ fn key_rec(
             continue;
         }
         seen.push(nb.atom);
-        kids.push(format!("{order}{}", key_rec(mol, nb.atom, atom, seen, depth + 1)?));
+        kids.push(format!(
+            "{order}{}",
+            key_rec(mol, nb.atom, atom, seen, depth + 1)?
+        ));
     }
     kids.sort();
     for k in kids {
@@ -183,7 +190,10 @@ impl SigmaTable {
                 .map_err(|e| err(line, format!("substituent SMILES: {e}")))?;
             let star = mol.atoms.iter().position(|a| a.element == 0);
             let Some(star) = star else {
-                return Err(err(line, "substituent SMILES needs a `*` attachment".into()));
+                return Err(err(
+                    line,
+                    "substituent SMILES needs a `*` attachment".into(),
+                ));
             };
             let Some(first) = mol.neighbors(star).first().map(|nb| nb.atom) else {
                 return Err(err(line, "`*` is not bonded".into()));

@@ -2,7 +2,51 @@
 //! `fragments/`), every estimate traceable to its rules and sources.
 //!
 //! OWNER: acidic-sites work (issue 4). Contract used by advice and report:
-//! `find_sites`, `SiteReport`, `Site`, `Regio`, `RuleUse`.
+//! `find_sites`, `SiteReport`, `Site`, `Regio`, `RuleUse`,
+//! `rule_set_version`; also [`rule_set`] (for listing the rules),
+//! [`find_sites_with`] and [`Options`].
+//!
+//! # Model
+//! For every hydrogen-bearing atom of the main component (C, N, O, S):
+//!
+//! 1. **Class rule.** Rows of `fragments/rules.tsv` for that element are
+//!    tried in file order; the first whose SMARTS matches with its `:1`
+//!    atom on the atom gives the class and the base pKa of the parent
+//!    compound on each scale. Rows are ordered most specific first, so a
+//!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
+//!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is not
+//!    a site; neither are vinyl and aryl C–H (except azole C2–H).
+//! 2. **Increments** (`fragments/increments.tsv`): each substituent on an
+//!    acidic carbon that is not part of the class rule's match is
+//!    classified (alkyl, alkyl bearing an acceptor, aryl, vinyl, alkoxy,
+//!    aryloxy, thio, halogen, extra acceptor, onium, …) and the row for its
+//!    kind, the rule's family and its ordinal (first, second alkyl…) is
+//!    added. A three- or four-membered ring through the acidic carbon adds
+//!    a ring row. For alcohol and ammonium sites, fluorine and N/O two
+//!    bonds from the acidic atom add inductive rows. Substituents without
+//!    a row widen the uncertainty.
+//! 3. **Hammett term** −ρ·Σσ for a benzene ring conjugated with the site:
+//!    the ring of the first aromatic atom of the class match (e.g. the aryl
+//!    of an aryl ketone or of a phenol) or of an aryl increment. Meta
+//!    substituents use σm, para substituents σp or σp⁻ as the row says
+//!    (`fragments/sigma.tsv`); ortho substituents are not modelled and
+//!    widen the uncertainty. Without a ρ on one scale that scale gets no
+//!    term and a wider uncertainty.
+//!
+//! Each contribution is a [`RuleUse`]; the estimate is their sum. Class
+//! rules and increments appear under their ids (`C-KETON-01`,
+//! `I-CO-ALK1`); a Hammett term appears as
+//! `<rule id>/sigma-<m|p|p-|o(p)|o(p-)>:<substituent name>`. A scale
+//! gets no estimate (None) when the class rule or any increment has no
+//! value on it: water values are never made up from DMSO values. The
+//! uncertainty is the root sum of squares of the row uncertainties.
+//!
+//! Symmetry-equivalent atoms with identical estimates form one site.
+//! Sites are ranked by DMSO pKa, or by water pKa for sites without a DMSO
+//! estimate ([`Options::scale`] switches to water first). For a ketone
+//! whose two α-carbons are different sites, the side with more hydrogens
+//! (less substituted) is marked kinetic and the other thermodynamic; with
+//! equal hydrogen counts the more acidic side is thermodynamic.
 
 use std::sync::OnceLock;
 
@@ -18,7 +62,10 @@ pub use rules::{
 };
 
 /// Embedded rule files: (file name, text).
-const RULES: (&str, &str) = ("fragments/rules.tsv", include_str!("../../fragments/rules.tsv"));
+const RULES: (&str, &str) = (
+    "fragments/rules.tsv",
+    include_str!("../../fragments/rules.tsv"),
+);
 const INCREMENTS: (&str, &str) = (
     "fragments/increments.tsv",
     include_str!("../../fragments/increments.tsv"),
@@ -27,7 +74,10 @@ const SOURCES: (&str, &str) = (
     "fragments/sources.tsv",
     include_str!("../../fragments/sources.tsv"),
 );
-const SIGMA: (&str, &str) = ("fragments/sigma.tsv", include_str!("../../fragments/sigma.tsv"));
+const SIGMA: (&str, &str) = (
+    "fragments/sigma.tsv",
+    include_str!("../../fragments/sigma.tsv"),
+);
 
 struct Loaded {
     rules: RuleSet,
@@ -50,6 +100,11 @@ fn loaded() -> Result<&'static Loaded, &'static RuleError> {
 /// the file and line of the first bad row.
 pub fn rule_set() -> Result<&'static RuleSet, &'static RuleError> {
     loaded().map(|l| &l.rules)
+}
+
+/// The class rules in match order (for listing, e.g. `acidsite rules`).
+pub fn rules() -> Result<&'static [Rule], &'static RuleError> {
+    rule_set().map(|r| r.rules.as_slice())
 }
 
 /// The embedded Hammett σ table.
@@ -129,7 +184,11 @@ pub struct SiteReport {
 /// Find and rank every acidic site of the molecule's main component
 /// (largest connected component: the cation of an ammonium salt, the
 /// organic acid of a sodium salt), ranked on the DMSO scale (water where a
-/// site has no DMSO estimate).
+/// site has no DMSO estimate). A salt written as amine plus a neutral acid
+/// component (`CCN(CC)CC.Cl`, a fumarate written as the free acid) is read
+/// as the ammonium salt: the most basic nitrogen(s) of the main component
+/// (alkylamine before azine), one per acid component, are protonated
+/// before the sites are found; atom indices are unchanged.
 ///
 /// Returns an empty report only if the embedded rule data failed
 /// validation, which [`rule_set`] reports (and the test suite forbids).

@@ -79,6 +79,11 @@ pub struct Rule {
     pub required_elements: u128,
     /// 1-based line in `rules.tsv`.
     pub line: usize,
+    /// Atomic number of `element`.
+    pub(crate) z: u8,
+    /// Aromaticity the anchor atom must have, read from the SMARTS text
+    /// (lower-case symbol = aromatic, upper-case = aliphatic, else either).
+    pub(crate) anchor_aromatic: Option<bool>,
 }
 
 /// One substituent increment.
@@ -122,6 +127,10 @@ pub const SUBSTITUENT_KINDS: &[&str] = &[
     "cyano",
     "nitro",
     "sulfonyl",
+    "onium_n",
+    "onium_p",
+    "fluoro_beta",
+    "hetero_beta",
     "ring3",
     "ring4",
 ];
@@ -242,7 +251,10 @@ fn number(t: &Table, row: &Row, name: &str) -> Result<Option<f64>, RuleError> {
     }
     match v.parse::<f64>() {
         Ok(x) if x.is_finite() && x.abs() <= 100.0 => Ok(Some(x)),
-        _ => Err(t.error(row.line, format!("`{name}`: `{v}` is not a number in -100..100"))),
+        _ => Err(t.error(
+            row.line,
+            format!("`{name}`: `{v}` is not a number in -100..100"),
+        )),
     }
 }
 
@@ -368,6 +380,24 @@ pub fn unbracketed_elements(smarts: &str) -> u128 {
     mask
 }
 
+/// Aromaticity of the `:1` atom as written: the first letter inside its
+/// bracket (`[cH1:1]` aromatic, `[CX4;!H0:1]` aliphatic); None when the
+/// bracket starts otherwise (`[#6:1]`, `[$(…):1]`).
+fn anchor_aromaticity(smarts: &str) -> Option<bool> {
+    let end = smarts.find(":1]")?;
+    let start = smarts[..end].rfind('[')?;
+    let first = smarts[start + 1..end].chars().next()?;
+    // Only trust a bracket without alternatives.
+    if smarts[start + 1..end].contains(',') {
+        return None;
+    }
+    match first {
+        'c' | 'n' | 'o' | 's' => Some(true),
+        'C' | 'N' | 'O' | 'S' => Some(false),
+        _ => None,
+    }
+}
+
 fn element_symbol_ok(s: &str) -> bool {
     matches!(s, "C" | "N" | "O" | "S" | "P" | "Se")
 }
@@ -413,8 +443,8 @@ pub fn parse_rules(
         let source = required(&t, row, "source")?;
         check_source(&t, row, source, sources)?;
         let note = cell(&t, row, "note")?;
-        let pattern = Pattern::parse(smarts)
-            .map_err(|e| t.error(row.line, format!("rule {id}: {e}")))?;
+        let pattern =
+            Pattern::parse(smarts).map_err(|e| t.error(row.line, format!("rule {id}: {e}")))?;
         if pattern.anchor().is_none() {
             return Err(t.error(
                 row.line,
@@ -422,6 +452,8 @@ pub fn parse_rules(
             ));
         }
         rules.push(Rule {
+            z: crate::mol::atomic_number(element).unwrap_or(0),
+            anchor_aromatic: anchor_aromaticity(smarts),
             id: id.to_string(),
             element: element.to_string(),
             smarts: smarts.to_string(),
@@ -473,7 +505,10 @@ pub fn parse_increments(
         let dmso = number(&t, row, "pka_dmso")?;
         let water = number(&t, row, "pka_water")?;
         if dmso.is_none() && water.is_none() {
-            return Err(t.error(row.line, format!("increment {id}: no value on either scale")));
+            return Err(t.error(
+                row.line,
+                format!("increment {id}: no value on either scale"),
+            ));
         }
         let uncertainty = uncertainty(&t, row)?;
         let hammett = hammett(&t, row)?;
@@ -536,7 +571,10 @@ mod tests {
         let m = unbracketed_elements("[CH2:1]C(=O)c1ccccc1Cl");
         assert_eq!(m, (1 << 6) | (1 << 8) | (1 << 17));
         assert_eq!(unbracketed_elements("[N,O:1]"), 0);
-        assert_eq!(unbracketed_elements("[#6:1]S(=O)(=O)Br"), (1 << 16) | (1 << 8) | (1 << 35));
+        assert_eq!(
+            unbracketed_elements("[#6:1]S(=O)(=O)Br"),
+            (1 << 16) | (1 << 8) | (1 << 35)
+        );
     }
 
     #[test]
