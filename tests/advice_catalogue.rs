@@ -123,6 +123,14 @@ fn parse_given_wrong_cell_count_or_enum_is_an_error() {
             .as_deref(),
         Some("nucleophilic")
     );
+    let smi = header() + &GOOD_ROW.replace("\tCCO\t", "\tC(C\t") + "\n";
+    assert_eq!(
+        Catalogue::parse(&smi, "t.tsv", SOURCES)
+            .unwrap_err()
+            .column
+            .as_deref(),
+        Some("conjugate_acid")
+    );
     let hz = header() + &GOOD_ROW.replace("corrosive", "spicy") + "\n";
     assert_eq!(
         Catalogue::parse(&hz, "t.tsv", SOURCES)
@@ -149,4 +157,31 @@ fn parse_given_missing_version_or_header_is_an_error() {
             .line,
         2
     );
+}
+
+#[test]
+fn catalogue_given_iupac_water_values_agrees_with_the_corpus_subset() {
+    // corpus/advice/base_water_iupac.tsv: medians of the IUPAC Digitized pKa
+    // Dataset v1.0 rows at 25 C (Perrin; Serjeant & Dempsey).
+    let text = include_str!("../corpus/advice/base_water_iupac.tsv");
+    let cat = catalogue().unwrap();
+    let mut checked = 0;
+    for line in text.lines().filter(|l| !l.starts_with('#')).skip(1) {
+        let cells: Vec<&str> = line.split('\t').collect();
+        let (name, median): (&str, f64) = (cells[0], cells[1].parse().unwrap());
+        let base = cat.get(name).unwrap();
+        let water = base.pka_water.as_ref().unwrap();
+        assert!(
+            water.source.starts_with("iupac-"),
+            "{name}: {}",
+            water.source
+        );
+        assert!(
+            (water.value - median).abs() <= 0.05,
+            "{name}: {} vs {median}",
+            water.value
+        );
+        checked += 1;
+    }
+    assert_eq!(checked, 9);
 }

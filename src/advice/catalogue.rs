@@ -514,13 +514,10 @@ fn parse_row(
     let family = BaseFamily::parse(cell(2))
         .ok_or_else(|| err("family", format!("unknown family {:?}", cell(2))))?;
     let conjugate_acid = opt(3).ok_or_else(|| err("conjugate_acid", "empty SMILES".into()))?;
-    if !conjugate_acid
-        .chars()
-        .all(|c| c.is_ascii_graphic() && !matches!(c, ',' | ';'))
-    {
+    if let Err(e) = crate::mol::Molecule::from_smiles(conjugate_acid) {
         return Err(err(
             "conjugate_acid",
-            format!("not a SMILES string: {conjugate_acid:?}"),
+            format!("SMILES {conjugate_acid:?} does not parse: {e}"),
         ));
     }
     let pka = |vi: usize, si: usize| -> Result<Option<CitedPka>, CatalogueError> {

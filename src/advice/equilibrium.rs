@@ -149,13 +149,12 @@ impl std::error::Error for EquilibriumError {}
 const S_LO: f64 = -400.0;
 const S_HI: f64 = 400.0;
 
-fn log10_sum_exp10(values: impl Iterator<Item = f64>) -> f64 {
-    let v: Vec<f64> = values.collect();
-    let m = v.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+fn log10_sum_exp10(values: impl Iterator<Item = f64> + Clone) -> f64 {
+    let m = values.clone().fold(f64::NEG_INFINITY, f64::max);
     if !m.is_finite() {
         return m;
     }
-    m + v.iter().map(|x| 10f64.powf(x - m)).sum::<f64>().log10()
+    m + values.map(|x| 10f64.powf(x - m)).sum::<f64>().log10()
 }
 
 /// Deprotonated fraction of each unit at log ratio `s`.
@@ -199,34 +198,78 @@ pub fn solve(input: &EquilibriumInput) -> Result<Equilibrium, EquilibriumError> 
     }
     let b0 = eq * c;
     let units = &input.units;
-    // h(s) = log10(B0 - D) - log10(A0 + D) - s, strictly decreasing in s.
-    let h = |s: f64| -> f64 {
-        let d = c * unit_fractions(units, input.base_pka, s).iter().sum::<f64>();
+    // Each unit as (max log K, log10 sum of 10^(log K - max)) so that its
+    // log10 X at s is a + s with a fixed: no allocation inside the loop.
+    let unit_logk: Vec<f64> = units
+        .iter()
+        .map(|u| log10_sum_exp10(u.alternatives.iter().map(|m| input.base_pka - m.pka)))
+        .collect();
+    let ln10 = std::f64::consts::LN_10;
+    // D(s) and dD/ds.
+    let d_and_slope = |s: f64| -> (f64, f64) {
+        let (mut d, mut slope) = (0.0, 0.0);
+        for &a in &unit_logk {
+            if a == f64::NEG_INFINITY {
+                continue;
+            }
+            let f = 1.0 / (1.0 + 10f64.powf(-(a + s)));
+            d += f;
+            slope += ln10 * f * (1.0 - f);
+        }
+        (c * d, c * slope)
+    };
+    // h(s) = log10(B0 - D) - log10(A0 + D) - s, strictly decreasing in s;
+    // returns h and dh/ds.
+    let h = |s: f64| -> (f64, f64) {
+        let (d, dd) = d_and_slope(s);
         let free = b0 - d;
         if free <= 0.0 {
-            return f64::NEG_INFINITY;
+            return (f64::NEG_INFINITY, f64::NAN);
         }
         let acid = a0 + d;
         if acid <= 0.0 {
-            return f64::INFINITY;
+            return (f64::INFINITY, f64::NAN);
         }
-        free.log10() - acid.log10() - s
+        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
+        (free.log10() - acid.log10() - s, slope)
     };
+    // Safeguarded Newton: a Newton step when it stays inside the bracket,
+    // otherwise bisection; the bracket always holds the root.
     let (mut lo, mut hi) = (S_LO, S_HI);
     let mut iterations = 0u32;
     let s = if b0 == 0.0 {
         f64::NEG_INFINITY
     } else {
-        while hi - lo > 1e-13 && iterations < 400 {
-            let mid = 0.5 * (lo + hi);
-            if h(mid) > 0.0 {
-                lo = mid;
-            } else {
-                hi = mid;
-            }
+        let mut x = 0.5 * (lo + hi);
+        loop {
             iterations += 1;
+            let (hx, slope) = h(x);
+            if hx == 0.0 {
+                break x;
+            }
+            if hx > 0.0 {
+                lo = x;
+            } else {
+                hi = x;
+            }
+            if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
+                break 0.5 * (lo + hi);
+            }
+            let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
+                x - hx / slope
+            } else {
+                f64::NAN
+            };
+            let next = if newton > lo && newton < hi {
+                newton
+            } else {
+                0.5 * (lo + hi)
+            };
+            if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
+                break next;
+            }
+            x = next;
         }
-        0.5 * (lo + hi)
     };
     let fractions: Vec<f64> = if b0 == 0.0 {
         vec![0.0; units.len()]
@@ -350,7 +393,12 @@ pub(crate) fn choose_scale(
     let same = |sc: Scale, p: f64, why: &str| ScaleChoice {
         site_scale: sc,
         base_pka: p,
-        note: format!("{} scale{why} ({} conjugate acid pKa {p}, {})", sc.name(), base.name, src(sc)),
+        note: format!(
+            "{} scale{why} ({} conjugate acid pKa {p}, {})",
+            sc.name(),
+            base.name,
+            src(sc)
+        ),
         mismatch: 0.0,
     };
     if let Some(f) = forced {
@@ -360,7 +408,11 @@ pub(crate) fn choose_scale(
     }
     if protic {
         if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {
-            return Some(same(Scale::Water, p, ", the nearer guide in a protic solvent"));
+            return Some(same(
+                Scale::Water,
+                p,
+                ", the nearer guide in a protic solvent",
+            ));
         }
     }
     for sc in [Scale::Dmso, Scale::Water] {
@@ -441,6 +493,28 @@ pub(crate) fn solve_for_base(
         .ok_or_else(|| EquilibriumError::NoCommonScale(base.name.clone()))?;
     let (scale, base_pka) = (choice.site_scale, choice.base_pka);
     notes.push(choice.note);
+    if base.family.is_metal_base() && protic.is_none() {
+        let pka = |x: &crate::sites::Site| match scale {
+            Scale::Water => x.pka_water,
+            _ => x.pka_dmso,
+        };
+        let min_carbon = sites
+            .sites
+            .iter()
+            .filter(|x| x.is_carbon())
+            .filter_map(pka)
+            .fold(f64::INFINITY, f64::min);
+        if sites
+            .sites
+            .iter()
+            .any(|x| !x.is_carbon() && pka(x).map(|p| p > min_carbon).unwrap_or(false))
+        {
+            notes.push(format!(
+                "this is the equilibrium composition; in practice {} takes O–H, N–H and S–H protons first (fast proton transfer), even where their pKa is higher than the C–H (common practice)",
+                base.name
+            ));
+        }
+    }
     let units = site_units(sites, site_unit, scale, &mut notes);
     if units.is_empty() {
         return Err(EquilibriumError::NoSites);

@@ -10,9 +10,9 @@
 use super::catalogue::Scale;
 use super::equilibrium::{AcidUnit, Microsite};
 use crate::mol::{BondOrder, Molecule};
+use crate::sites::SiteReport;
 use crate::smarts::{Pattern, Target as SmartsTarget};
 use std::sync::OnceLock;
-use crate::sites::SiteReport;
 
 /// Facts about the molecule as a whole and about each site.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -30,6 +30,8 @@ pub struct MoleculeFeatures {
     pub anhydride: bool,
     /// sp3 C–Cl, C–Br, C–I or a sulfonate ester: an alkylating agent.
     pub alkyl_halide: bool,
+    /// Halide or sulfonate on a carbon next to C=O (α-halo ketone or ester).
+    pub alpha_halo_carbonyl: bool,
     pub nitro: bool,
     /// Per site (same order as `SiteReport::sites`).
     pub sites: Vec<SiteFeatures>,
@@ -131,7 +133,8 @@ impl<'a> Graph<'a> {
 }
 
 /// SMARTS patterns for the molecule-wide groups (name, pattern).
-const GROUP_PATTERNS: [(&str, &str); 14] = [
+const GROUP_PATTERNS: [(&str, &str); 15] = [
+    ("alpha_halo_carbonyl", "[CX4]([Cl,Br,I])[CX3]=O"),
     ("ketone", "[#6][CX3](=O)[#6]"),
     ("aldehyde", "[CX3H1](=O)[#6]"),
     ("aldehyde", "[CH2X3]=O"),
@@ -166,7 +169,10 @@ const BETA_LG_PATTERNS: [(&str, &str); 9] = [
     ("iodide", "[#6:1]-[CX4]-I"),
     ("sulfonate", "[#6:1]-[CX4]-[OX2]-[SX4](=O)=O"),
     ("acyloxy", "[#6:1]-[CX4]-[OX2]-[CX3]=O"),
-    ("alkoxy/hydroxy", "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]"),
+    (
+        "alkoxy/hydroxy",
+        "[#6:1]-[CX4]-[OX2;!$(O[SX4](=O)=O);!$(O[CX3]=O)]",
+    ),
     ("ammonium", "[#6:1]-[CX4]-[NX4+]"),
     ("sulfonyl", "[#6:1]-[CX4]-[SX4](=O)(=O)[#6]"),
 ];
@@ -244,6 +250,7 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
             "acyl_halide" => f.acyl_halide = true,
             "anhydride" => f.anhydride = true,
             "alkyl_halide" => f.alkyl_halide = true,
+            "alpha_halo_carbonyl" => f.alpha_halo_carbonyl = true,
             "nitro" => f.nitro = true,
             _ => {}
         }
@@ -271,8 +278,11 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
                     sf.dicarbonyl = true;
                 }
                 if g.h(t) == 1 && g.is_sp3_carbon(t) && g.nbrs(t).len() == 3 {
-                    let mut sigs: Vec<String> =
-                        g.nbrs(t).iter().map(|&(j, _)| g.signature(j, t, 4)).collect();
+                    let mut sigs: Vec<String> = g
+                        .nbrs(t)
+                        .iter()
+                        .map(|&(j, _)| g.signature(j, t, 4))
+                        .collect();
                     sigs.sort();
                     sigs.dedup();
                     if sigs.len() == 3 {

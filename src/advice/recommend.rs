@@ -436,9 +436,16 @@ fn solve_with(
     scale: Scale,
     equivalents: f64,
     a0: f64,
+    exclude: &[usize],
     notes: &mut Vec<String>,
 ) -> Option<Equilibrium> {
-    let units = site_units(ctx.sites, &ctx.f.site_unit, scale, notes);
+    let units: Vec<_> = site_units(ctx.sites, &ctx.f.site_unit, scale, notes)
+        .into_iter()
+        .filter_map(|mut u| {
+            u.alternatives.retain(|m| !exclude.contains(&m.site));
+            (!u.alternatives.is_empty()).then_some(u)
+        })
+        .collect();
     solve(&EquilibriumInput {
         units,
         base_pka,
@@ -485,6 +492,20 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         marginal: false,
         no_solvent_check: false,
     };
+    if let Some(sv) = &opts.solvent {
+        if !base
+            .solvents
+            .iter()
+            .any(|x| x.eq_ignore_ascii_case(sv.trim()))
+        {
+            ev.notes.push(format!(
+                "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
+                sv,
+                base.name,
+                base.solvents.join(", ")
+            ));
+        }
+    }
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
         Scale::Water => t.pka_water.is_some(),
@@ -510,20 +531,57 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     };
     ev.counted = count_protons(ctx, base, scale, protic_solvent.is_some());
     let n_counted: usize = ev.counted.iter().map(|c| c.protons).sum();
-    ev.equivalents = match (opts.equivalents, opts.purpose) {
-        (Some(x), _) => x,
-        (None, Purpose::Stoichiometric) => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
-        (None, Purpose::Catalytic) => n_counted as f64 + CATALYTIC_EQUIVALENTS,
+    let needed = match opts.purpose {
+        Purpose::Stoichiometric => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
+        Purpose::Catalytic => n_counted as f64 + CATALYTIC_EQUIVALENTS,
     };
+    ev.equivalents = opts.equivalents.unwrap_or(needed);
+    // Counted protons are removed first: their sites leave the equilibrium
+    // together with the base they consume.
+    let counted_sites: Vec<usize> = ev.counted.iter().map(|c| c.site).collect();
+    let left = |eq: f64| (eq - n_counted as f64).max(0.0);
     let mut notes = Vec::new();
-    let crit = solve_with(ctx, base_pka, scale, ev.equivalents, 0.0, &mut notes);
+    if n_counted > 0 {
+        notes.push(format!(
+            "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
+        ));
+    }
+    // Acceptance is judged at the needed equivalents; the reported
+    // composition uses the requested equivalents when given.
+    let crit = solve_with(
+        ctx,
+        base_pka,
+        scale,
+        left(needed),
+        0.0,
+        &counted_sites,
+        &mut notes,
+    );
     let crit_conv = crit
         .as_ref()
         .map(|e| target_conversion(ctx, e))
         .unwrap_or(0.0);
     ev.criterion_conversion = crit_conv;
-    ev.conversion = crit_conv;
-    ev.equilibrium = crit;
+    let reported = if opts.equivalents.is_some() {
+        let mut n_rep = Vec::new();
+        solve_with(
+            ctx,
+            base_pka,
+            scale,
+            left(ev.equivalents),
+            0.0,
+            &counted_sites,
+            &mut n_rep,
+        )
+    } else {
+        crit.clone()
+    };
+    ev.conversion = reported
+        .as_ref()
+        .map(|e| target_conversion(ctx, e))
+        .unwrap_or(0.0);
+    ev.equilibrium = reported;
+    let mut solvent_conv: Option<f64> = None;
     // In the base's own protic solvent: water scale, solvent counted.
     if let Some(p) = protic_solvent {
         let in_solvent = choose_scale(base, true, None, target_has)
@@ -536,10 +594,39 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 scale.name()
             ));
         }
-        if let Some(ScaleChoice { site_scale: sc2, base_pka: bp2, note: note2, .. }) = in_solvent {
+        if let Some(ScaleChoice {
+            site_scale: sc2,
+            base_pka: bp2,
+            note: note2,
+            ..
+        }) = in_solvent
+        {
             {
                 let mut n2 = Vec::new();
-                if let Some(mut e2) = solve_with(ctx, bp2, sc2, ev.equivalents, p.molar, &mut n2) {
+                let at_needed = solve_with(
+                    ctx,
+                    bp2,
+                    sc2,
+                    left(needed),
+                    p.molar,
+                    &counted_sites,
+                    &mut n2,
+                );
+                solvent_conv = at_needed.as_ref().map(|e| target_conversion(ctx, e));
+                let rep = if opts.equivalents.is_some() {
+                    solve_with(
+                        ctx,
+                        bp2,
+                        sc2,
+                        left(ev.equivalents),
+                        p.molar,
+                        &counted_sites,
+                        &mut n2,
+                    )
+                } else {
+                    at_needed
+                };
+                if let Some(mut e2) = rep {
                     let c2 = target_conversion(ctx, &e2);
                     e2.notes = vec![
                         note2,
@@ -590,10 +677,21 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
                 let mixed = mismatch > 0.0;
                 let mut n_opt = Vec::new();
-                let optimistic = solve_with(ctx, base_pka + sigma, scale, ev.equivalents, 0.0, &mut n_opt)
-                    .map(|e| target_conversion(ctx, &e))
-                    .unwrap_or(0.0);
-                if sigma > 0.0 && optimistic >= MIN_CONVERSION && crit_conv >= MIN_MARGINAL_CONVERSION {
+                let optimistic = solve_with(
+                    ctx,
+                    base_pka + sigma,
+                    scale,
+                    left(needed),
+                    0.0,
+                    &counted_sites,
+                    &mut n_opt,
+                )
+                .map(|e| target_conversion(ctx, &e))
+                .unwrap_or(0.0);
+                if sigma > 0.0
+                    && optimistic >= MIN_CONVERSION
+                    && crit_conv >= MIN_MARGINAL_CONVERSION
+                {
                     weak_crit = false;
                     ev.marginal = true;
                     ev.notes.push(format!(
@@ -604,10 +702,10 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     ));
                 }
             }
-            let weak_solvent =
-                protic_solvent.is_some() && ev.conversion < MIN_IN_SOLVENT_CONVERSION;
+            let acc_solvent = solvent_conv.unwrap_or(crit_conv);
+            let weak_solvent = solvent_conv.is_some() && acc_solvent < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
-                let uncounted = ev.equilibrium.as_ref().and_then(|e| {
+                let uncounted = crit.as_ref().and_then(|e| {
                     e.sites.iter().find(|s| {
                         !ctx.target_unit.contains(&s.site)
                             && !ev.counted.iter().any(|c| c.site == s.site)
@@ -626,7 +724,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     )),
                     _ => {
                         let (conv, where_) = if weak_solvent {
-                            (ev.conversion, format!("in {}", ev.solvent))
+                            (acc_solvent, format!("in {}", ev.solvent))
                         } else {
                             (crit_conv, format!("on the {} scale", scale.name()))
                         };
@@ -634,16 +732,16 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                             RejectKind::TooWeak,
                             format!(
                                 "too weak: conjugate-acid pKa {:.1} against target {:.1}; {} of the target deprotonated at equilibrium {} with {:.2} equiv",
-                                base_pka, t_pka, conv_text(conv), where_, ev.equivalents
+                                base_pka, t_pka, conv_text(conv), where_, needed
                             ),
                         ));
                     }
                 }
-            } else if protic_solvent.is_some() && ev.conversion < MIN_CONVERSION {
+            } else if solvent_conv.is_some() && acc_solvent < MIN_CONVERSION {
                 ev.notes.push(format!(
                     "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
                     ev.solvent,
-                    100.0 * ev.conversion
+                    100.0 * acc_solvent
                 ));
             }
         }
@@ -661,12 +759,13 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     "a stoichiometric reagent that is consumed irreversibly; not used in catalytic amounts".into(),
                 ));
             }
-            if ev.conversion < MIN_CATALYTIC_FRACTION {
+            let acc = solvent_conv.unwrap_or(crit_conv);
+            if acc < MIN_CATALYTIC_FRACTION {
                 ev.reasons.push((
                     RejectKind::TooWeak,
                     format!(
                         "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {:.1} against {:.1}, {} scale)",
-                        conv_text(ev.conversion),
+                        conv_text(acc),
                         base_pka,
                         t_pka,
                         scale.name()
@@ -846,7 +945,11 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
         // Amines and amidines are the usual catalytic bases; pyridines are
         // acyl-transfer catalysts and weak Brønsted bases.
-        s -= if b.family == BaseFamily::Pyridine { -0.5 } else { 1.0 };
+        s -= if b.family == BaseFamily::Pyridine {
+            -0.5
+        } else {
+            1.0
+        };
     }
     s
 }
@@ -975,10 +1078,18 @@ pub fn advise_with_features(
         None => accepted.first().copied(),
     };
     if chosen.is_none() {
+        let competing = rejected
+            .iter()
+            .filter(|r| r.kinds.contains(&RejectKind::UncountedProton))
+            .count();
+        let message = if competing * 2 >= rejected.len().max(1) {
+            "no catalogue base meets the criteria for this target: another site of about the same acidity competes for the base, so selective deprotonation is not expected; protect or differentiate that site, or plan for a mixture".to_string()
+        } else {
+            "no catalogue base meets the criteria for this target; see the rejections".to_string()
+        };
         warnings.push(Warning {
             kind: WarningKind::NoBase,
-            message: "no catalogue base meets the criteria for this target; see the rejections"
-                .into(),
+            message,
         });
     }
     let alternatives: Vec<Alternative> = accepted
@@ -1146,10 +1257,11 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
         );
     }
     if f.alkyl_halide {
-        add(
-            WarningKind::AlkylHalide,
-            "the molecule contains an alkyl halide or sulfonate: the anion can alkylate itself (intra- or intermolecularly) and strong bases can eliminate HX".into(),
-        );
+        let mut m = "the molecule contains an alkyl halide or sulfonate: the anion can alkylate itself (intra- or intermolecularly) and strong bases can eliminate HX".to_string();
+        if f.alpha_halo_carbonyl {
+            m.push_str("; the halide is next to a carbonyl group, so bases can also start a Favorskii rearrangement or Darzens-type self-condensation");
+        }
+        add(WarningKind::AlkylHalide, m);
     }
     if sf.dicarbonyl {
         add(
