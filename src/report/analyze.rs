@@ -392,5 +392,37 @@ fn significant(x: f64) -> Option<f64> {
     if !x.is_finite() {
         return None;
     }
-    format!("{x:.5e}").parse().ok()
+    if x == 0.0 {
+        return Some(0.0);
+    }
+    let k = 5 - x.abs().log10().floor() as i32;
+    Some(if k >= 0 {
+        let p = 10f64.powi(k.min(300));
+        (x * p).round() / p
+    } else {
+        let p = 10f64.powi((-k).min(300));
+        (x / p).round() * p
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn significant_given_small_and_large_values() {
+        assert_eq!(significant(0.999801234), Some(0.999801));
+        assert_eq!(significant(7.1234567e-4), Some(7.12346e-4));
+        assert_eq!(significant(1234567.0), Some(1234570.0));
+        assert_eq!(significant(f64::NAN), None);
+    }
+
+    #[test]
+    fn round_given_binary_noise() {
+        assert_eq!(round(26.400000000000002, 0.01), Some(26.4));
+        assert_eq!(
+            round(0.1 + 0.2, 0.01).map(|x| x.to_string()),
+            Some("0.3".to_string())
+        );
+    }
 }

@@ -291,13 +291,14 @@ pub struct ErrorOut {
     pub position: Option<usize>,
 }
 
-/// Round to `step` (0.01 etc.), mapping non-finite values to None.
+/// Round to `step` (0.01, 0.1, ...: a power of ten), mapping non-finite
+/// values to None. Dividing the rounded integer by the exact power of ten
+/// gives the double nearest the decimal, so JSON shows e.g. `26.4`, not
+/// `26.400000000000002`.
 pub(crate) fn round(x: f64, step: f64) -> Option<f64> {
     if !x.is_finite() {
         return None;
     }
-    let r = (x / step).round() * step;
-    // Trim binary noise such as 0.30000000000000004.
-    let digits = (-step.log10()).ceil().max(0.0) as usize;
-    format!("{r:.digits$}").parse().ok()
+    let inv = (1.0 / step).round();
+    Some((x * inv).round() / inv)
 }
