@@ -208,8 +208,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         let mut next = source
             .next_chunk(chunk, CHUNK_BYTES)
             .with_context(|| format!("cannot read {shown}"))?;
+        // Raw bytes read up to the end of the chunk in hand (the reader runs
+        // one chunk ahead, so the bar shows what has been written).
+        let mut read_upto = source.consumed.load(Ordering::Relaxed);
         while !next.is_empty() {
             let lines = std::mem::take(&mut next);
+            let done_upto = read_upto;
             let (outputs, read) = rayon::join(
                 || {
                     lines
@@ -219,6 +223,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 },
                 || source.next_chunk(chunk, CHUNK_BYTES),
             );
+            read_upto = source.consumed.load(Ordering::Relaxed);
             for (text, ok) in &outputs {
                 out.write_all(text.as_bytes())?;
                 records += 1;
@@ -227,7 +232,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 }
             }
             if let Some(b) = &bar {
-                b.set_position(source.consumed.load(Ordering::Relaxed));
+                b.set_position(done_upto);
                 let secs = started.elapsed().as_secs_f64().max(1e-9);
                 b.set_message(format!(
                     "{records} records, {failed} failed, {:.0} records/s",
