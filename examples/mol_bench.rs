@@ -70,6 +70,71 @@ fn main() {
         ours_best = ours_best.min(t.elapsed().as_secs_f64());
     }
     std::hint::black_box(atoms);
+
+    // Graph representation: neighbour walks over our compressed rows versus
+    // a petgraph UnGraph built from the same bonds (the walk pattern of ring
+    // search and substructure matching: every atom's neighbours, 20 times).
+    if only.is_empty() {
+        let mols: Vec<Molecule> = smiles
+            .iter()
+            .filter_map(|s| Molecule::from_smiles(s).ok())
+            .collect();
+        let mut sum = 0usize;
+        for m in &mols {
+            for i in 0..m.atom_count() {
+                sum += m.neighbors(i).len();
+            }
+        }
+        let t = Instant::now();
+        for m in &mols {
+            for _ in 0..20 {
+                for i in 0..m.atom_count() {
+                    for x in m.neighbors(i) {
+                        sum += x.atom ^ x.bond;
+                    }
+                }
+            }
+        }
+        let ours_walk = t.elapsed().as_secs_f64();
+        let t = Instant::now();
+        let graphs: Vec<petgraph::graph::UnGraph<(), usize>> = mols
+            .iter()
+            .map(|m| {
+                let mut g = petgraph::graph::UnGraph::with_capacity(m.atom_count(), m.bond_count());
+                for _ in 0..m.atom_count() {
+                    g.add_node(());
+                }
+                for (k, b) in m.bonds.iter().enumerate() {
+                    g.add_edge(
+                        petgraph::graph::NodeIndex::new(b.atoms[0]),
+                        petgraph::graph::NodeIndex::new(b.atoms[1]),
+                        k,
+                    );
+                }
+                g
+            })
+            .collect();
+        let build = t.elapsed().as_secs_f64();
+        let t = Instant::now();
+        use petgraph::visit::EdgeRef;
+        for g in &graphs {
+            for _ in 0..20 {
+                for v in g.node_indices() {
+                    for e in g.edges(v) {
+                        sum += e.target().index() ^ *e.weight();
+                    }
+                }
+            }
+        }
+        let pet_walk = t.elapsed().as_secs_f64();
+        std::hint::black_box(sum);
+        println!(
+            "neighbour walks: compressed rows {:.1} ms, petgraph UnGraph {:.1} ms (+ {:.1} ms to build the graphs)",
+            ours_walk * 1e3,
+            pet_walk * 1e3,
+            build * 1e3
+        );
+    }
     let purr_rate = n as f64 / purr_best;
     let ours_rate = n as f64 / ours_best;
     println!(

@@ -72,6 +72,28 @@ fn listed() -> BTreeMap<(String, String), String> {
 }
 
 #[test]
+fn from_smiles_given_smiles_rdkit_rejects_gives_errors_checked_by_hand() {
+    let path = Path::new(env!("CARGO_MANIFEST_DIR")).join("corpus/mol/rdkit_rejects.tsv");
+    let text = std::fs::read_to_string(path).expect("rdkit_rejects.tsv");
+    let checked: BTreeMap<String, String> = text
+        .lines()
+        .filter(|l| !l.starts_with('#'))
+        .filter_map(|l| {
+            let f: Vec<&str> = l.split('\t').collect();
+            (f.len() == 5).then(|| (f[0].to_string(), f[4].to_string()))
+        })
+        .collect();
+    let rejected: Vec<Row> = rows().into_iter().filter(|r| !r.rdkit_ok).collect();
+    assert!(!rejected.is_empty());
+    for r in &rejected {
+        let verdict = checked.get(&r.smiles).unwrap_or_else(|| panic!("not checked by hand: {}", r.smiles));
+        assert!(!verdict.trim().is_empty());
+        let e = Molecule::from_smiles(&r.smiles).err().unwrap_or_else(|| panic!("accepted: {}", r.smiles));
+        assert!(e.position.is_some(), "no position: {}", r.smiles);
+    }
+}
+
+#[test]
 fn from_smiles_given_reference_corpus_agrees_with_rdkit() {
     let rows = rows();
     assert!(rows.len() >= 2000, "corpus has {} molecules", rows.len());

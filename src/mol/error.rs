@@ -5,12 +5,21 @@ use std::fmt;
 /// What went wrong while reading a SMILES string.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum ErrorKind {
+    /// No SMILES given (empty or only white space).
     Empty,
+    /// Not SMILES: unexpected character, unclosed bracket or branch.
     Syntax,
+    /// A ring-closure digit never closed, closing on its own atom,
+    /// duplicating a bond or with conflicting bond orders at its two ends.
     RingClosure,
+    /// Aromatic input that cannot be kekulized, or an aromatic atom outside
+    /// a ring.
     Aromaticity,
+    /// An atom with a valence its element and charge do not allow.
     Valence,
+    /// Valid SMILES the reader cannot handle.
     Unsupported,
+    /// Over the size limits (characters, atoms, ring-system size).
     TooLarge,
 }
 
@@ -33,13 +42,18 @@ impl ErrorKind {
 /// was found, if there is one.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct MolError {
+    /// What kind of problem.
     pub kind: ErrorKind,
+    /// What is wrong, in words.
     pub message: String,
+    /// 0-based character position in the input, when there is one.
     pub position: Option<usize>,
+    /// The input as given.
     pub input: String,
 }
 
 impl MolError {
+    /// Build an error.
     pub fn new(
         kind: ErrorKind,
         message: impl Into<String>,

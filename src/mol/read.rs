@@ -174,10 +174,12 @@ struct Builder {
     opens: Vec<(u8, usize, RawOrder, usize)>,
     joins: usize,
     trouble: Option<Trouble>,
+    /// Ring-closure numbers in written order, from the lexer.
+    digits: Vec<u8>,
 }
 
 impl Builder {
-    fn new(capacity: usize) -> Self {
+    fn new(capacity: usize, digits: Vec<u8>) -> Self {
         Builder {
             atoms: Vec::with_capacity(capacity),
             bonds: Vec::with_capacity(capacity + 4),
@@ -185,6 +187,7 @@ impl Builder {
             opens: Vec::new(),
             joins: 0,
             trouble: None,
+            digits,
         }
     }
 
@@ -226,7 +229,9 @@ impl Follower for Builder {
         let Some(&head) = self.stack.last() else {
             return;
         };
-        let digit = rnum as u8;
+        // purr 0.9 reads `%73` as ring 74; the digits come from our own lexer
+        // of the same text (valid whenever purr accepts the string).
+        let digit = self.digits.get(join).copied().unwrap_or(rnum as u8);
         let order = order_of(&bond_kind);
         match self.opens.iter().position(|o| o.0 == digit) {
             None => self.opens.push((digit, head, order, join)),
@@ -362,15 +367,29 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
         String::from_utf8(c2).ok()
     };
     let to_read: &str = rewritten.as_deref().unwrap_or(smiles);
+    // Lex first: atom spans, ring-closure positions and their numbers
+    // (meaningful only if purr accepts the text).
+    let (spans, rnums) = lex(bytes);
+    let digits: Vec<u8> = rnums
+        .iter()
+        .map(|&p| match bytes.get(p) {
+            Some(b'%') => {
+                let d = |k: usize| bytes.get(p + k).map_or(0, |c| c.wrapping_sub(b'0') % 10);
+                d(1) * 10 + d(2)
+            }
+            Some(c) => c.wrapping_sub(b'0') % 10,
+            None => 0,
+        })
+        .collect();
     let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
-        guarded_read(to_read, rough_atoms)
+        guarded_read(to_read, rough_atoms, digits)
     } else {
         // One stack frame chain per atom: give the reader room for it.
         let owned = to_read.to_string();
         let stack = (1 << 20) + rough_atoms * 2048;
         let handle = std::thread::Builder::new()
             .stack_size(stack)
-            .spawn(move || guarded_read(&owned, rough_atoms));
+            .spawn(move || guarded_read(&owned, rough_atoms, digits));
         match handle.map(|h| h.join()) {
             Ok(Ok(pair)) => pair,
             _ => {
@@ -408,7 +427,6 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             smiles,
         ));
     }
-    let (spans, rnums) = lex(bytes);
     let rnum_pos = |j: usize| rnums.get(j).copied();
     if let Some(t) = builder.trouble {
         return Err(match t {
@@ -507,9 +525,13 @@ enum ReadFailure {
     Panic,
 }
 
-fn guarded_read(smiles: &str, capacity: usize) -> (Result<(), ReadFailure>, Option<Builder>) {
+fn guarded_read(
+    smiles: &str,
+    capacity: usize,
+    digits: Vec<u8>,
+) -> (Result<(), ReadFailure>, Option<Builder>) {
     let run = std::panic::catch_unwind(|| {
-        let mut builder = Builder::new(capacity.min(MAX_ATOMS));
+        let mut builder = Builder::new(capacity.min(MAX_ATOMS), digits);
         let r = purr::read::read(smiles, &mut builder, None);
         (r, builder)
     });
@@ -541,6 +563,9 @@ fn syntax_error(smiles: &str, p: usize) -> MolError {
             }
         }
         Some(c) if c.is_whitespace() => "unexpected white space".to_string(),
+        Some('(') if p > 0 && chars[p - 1] == '%' => {
+            "ring-closure numbers above 99 (written %(n)) are not supported".to_string()
+        }
         Some(c)
             if is_bond_symbol(*c)
                 && p > 0

@@ -17,12 +17,16 @@ fn rank<K: Ord + Clone>(keys: &[K]) -> Vec<u32> {
     ranks
 }
 
+/// Starting invariant: element, isotope, charge, hydrogens, D/T count,
+/// degree, aromaticity, smallest ring.
+type Invariant = (u8, u16, i8, u8, u8, usize, bool, usize);
+
 pub(crate) fn classes(m: &Molecule) -> Vec<u32> {
     let n = m.atoms.len();
     if n == 0 {
         return Vec::new();
     }
-    let initial: Vec<(u8, u16, i8, u8, u8, usize, bool, usize)> = (0..n)
+    let initial: Vec<Invariant> = (0..n)
         .map(|i| {
             let a = &m.atoms[i];
             (
