@@ -330,3 +330,32 @@ fn bond_in_ring_given_spiro_and_chain() {
     assert_eq!(t.smallest_ring(0), 0);
     assert!(!Target::new(&mol("CC(C)CO")).has_ring());
 }
+
+#[test]
+fn atom_ring_count_given_long_spiro_chain() {
+    // 100 cyclopentanes joined by 99 spiro atoms (structure from memory):
+    // each spiro atom is in two rings, every other ring atom in one.
+    let mut s = String::from("C1CCC");
+    let mut prev = 1;
+    for _ in 1..100 {
+        let next = if prev == 1 { 2 } else { 1 };
+        s.push_str(&format!("C{next}(C{prev})CC"));
+        prev = next;
+    }
+    s.push_str(&format!("C{prev}"));
+    assert_eq!(count("[R2]", &s), 99);
+    assert_eq!(count("[R1]", &s), 302);
+    assert_eq!(Target::new(&mol(&s)).ring_count(), 100);
+}
+
+#[test]
+fn ring_count_given_huge_ring_block_stays_fast() {
+    // Two 700-atom paths between two atoms plus a bond between them: one
+    // block too large for the exact ring set; the approximation still gives
+    // its cyclomatic number of rings (issue 3: hostile input stays cheap).
+    let s = format!("C12{}C1{}C2", "C".repeat(700), "C".repeat(700));
+    let m = mol(&s);
+    let t = Target::new(&m);
+    assert_eq!(t.ring_count(), 2);
+    assert_eq!(count("[R0]", &s), 0);
+}

@@ -35,16 +35,16 @@ impl Adj<'_> {
 
 #[derive(Debug, Clone)]
 pub(crate) struct Rings {
-    pub bond_in_ring: Vec<bool>,
     pub atom_rings: Vec<u8>,
     pub atom_min_ring: Vec<u8>,
     pub count: usize,
 }
 
-/// Ring systems larger than this (vertices × edges) get an approximate
+/// Ring systems larger than this (vertices × edges; about 450 atoms in one
+/// fused system) get an approximate
 /// ring set (one ring per atom, smallest ring by breadth-first search)
 /// instead of the full basis, so hostile input cannot make perception slow.
-const EXACT_LIMIT: usize = 4_000_000;
+const EXACT_LIMIT: usize = 250_000;
 
 /// Ring bonds only (cheap): bonds that are not bridges.
 pub(crate) fn ring_bonds(adj: &Adj) -> Vec<bool> {
@@ -61,7 +61,6 @@ pub(crate) fn ring_bonds(adj: &Adj) -> Vec<bool> {
 pub(crate) fn perceive(adj: &Adj, bond_in_ring: &[bool]) -> Rings {
     let n = adj.len();
     let mut out = Rings {
-        bond_in_ring: bond_in_ring.to_vec(),
         atom_rings: vec![0; n],
         atom_min_ring: vec![0; n],
         count: 0,
@@ -69,37 +68,80 @@ pub(crate) fn perceive(adj: &Adj, bond_in_ring: &[bool]) -> Rings {
     if !bond_in_ring.iter().any(|&r| r) {
         return out;
     }
-    // Ring systems: components over ring bonds.
-    let mut system = vec![usize::MAX; n];
-    let mut n_systems = 0;
-    for s in 0..n {
-        if system[s] != usize::MAX
-            || !adj
-                .of(s)
-                .any(|(_, b)| out.bond_in_ring.get(b) == Some(&true))
-        {
+    // Blocks (biconnected components): the ring set splits over them
+    // exactly, so spiro-joined and bridge-linked rings are handled apart.
+    let blocks = blocks(adj);
+    for edges in blocks.iter().filter(|b| b.len() >= 2) {
+        let mut in_block = vec![false; bond_in_ring.len()];
+        let mut atoms: Vec<usize> = Vec::with_capacity(edges.len());
+        for &b in edges {
+            if let Some(f) = in_block.get_mut(b) {
+                *f = true;
+            }
+        }
+        for a in 0..n {
+            if adj.of(a).any(|(_, b)| in_block.get(b) == Some(&true)) {
+                atoms.push(a);
+            }
+        }
+        ring_system(&atoms, adj, &in_block, &mut out);
+    }
+    out
+}
+
+/// Edge sets of the biconnected components, by an iterative depth-first
+/// search with an edge stack (a bridge is a component of one edge).
+fn blocks(adj: &Adj) -> Vec<Vec<usize>> {
+    let n = adj.len();
+    let mut disc = vec![usize::MAX; n];
+    let mut low = vec![0usize; n];
+    let mut time = 0;
+    let mut edge_stack: Vec<usize> = Vec::new();
+    let mut out: Vec<Vec<usize>> = Vec::new();
+    for root in 0..n {
+        if disc[root] != usize::MAX {
             continue;
         }
-        let mut stack = vec![s];
-        system[s] = n_systems;
-        while let Some(a) = stack.pop() {
-            for (x, b) in adj.of(a) {
-                if out.bond_in_ring.get(b) == Some(&true) && system[x] == usize::MAX {
-                    system[x] = n_systems;
-                    stack.push(x);
+        disc[root] = time;
+        low[root] = time;
+        time += 1;
+        // Frame: (atom, bond used to enter, next neighbour index)
+        let mut stack: Vec<(usize, usize, usize)> = vec![(root, usize::MAX, 0)];
+        while let Some(frame) = stack.last_mut() {
+            let (a, via, i) = *frame;
+            if i < adj.degree(a) {
+                frame.2 += 1;
+                let (x, b) = adj.nth(a, i);
+                if b == via || x >= n {
+                    continue;
+                }
+                if disc[x] == usize::MAX {
+                    edge_stack.push(b);
+                    disc[x] = time;
+                    low[x] = time;
+                    time += 1;
+                    stack.push((x, b, 0));
+                } else if disc[x] < disc[a] {
+                    edge_stack.push(b);
+                    low[a] = low[a].min(disc[x]);
+                }
+            } else {
+                stack.pop();
+                if let Some(&(p, _, _)) = stack.last() {
+                    low[p] = low[p].min(low[a]);
+                    if low[a] >= disc[p] {
+                        let mut block = Vec::new();
+                        while let Some(e) = edge_stack.pop() {
+                            block.push(e);
+                            if e == via {
+                                break;
+                            }
+                        }
+                        out.push(block);
+                    }
                 }
             }
         }
-        n_systems += 1;
-    }
-    let mut members: Vec<Vec<usize>> = vec![Vec::new(); n_systems];
-    for (a, &s) in system.iter().enumerate() {
-        if s != usize::MAX {
-            members[s].push(a);
-        }
-    }
-    for atoms in &members {
-        ring_system(atoms, adj, bond_in_ring, &mut out);
     }
     out
 }
@@ -247,12 +289,14 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
         let size = v.min(255) as u8;
         for &a in atoms {
             out.atom_rings[a] = out.atom_rings[a].saturating_add(1);
-            out.atom_min_ring[a] = size;
+            if out.atom_min_ring[a] == 0 || out.atom_min_ring[a] > size {
+                out.atom_min_ring[a] = size;
+            }
         }
         return;
     }
     if v.saturating_mul(e) > EXACT_LIMIT {
-        approximate(atoms, adj, ring, out);
+        approximate(atoms, adj, ring, nullity, out);
         return;
     }
     let words = e.div_ceil(64);
@@ -355,6 +399,7 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
         }
     }
     let mut extra_rings: Vec<Vec<usize>> = Vec::new();
+    let mut budget = SYSTEM_STEP_LIMIT;
     let mut known: std::collections::HashSet<Bits> =
         chosen.iter().map(|&i| cands[i].1.clone()).collect();
     for &j in &chosen {
@@ -368,7 +413,9 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
             vec![unique[0]]
         };
         for k in starts {
-            for (cyc, cbits) in cycles_through(k, *len, &ends, &local_edge, adj, ring, words) {
+            for (cyc, cbits) in
+                cycles_through(k, *len, &ends, &local_edge, adj, ring, words, &mut budget)
+            {
                 if unique.iter().all(|&u| has(&cbits, u)) && known.insert(cbits) {
                     extra_rings.push(cyc);
                 }
@@ -393,18 +440,19 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
     }
 }
 
-/// Cheap stand-in for very large ring systems: each atom counts one ring,
-/// of the size of the shortest cycle through it.
-fn approximate(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
+/// Cheap stand-in for very large ring blocks: the block counts its
+/// cyclomatic number of rings, each atom one ring, of the size of the
+/// shortest cycle through it.
+fn approximate(atoms: &[usize], adj: &Adj, ring: &[bool], nullity: usize, out: &mut Rings) {
     let n = adj.len();
     let mut dist = vec![usize::MAX; n];
+    let mut branch = vec![usize::MAX; n];
+    out.count += nullity;
     for &a in atoms {
-        out.atom_rings[a] = 1;
-        out.count += 1;
+        out.atom_rings[a] = out.atom_rings[a].saturating_add(1);
         // Shortest cycle through `a`: BFS labelling each vertex with the
         // first neighbour of `a` it came through.
         let mut touched = vec![a];
-        let mut branch = std::collections::HashMap::new();
         dist[a] = 0;
         let mut queue = std::collections::VecDeque::from([a]);
         let mut best = usize::MAX;
@@ -413,38 +461,42 @@ fn approximate(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
                 break;
             }
             for (y, b) in adj.of(x) {
-                if !ring[b] {
+                if !ring.get(b).copied().unwrap_or(false) {
                     continue;
                 }
-                let bx = if x == a {
-                    y
-                } else {
-                    branch.get(&x).copied().unwrap_or(y)
-                };
+                let bx = if x == a { y } else { branch[x] };
                 if dist[y] == usize::MAX {
                     dist[y] = dist[x] + 1;
-                    branch.insert(y, bx);
+                    branch[y] = bx;
                     touched.push(y);
                     queue.push_back(y);
-                } else if y != a && branch.get(&y) != Some(&bx) {
+                } else if y != a && branch[y] != bx {
                     best = best.min(dist[x] + dist[y] + 1);
                 }
             }
         }
         for t in touched {
             dist[t] = usize::MAX;
+            branch[t] = usize::MAX;
         }
-        out.atom_min_ring[a] = best.min(255) as u8;
+        let best = best.min(255) as u8;
+        if out.atom_min_ring[a] == 0 || out.atom_min_ring[a] > best {
+            out.atom_min_ring[a] = best;
+        }
     }
 }
 
 /// Most search steps spent looking for the cycles through one bond.
 const CYCLE_STEP_LIMIT: usize = 200_000;
 
+/// Most search steps spent on the equivalent rings of one ring system.
+const SYSTEM_STEP_LIMIT: usize = 2_000_000;
+
 /// Simple cycles of exactly `len` atoms through local edge `k`, within the
 /// ring bonds of one system, as (atoms, edge bits). Depth-first with an
 /// explicit stack and distance pruning; stops after [`CYCLE_STEP_LIMIT`]
 /// steps.
+#[allow(clippy::too_many_arguments)] // internal helper
 fn cycles_through(
     k: usize,
     len: usize,
@@ -453,6 +505,7 @@ fn cycles_through(
     adj: &Adj,
     ring: &[bool],
     words: usize,
+    budget: &mut usize,
 ) -> Vec<(Vec<usize>, Bits)> {
     let mut out = Vec::new();
     let Some(&(a, b)) = ends.get(k) else {
@@ -482,9 +535,10 @@ fn cycles_through(
     let mut steps = 0usize;
     while let Some(&x) = path.last() {
         steps += 1;
-        if steps > CYCLE_STEP_LIMIT {
+        if steps > CYCLE_STEP_LIMIT || *budget == 0 {
             break;
         }
+        *budget -= 1;
         let depth = path.len() - 1; // edges used so far
         let i = cursor[depth];
         if x == a || i >= adj.degree(x) {

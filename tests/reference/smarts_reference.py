@@ -148,6 +148,20 @@ def main():
         queries.append(q)
     mols = sample()
     os.makedirs(OUT, exist_ok=True)
+    # Patterns with a :1 atom: the molecule atoms that atom can occupy, from
+    # all (not uniquified) matches.
+    anchored = []
+    for k, q in enumerate(queries):
+        for a in q.GetAtoms():
+            if a.GetAtomMapNum() == 1:
+                anchored.append((k, a.GetIdx()))
+                break
+    fa = open(os.path.join(OUT, "anchors.tsv"), "w")
+    fa.write(
+        "# id then, for each pattern with a :1 atom ("
+        + " ".join(patterns[k][0] for k, _ in anchored)
+        + "), the molecule atoms it can occupy, space-separated; patterns separated by ';'\n"
+    )
     with open(os.path.join(OUT, "molecules.tsv"), "w") as fm, open(
         os.path.join(OUT, "expected.tsv"), "w"
     ) as fe:
@@ -167,6 +181,12 @@ def main():
                 len(m.GetSubstructMatches(q, uniquify=True, maxMatches=10**6)) for q in queries
             ]
             fe.write(mid + "\t" + ",".join(map(str, counts)) + "\n")
+            sets = []
+            for k, ai in anchored:
+                ms = m.GetSubstructMatches(queries[k], uniquify=False, maxMatches=10**6)
+                sets.append(" ".join(map(str, sorted({mm[ai] for mm in ms}))))
+            fa.write(mid + "\t" + ";".join(sets) + "\n")
+    fa.close()
     print(f"{len(mols)} molecules x {len(patterns)} patterns written to {OUT}")
 
 
