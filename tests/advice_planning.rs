@@ -444,7 +444,11 @@ fn advise_given_alpha_chloro_ketone_warns_of_favorskii_and_self_alkylation() {
     // Common practice: α-halo ketones with base undergo Favorskii
     // rearrangement or self-condensation.
     let a = plan("CC(=O)CCl");
-    let w = a.warnings.iter().find(|w| w.kind == WarningKind::AlkylHalide).unwrap();
+    let w = a
+        .warnings
+        .iter()
+        .find(|w| w.kind == WarningKind::AlkylHalide)
+        .unwrap();
     assert!(w.message.contains("Favorskii"));
 }
 
@@ -453,4 +457,33 @@ fn advise_given_ketone_rejects_lithium_hydroxide_in_aqueous_thf() {
     // Common practice: hydroxide in water/THF gives only a trace of ketone enolate.
     let a = plan("CC(=O)CCCC#C");
     assert_rejected(&a, "LiOH", RejectKind::TooWeak);
+}
+
+#[test]
+fn advise_given_requested_water_scale_uses_it_or_says_why_not() {
+    // The scale choice is reported: water where base and target have values,
+    // a stated fallback where the base has none (LDA: THF value only).
+    let a = plan_with(
+        "CC(C)=O",
+        AdviceOptions {
+            base: Some("KOtBu".into()),
+            scale: Some(acidsite::advice::Scale::Water),
+            ..AdviceOptions::default()
+        },
+    );
+    assert_eq!(a.scale, Some(acidsite::advice::Scale::Water));
+    assert!(a.scale_note.contains("as requested"), "{}", a.scale_note);
+    let b = plan_with(
+        "CC(C)=O",
+        AdviceOptions {
+            base: Some("LDA".into()),
+            scale: Some(acidsite::advice::Scale::Water),
+            ..AdviceOptions::default()
+        },
+    );
+    assert!(
+        b.scale_note.contains("requested water scale has no value"),
+        "{}",
+        b.scale_note
+    );
 }

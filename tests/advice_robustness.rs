@@ -187,6 +187,16 @@ fn advise_throughput_benchmark() {
         "advise: {n} calls in {dt:.3} s = {:.0} per second",
         n as f64 / dt
     );
+    let start = std::time::Instant::now();
+    for i in 0..n {
+        let (m, _) = &prepared[i % prepared.len()];
+        let _ = find_sites(m);
+    }
+    let ds = start.elapsed().as_secs_f64();
+    println!(
+        "find_sites (for comparison): {:.0} per second",
+        n as f64 / ds
+    );
 }
 
 /// Split of the recommender's time (benchmark).

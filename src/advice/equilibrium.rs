@@ -20,10 +20,13 @@
 //! D = C * sum_u F_u(r),   [B-] = B0 - D,   [BH] = A0 + D,   r = [B-]/[BH]
 //! ```
 //!
-//! The single unknown s = log10 r is found by bisection on a bracket that
-//! always contains the root (the residual is monotone in s), so the solver
-//! converges for any pKa difference; concentrations are molar and activity
-//! coefficients are taken as 1.
+//! The single unknown s = log10 r is found on the bracket [-400, 400], which
+//! always contains the root (the residual is strictly monotone in s):
+//! Newton steps where they stay inside the shrinking bracket, bisection
+//! otherwise, so the solver converges for any pKa difference. Mono-, di- and
+//! higher anion populations follow from the unit fractions (independent
+//! units: a Poisson-binomial distribution, exact for any number of units).
+//! Concentrations are molar and activity coefficients are taken as 1.
 
 use super::catalogue::{catalogue, Base, CatalogueError, Scale};
 use super::features::{detect_features, site_units};
@@ -77,9 +80,13 @@ pub struct SiteFraction {
 pub struct Equilibrium {
     /// Base name (empty when solved from a bare [`EquilibriumInput`]).
     pub base: String,
+    /// Scale of the site values used.
     pub scale: Scale,
+    /// Conjugate-acid pKa used.
     pub base_pka: f64,
+    /// Base equivalents relative to substrate.
     pub equivalents: f64,
+    /// Substrate concentration, mol/L.
     pub concentration: f64,
     /// Protic solvent that is the base's conjugate acid, with its molarity.
     pub acid_solvent: Option<(String, f64)>,
@@ -99,6 +106,7 @@ pub struct Equilibrium {
     pub log_ratio: f64,
     /// |free base + protons removed - base added| / max(base, substrate).
     pub mass_balance_residual: f64,
+    /// Root-finding iterations used.
     pub iterations: u32,
     /// Plain-language notes on the scale and conditions used.
     pub notes: Vec<String>,
@@ -405,6 +413,14 @@ pub(crate) fn choose_scale(
         if let (Some(p), true) = (base.pka(f), site_has(f)) {
             return Some(same(f, p, " as requested"));
         }
+        let mut fallback = choose_scale(base, protic, None, site_has)?;
+        fallback.note = format!(
+            "the requested {} scale has no value for {} or the sites; {}",
+            f.name(),
+            base.name,
+            fallback.note
+        );
+        return Some(fallback);
     }
     if protic {
         if let (Some(p), true) = (base.pka(Scale::Water), site_has(Scale::Water)) {

@@ -5,7 +5,9 @@ use super::catalogue::{
     catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
 };
 use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
-use super::equilibrium::{choose_scale, solve, Equilibrium, EquilibriumInput, ScaleChoice};
+use super::equilibrium::{
+    choose_scale, solve, AcidUnit, Equilibrium, EquilibriumInput, ScaleChoice,
+};
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
@@ -74,12 +76,19 @@ impl Default for AdviceOptions {
 pub struct Target {
     /// Index into `SiteReport::sites`.
     pub site: usize,
+    /// Atoms of the target site (input order, 0-based).
     pub atoms: Vec<usize>,
+    /// Element of the acidic atom ("C", "O", "N", "S").
     pub element: String,
+    /// Site class from the rule data.
     pub class: String,
+    /// Estimated pKa in DMSO.
     pub pka_dmso: Option<f64>,
+    /// Estimated pKa in water.
     pub pka_water: Option<f64>,
+    /// One standard uncertainty of the estimate, pKa units.
     pub uncertainty: f64,
+    /// Kinetic or thermodynamic side of an unsymmetrical ketone.
     pub regio: Option<Regio>,
     /// How the target was chosen.
     pub chosen_by: String,
@@ -88,32 +97,47 @@ pub struct Target {
 /// A proton the base removes before (or with) the target.
 #[derive(Debug, Clone, PartialEq)]
 pub struct CountedProton {
+    /// Index into `SiteReport::sites`.
     pub site: usize,
+    /// Atoms of the site (input order).
     pub atoms: Vec<usize>,
+    /// Element of the acidic atom.
     pub element: String,
+    /// Site class from the rule data.
     pub class: String,
+    /// pKa on the scale of the comparison.
     pub pka: Option<f64>,
     /// Protons consumed by this site.
     pub protons: usize,
+    /// Why it is counted (more acidic, or fast O–H/N–H transfer).
     pub reason: String,
 }
 
 /// Temperature range, °C.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Temperature {
+    /// Lower end, °C.
     pub low_c: f64,
+    /// Upper end, °C.
     pub high_c: f64,
 }
 
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Alternative {
+    /// Catalogue name.
     pub base: String,
+    /// Equivalents it would need.
     pub equivalents: f64,
+    /// Fraction of the target deprotonated at equilibrium, 0..=1.
     pub conversion: f64,
+    /// pKa scale of the comparison.
     pub scale: Scale,
+    /// Its usual (or the requested) solvent.
     pub solvent: String,
+    /// Its usual temperature range.
     pub temperature: Temperature,
+    /// Notes from the evaluation (scale, marginal acceptance, solvent).
     pub note: String,
 }
 
@@ -148,9 +172,13 @@ impl RejectKind {
 /// A rejected base with every reason found (`kind` is the first).
 #[derive(Debug, Clone, PartialEq)]
 pub struct Rejection {
+    /// Catalogue name.
     pub base: String,
+    /// The first reason found.
     pub kind: RejectKind,
+    /// Every reason found, in the order of `reason`.
     pub kinds: Vec<RejectKind>,
+    /// All reasons in words, separated by "; ".
     pub reason: String,
 }
 
@@ -190,9 +218,12 @@ impl WarningKind {
     }
 }
 
+/// A warning about the molecule or the chosen conditions.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Warning {
+    /// Category.
     pub kind: WarningKind,
+    /// Plain-language text.
     pub message: String,
 }
 
@@ -359,6 +390,9 @@ struct Ctx<'a> {
     opts: &'a AdviceOptions,
     target: usize,
     target_unit: Vec<usize>,
+    /// Acid units and their notes on the DMSO and water scales, built once.
+    units_dmso: (Vec<AcidUnit>, Vec<String>),
+    units_water: (Vec<AcidUnit>, Vec<String>),
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -439,8 +473,14 @@ fn solve_with(
     exclude: &[usize],
     notes: &mut Vec<String>,
 ) -> Option<Equilibrium> {
-    let units: Vec<_> = site_units(ctx.sites, &ctx.f.site_unit, scale, notes)
-        .into_iter()
+    let (cached, cached_notes) = match scale {
+        Scale::Water => &ctx.units_water,
+        _ => &ctx.units_dmso,
+    };
+    notes.extend(cached_notes.iter().cloned());
+    let units: Vec<_> = cached
+        .iter()
+        .cloned()
         .filter_map(|mut u| {
             u.alternatives.retain(|m| !exclude.contains(&m.site));
             (!u.alternatives.is_empty()).then_some(u)
@@ -1024,12 +1064,19 @@ pub fn advise_with_features(
                     && tsite.is_carbon())
         })
         .collect();
+    let cache = |sc: Scale| {
+        let mut notes = Vec::new();
+        let units = site_units(sites, &f.site_unit, sc, &mut notes);
+        (units, notes)
+    };
     let ctx = Ctx {
         f,
         sites,
         opts,
         target,
         target_unit,
+        units_dmso: cache(Scale::Dmso),
+        units_water: cache(Scale::Water),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
@@ -1167,10 +1214,11 @@ pub fn advise_with_features(
     if let Some(e) = chosen {
         push(caution_for(e.base, Some(&e.solvent)));
     }
-    for a in &alternatives {
-        if let Some(b) = cat.get(&a.base) {
-            push(caution_for(b, Some(&a.solvent)));
-        }
+    for e in accepted
+        .iter()
+        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
+    {
+        push(caution_for(e.base, Some(&e.solvent)));
     }
     if let Some(r) = &regio {
         for name in ["LDA", "NaH", "KOtBu", "Et3N"] {
