@@ -6,6 +6,9 @@
 
 mod cli;
 
+#[global_allocator]
+static GLOBAL: mimalloc::MiMalloc = mimalloc::MiMalloc;
+
 use clap::{Parser, Subcommand};
 use std::io::Write;
 use std::process::ExitCode;
