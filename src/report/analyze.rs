@@ -310,55 +310,56 @@ fn advice_record(
         site: opts.site,
         ..AdviceOptions::default()
     };
+    // The advice is consumed: its strings move into the record.
     let a = match advise(mol, report, &aopts) {
         Ok(a) => a,
         Err(e) => return (None, Some(e.to_string())),
     };
     let range = |t: Temperature| [t.low_c, t.high_c];
     let out = AdviceOut {
-        target: a.target.atoms.clone(),
-        target_note: a.target.chosen_by.clone(),
-        base: a.base.clone(),
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
-        equivalents_note: a.equivalents_note.clone(),
+        target: a.target.atoms,
+        target_note: a.target.chosen_by,
+        base: a.base,
+        equivalents_note: a.equivalents_note,
         counted: a
             .counted
-            .iter()
+            .into_iter()
             .map(|c| CountedOut {
-                atoms: c.atoms.clone(),
-                class: c.class.clone(),
+                atoms: c.atoms,
+                class: c.class,
                 protons: c.protons,
-                reason: c.reason.clone(),
+                reason: c.reason,
             })
             .collect(),
         conversion: a.conversion.and_then(significant),
-        solvent: a.solvent.clone(),
+        solvent: a.solvent,
         temperature_c: a.temperature.and_then(|t| round(t.low_c, 0.1)),
         temperature_range_c: a.temperature.map(range),
         scale: a.scale.map(|s| s.name().to_string()),
-        scale_note: a.scale_note.clone(),
+        scale_note: a.scale_note,
         alternatives: a
             .alternatives
-            .iter()
+            .into_iter()
             .map(|x| AlternativeOut {
-                base: x.base.clone(),
+                base: x.base,
                 equivalents: round(x.equivalents, 0.01).unwrap_or(0.0),
                 conversion: significant(x.conversion).unwrap_or(0.0),
-                solvent: x.solvent.clone(),
+                solvent: x.solvent,
                 temperature_range_c: range(x.temperature),
-                note: x.note.clone(),
+                note: x.note,
             })
             .collect(),
         rejected: a
             .rejected
-            .iter()
+            .into_iter()
             .map(|r| RejectedOut {
-                base: r.base.clone(),
                 kind: r.kind.name().to_string(),
-                reason: r.reason.clone(),
+                base: r.base,
+                reason: r.reason,
             })
             .collect(),
-        warnings: a.warnings.iter().map(|w| w.message.clone()).collect(),
+        warnings: a.warnings.into_iter().map(|w| w.message).collect(),
         regio_conditions: a.regio.as_ref().map(|r| {
             let side = |c: &RegioConditions| RegioSideOut {
                 base: c.base.clone(),
@@ -375,14 +376,14 @@ fn advice_record(
         }),
         cautions: a
             .cautions
-            .iter()
+            .into_iter()
             .map(|c| CautionOut {
-                reagent: c.reagent.clone(),
                 hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
-                text: c.text.clone(),
+                reagent: c.reagent,
+                text: c.text,
             })
             .collect(),
-        catalogue: a.catalogue_version.clone(),
+        catalogue: a.catalogue_version,
     };
     (Some(out), None)
 }
