@@ -275,3 +275,24 @@ fn annotate_given_csv_with_flags_matches_schema() {
     let first = out.lines().next().unwrap();
     assert!(first.find("\"ester\"").unwrap() < first.find("\"halide\"").unwrap());
 }
+
+#[test]
+fn annotate_given_sites_only_gives_null_advice_with_note() {
+    let (code, out) = run(
+        &["annotate", "-", "--sites-only", "--quiet"],
+        b"CC(C)=O acetone\n",
+    );
+    assert_eq!(code, Some(0));
+    let rec = check(out.trim());
+    assert!(rec.advice.is_none());
+    assert!(rec.advice_note.is_some_and(|n| n.contains("not requested")));
+    assert!(!rec.sites.unwrap().is_empty());
+    assert_eq!(
+        run(
+            &["annotate", "-", "--sites-only", "--base", "LDA"],
+            b"CCO\n"
+        )
+        .0,
+        Some(2)
+    );
+}

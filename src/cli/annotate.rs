@@ -62,6 +62,10 @@ pub struct Args {
     /// Evaluate this base for every record instead of the recommended one.
     #[arg(long, value_name = "NAME")]
     pub base: Option<String>,
+    /// Sites and pKa estimates only, without base advice (much faster and
+    /// smaller records; `advice` is null).
+    #[arg(long, conflicts_with = "base")]
+    pub sites_only: bool,
     /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
@@ -180,6 +184,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             base: args.base.clone(),
             scale: args.scale.into(),
             flags: args.flags.clone(),
+            sites_only: args.sites_only,
         },
         output: args.format,
         rows,

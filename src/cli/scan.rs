@@ -35,6 +35,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         base: args.base.clone(),
         scale: args.scale.into(),
         flags: args.flags.clone(),
+        sites_only: false,
     };
     let stdout = std::io::stdout();
     let mut out = std::io::BufWriter::new(stdout.lock());

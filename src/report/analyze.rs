@@ -89,6 +89,8 @@ pub struct Options {
     pub scale: Scale,
     /// Patterns to count.
     pub flags: Vec<Flag>,
+    /// Sites only: skip the base advice (`advice` is null, with a note).
+    pub sites_only: bool,
 }
 
 /// Analyse one SMILES. `line` and `id` are stamped into the record as given.
@@ -146,7 +148,11 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         },
     );
     let sites_out = site_records(&report);
-    let (advice, advice_note) = advice_record(&mol, &report, opts);
+    let (advice, advice_note) = if opts.sites_only {
+        (None, Some("not requested (sites only)".to_string()))
+    } else {
+        advice_record(&mol, &report, opts)
+    };
     let mapped = mapped_smiles(smiles, &mol, &sites_out);
     let flags = if opts.flags.is_empty() {
         None
