@@ -1,6 +1,6 @@
 //! Output records: the JSON Lines schema (serialization types kept apart from
 //! library types), the human table, CSV/TSV rows and atom-mapped SMILES, and
-//! [`analyze`], which runs SMILES → molecule → sites → advice for one input
+//! [`analyze()`], which runs SMILES → molecule → sites → advice for one input
 //! and returns its [`Record`]. No I/O.
 //!
 //! OWNER: command-line work (issue 6).
