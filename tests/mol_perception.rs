@@ -348,7 +348,7 @@ fn symmetry_classes_given_toluene_pair_ortho_and_meta() {
 }
 
 #[test]
-fn symmetry_classes_do_not_depend_on_atom_order() {
+fn symmetry_classes_given_reordered_smiles_agree() {
     let a = mol("OCC(C)=O");
     let b = mol("CC(=O)CO");
     // a: O0 C1 C2 C3 O4 ; b: C0 C1 O2 C3 O4 (same molecule)
@@ -438,4 +438,30 @@ fn from_smiles_given_parenthesised_ring_number_says_unsupported() {
     let e = err("C%(100)CC%(100)");
     assert_eq!((e.kind, e.position), (ErrorKind::Syntax, Some(2)));
     assert!(e.message.contains("above 99"), "{e}");
+}
+
+#[test]
+fn smarts_hydrogen_counts_given_kept_hydrogen_atom_differ() {
+    // [H][H] keeps both atoms; each has one hydrogen neighbour (SMARTS H1)
+    // and no hydrogens off the graph (h0), as RDKit counts them.
+    let m = mol("[H][H]");
+    assert_eq!((m.smarts_total_h(0), m.smarts_implicit_h(0)), (1, 0));
+    let m = mol("C[NH2]");
+    assert_eq!((m.smarts_total_h(1), m.smarts_implicit_h(1)), (2, 2));
+    assert_eq!((m.smarts_total_h(0), m.smarts_implicit_h(0)), (3, 3));
+}
+
+#[test]
+fn to_petgraph_given_molecule_keeps_indices() {
+    let m = mol("CC(=O)O");
+    let g = m.to_petgraph();
+    assert_eq!((g.node_count(), g.edge_count()), (4, 3));
+    let e = g.find_edge(
+        petgraph::graph::NodeIndex::new(1),
+        petgraph::graph::NodeIndex::new(2),
+    );
+    assert_eq!(
+        e.and_then(|e| g.edge_weight(e)).copied(),
+        m.bond_between(1, 2)
+    );
 }

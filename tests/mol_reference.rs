@@ -86,9 +86,13 @@ fn from_smiles_given_smiles_rdkit_rejects_gives_errors_checked_by_hand() {
     let rejected: Vec<Row> = rows().into_iter().filter(|r| !r.rdkit_ok).collect();
     assert!(!rejected.is_empty());
     for r in &rejected {
-        let verdict = checked.get(&r.smiles).unwrap_or_else(|| panic!("not checked by hand: {}", r.smiles));
+        let verdict = checked
+            .get(&r.smiles)
+            .unwrap_or_else(|| panic!("not checked by hand: {}", r.smiles));
         assert!(!verdict.trim().is_empty());
-        let e = Molecule::from_smiles(&r.smiles).err().unwrap_or_else(|| panic!("accepted: {}", r.smiles));
+        let e = Molecule::from_smiles(&r.smiles)
+            .err()
+            .unwrap_or_else(|| panic!("accepted: {}", r.smiles));
         assert!(e.position.is_some(), "no position: {}", r.smiles);
     }
 }

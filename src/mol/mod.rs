@@ -76,19 +76,21 @@
 //! Bonds are a list; adjacency is kept in compressed rows (one offset array
 //! and one neighbour array per molecule, [`Molecule::neighbors`] returns a
 //! slice). Measured with `examples/mol_bench.rs` on the MOSES test set
-//! (176,074 molecules, 20 neighbour walks over every atom): compressed rows
-//! 453 ms, a petgraph `UnGraph` 456 ms plus 335 ms to build the graphs
-//! (about 1.9 us per molecule, some 17 % of the whole read + perceive
-//! time). Walks are equally fast, building is not, so the core keeps its
-//! own rows; [`Molecule::to_petgraph`] gives an `UnGraph` to callers that
-//! want petgraph's algorithms.
+//! (176,074 molecules, 20 neighbour walks over every atom), in four runs:
+//! compressed rows 214-453 ms, a petgraph `UnGraph` 235-456 ms, with no
+//! consistent winner, but building the `UnGraph`s costs another 150-335 ms
+//! (about 1-2 us per molecule, some 15 % of the whole read + perceive
+//! time). So the core keeps its own rows, which are also smaller;
+//! [`Molecule::to_petgraph`] gives an `UnGraph` to callers that want
+//! petgraph's algorithms.
 //!
 //! # Speed
 //! `cargo run --release --example mol_bench -- ../shared/data/moses/moses_test.csv`
-//! reads and perceives the MOSES test set on one core at about 0.4 times
-//! the speed of purr's plain read + graph build in the same run (around
-//! 90,000 to 100,000 molecules per second on the shared 2-core development
-//! machine while other jobs ran; see the report for exact figures).
+//! reads and perceives the MOSES test set on one core. On the shared
+//! 2-core development machine it did 102,000 to 128,000 molecules per
+//! second while purr's plain read + graph build did 241,000 to 282,000 in
+//! the same runs: 0.42 to 0.45 times purr's speed (under callgrind, 0.66
+//! times purr's instruction count).
 //!
 //! # Limits
 //! Inputs over [`MAX_CHARS`] characters or [`MAX_ATOMS`] atoms, and ring
@@ -262,6 +264,24 @@ impl Molecule {
     /// Total connections including all hydrogens: SMARTS `X`.
     pub fn total_connections(&self, i: usize) -> usize {
         self.degree(i) + self.atoms.get(i).map_or(0, |a| a.hydrogens as usize)
+    }
+
+    /// SMARTS `H` as RDKit defines it: all hydrogens on atom `i`, counting
+    /// hydrogen atoms that stay in the graph (`[H][H]`, bridging H) too.
+    pub fn smarts_total_h(&self, i: usize) -> u32 {
+        let in_graph = self
+            .neighbors(i)
+            .iter()
+            .filter(|x| self.atoms[x.atom].element == 1)
+            .count() as u32;
+        self.atoms.get(i).map_or(0, |a| a.hydrogens as u32) + in_graph
+    }
+
+    /// SMARTS `h` as RDKit defines it (its "implicit" count): hydrogens on
+    /// atom `i` that are not atoms of the graph, whether written in a
+    /// bracket, folded from `[H]` or added by the valence rules.
+    pub fn smarts_implicit_h(&self, i: usize) -> u32 {
+        self.atoms.get(i).map_or(0, |a| a.hydrogens as u32)
     }
 
     /// Hydrogens that were not written (added by the valence rules).
@@ -543,8 +563,8 @@ fn describe(atom: &Atom) -> String {
 
 /// Borrowed view of the compressed adjacency rows.
 pub(crate) struct Adj<'a> {
-    start: &'a [u32],
-    list: &'a [Neighbor],
+    pub(crate) start: &'a [u32],
+    pub(crate) list: &'a [Neighbor],
 }
 
 impl<'a> Adj<'a> {
@@ -564,14 +584,18 @@ fn adjacency_of(n: usize, bonds: &[Bond]) -> (Vec<u32>, Vec<Neighbor>) {
     for i in 0..n {
         start[i + 1] += start[i];
     }
-    let mut fill: Vec<u32> = start[..n].to_vec();
+    // Fill using start[i + 1] as the cursor of row i, then it ends at the
+    // row's end, which is exactly the start of row i + 1.
     let mut adjacency = vec![Neighbor { atom: 0, bond: 0 }; bonds.len() * 2];
+    for k in (0..n).rev() {
+        start[k + 1] = start[k];
+    }
     for (k, b) in bonds.iter().enumerate() {
         let [x, y] = b.atoms;
-        adjacency[fill[x] as usize] = Neighbor { atom: y, bond: k };
-        fill[x] += 1;
-        adjacency[fill[y] as usize] = Neighbor { atom: x, bond: k };
-        fill[y] += 1;
+        adjacency[start[x + 1] as usize] = Neighbor { atom: y, bond: k };
+        start[x + 1] += 1;
+        adjacency[start[y + 1] as usize] = Neighbor { atom: x, bond: k };
+        start[y + 1] += 1;
     }
     (start, adjacency)
 }
@@ -662,35 +686,47 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
         spans,
     } = raw;
     let n_raw = raw_atoms.len();
-    // Degree of every written atom, to find hydrogens to fold.
-    let mut raw_degree = vec![0u32; n_raw];
-    for b in &raw_bonds {
-        raw_degree[b.a] += 1;
-        raw_degree[b.b] += 1;
-    }
-    let foldable = |i: usize| {
-        let a = &raw_atoms[i];
-        a.element == 1 && a.charge == 0 && a.hcount.unwrap_or(0) == 0 && raw_degree[i] == 1
-    };
-    let mut fold = vec![false; n_raw];
-    for b in &raw_bonds {
-        if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
-            continue;
+    // Hydrogens to fold (only when hydrogen atoms were written).
+    let has_h = raw_atoms.iter().any(|a| a.element == 1);
+    let mut fold: Vec<bool> = Vec::new();
+    if has_h {
+        let mut raw_degree = vec![0u32; n_raw];
+        for b in &raw_bonds {
+            raw_degree[b.a] += 1;
+            raw_degree[b.b] += 1;
         }
-        for (h, heavy) in [(b.a, b.b), (b.b, b.a)] {
-            if foldable(h) && raw_atoms[heavy].element != 1 {
-                fold[h] = true;
+        let foldable = |i: usize| {
+            let a = &raw_atoms[i];
+            a.element == 1 && a.charge == 0 && a.hcount.unwrap_or(0) == 0 && raw_degree[i] == 1
+        };
+        fold = vec![false; n_raw];
+        for b in &raw_bonds {
+            if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
+                continue;
+            }
+            for (h, heavy) in [(b.a, b.b), (b.b, b.a)] {
+                if foldable(h) && raw_atoms[heavy].element != 1 {
+                    fold[h] = true;
+                }
             }
         }
     }
-    // new_index[i] = index after folding (unused for a folded H).
-    let mut new_index = vec![usize::MAX; n_raw];
+    let folded = |i: usize| fold.get(i).copied().unwrap_or(false);
+    // new_index[i] = index after folding (unused for a folded H); identity
+    // when nothing is folded.
+    let mut new_index: Vec<usize> = if has_h {
+        vec![usize::MAX; n_raw]
+    } else {
+        Vec::new()
+    };
     let mut atoms = Vec::with_capacity(n_raw);
     for (i, a) in raw_atoms.iter().enumerate() {
-        if fold[i] {
+        if folded(i) {
             continue;
         }
-        new_index[i] = atoms.len();
+        if has_h {
+            new_index[i] = atoms.len();
+        }
         atoms.push(Atom {
             element: a.element,
             aromatic: a.aromatic,
@@ -707,17 +743,21 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     let mut bonds: Vec<Bond> = Vec::with_capacity(raw_bonds.len());
     let mut star_links: Vec<usize> = Vec::new();
     for b in &raw_bonds {
-        let (fa, fb) = (fold[b.a], fold[b.b]);
+        let (fa, fb) = (folded(b.a), folded(b.b));
         if fa || fb {
             let (h, heavy) = if fa { (b.a, b.b) } else { (b.b, b.a) };
-            let atom = &mut atoms[new_index[heavy]];
+            let atom = &mut atoms[if has_h { new_index[heavy] } else { heavy }];
             atom.hydrogens = atom.hydrogens.saturating_add(1);
             if matches!(raw_atoms[h].isotope, Some(2) | Some(3)) {
                 atom.heavy_hydrogens = atom.heavy_hydrogens.saturating_add(1);
             }
             continue;
         }
-        let (x, y) = (new_index[b.a], new_index[b.b]);
+        let (x, y) = if has_h {
+            (new_index[b.a], new_index[b.b])
+        } else {
+            (b.a, b.b)
+        };
         let both_aromatic = raw_atoms[b.a].aromatic && raw_atoms[b.b].aromatic;
         // A wildcard bonded to an aromatic atom may be part of its ring:
         // decided once rings are known.

@@ -102,59 +102,52 @@ fn ring_bonds(n: usize, bonds: &[Bond], nb: &Adj) -> Vec<bool> {
     if bonds.is_empty() {
         return in_ring;
     }
-    const NONE: usize = usize::MAX;
-    let mut disc = vec![NONE; n];
-    let mut low = vec![0usize; n];
-    let mut time = 0;
-    // (atom, bond used to enter, next neighbour index)
-    let mut stack: Vec<(usize, usize, usize)> = Vec::with_capacity(n);
+    // disc 0 = not visited; times start at 1.
+    let mut disc = vec![0u32; n];
+    let mut low = vec![0u32; n];
+    let mut time = 0u32;
+    // (atom, bond used to enter, next adjacency position, end position)
+    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
     for root in 0..n {
-        if disc[root] != NONE {
+        if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
         }
+        time += 1;
         disc[root] = time;
         low[root] = time;
-        time += 1;
-        stack.push((root, NONE, 0));
+        stack.push((root as u32, u32::MAX, nb.start[root], nb.start[root + 1]));
         while let Some(top) = stack.last_mut() {
-            let (v, via, k) = *top;
-            let neighbors = nb.get(v);
-            if k < neighbors.len() {
+            let (v, via, pos, end) = *top;
+            let v = v as usize;
+            if pos < end {
                 top.2 += 1;
-                let Neighbor { atom: w, bond: b } = neighbors[k];
-                if b == via {
+                let Neighbor { atom: w, bond: b } = nb.list[pos as usize];
+                if b as u32 == via {
                     continue;
                 }
-                if disc[w] == NONE {
+                if disc[w] == 0 {
+                    time += 1;
                     disc[w] = time;
                     low[w] = time;
-                    time += 1;
-                    stack.push((w, b, 0));
+                    stack.push((w as u32, b as u32, nb.start[w], nb.start[w + 1]));
                 } else if disc[w] < low[v] {
                     low[v] = disc[w];
                 }
             } else {
                 stack.pop();
-                if let Some(&(parent, _, _)) = stack.last() {
+                if let Some(&(parent, _, _, _)) = stack.last() {
+                    let parent = parent as usize;
                     if low[v] < low[parent] {
                         low[parent] = low[v];
                     }
                     if low[v] > disc[parent] {
-                        in_ring[via] = false;
+                        in_ring[via as usize] = false;
                     }
                 }
             }
         }
     }
     in_ring
-}
-
-fn find(parent: &mut [usize], mut x: usize) -> usize {
-    while parent[x] != x {
-        parent[x] = parent[parent[x]];
-        x = parent[x];
-    }
-    x
 }
 
 /// A GF(2) vector over the bonds of one ring system.
@@ -231,71 +224,57 @@ pub(crate) fn perceive(
     if ring_bond_total == 0 {
         return Ok(info);
     }
-    // Ring systems: union-find over ring bonds.
-    let mut parent: Vec<usize> = (0..n).collect();
     for (b, bond) in bonds.iter().enumerate() {
         if info.bond_in_ring[b] {
-            let (x, y) = (
-                find(&mut parent, bond.atoms[0]),
-                find(&mut parent, bond.atoms[1]),
-            );
-            if x != y {
-                parent[x] = y;
-            }
             info.atom_ring_bonds[bond.atoms[0]] += 1;
             info.atom_ring_bonds[bond.atoms[1]] += 1;
         }
     }
-    // Group atoms and bonds by system (flat arrays with offsets).
-    let mut system_of = vec![u32::MAX; n];
-    let mut n_systems = 0usize;
-    let mut ring_atom_total = 0usize;
+    // Ring systems: breadth-first over ring bonds; `sys_atoms` lists the
+    // atoms system by system, `atom_off` where each system starts.
+    let mut label = vec![u32::MAX; n];
+    let mut sys_atoms: Vec<usize> = Vec::with_capacity(n);
+    let mut atom_off: Vec<usize> = vec![0];
     for a in 0..n {
-        if info.atom_ring_bonds[a] == 0 {
+        if info.atom_ring_bonds[a] == 0 || label[a] != u32::MAX {
             continue;
         }
-        ring_atom_total += 1;
-        let r = find(&mut parent, a);
-        if system_of[r] == u32::MAX {
-            system_of[r] = n_systems as u32;
-            n_systems += 1;
+        let k = (atom_off.len() - 1) as u32;
+        label[a] = k;
+        let mut head = sys_atoms.len();
+        sys_atoms.push(a);
+        while head < sys_atoms.len() {
+            let v = sys_atoms[head];
+            head += 1;
+            for x in nb.get(v) {
+                if info.bond_in_ring[x.bond] && label[x.atom] == u32::MAX {
+                    label[x.atom] = k;
+                    sys_atoms.push(x.atom);
+                }
+            }
         }
+        atom_off.push(sys_atoms.len());
     }
-    let mut atom_off = vec![0usize; n_systems + 1];
+    let n_systems = atom_off.len() - 1;
+    let ring_atom_total = sys_atoms.len();
+    // Ring bonds grouped the same way (counting sort by system).
     let mut bond_off = vec![0usize; n_systems + 1];
-    for a in 0..n {
-        if info.atom_ring_bonds[a] > 0 {
-            let r = find(&mut parent, a);
-            atom_off[system_of[r] as usize + 1] += 1;
-        }
-    }
     for (b, bond) in bonds.iter().enumerate() {
         if info.bond_in_ring[b] {
-            let r = find(&mut parent, bond.atoms[0]);
-            bond_off[system_of[r] as usize + 1] += 1;
+            bond_off[label[bond.atoms[0]] as usize + 1] += 1;
         }
     }
     for k in 0..n_systems {
-        atom_off[k + 1] += atom_off[k];
         bond_off[k + 1] += bond_off[k];
     }
-    let mut sys_atoms = vec![0usize; ring_atom_total];
     let mut sys_bonds = vec![0usize; ring_bond_total];
     {
-        let mut fill_a: Vec<usize> = atom_off[..n_systems].to_vec();
-        let mut fill_b: Vec<usize> = bond_off[..n_systems].to_vec();
-        for a in 0..n {
-            if info.atom_ring_bonds[a] > 0 {
-                let k = system_of[find(&mut parent, a)] as usize;
-                sys_atoms[fill_a[k]] = a;
-                fill_a[k] += 1;
-            }
-        }
+        let mut cursor = bond_off.clone();
         for (b, bond) in bonds.iter().enumerate() {
             if info.bond_in_ring[b] {
-                let k = system_of[find(&mut parent, bond.atoms[0])] as usize;
-                sys_bonds[fill_b[k]] = b;
-                fill_b[k] += 1;
+                let k = label[bond.atoms[0]] as usize;
+                sys_bonds[cursor[k]] = b;
+                cursor[k] += 1;
             }
         }
     }
