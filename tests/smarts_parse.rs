@@ -183,14 +183,100 @@ fn display_given_error_names_position() {
     );
 }
 
+/// Molecules with charges, metals, isotopes, cages and aromatic rings
+/// (structures from memory or from the reference sample).
+const PROP_MOLECULES: &[&str] = &[
+    "CC(=O)c1ccc[nH]1",
+    "C12C3C4C1C5C2C3C45",
+    "[2H]C([2H])([2H])C(=O)[O-].[Na+]",
+    "C[N+](=O)[O-]",
+    "CCCC[Sn](CCCC)(CCCC)Cl",
+    "c1ccc2cc3ccccc3cc2c1",
+    "C1CN2CN3CN4CCN5CN6CN1[Cu-5]524([SH+]c1nnc6s1)[SH+]c1nnc3s1",
+];
+
 proptest! {
     #![proptest_config(ProptestConfig::with_cases(2000))]
     #[test]
     fn parse_given_arbitrary_text_never_panics(s in "[CcNnOo\\[\\]()=#:~@!&,;$%*+\\-0-9HhDXvRrxAa.>/]{0,24}") {
         if let Ok(p) = Pattern::parse(&s) {
-            let m = acidsite::mol::Molecule::from_smiles("CC(=O)c1ccc[nH]1").unwrap();
-            let _ = p.count_unique(&m);
-            let _ = p.matches_at(&m, 0);
+            for smiles in PROP_MOLECULES {
+                let m = acidsite::mol::Molecule::from_smiles(smiles).unwrap();
+                let t = acidsite::smarts::Target::new(&m);
+                let _ = p.count_unique_limited(&t, 100_000);
+                let _ = p.anchored_atoms_limited(&t, 100_000);
+                for a in 0..m.atom_count() + 1 {
+                    let _ = p.matches_at_in(&t, a);
+                }
+            }
+        }
+    }
+}
+
+/// Pieces that often make a valid pattern when strung together.
+const TOKENS: &[&str] = &[
+    "C",
+    "c",
+    "N",
+    "n",
+    "O",
+    "S",
+    "*",
+    "[C,N]",
+    "[!#6;R]",
+    "[CH2]",
+    "[$(C=O)]",
+    "[n;H1]",
+    "[R2]",
+    "[x3]",
+    "[+]",
+    "[r5]",
+    "[v4]",
+    "[D3]",
+    "[X4]",
+    "[h]",
+    "[a;!c]",
+    "[$([#7]~*)]",
+    "(",
+    ")",
+    "1",
+    "2",
+    "%10",
+    "=",
+    "#",
+    ":",
+    "~",
+    "@",
+    "!-",
+    "-,=",
+    ".",
+    "[O-]",
+    "[N+]",
+];
+
+proptest! {
+    #![proptest_config(ProptestConfig::with_cases(1000))]
+    #[test]
+    fn count_unique_limited_given_token_patterns_never_panics(
+        tokens in proptest::collection::vec(proptest::sample::select(TOKENS), 1..14)
+    ) {
+        let s: String = tokens.concat();
+        if let Ok(p) = Pattern::parse(&s) {
+            for smiles in PROP_MOLECULES {
+                let m = acidsite::mol::Molecule::from_smiles(smiles).unwrap();
+                let t = acidsite::smarts::Target::new(&m);
+                let bounded = p.count_unique_limited(&t, 1_000_000);
+                if let Ok(n) = bounded {
+                    prop_assert_eq!(n, p.unique_matches_in(&t).len());
+                }
+                let scan = p.anchored_atoms_limited(&t, 1_000_000);
+                if let Ok(atoms) = scan {
+                    let per_atom: Vec<usize> = (0..m.atom_count())
+                        .filter(|&a| p.matches_at_in(&t, a).is_some())
+                        .collect();
+                    prop_assert_eq!(atoms, per_atom);
+                }
+            }
         }
     }
 }

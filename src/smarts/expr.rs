@@ -224,6 +224,20 @@ pub struct AtomFilter {
 }
 
 impl AtomFilter {
+    /// Do the simple comparisons accept this atom?
+    #[inline]
+    pub(crate) fn accepts(&self, info: &super::target::AtomInfo) -> bool {
+        !(self.element.is_some_and(|e| e != info.element)
+            || self.aromatic.is_some_and(|x| x != info.aromatic)
+            || self.hydrogens.is_some_and(|h| h != info.hydrogens)
+            || self.degree.is_some_and(|d| d != info.degree)
+            || self
+                .connectivity
+                .is_some_and(|x| x as u16 != info.degree as u16 + info.hydrogens as u16)
+            || self.charge.is_some_and(|c| c != info.charge)
+            || (self.some_hydrogen && info.hydrogens == 0))
+    }
+
     /// Split `expr` into a filter and what is left (None if nothing).
     pub fn split(expr: &AtomExpr) -> (AtomFilter, Option<AtomExpr>) {
         let mut parts = Vec::new();

@@ -228,16 +228,7 @@ pub(crate) fn query_atom_matches(
     let (Some(qa), Some(info)) = (q.atoms.get(p), t.atoms.get(a)) else {
         return false;
     };
-    let f = &qa.filter;
-    if f.element.is_some_and(|e| e != info.element)
-        || f.aromatic.is_some_and(|x| x != info.aromatic)
-        || f.hydrogens.is_some_and(|h| h != info.hydrogens)
-        || f.degree.is_some_and(|d| d != info.degree)
-        || f.connectivity
-            .is_some_and(|x| x as u16 != info.degree as u16 + info.hydrogens as u16)
-        || f.charge.is_some_and(|c| c != info.charge)
-        || (f.some_hydrogen && info.hydrogens == 0)
-    {
+    if !qa.filter.accepts(info) {
         return false;
     }
     match &qa.rest {

@@ -81,7 +81,7 @@ pub use parse::{MAX_ATOMS, MAX_RECURSION_DEPTH};
 pub use target::Target;
 
 use crate::mol::Molecule;
-use matcher::{new_cache, query_atom_matches, search, DoneSet};
+use matcher::{new_cache, search, DoneSet};
 use std::collections::HashSet;
 
 /// A parse error with the character position in the pattern.
@@ -552,24 +552,13 @@ impl Pattern {
 
     /// [`Pattern::matches_at`] on a prepared molecule.
     pub fn matches_at_in(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
-        if atom >= t.atom_count() {
+        // The anchor's simple comparisons first: they reject most atoms at
+        // once; the rest of its expression is tested by the search.
+        let qa = self.main.atoms.get(self.anchor_or_first())?;
+        if !qa.filter.accepts(t.atoms.get(atom)?) || !self.passes_screen(t) {
             return None;
         }
-        // The anchor's own test first: it rejects most atoms at once.
         let mut cache = new_cache(u64::MAX);
-        if !query_atom_matches(
-            &self.main,
-            self.anchor_or_first(),
-            atom,
-            t,
-            self,
-            &mut cache,
-        ) {
-            return None;
-        }
-        if !self.passes_screen(t) {
-            return None;
-        }
         self.anchored_one(t, atom, &mut cache)
     }
 

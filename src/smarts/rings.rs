@@ -328,22 +328,19 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
         }
         for &x in &order {
             for (y, b) in adj.of(x) {
-                if !ring[b] || x > y || parent[x].1 == b || parent[y].1 == b {
+                if !ring.get(b).copied().unwrap_or(false)
+                    || x > y
+                    || parent.get(x).is_none_or(|p| p.1 == b)
+                    || parent.get(y).is_none_or(|p| p.1 == b)
+                {
                     continue;
                 }
                 // Paths to the root must meet only at the root.
-                let mut path_x = vec![x];
-                let mut c = x;
-                while c != root {
-                    c = parent[c].0;
-                    path_x.push(c);
-                }
-                let mut path_y = vec![y];
-                let mut c = y;
-                while c != root {
-                    c = parent[c].0;
-                    path_y.push(c);
-                }
+                let (Some(path_x), Some(path_y)) =
+                    (tree_path(x, root, &parent), tree_path(y, root, &parent))
+                else {
+                    continue;
+                };
                 if path_x[..path_x.len() - 1]
                     .iter()
                     .any(|a| path_y[..path_y.len() - 1].contains(a))
@@ -351,12 +348,21 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
                     continue;
                 }
                 let mut bits = vec![0u64; words];
-                bit_set(&mut bits, local_edge[&b]);
+                let Some(&kb) = local_edge.get(&b) else {
+                    continue;
+                };
+                bit_set(&mut bits, kb);
+                let mut complete = true;
                 for path in [&path_x, &path_y] {
                     for w in path.windows(2) {
-                        let pb = parent[w[0]].1;
-                        bit_set(&mut bits, local_edge[&pb]);
+                        match parent.get(w[0]).and_then(|p| local_edge.get(&p.1)) {
+                            Some(&k) => bit_set(&mut bits, k),
+                            None => complete = false,
+                        }
                     }
+                }
+                if !complete {
+                    continue;
                 }
                 if seen.insert(bits.clone()) {
                     let mut cyc: Vec<usize> = path_x.clone();
@@ -438,6 +444,21 @@ fn ring_system(atoms: &[usize], adj: &Adj, ring: &[bool], out: &mut Rings) {
             }
         }
     }
+}
+
+/// Path from `x` up the breadth-first tree to `root` (both included); None
+/// if the tree does not lead there.
+fn tree_path(x: usize, root: usize, parent: &[(usize, usize)]) -> Option<Vec<usize>> {
+    let mut path = vec![x];
+    let mut c = x;
+    while c != root {
+        c = parent.get(c)?.0;
+        if path.len() > parent.len() {
+            return None;
+        }
+        path.push(c);
+    }
+    Some(path)
 }
 
 /// Cheap stand-in for very large ring blocks: the block counts its

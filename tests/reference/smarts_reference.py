@@ -1,9 +1,11 @@
 #!/usr/bin/env python3
 """Expected SMARTS unique-match counts, computed with RDKit, for tests/smarts_reference.rs.
 
-Writes corpus/smarts/molecules.tsv (the sample) and corpus/smarts/expected.tsv
+Writes corpus/smarts/molecules.tsv (the sample), corpus/smarts/expected.tsv
 (one line per molecule: id, then the unique match count of every pattern in
-corpus/smarts/patterns.tsv, in file order, comma-separated).
+corpus/smarts/patterns.tsv, in file order, comma-separated) and
+corpus/smarts/anchors.tsv (for each pattern with a :1 atom, the molecule
+atoms that atom occupies over all non-uniquified matches).
 
 Molecule model: RDKit reads each SMILES with sanitisation, then every hydrogen
 atom (isotopic ones too) is removed into its heavy atom, which is the model
