@@ -359,3 +359,23 @@ fn ring_count_given_huge_ring_block_stays_fast() {
     assert_eq!(t.ring_count(), 2);
     assert_eq!(count("[R0]", &s), 0);
 }
+
+#[test]
+fn count_unique_given_dative_metal_bonds() {
+    // Amine to platinum bonds are dative in RDKit 2026.09 (and in our
+    // molecule core): only `~` matches them, the donor's valence leaves them
+    // out, degree counts them, and they make no rings. Counts checked with
+    // RDKit 2026.09.
+    let s = "C[NH2][Pt](Cl)(Cl)[NH2]C";
+    assert_eq!(count("[#7]-[Pt]", s), 0);
+    assert_eq!(count("[#7][Pt]", s), 0);
+    assert_eq!(count("[#7]~[Pt]", s), 2);
+    assert_eq!(count("[#7]!-[Pt]", s), 2);
+    assert_eq!(count("[N;v3]", s), 2);
+    assert_eq!(count("[N;X4]", s), 2);
+    assert_eq!(count("[Pt;D4]", s), 1);
+    assert_eq!(count("[Pt;v4]", s), 1);
+    let chelate = "C1C[NH2][Pt]2([NH2]1)[NH2]CC[NH2]2";
+    assert_eq!(count("*@*", chelate), 0);
+    assert_eq!(count("[R]", chelate), 0);
+}

@@ -493,12 +493,13 @@ impl Molecule {
     /// class (acetone's two methyl carbons; the two ethoxy groups of diethyl
     /// malonate). Classes come from iterative refinement of an atom
     /// invariant (element, isotope, charge, hydrogens and deuterium/tritium
-    /// count, degree, aromaticity, ring membership) by the sorted classes
-    /// and bond orders of the neighbours, until the partition stops
-    /// splitting. Class numbers are dense (0..k) and ordered by invariant,
-    /// so they do not depend on atom order. Refinement can leave rare
-    /// non-equivalent atoms together (regular graphs); it never separates
-    /// equivalent ones.
+    /// count, degree, aromaticity, smallest ring) by the classes and bond
+    /// orders of the neighbours, until the partition stops splitting. Class
+    /// numbers are dense (0..k) and do not depend on atom order. Refinement
+    /// can leave rare non-equivalent atoms together (regular graphs such as
+    /// some cages); it never separates equivalent ones. Cost: linear per
+    /// round, rounds up to about half the longest chain (a 10,000-atom chain
+    /// is the worst case).
     pub fn symmetry_classes(&self) -> Vec<u32> {
         symmetry::classes(self)
     }

@@ -161,6 +161,17 @@ impl AtomExpr {
 }
 
 impl BondExpr {
+    /// Value of the expression for a dative bond (never in a ring): only
+    /// `~` matches it, as in RDKit.
+    pub fn eval_dative(&self) -> bool {
+        match self {
+            BondExpr::Prim(p) => matches!(p, BondPrim::Any),
+            BondExpr::Not(e) => !e.eval_dative(),
+            BondExpr::And(v) => v.iter().all(|e| e.eval_dative()),
+            BondExpr::Or(v) => v.iter().any(|e| e.eval_dative()),
+        }
+    }
+
     /// Value of the expression for a bond of this order and ring state.
     pub fn eval(&self, order: crate::mol::BondOrder, in_ring: bool) -> bool {
         use crate::mol::BondOrder as O;
@@ -223,19 +234,62 @@ pub struct AtomFilter {
     pub some_hydrogen: bool,
 }
 
+/// Bit layout of an atom signature (see [`atom_signature`]): element,
+/// aromatic flag, "has hydrogen" flag, hydrogens, degree, connections and
+/// charge, each in its own field, so that an [`AtomFilter`] is one mask and
+/// one value.
+const SIG_AROMATIC: u32 = 8;
+const SIG_HAS_H: u32 = 9;
+const SIG_H: u32 = 10;
+const SIG_DEGREE: u32 = 18;
+const SIG_X: u32 = 26;
+const SIG_CHARGE: u32 = 34;
+
+/// The signature of an atom (see [`AtomFilter::signature`]).
+pub(crate) fn atom_signature(info: &super::target::AtomInfo) -> u64 {
+    let x = (info.degree as u16 + info.hydrogens as u16).min(255) as u64;
+    info.element as u64
+        | (info.aromatic as u64) << SIG_AROMATIC
+        | ((info.hydrogens > 0) as u64) << SIG_HAS_H
+        | (info.hydrogens as u64) << SIG_H
+        | (info.degree as u64) << SIG_DEGREE
+        | x << SIG_X
+        | (info.charge as u8 as u64) << SIG_CHARGE
+}
+
 impl AtomFilter {
-    /// Do the simple comparisons accept this atom?
-    #[inline]
-    pub(crate) fn accepts(&self, info: &super::target::AtomInfo) -> bool {
-        !(self.element.is_some_and(|e| e != info.element)
-            || self.aromatic.is_some_and(|x| x != info.aromatic)
-            || self.hydrogens.is_some_and(|h| h != info.hydrogens)
-            || self.degree.is_some_and(|d| d != info.degree)
-            || self
-                .connectivity
-                .is_some_and(|x| x as u16 != info.degree as u16 + info.hydrogens as u16)
-            || self.charge.is_some_and(|c| c != info.charge)
-            || (self.some_hydrogen && info.hydrogens == 0))
+    /// The filter as (mask, value): an atom passes when
+    /// `atom_signature(atom) & mask == value`.
+    pub(crate) fn signature(&self) -> (u64, u64) {
+        let mut mask = 0u64;
+        let mut value = 0u64;
+        let mut put = |shift: u32, width: u32, v: u64| {
+            let m = ((1u64 << width) - 1) << shift;
+            mask |= m;
+            value |= (v << shift) & m;
+        };
+        if let Some(e) = self.element {
+            put(0, 8, e as u64);
+        }
+        if let Some(a) = self.aromatic {
+            put(SIG_AROMATIC, 1, a as u64);
+        }
+        if self.some_hydrogen {
+            put(SIG_HAS_H, 1, 1);
+        }
+        if let Some(h) = self.hydrogens {
+            put(SIG_H, 8, h as u64);
+        }
+        if let Some(d) = self.degree {
+            put(SIG_DEGREE, 8, d as u64);
+        }
+        if let Some(x) = self.connectivity {
+            put(SIG_X, 8, x as u64);
+        }
+        if let Some(c) = self.charge {
+            put(SIG_CHARGE, 8, c as u8 as u64);
+        }
+        (mask, value)
     }
 
     /// Split `expr` into a filter and what is left (None if nothing).

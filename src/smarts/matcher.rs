@@ -186,7 +186,8 @@ impl DoneSet {
     }
 }
 
-/// Bond orders in the order used by [`super::QueryBond::mask`].
+/// Bond orders in the order used by [`super::QueryBond::mask`]; state 5 is
+/// a dative bond.
 pub(crate) const ORDERS: [BondOrder; 5] = [
     BondOrder::Single,
     BondOrder::Double,
@@ -195,21 +196,28 @@ pub(crate) const ORDERS: [BondOrder; 5] = [
     BondOrder::Aromatic,
 ];
 
+/// Number of bond states per ring flag (five orders and dative).
+pub(crate) const STATES: u16 = 6;
+
 /// Does molecule bond `b` satisfy pattern bond `q`?
 #[inline]
 pub(crate) fn bond_matches(q: &QueryBond, b: usize, t: &Target) -> bool {
     let Some(&order) = t.bond_order.get(b) else {
         return false;
     };
-    let mut state = match order {
-        BondOrder::Single => 0,
-        BondOrder::Double => 1,
-        BondOrder::Triple => 2,
-        BondOrder::Quadruple => 3,
-        BondOrder::Aromatic => 4,
+    let mut state = if t.bond_dative.get(b).copied().unwrap_or(false) {
+        5
+    } else {
+        match order {
+            BondOrder::Single => 0,
+            BondOrder::Double => 1,
+            BondOrder::Triple => 2,
+            BondOrder::Quadruple => 3,
+            BondOrder::Aromatic => 4,
+        }
     };
     if q.ring_sensitive && t.bond_in_ring(b) {
-        state += 5;
+        state += STATES;
     }
     q.mask >> state & 1 == 1
 }
@@ -225,10 +233,10 @@ pub(crate) fn query_atom_matches(
     pat: &Pattern,
     cache: &mut RecCache,
 ) -> bool {
-    let (Some(qa), Some(info)) = (q.atoms.get(p), t.atoms.get(a)) else {
+    let (Some(qa), Some(&sig)) = (q.atoms.get(p), t.sig.get(a)) else {
         return false;
     };
-    if !qa.filter.accepts(info) {
+    if sig & qa.sig_mask != qa.sig_value {
         return false;
     }
     match &qa.rest {
@@ -274,88 +282,74 @@ pub(crate) fn search(
     let (chosen, cursor) = rest.split_at_mut(depth);
     cursor.fill(0);
     let skip_depth = skip.and_then(|(p, _)| plan.iter().position(|st| st.atom == p));
+    // Candidates of a step without a placed neighbour: atoms of its
+    // element, or all atoms.
+    let root_list = |step: &Step| -> Option<&[usize]> {
+        q.atoms
+            .get(step.atom)
+            .and_then(|qa| qa.filter.element)
+            .map(|e| t.atoms_of_element(e))
+    };
+    let first_list = root_list(&plan[0]);
     let mut d = 0usize;
     loop {
         let step = &plan[d];
         let mut found = None;
-        loop {
-            // Next candidate molecule atom (and the bond to the parent).
-            let cand = match (d, start, step.parent) {
-                (0, Some(s), _) => {
-                    if cursor[0] == 0 && s < n {
-                        cursor[0] = 1;
-                        Some(s)
-                    } else {
-                        None
-                    }
+        // Checks for one candidate molecule atom `a` at step `d`.
+        macro_rules! accept {
+            ($a:expr) => {{
+                let a: usize = $a;
+                // A nested search that ran out leaves steps_left at 0.
+                if cache.steps_left == 0 {
+                    cache.exhausted = true;
+                    return;
                 }
-                (_, _, Some((pp, qb))) => {
-                    let from = map[pp];
-                    let nbrs = t.neighbors(from);
-                    let mut got = None;
-                    while cursor[d] < nbrs.len() {
-                        let (x, b) = (nbrs[cursor[d]].atom, nbrs[cursor[d]].bond);
-                        cursor[d] += 1;
-                        if q.bonds
-                            .get(qb)
-                            .is_some_and(|qbond| bond_matches(qbond, b, t))
-                        {
-                            got = Some(x);
-                            break;
+                cache.steps_left -= 1;
+                !chosen[..d].contains(&a)
+                    && !(skip_depth == Some(d) && skip.is_some_and(|(_, done)| done.get(a)))
+                    && query_atom_matches(q, step.atom, a, t, pat, cache)
+                    && step.closures.iter().all(|&(other, qb)| {
+                        match (t.bond_between(a, map[other]), q.bonds.get(qb)) {
+                            (Some(b), Some(qbond)) => bond_matches(qbond, b, t),
+                            _ => false,
                         }
-                    }
-                    got
-                }
-                _ => match q.atoms.get(step.atom).and_then(|qa| qa.filter.element) {
-                    // Only atoms of the required element.
-                    Some(e) => {
-                        let list = t.atoms_of_element(e);
-                        if cursor[d] < list.len() {
-                            cursor[d] += 1;
-                            Some(list[cursor[d] - 1])
-                        } else {
-                            None
-                        }
-                    }
-                    None => {
-                        if cursor[d] < n {
-                            cursor[d] += 1;
-                            Some(cursor[d] - 1)
-                        } else {
-                            None
-                        }
-                    }
-                },
-            };
-            let Some(a) = cand else { break };
-            if cache.steps_left == 0 {
-                cache.exhausted = true;
-            }
-            if cache.exhausted {
-                return;
-            }
-            cache.steps_left -= 1;
-            if chosen[..d].contains(&a) {
-                continue;
-            }
-            if let Some((p, done)) = skip {
-                if p == step.atom && done.get(a) {
-                    continue;
+                    })
+            }};
+        }
+        if let (0, Some(s)) = (d, start) {
+            if cursor[0] == 0 && s < n {
+                cursor[0] = 1;
+                if accept!(s) {
+                    found = Some(s);
                 }
             }
-            if !query_atom_matches(q, step.atom, a, t, pat, cache) {
-                continue;
-            }
-            let closures_ok = step.closures.iter().all(|&(other, qb)| {
-                let m = map[other];
-                match (t.bond_between(a, m), q.bonds.get(qb)) {
-                    (Some(b), Some(qbond)) => bond_matches(qbond, b, t),
-                    _ => false,
+        } else if let Some((pp, qb)) = step.parent {
+            let nbrs = t.neighbors(map[pp]);
+            let qbond = q.bonds.get(qb);
+            while let Some(nb) = nbrs.get(cursor[d]) {
+                cursor[d] += 1;
+                if qbond.is_some_and(|qbond| bond_matches(qbond, nb.bond, t)) && accept!(nb.atom) {
+                    found = Some(nb.atom);
+                    break;
                 }
-            });
-            if closures_ok {
-                found = Some(a);
-                break;
+            }
+        } else if let Some(list) = if d == 0 { first_list } else { root_list(step) } {
+            // Only atoms of the required element.
+            while let Some(&a) = list.get(cursor[d]) {
+                cursor[d] += 1;
+                if accept!(a) {
+                    found = Some(a);
+                    break;
+                }
+            }
+        } else {
+            while cursor[d] < n {
+                let a = cursor[d];
+                cursor[d] += 1;
+                if accept!(a) {
+                    found = Some(a);
+                    break;
+                }
             }
         }
         match found {

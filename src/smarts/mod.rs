@@ -26,7 +26,9 @@
 //! Primitives follow RDKit's meaning on a hydrogen-suppressed molecule:
 //! every hydrogen is folded into its heavy atom, so `h n` equals `H n`
 //! (RDKit's `h` counts the hydrogens an atom carries, bracket or not).
-//! `v` is the sum of Kekulé bond orders plus hydrogens. Ring primitives
+//! `v` is the sum of Kekulé bond orders plus hydrogens. Bonds the molecule
+//! core marks dative (amine to metal and the like) match only `~` (and
+//! negations), leave the donor's `v` and make no rings, as in RDKit. Ring primitives
 //! use the SSSR symmetrised as RDKit does (cubane has six rings, so every
 //! atom is `R3`); `R`, `r`, `x` alone and `@` only need ring bonds. The
 //! reference test compares unique match counts with RDKit's for 94
@@ -139,6 +141,9 @@ pub(crate) struct QueryAtom {
     pub filter: AtomFilter,
     /// ... and the rest of the expression, if any.
     pub rest: Option<AtomExpr>,
+    /// The filter as a signature mask and value.
+    pub sig_mask: u64,
+    pub sig_value: u64,
 }
 
 /// One pattern bond.
@@ -146,8 +151,8 @@ pub(crate) struct QueryAtom {
 pub(crate) struct QueryBond {
     pub atoms: [usize; 2],
     pub expr: BondExpr,
-    /// The expression tabulated over the ten bond states (five orders, in
-    /// a ring or not): bit `order + 5 * ring`.
+    /// The expression tabulated over the twelve bond states (five orders
+    /// and dative, in a ring or not): bit `state + 6 * ring`.
     pub mask: u16,
     /// Does the answer depend on ring membership?
     pub ring_sensitive: bool,
@@ -155,14 +160,21 @@ pub(crate) struct QueryBond {
 
 impl QueryBond {
     pub(crate) fn new(atoms: [usize; 2], expr: BondExpr) -> QueryBond {
+        let states = matcher::STATES;
         let mut mask = 0u16;
-        for state in 0..10u16 {
-            let order = matcher::ORDERS[(state % 5) as usize];
-            if expr.eval(order, state >= 5) {
-                mask |= 1 << state;
+        for ring in [false, true] {
+            for k in 0..states {
+                let hit = match matcher::ORDERS.get(k as usize) {
+                    Some(&order) => expr.eval(order, ring),
+                    None => expr.eval_dative(),
+                };
+                if hit {
+                    mask |= 1 << (k + if ring { states } else { 0 });
+                }
             }
         }
-        let ring_sensitive = (mask & 0x1f) != (mask >> 5);
+        let low = (1u16 << states) - 1;
+        let ring_sensitive = (mask & low) != (mask >> states);
         QueryBond {
             atoms,
             expr,
@@ -201,6 +213,7 @@ impl Query {
         for a in &mut self.atoms {
             a.element = a.expr.required_element();
             let (filter, rest) = AtomFilter::split(&a.expr);
+            (a.sig_mask, a.sig_value) = filter.signature();
             a.filter = filter;
             a.rest = rest;
         }
@@ -555,7 +568,7 @@ impl Pattern {
         // The anchor's simple comparisons first: they reject most atoms at
         // once; the rest of its expression is tested by the search.
         let qa = self.main.atoms.get(self.anchor_or_first())?;
-        if !qa.filter.accepts(t.atoms.get(atom)?) || !self.passes_screen(t) {
+        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value || !self.passes_screen(t) {
             return None;
         }
         let mut cache = new_cache(u64::MAX);

@@ -248,6 +248,8 @@ impl<'a> Parser<'a> {
                         element: None,
                         filter: Default::default(),
                         rest: None,
+                        sig_mask: 0,
+                        sig_value: 0,
                     });
                     if let Some(p) = prev {
                         let bond = pending

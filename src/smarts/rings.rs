@@ -22,6 +22,10 @@ impl Adj<'_> {
     fn degree(&self, a: usize) -> usize {
         self.0.neighbors(a).len()
     }
+    /// Dative bonds (to metals) take no part in rings, as in RDKit.
+    fn dative(&self, b: usize) -> bool {
+        self.0.dative_donor(b).is_some()
+    }
     fn nth(&self, a: usize, i: usize) -> (usize, usize) {
         self.0
             .neighbors(a)
@@ -29,7 +33,11 @@ impl Adj<'_> {
             .map_or((a, usize::MAX), |n| (n.atom, n.bond))
     }
     fn of(&self, a: usize) -> impl Iterator<Item = (usize, usize)> + '_ {
-        self.0.neighbors(a).iter().map(|n| (n.atom, n.bond))
+        self.0
+            .neighbors(a)
+            .iter()
+            .filter(|n| !self.dative(n.bond))
+            .map(|n| (n.atom, n.bond))
     }
 }
 
@@ -112,7 +120,7 @@ fn blocks(adj: &Adj) -> Vec<Vec<usize>> {
             if i < adj.degree(a) {
                 frame.2 += 1;
                 let (x, b) = adj.nth(a, i);
-                if b == via || x >= n {
+                if b == via || x >= n || adj.dative(b) {
                     continue;
                 }
                 if disc[x] == usize::MAX {
@@ -191,7 +199,7 @@ fn mark_ring_bonds(n: usize, adj: &Adj, ring: &mut [bool]) {
             if i < adj.degree(a) {
                 frame.2 += 1;
                 let (x, b) = adj.nth(a, i);
-                if b == via {
+                if b == via || adj.dative(b) {
                     continue;
                 }
                 if disc[x] == usize::MAX {

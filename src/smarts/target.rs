@@ -38,7 +38,11 @@ pub(crate) struct RingBonds {
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
     pub(crate) atoms: Vec<AtomInfo>,
+    /// Per-atom signatures for the atom filters.
+    pub(crate) sig: Vec<u64>,
     pub(crate) bond_order: Vec<BondOrder>,
+    /// Dative bonds (donor to metal): they match only `~` and negations.
+    pub(crate) bond_dative: Vec<bool>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
     pub(crate) aromatic_count: usize,
@@ -64,6 +68,10 @@ impl<'m> Target<'m> {
             let nbrs = mol.neighbors(i);
             let mut valence = a.hydrogens as u32;
             for nb in nbrs {
+                // A dative bond does not count for its donor (RDKit).
+                if mol.dative_donor(nb.bond) == Some(i) {
+                    continue;
+                }
                 valence += mol
                     .bonds
                     .get(nb.bond)
@@ -88,6 +96,9 @@ impl<'m> Target<'m> {
             });
         }
         let bond_order: Vec<BondOrder> = mol.bonds.iter().map(|b| b.order).collect();
+        let bond_dative: Vec<bool> = (0..mol.bonds.len())
+            .map(|b| mol.dative_donor(b).is_some())
+            .collect();
         let count = |o| bond_order.iter().filter(|&&x| x == o).count();
         let double_count = count(BondOrder::Double);
         let triple_count = count(BondOrder::Triple);
@@ -102,10 +113,13 @@ impl<'m> Target<'m> {
                 _ => groups.push((e, k, k + 1)),
             }
         }
+        let sig = atoms.iter().map(super::expr::atom_signature).collect();
         Target {
             mol,
             atoms,
+            sig,
             bond_order,
+            bond_dative,
             double_count,
             triple_count,
             aromatic_bond_count,
