@@ -170,3 +170,13 @@ fn annotate_given_closed_stdout_pipe_ends_quietly_with_zero() {
         "stderr: {err}"
     );
 }
+
+#[test]
+fn annotate_given_bad_flag_pattern_exits_two_with_position() {
+    // "[C" is an unclosed bracket atom: the SMARTS error names where.
+    let out = run(&["annotate", "-", "--flag", "bad=[C"], b"CCO\n");
+    assert_eq!(out.status.code(), Some(2));
+    let err = String::from_utf8_lossy(&out.stderr);
+    assert!(err.contains("bad") && err.contains("character"), "{err}");
+    assert!(out.stdout.is_empty());
+}
