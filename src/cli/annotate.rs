@@ -3,8 +3,8 @@
 //! Every input record gives exactly one output record, in input order,
 //! failures included. The input is streamed in chunks (at most `--chunk`
 //! lines or 16 MiB at a time); each chunk is analysed in parallel while the
-//! next one is read, then written in order, so memory stays bounded whatever
-//! the input size.
+//! previous one is written in order and the next one is read, so at most three
+//! chunks are alive and memory stays bounded whatever the input size.
 
 use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
 use super::{parse_flag, Outcome, ScaleArg};
@@ -73,7 +73,7 @@ pub struct Args {
     #[arg(long, default_value_t = 0, value_name = "N")]
     pub threads: usize,
     /// Records per chunk (memory bound and parallel grain).
-    #[arg(long, default_value_t = 4096, value_name = "N",
+    #[arg(long, default_value_t = 1024, value_name = "N",
           value_parser = clap::value_parser!(u32).range(1..=1_000_000))]
     pub chunk: u32,
     /// Write to this file instead of stdout.
@@ -207,44 +207,60 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .build()
         .context("cannot start worker threads")?;
     let chunk = args.chunk as usize;
+    // Three-stage pipeline: while the workers analyse chunk N, one task
+    // writes chunk N-1 (in order) and reads chunk N+1.
     let (records, failed) = pool.install(|| -> anyhow::Result<(u64, u64)> {
         let mut records = 0u64;
         let mut failed = 0u64;
-        let mut next = source
+        let mut lines = source
             .next_chunk(chunk, CHUNK_BYTES)
             .with_context(|| format!("cannot read {shown}"))?;
-        // Raw bytes read up to the end of the chunk in hand (the reader runs
-        // one chunk ahead, so the bar shows what has been written).
+        // Raw bytes read up to the end of the chunk being analysed (the bar
+        // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        while !next.is_empty() {
-            let lines = std::mem::take(&mut next);
-            let done_upto = read_upto;
-            let (outputs, read) = rayon::join(
+        let mut pending: Vec<(String, bool)> = Vec::new();
+        let mut pending_upto = 0u64;
+        while !lines.is_empty() || !pending.is_empty() {
+            let analysing = std::mem::take(&mut lines);
+            let to_write = std::mem::take(&mut pending);
+            let (analysed, io) = rayon::join(
                 || {
-                    lines
+                    analysing
                         .par_iter()
                         .map(|l| process_guarded(l, &ctx))
                         .collect::<Vec<_>>()
                 },
-                || source.next_chunk(chunk, CHUNK_BYTES),
+                || -> anyhow::Result<Vec<RawLine>> {
+                    for (text, ok) in &to_write {
+                        out.write_all(text.as_bytes())?;
+                        records += 1;
+                        if !ok {
+                            failed += 1;
+                        }
+                    }
+                    if let Some(b) = &bar {
+                        if !to_write.is_empty() {
+                            b.set_position(pending_upto);
+                            let secs = started.elapsed().as_secs_f64().max(1e-9);
+                            b.set_message(format!(
+                                "{records} records, {failed} failed, {:.0} records/s",
+                                records as f64 / secs
+                            ));
+                        }
+                    }
+                    drop(to_write);
+                    if analysing.is_empty() {
+                        return Ok(Vec::new());
+                    }
+                    source
+                        .next_chunk(chunk, CHUNK_BYTES)
+                        .with_context(|| format!("cannot read {shown}"))
+                },
             );
+            lines = io?;
+            pending = analysed;
+            pending_upto = read_upto;
             read_upto = source.consumed.load(Ordering::Relaxed);
-            for (text, ok) in &outputs {
-                out.write_all(text.as_bytes())?;
-                records += 1;
-                if !ok {
-                    failed += 1;
-                }
-            }
-            if let Some(b) = &bar {
-                b.set_position(done_upto);
-                let secs = started.elapsed().as_secs_f64().max(1e-9);
-                b.set_message(format!(
-                    "{records} records, {failed} failed, {:.0} records/s",
-                    records as f64 / secs
-                ));
-            }
-            next = read.with_context(|| format!("cannot read {shown}"))?;
         }
         Ok((records, failed))
     })?;
