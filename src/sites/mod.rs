@@ -16,6 +16,11 @@
 //!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
 //!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is not
 //!    a site; neither are vinyl and aryl C–H (except azole C2–H).
+//!    A benzylic C–H whose ring carries a para (or ortho) π-acceptor (NO2,
+//!    CN, C=O, SO2R) is a *phenylogous* α-C–H of that acceptor: its rows
+//!    (`C-PHNYL-*`) take the acceptor's parent value plus a phenylene
+//!    offset and the acceptor's increment family, because a linear σp⁻
+//!    term cannot reach a 4-nitrobenzyl anion (essentially a nitronate).
 //! 2. **Increments** (`fragments/increments.tsv`): each substituent on an
 //!    acidic carbon that is not part of the class rule's match is
 //!    classified (alkyl, alkyl bearing an acceptor, aryl, vinyl, alkoxy,
