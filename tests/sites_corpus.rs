@@ -399,6 +399,15 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CP(=O)(O)O", "O-PHOSA-01"),
     ("CS(=O)(=O)O", "O-SULFA-01"),
     ("O", "O-WATER-01"),
+    ("Cc1ccccc1[N+](=O)[O-]", "C-PHNYL-02"),
+    ("Cc1ccc(C#N)cc1", "C-PHNYL-03"),
+    ("COC(=O)c1ccc(C)cc1", "C-PHNYL-05"),
+    ("Cc1ccc(C=O)cc1", "C-PHNYL-04"),
+    ("[O-][N+](=O)c1ccc(C(c2ccccc2)c2ccccc2)cc1", "I-NO-ARY2"),
+    ("Cc1ccc(S(C)(=O)=O)cc1", "C-PHNYL-06"),
+    ("CS(=O)(=O)C(F)(F)F", "C-TRIFL-01"),
+    ("CCOC(=O)C[P+](c1ccccc1)(c1ccccc1)c1ccccc1", "I-SO-EST"),
+    ("C[S+](C)CC(=O)c1ccccc1", "I-CO-ONP"),
 ];
 
 /// Kinetic / thermodynamic sides of unsymmetrical ketones

@@ -1,4 +1,15 @@
 //! Output records: the JSON Lines schema (serialization types kept apart from
-//! library types), the human table, CSV/TSV rows and atom-mapped SMILES.
+//! library types), the human table, CSV/TSV rows and atom-mapped SMILES, and
+//! [`analyze()`], which runs SMILES → molecule → sites → advice for one input
+//! and returns its [`Record`]. No I/O.
 //!
 //! OWNER: command-line work (issue 6).
+
+pub mod analyze;
+pub mod delimited;
+pub mod mapped;
+pub mod record;
+pub mod table;
+
+pub use analyze::{analyze, Flag, FlagError, Options, Scale};
+pub use record::{Record, SCHEMA};

@@ -466,11 +466,7 @@ fn estimate_atom(
 }
 
 fn rank_key(s: &Site, scale: Scale) -> f64 {
-    let v = match scale {
-        Scale::Dmso => s.pka_dmso.or(s.pka_water),
-        Scale::Water => s.pka_water.or(s.pka_dmso),
-    };
-    v.unwrap_or(f64::INFINITY)
+    s.ranking_pka(scale).map_or(f64::INFINITY, |(_, v)| v)
 }
 
 /// Ketone regiochemistry: for a ketone carbonyl with two enolisable

@@ -16,6 +16,11 @@
 //!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
 //!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is not
 //!    a site; neither are vinyl and aryl C–H (except azole C2–H).
+//!    A benzylic C–H whose ring carries a para (or ortho) π-acceptor (NO2,
+//!    CN, C=O, SO2R) is a *phenylogous* α-C–H of that acceptor: its rows
+//!    (`C-PHNYL-*`) take the acceptor's parent value plus a phenylene
+//!    offset and the acceptor's increment family, because a linear σp⁻
+//!    term cannot reach a 4-nitrobenzyl anion (essentially a nitronate).
 //! 2. **Increments** (`fragments/increments.tsv`): each substituent on an
 //!    acidic carbon that is not part of the class rule's match is
 //!    classified (alkyl, alkyl bearing an acceptor, aryl, vinyl, alkoxy,
@@ -43,7 +48,9 @@
 //!
 //! Symmetry-equivalent atoms with identical estimates form one site.
 //! Sites are ranked by DMSO pKa, or by water pKa for sites without a DMSO
-//! estimate ([`Options::scale`] switches to water first). For a ketone
+//! estimate ([`Options::scale`] switches to water first);
+//! [`Site::ranking_pka`] tells which scale each site was ranked on and
+//! [`SiteReport::mixed_scales`] whether the ranking mixes the two. For a ketone
 //! whose two α-carbons are different sites, the side with more hydrogens
 //! (less substituted) is marked kinetic and the other thermodynamic; with
 //! equal hydrogen counts the more acidic side is thermodynamic.
@@ -168,6 +175,38 @@ impl Site {
     /// True for C–H sites.
     pub fn is_carbon(&self) -> bool {
         self.element == "C"
+    }
+
+    /// The estimate this site is ranked by when `preferred` is the ranking
+    /// scale, with the scale it is on: the preferred scale where the site
+    /// has a value there, else the other scale (an aldehyde or thioester
+    /// α-C–H has no DMSO basis and is ranked by its water value). None when
+    /// the site has no estimate on either scale (ranked last).
+    pub fn ranking_pka(&self, preferred: Scale) -> Option<(Scale, f64)> {
+        let (first, second) = match preferred {
+            Scale::Dmso => ((Scale::Dmso, self.pka_dmso), (Scale::Water, self.pka_water)),
+            Scale::Water => ((Scale::Water, self.pka_water), (Scale::Dmso, self.pka_dmso)),
+        };
+        [first, second]
+            .into_iter()
+            .find_map(|(sc, v)| v.map(|v| (sc, v)))
+    }
+}
+
+impl SiteReport {
+    /// True when the ranking on `preferred` compares estimates from
+    /// different scales: some site is ranked by its other-scale value (see
+    /// [`Site::ranking_pka`]). Such a ranking is only a rough guide, since
+    /// carbon acids can differ by several units between water and DMSO;
+    /// output should say which scale each site was ranked on.
+    pub fn mixed_scales(&self, preferred: Scale) -> bool {
+        let mut seen = [false, false];
+        for s in &self.sites {
+            if let Some((sc, _)) = s.ranking_pka(preferred) {
+                seen[usize::from(sc == Scale::Water)] = true;
+            }
+        }
+        seen[0] && seen[1]
     }
 }
 

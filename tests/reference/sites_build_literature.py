@@ -139,7 +139,7 @@ ENTRIES = [
     ("[CH2:1]1c2ccccc2Oc2ccccc21", "xanthene", "diarylmethane", 30.0, FM, "", "", "H", "bridged diarylmethane"),
     ("[CH:1](c1ccccc1)(c1ccccc1)c1ccccc1", "triphenylmethane", "triarylmethane", 30.6, FM, "", "", "T", ""),
     ("[CH3:1]c1ccccc1", "toluene", "benzylic", 43.0, FM, "", "", "T", "extrapolated estimate"),
-    ("[CH3:1]c1ccc([N+](=O)[O-])cc1", "4-nitrotoluene", "benzylic", 20.4, FM, "", "", "H", "para-nitro (sigma-minus)"),
+    ("[CH3:1]c1ccc([N+](=O)[O-])cc1", "4-nitrotoluene", "benzylic", 20.4, FM, "", "", "T", "para-nitro (sigma-minus); moved from holdout to train (rule set 2026.12-2): it is the only calibration point of the phenylogous-nitro rule C-PHNYL-01, so it no longer checks it independently"),
     ("[CH3:1]C=C", "propene", "allylic", 44.0, FM, "", "", "T", "extrapolated estimate"),
     ("[CH:1]#Cc1ccccc1", "phenylacetylene", "alkyne_terminal", 28.8, FM, "", "", "T", ""),
     ("[cH:1]1nc2ccccc2s1", "benzothiazole (C2-H)", "azole_c2", 27.3, FM, "", "", "T", "DMSO value uncertain"),

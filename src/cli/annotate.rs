@@ -1,0 +1,473 @@
+//! `acidsite annotate [FILE|-]`: bulk annotation of a compound list.
+//!
+//! Every input record gives exactly one output record, in input order,
+//! failures included. The input is streamed in chunks (at most `--chunk`
+//! lines or 16 MiB at a time); each chunk is analysed in parallel while the
+//! previous one is written in order and the next one is read, so at most three
+//! chunks are alive and memory stays bounded whatever the input size.
+
+use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
+use super::{parse_flag, Outcome, ScaleArg};
+use acidsite::report::delimited::{split_csv_line, Delimiter, Layout, RowWriter};
+use acidsite::report::record::{ErrorOut, Pairs};
+use acidsite::report::{analyze, Flag, Options, Record};
+use anyhow::Context;
+use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
+use rayon::prelude::*;
+use std::io::{self, IsTerminal, Write};
+use std::path::PathBuf;
+use std::sync::atomic::Ordering;
+use std::time::{Duration, Instant};
+
+/// Bytes of input read per chunk at most (besides the line count).
+const CHUNK_BYTES: usize = 16 << 20;
+
+/// Output formats.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum OutputFormat {
+    /// One JSON record per line.
+    Jsonl,
+    /// Comma-separated with a header row.
+    Csv,
+    /// Tab-separated with a header row.
+    Tsv,
+}
+
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    /// Compound list: .smi (SMILES, whitespace, optional id), .csv or .tsv with a
+    /// header row, optionally gzip-compressed; `-` or nothing reads stdin.
+    #[arg(value_name = "FILE")]
+    pub input: Option<PathBuf>,
+    /// Input layout, when the file name does not tell (stdin is read as smi).
+    #[arg(long, value_enum, value_name = "FORMAT")]
+    pub input_format: Option<InputFormat>,
+    /// Header name of the SMILES column in CSV/TSV input (default: the column
+    /// named "smiles", any case).
+    #[arg(long, value_name = "NAME")]
+    pub column: Option<String>,
+    /// Header name of the identifier column in CSV/TSV input (default: a column
+    /// named "id" or "name", any case, if there is one).
+    #[arg(long, value_name = "NAME")]
+    pub id_column: Option<String>,
+    /// Output format.
+    #[arg(long, value_enum, default_value_t = OutputFormat::Jsonl)]
+    pub format: OutputFormat,
+    /// CSV/TSV: one row per acidic site instead of one per molecule.
+    #[arg(long)]
+    pub per_site: bool,
+    /// Count the unique matches of a SMARTS pattern in every record (repeatable).
+    #[arg(long = "flag", value_name = "NAME=SMARTS", value_parser = parse_flag)]
+    pub flags: Vec<Flag>,
+    /// Evaluate this base for every record instead of the recommended one.
+    #[arg(long, value_name = "NAME")]
+    pub base: Option<String>,
+    /// Sites and pKa estimates only, without base advice (much faster and
+    /// smaller records; `advice` is null).
+    #[arg(long, conflicts_with = "base")]
+    pub sites_only: bool,
+    /// pKa scale used to rank the sites.
+    #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
+    pub scale: ScaleArg,
+    /// Worker threads (0: one per core).
+    #[arg(long, default_value_t = 0, value_name = "N")]
+    pub threads: usize,
+    /// Records per chunk (memory bound and parallel grain).
+    #[arg(long, default_value_t = 1024, value_name = "N",
+          value_parser = clap::value_parser!(u32).range(1..=1_000_000))]
+    pub chunk: u32,
+    /// Write to this file instead of stdout.
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// No progress bar and no summary line.
+    #[arg(short, long)]
+    pub quiet: bool,
+}
+
+/// What every worker needs to turn a raw line into output text.
+struct Context_ {
+    format: InputFormat,
+    /// CSV/TSV: index of the SMILES column, the id column, and the header.
+    smiles_col: usize,
+    id_col: Option<usize>,
+    header: Vec<String>,
+    opts: Options,
+    output: OutputFormat,
+    rows: Option<RowWriter>,
+}
+
+pub fn run(args: Args) -> anyhow::Result<Outcome> {
+    let started = Instant::now();
+    super::check_base(args.base.as_deref())?;
+    let path = args.input.clone().filter(|p| p.as_os_str() != "-");
+    let format = args.input_format.unwrap_or_else(|| match &path {
+        Some(p) => InputFormat::from_path(p),
+        None => InputFormat::Smi,
+    });
+    if args.per_site && args.format == OutputFormat::Jsonl {
+        anyhow::bail!(
+            "--per-site applies to --format csv or tsv (JSON records list every site already)"
+        );
+    }
+    let shown = path
+        .as_ref()
+        .map(|p| p.display().to_string())
+        .unwrap_or_else(|| "standard input".into());
+    let mut source =
+        LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
+
+    // Header of CSV/TSV input.
+    let (header, smiles_col, id_col) = match format {
+        InputFormat::Smi => (Vec::new(), 0, None),
+        InputFormat::Csv | InputFormat::Tsv => {
+            let first = source
+                .next_record_line()
+                .with_context(|| format!("cannot read {shown}"))?;
+            let Some(first) = first else {
+                anyhow::bail!("{shown} has no header row");
+            };
+            let text = String::from_utf8_lossy(&first.bytes);
+            let header: Vec<String> = split_fields(format, &text)
+                .with_context(|| format!("{shown}: header row has an unterminated quote"))?
+                .into_iter()
+                .map(|h| h.trim().to_string())
+                .collect();
+            let smiles_col = pick_column(&header, args.column.as_deref(), &["smiles"])
+                .with_context(|| {
+                    format!(
+                        "{shown}: no SMILES column {}; header has: {}",
+                        args.column.as_deref().map(|c| format!("named {c:?}")).unwrap_or_else(|| "named \"smiles\" (choose one with --column)".into()),
+                        header.join(", ")
+                    )
+                })?;
+            let id_col = match args.id_column.as_deref() {
+                Some(name) => Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                    format!(
+                        "{shown}: no column named {name:?}; header has: {}",
+                        header.join(", ")
+                    )
+                })?),
+                None => pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col),
+            };
+            (header, smiles_col, id_col)
+        }
+    };
+    let carried: Vec<String> = header
+        .iter()
+        .enumerate()
+        .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
+        .map(|(_, h)| h.clone())
+        .collect();
+    let rows = match args.format {
+        OutputFormat::Jsonl => None,
+        OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
+            delimiter: if args.format == OutputFormat::Csv {
+                Delimiter::Comma
+            } else {
+                Delimiter::Tab
+            },
+            layout: if args.per_site {
+                Layout::Site
+            } else {
+                Layout::Molecule
+            },
+            carried,
+        }),
+    };
+    let ctx = Context_ {
+        format,
+        smiles_col,
+        id_col,
+        header,
+        opts: Options {
+            site: None,
+            base: args.base.clone(),
+            scale: args.scale.into(),
+            flags: args.flags.clone(),
+            sites_only: args.sites_only,
+        },
+        output: args.format,
+        rows,
+    };
+
+    let mut out: Box<dyn Write + Send> = match &args.output {
+        Some(p) => Box::new(io::BufWriter::with_capacity(
+            1 << 16,
+            std::fs::File::create(p).with_context(|| format!("cannot write {}", p.display()))?,
+        )),
+        None => Box::new(io::BufWriter::with_capacity(1 << 16, io::stdout())),
+    };
+    if let Some(w) = &ctx.rows {
+        out.write_all(w.header().as_bytes())?;
+    }
+
+    let bar = progress_bar(&args, source.total);
+    let pool = rayon::ThreadPoolBuilder::new()
+        .num_threads(args.threads)
+        .build()
+        .context("cannot start worker threads")?;
+    let chunk = args.chunk as usize;
+    // Three-stage pipeline: while the workers analyse chunk N, one task
+    // writes chunk N-1 (in order) and reads chunk N+1.
+    let (records, failed) = pool.install(|| -> anyhow::Result<(u64, u64)> {
+        let mut records = 0u64;
+        let mut failed = 0u64;
+        let mut lines = source
+            .next_chunk(chunk, CHUNK_BYTES)
+            .with_context(|| format!("cannot read {shown}"))?;
+        // Raw bytes read up to the end of the chunk being analysed (the bar
+        // shows what has been written, not the read-ahead).
+        let mut read_upto = source.consumed.load(Ordering::Relaxed);
+        let mut pending: Vec<(String, bool)> = Vec::new();
+        let mut pending_upto = 0u64;
+        while !lines.is_empty() || !pending.is_empty() {
+            let analysing = std::mem::take(&mut lines);
+            let to_write = std::mem::take(&mut pending);
+            let (analysed, io) = rayon::join(
+                || {
+                    analysing
+                        .par_iter()
+                        .map(|l| process_guarded(l, &ctx))
+                        .collect::<Vec<_>>()
+                },
+                || -> anyhow::Result<Vec<RawLine>> {
+                    for (text, ok) in &to_write {
+                        out.write_all(text.as_bytes())?;
+                        records += 1;
+                        if !ok {
+                            failed += 1;
+                        }
+                    }
+                    if let Some(b) = &bar {
+                        if !to_write.is_empty() {
+                            b.set_position(pending_upto);
+                            let secs = started.elapsed().as_secs_f64().max(1e-9);
+                            b.set_message(format!(
+                                "{records} records, {failed} failed, {:.0} records/s",
+                                records as f64 / secs
+                            ));
+                        }
+                    }
+                    drop(to_write);
+                    if analysing.is_empty() {
+                        return Ok(Vec::new());
+                    }
+                    source
+                        .next_chunk(chunk, CHUNK_BYTES)
+                        .with_context(|| format!("cannot read {shown}"))
+                },
+            );
+            lines = io?;
+            pending = analysed;
+            pending_upto = read_upto;
+            read_upto = source.consumed.load(Ordering::Relaxed);
+        }
+        Ok((records, failed))
+    })?;
+    out.flush()?;
+    drop(out);
+    if let Some(b) = bar {
+        b.finish_and_clear();
+    }
+    if !args.quiet {
+        let secs = started.elapsed().as_secs_f64();
+        let _ = writeln!(
+            io::stderr(),
+            "acidsite annotate: {records} records from {shown}, {} analysed, {failed} failed, {secs:.2} s ({:.0} records/s)",
+            records - failed,
+            records as f64 / secs.max(1e-9)
+        );
+    }
+    Ok(if failed == 0 {
+        Outcome::AllFine
+    } else {
+        Outcome::SomeFailed
+    })
+}
+
+fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
+    if args.quiet || !io::stderr().is_terminal() {
+        return None;
+    }
+    let bar = match total {
+        Some(t) => ProgressBar::with_draw_target(Some(t), ProgressDrawTarget::stderr()).with_style(
+            ProgressStyle::with_template(
+                "{elapsed_precise} [{bar:32}] {percent:>3}%  {msg}  eta {eta}",
+            )
+            .ok()?
+            .progress_chars("=> "),
+        ),
+        None => ProgressBar::with_draw_target(None, ProgressDrawTarget::stderr())
+            .with_style(ProgressStyle::with_template("{elapsed_precise} {spinner} {msg}").ok()?),
+    };
+    bar.enable_steady_tick(Duration::from_millis(200));
+    Some(bar)
+}
+
+/// Column index by explicit name (exact, then any case) or by the first of
+/// the default names (any case).
+fn pick_column(header: &[String], name: Option<&str>, defaults: &[&str]) -> Option<usize> {
+    if let Some(n) = name {
+        return header
+            .iter()
+            .position(|h| h == n)
+            .or_else(|| header.iter().position(|h| h.eq_ignore_ascii_case(n)));
+    }
+    defaults
+        .iter()
+        .find_map(|d| header.iter().position(|h| h.eq_ignore_ascii_case(d)))
+}
+
+fn split_fields(format: InputFormat, line: &str) -> Option<Vec<String>> {
+    match format {
+        InputFormat::Csv => split_csv_line(line),
+        InputFormat::Tsv => Some(line.split('\t').map(str::to_string).collect()),
+        InputFormat::Smi => Some(vec![line.to_string()]),
+    }
+}
+
+/// [`process`], turning a panic in the library into an error record so the
+/// run keeps one output record per input record.
+fn process_guarded(raw: &RawLine, ctx: &Context_) -> (String, bool) {
+    match std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| process(raw, ctx))) {
+        Ok(r) => r,
+        Err(p) => {
+            let what = p
+                .downcast_ref::<&str>()
+                .map(|s| s.to_string())
+                .or_else(|| p.downcast_ref::<String>().cloned())
+                .unwrap_or_default();
+            let rec = Record::failure(
+                raw.line,
+                None,
+                String::from_utf8_lossy(&raw.bytes).into_owned(),
+                ErrorOut {
+                    kind: "internal".into(),
+                    message: format!(
+                        "internal error while analysing this record (please report it): {what}"
+                    ),
+                    position: None,
+                },
+            );
+            (render(&rec, ctx), false)
+        }
+    }
+}
+
+fn render(rec: &Record, ctx: &Context_) -> String {
+    match (&ctx.rows, ctx.output) {
+        (Some(w), _) => w.rows(rec),
+        (None, _) => {
+            let mut s = rec.to_json_line();
+            s.push('\n');
+            s
+        }
+    }
+}
+
+/// One raw line to its output text and whether it was analysed.
+fn process(raw: &RawLine, ctx: &Context_) -> (String, bool) {
+    let rec = record_for(raw, ctx);
+    let ok = rec.ok;
+    (render(&rec, ctx), ok)
+}
+
+fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
+    let fail = |input: String,
+                id: Option<String>,
+                kind: &str,
+                message: String,
+                position: Option<usize>| {
+        Record::failure(
+            raw.line,
+            id,
+            input,
+            ErrorOut {
+                kind: kind.into(),
+                message,
+                position,
+            },
+        )
+    };
+    let text = match std::str::from_utf8(&raw.bytes) {
+        Ok(t) => t,
+        Err(e) => {
+            let valid = e.valid_up_to();
+            let pos = String::from_utf8_lossy(&raw.bytes[..valid]).chars().count();
+            return fail(
+                String::from_utf8_lossy(&raw.bytes).into_owned(),
+                None,
+                "encoding",
+                format!("line is not valid UTF-8 (bad byte at byte offset {valid})"),
+                Some(pos),
+            );
+        }
+    };
+    if raw.truncated {
+        return fail(
+            text.to_string(),
+            None,
+            "too_large",
+            format!(
+                "line is longer than {} MiB; it was cut and not analysed",
+                MAX_LINE_BYTES >> 20
+            ),
+            None,
+        );
+    }
+    match ctx.format {
+        InputFormat::Smi => {
+            let t = text.trim_start();
+            let (smiles, rest) = match t.find(char::is_whitespace) {
+                Some(i) => (&t[..i], t[i..].trim()),
+                None => (t, ""),
+            };
+            let id = (!rest.is_empty()).then(|| rest.to_string());
+            analyze(smiles, raw.line, id, &ctx.opts)
+        }
+        InputFormat::Csv | InputFormat::Tsv => {
+            let Some(fields) = split_fields(ctx.format, text) else {
+                return fail(
+                    text.to_string(),
+                    None,
+                    "columns",
+                    "unterminated quote in this row".into(),
+                    None,
+                );
+            };
+            let id = ctx
+                .id_col
+                .and_then(|i| fields.get(i))
+                .map(|s| s.trim().to_string())
+                .filter(|s| !s.is_empty());
+            let columns = Pairs(
+                ctx.header
+                    .iter()
+                    .enumerate()
+                    .filter(|(i, _)| *i != ctx.smiles_col && Some(*i) != ctx.id_col)
+                    .map(|(i, h)| (h.clone(), fields.get(i).cloned().unwrap_or_default()))
+                    .collect(),
+            );
+            let mut rec = match fields.get(ctx.smiles_col) {
+                Some(smiles) => analyze(smiles.trim(), raw.line, id, &ctx.opts),
+                None => fail(
+                    String::new(),
+                    id,
+                    "columns",
+                    format!(
+                        "row has {} fields; the SMILES column {:?} is field {}",
+                        fields.len(),
+                        ctx.header
+                            .get(ctx.smiles_col)
+                            .map(String::as_str)
+                            .unwrap_or(""),
+                        ctx.smiles_col + 1
+                    ),
+                    None,
+                ),
+            };
+            rec.columns = Some(columns);
+            rec
+        }
+    }
+}

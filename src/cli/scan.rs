@@ -1,0 +1,63 @@
+//! `acidsite scan SMILES...`: the report a chemist reads at a glance, or one
+//! JSON record per SMILES with `--json`.
+
+use super::{parse_flag, Outcome, ScaleArg};
+use acidsite::report::{analyze, table, Flag, Options};
+use std::io::Write;
+
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    /// One or more SMILES (quote them in the shell).
+    #[arg(required = true, value_name = "SMILES")]
+    pub smiles: Vec<String>,
+    /// Print one JSON record per SMILES (the `annotate` schema) instead of the report.
+    #[arg(long)]
+    pub json: bool,
+    /// Target the site containing this atom (0-based index in the SMILES) instead of
+    /// the most acidic C–H site.
+    #[arg(long, value_name = "ATOM")]
+    pub site: Option<usize>,
+    /// Evaluate this base (short name from `acidsite bases`) instead of the recommended one.
+    #[arg(long, value_name = "NAME")]
+    pub base: Option<String>,
+    /// pKa scale used to rank the sites.
+    #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
+    pub scale: ScaleArg,
+    /// Count the unique matches of a SMARTS pattern (repeatable).
+    #[arg(long = "flag", value_name = "NAME=SMARTS", value_parser = parse_flag)]
+    pub flags: Vec<Flag>,
+}
+
+pub fn run(args: Args) -> anyhow::Result<Outcome> {
+    super::check_base(args.base.as_deref())?;
+    let opts = Options {
+        site: args.site,
+        base: args.base.clone(),
+        scale: args.scale.into(),
+        flags: args.flags.clone(),
+        sites_only: false,
+    };
+    let stdout = std::io::stdout();
+    let mut out = std::io::BufWriter::new(stdout.lock());
+    let mut failed = 0usize;
+    for (i, smiles) in args.smiles.iter().enumerate() {
+        let rec = analyze(smiles.trim(), i as u64 + 1, None, &opts);
+        if !rec.ok {
+            failed += 1;
+        }
+        if args.json {
+            writeln!(out, "{}", rec.to_json_line())?;
+        } else {
+            if i > 0 {
+                writeln!(out)?;
+            }
+            write!(out, "{}", table::render(&rec, opts.scale))?;
+        }
+    }
+    out.flush()?;
+    Ok(if failed == 0 {
+        Outcome::AllFine
+    } else {
+        Outcome::SomeFailed
+    })
+}

@@ -1,0 +1,435 @@
+//! One SMILES in, one [`Record`] out: molecule → sites → advice, with the
+//! options of `scan` and `annotate`. No I/O.
+
+use super::mapped::{atom_mapped_smiles, Label};
+use super::record::{
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
+    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, SCHEMA,
+};
+use crate::advice::{advise, AdviceOptions, RegioConditions, Temperature};
+use crate::mol::Molecule;
+use crate::sites::{self, Regio, SiteReport};
+use crate::smarts::{Pattern, PatternError};
+
+/// Inputs longer than this many bytes are refused before parsing (a clear
+/// `too_large` error instead of a slowdown).
+pub const MAX_SMILES_BYTES: usize = 100_000;
+
+/// pKa scale used to rank sites in the table and CSV output.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
+pub enum Scale {
+    #[default]
+    Dmso,
+    Water,
+}
+
+impl Scale {
+    pub fn name(self) -> &'static str {
+        match self {
+            Scale::Dmso => "dmso",
+            Scale::Water => "water",
+        }
+    }
+}
+
+/// A named SMARTS pattern counted in every record (`--flag NAME=SMARTS`).
+#[derive(Debug, Clone)]
+pub struct Flag {
+    pub name: String,
+    pub pattern: Pattern,
+}
+
+/// Why a `NAME=SMARTS` flag specification was refused.
+#[derive(Debug, Clone, PartialEq, Eq)]
+pub enum FlagError {
+    /// No `=`, or an empty name.
+    Form(String),
+    /// The SMARTS did not parse.
+    Pattern(PatternError),
+}
+
+impl std::fmt::Display for FlagError {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        match self {
+            FlagError::Form(s) => write!(f, "flag {s:?} is not of the form NAME=SMARTS"),
+            FlagError::Pattern(e) => write!(f, "flag pattern {:?}: {e}", e.pattern),
+        }
+    }
+}
+
+impl std::error::Error for FlagError {}
+
+impl Flag {
+    /// Parse `NAME=SMARTS` (the first `=` separates; SMARTS may contain `=`).
+    pub fn parse(spec: &str) -> Result<Flag, FlagError> {
+        let (name, smarts) = spec
+            .split_once('=')
+            .ok_or_else(|| FlagError::Form(spec.to_string()))?;
+        let name = name.trim();
+        if name.is_empty() || smarts.is_empty() {
+            return Err(FlagError::Form(spec.to_string()));
+        }
+        let pattern = Pattern::parse(smarts).map_err(FlagError::Pattern)?;
+        Ok(Flag {
+            name: name.to_string(),
+            pattern,
+        })
+    }
+}
+
+/// Options for [`analyze`].
+#[derive(Debug, Clone, Default)]
+pub struct Options {
+    /// Target site by atom index (any atom of the site); default: the most
+    /// acidic C–H site.
+    pub site: Option<usize>,
+    /// Use this base instead of the recommended one.
+    pub base: Option<String>,
+    /// Scale on which the sites are ranked.
+    pub scale: Scale,
+    /// Patterns to count.
+    pub flags: Vec<Flag>,
+    /// Sites only: skip the base advice (`advice` is null, with a note).
+    pub sites_only: bool,
+}
+
+/// Analyse one SMILES. `line` and `id` are stamped into the record as given.
+/// Never panics on any input; failures become records with `ok: false`.
+pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> Record {
+    if smiles.len() > MAX_SMILES_BYTES {
+        return Record::failure(
+            line,
+            id,
+            smiles.to_string(),
+            ErrorOut {
+                kind: "too_large".into(),
+                message: format!(
+                    "SMILES of {} bytes is longer than the limit of {MAX_SMILES_BYTES}",
+                    smiles.len()
+                ),
+                position: Some(smiles.chars().take(MAX_SMILES_BYTES).count()),
+            },
+        );
+    }
+    if let Some((pos, c)) = smiles.chars().enumerate().find(|(_, c)| c.is_control()) {
+        return Record::failure(
+            line,
+            id,
+            smiles.to_string(),
+            ErrorOut {
+                kind: "syntax".into(),
+                message: format!("control character U+{:04X} in SMILES", c as u32),
+                position: Some(pos),
+            },
+        );
+    }
+    let mol = match Molecule::from_smiles(smiles) {
+        Ok(m) => m,
+        Err(e) => {
+            return Record::failure(
+                line,
+                id,
+                smiles.to_string(),
+                ErrorOut {
+                    kind: e.kind.name().to_string(),
+                    message: e.message.clone(),
+                    position: e.position,
+                },
+            )
+        }
+    };
+    let report = sites::find_sites_with(
+        &mol,
+        &sites::Options {
+            scale: match opts.scale {
+                Scale::Dmso => sites::Scale::Dmso,
+                Scale::Water => sites::Scale::Water,
+            },
+        },
+    );
+    let sites_out = site_records(&report);
+    let (advice, advice_note) = if opts.sites_only {
+        (None, Some("not requested (sites only)".to_string()))
+    } else {
+        advice_record(&mol, &report, opts)
+    };
+    let mapped = mapped_smiles(smiles, &mol, &sites_out);
+    let flags = if opts.flags.is_empty() {
+        None
+    } else {
+        Some(Pairs(
+            opts.flags
+                .iter()
+                .map(|f| (f.name.clone(), f.pattern.count_unique(&mol) as u64))
+                .collect(),
+        ))
+    };
+    let (formula, components) = molecule_facts(smiles, &mol);
+    Record {
+        schema: SCHEMA,
+        line,
+        id,
+        input: smiles.to_string(),
+        ok: true,
+        columns: None,
+        formula: Some(formula),
+        components: Some(components),
+        rule_set: Some(sites::rule_set_version().to_string()),
+        sites: Some(sites_out),
+        advice: Some(advice),
+        advice_note,
+        mapped_smiles: mapped,
+        flags,
+        error: None,
+    }
+}
+
+/// Sites as output records, in the library's ranking (rank 1 = most acidic).
+fn site_records(report: &SiteReport) -> Vec<SiteOut> {
+    let order: Vec<usize> = (0..report.sites.len()).collect();
+    order
+        .into_iter()
+        .enumerate()
+        .map(|(rank, i)| {
+            let s = &report.sites[i];
+            SiteOut {
+                rank: rank as u32 + 1,
+                atoms: s.atoms.clone(),
+                element: s.element.clone(),
+                hydrogens: s.hydrogens,
+                class: s.class.clone(),
+                pka_dmso: s.pka_dmso.and_then(|x| round(x, 0.01)),
+                pka_water: s.pka_water.and_then(|x| round(x, 0.01)),
+                uncertainty: round(s.uncertainty, 0.01).unwrap_or(0.0),
+                rules: s
+                    .rules
+                    .iter()
+                    .map(|r| RuleOut {
+                        id: r.id.clone(),
+                        dmso: r.dmso.and_then(|x| round(x, 0.01)),
+                        water: r.water.and_then(|x| round(x, 0.01)),
+                    })
+                    .collect(),
+                regio: s.regio.map(|r| {
+                    match r {
+                        Regio::Kinetic => "kinetic",
+                        Regio::Thermodynamic => "thermodynamic",
+                    }
+                    .to_string()
+                }),
+            }
+        })
+        .collect()
+}
+
+/// The input with each site's atoms labelled by rank; None if the atom spans
+/// do not fit the text (reported rather than guessed).
+fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<String> {
+    let mut labels = Vec::new();
+    for s in sites {
+        for &a in &s.atoms {
+            let atom = mol.atoms.get(a)?;
+            labels.push(Label {
+                span: atom.span.clone(),
+                bracket: atom.bracket,
+                // Folded `[H]` atoms stay in the text, so only the implicit
+                // hydrogens move into the new bracket.
+                hydrogens: mol.implicit_hydrogens(a),
+                map: s.rank,
+            });
+        }
+    }
+    atom_mapped_smiles(smiles, &labels).ok()
+}
+
+/// Formula of the whole input and its components (main component first, then
+/// the counter-ions in input order).
+fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
+    let pieces = dot_pieces(smiles);
+    let main = mol.main_component();
+    let mut order: Vec<usize> = (0..mol.component_count()).collect();
+    order.sort_by_key(|&c| (c != main, c));
+    let out = order
+        .into_iter()
+        .map(|c| {
+            let atoms = mol.component_atoms(c);
+            // The text pieces whose first atom belongs to this component.
+            let text: Vec<&str> = pieces
+                .iter()
+                .filter(|(range, _)| {
+                    atoms
+                        .iter()
+                        .filter_map(|&a| mol.atoms.get(a))
+                        .any(|a| a.span.start >= range.start && a.span.start < range.end)
+                })
+                .map(|(_, t)| t.as_str())
+                .collect();
+            ComponentOut {
+                role: if c == main { "main" } else { "counter_ion" }.to_string(),
+                smiles: text.join("."),
+                formula: mol.formula_of_atoms(&atoms),
+                charge: atoms
+                    .iter()
+                    .filter_map(|&a| mol.atoms.get(a))
+                    .map(|a| a.charge as i32)
+                    .sum(),
+            }
+        })
+        .collect();
+    (mol.formula(), out)
+}
+
+/// The input split at `.` outside brackets: (character range, text) of each piece.
+fn dot_pieces(smiles: &str) -> Vec<(std::ops::Range<usize>, String)> {
+    let mut out = Vec::new();
+    let mut start = 0usize;
+    let mut cur = String::new();
+    let mut depth = 0i32;
+    let mut n = 0usize;
+    for (i, c) in smiles.chars().enumerate() {
+        n = i + 1;
+        match c {
+            '[' => depth += 1,
+            ']' => depth -= 1,
+            '.' if depth <= 0 => {
+                out.push((start..i, std::mem::take(&mut cur)));
+                start = i + 1;
+                continue;
+            }
+            _ => {}
+        }
+        cur.push(c);
+    }
+    out.push((start..n.max(start), cur));
+    out
+}
+
+/// Advice for the target site, or None with the reason when there is
+/// nothing to target.
+fn advice_record(
+    mol: &Molecule,
+    report: &SiteReport,
+    opts: &Options,
+) -> (Option<AdviceOut>, Option<String>) {
+    let aopts = AdviceOptions {
+        base: opts.base.clone(),
+        site: opts.site,
+        ..AdviceOptions::default()
+    };
+    // The advice is consumed: its strings move into the record.
+    let a = match advise(mol, report, &aopts) {
+        Ok(a) => a,
+        Err(e) => return (None, Some(e.to_string())),
+    };
+    let range = |t: Temperature| [t.low_c, t.high_c];
+    let out = AdviceOut {
+        equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
+        target: a.target.atoms,
+        target_note: a.target.chosen_by,
+        base: a.base,
+        equivalents_note: a.equivalents_note,
+        counted: a
+            .counted
+            .into_iter()
+            .map(|c| CountedOut {
+                atoms: c.atoms,
+                class: c.class,
+                protons: c.protons,
+                reason: c.reason,
+            })
+            .collect(),
+        conversion: a.conversion.and_then(significant),
+        solvent: a.solvent,
+        temperature_c: a.temperature.and_then(|t| round(t.low_c, 0.1)),
+        temperature_range_c: a.temperature.map(range),
+        scale: a.scale.map(|s| s.name().to_string()),
+        scale_note: a.scale_note,
+        alternatives: a
+            .alternatives
+            .into_iter()
+            .map(|x| AlternativeOut {
+                base: x.base,
+                equivalents: round(x.equivalents, 0.01).unwrap_or(0.0),
+                conversion: significant(x.conversion).unwrap_or(0.0),
+                solvent: x.solvent,
+                temperature_range_c: range(x.temperature),
+                note: x.note,
+            })
+            .collect(),
+        rejected: a
+            .rejected
+            .into_iter()
+            .map(|r| RejectedOut {
+                kind: r.kind.name().to_string(),
+                base: r.base,
+                reason: r.reason,
+            })
+            .collect(),
+        warnings: a.warnings.into_iter().map(|w| w.message).collect(),
+        regio_conditions: a.regio.as_ref().map(|r| {
+            let side = |c: &RegioConditions| RegioSideOut {
+                base: c.base.clone(),
+                equivalents: round(c.equivalents, 0.01).unwrap_or(0.0),
+                solvent: c.solvent.clone(),
+                temperature_range_c: range(c.temperature),
+                procedure: c.procedure.clone(),
+                favours: c.favours_atoms.clone(),
+            };
+            RegioOut {
+                kinetic: side(&r.kinetic),
+                thermodynamic: side(&r.thermodynamic),
+            }
+        }),
+        cautions: a
+            .cautions
+            .into_iter()
+            .map(|c| CautionOut {
+                hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
+                reagent: c.reagent,
+                text: c.text,
+            })
+            .collect(),
+        catalogue: a.catalogue_version,
+    };
+    (Some(out), None)
+}
+
+/// Six significant digits; None for non-finite values.
+fn significant(x: f64) -> Option<f64> {
+    if !x.is_finite() {
+        return None;
+    }
+    if x == 0.0 {
+        return Some(0.0);
+    }
+    let k = 5 - x.abs().log10().floor() as i32;
+    Some(if k >= 0 {
+        let p = 10f64.powi(k.min(300));
+        (x * p).round() / p
+    } else {
+        let p = 10f64.powi((-k).min(300));
+        (x / p).round() * p
+    })
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn significant_given_small_and_large_values() {
+        assert_eq!(significant(0.999801234), Some(0.999801));
+        assert_eq!(significant(7.1234567e-4), Some(7.12346e-4));
+        assert_eq!(significant(1234567.0), Some(1234570.0));
+        assert_eq!(significant(f64::NAN), None);
+    }
+
+    #[test]
+    fn round_given_binary_noise() {
+        assert_eq!(round(26.400000000000002, 0.01), Some(26.4));
+        assert_eq!(
+            round(0.1 + 0.2, 0.01).map(|x| x.to_string()),
+            Some("0.3".to_string())
+        );
+    }
+}

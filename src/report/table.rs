@@ -1,0 +1,413 @@
+//! The human report of `acidsite scan`: plain text, fixed-width columns, read
+//! at a glance. Rendered from the same [`Record`] as the JSON output, so the
+//! two never disagree.
+
+use super::analyze::Scale;
+use super::record::{CautionOut, Record};
+use crate::advice::DEFERRAL;
+use std::fmt::Write;
+
+/// Render one record as the scan report.
+pub fn render(rec: &Record, scale: Scale) -> String {
+    let mut o = String::new();
+    let title = match &rec.id {
+        Some(id) => format!("{id}  {}", rec.input),
+        None => rec.input.clone(),
+    };
+    let _ = writeln!(o, "== {title}");
+    if let Some(e) = &rec.error {
+        let _ = writeln!(o, "   not analysed: {} error: {}", e.kind, e.message);
+        if let Some(p) = e.position {
+            // Caret under the offending character (inputs are shown as given).
+            let _ = writeln!(o, "   {}", rec.input);
+            let _ = writeln!(o, "   {}^ character {p}", " ".repeat(p));
+        }
+        return o;
+    }
+
+    // Molecule.
+    let formula = rec.formula.as_deref().unwrap_or("?");
+    let _ = writeln!(o, "   formula        {formula}");
+    if let Some(comps) = &rec.components {
+        let main: Vec<_> = comps.iter().filter(|c| c.role == "main").collect();
+        let others: Vec<_> = comps.iter().filter(|c| c.role != "main").collect();
+        for c in &main {
+            let _ = writeln!(
+                o,
+                "   analysed part  {}  ({}{})",
+                c.smiles,
+                c.formula,
+                charge(c.charge)
+            );
+        }
+        if others.is_empty() {
+            let _ = writeln!(o, "   counter-ions   none");
+        } else {
+            let list: Vec<String> = others
+                .iter()
+                .map(|c| format!("{} ({}{})", c.smiles, c.formula, charge(c.charge)))
+                .collect();
+            let _ = writeln!(o, "   counter-ions   {}", list.join(", "));
+        }
+    }
+    if let Some(rs) = &rec.rule_set {
+        let _ = writeln!(o, "   rule set       {rs}");
+    }
+
+    // Sites.
+    let sites = rec.sites.as_deref().unwrap_or(&[]);
+    let _ = writeln!(o);
+    if sites.is_empty() {
+        let _ = writeln!(o, "   acidic hydrogens: none found");
+    } else {
+        let _ = writeln!(
+            o,
+            "   acidic hydrogens, most acidic first (ranked on the {} scale)",
+            match scale {
+                Scale::Dmso => "DMSO",
+                Scale::Water => "water",
+            }
+        );
+        let rows: Vec<[String; 8]> = sites
+            .iter()
+            .map(|s| {
+                [
+                    format!("#{}", s.rank),
+                    format!(
+                        "{}{}",
+                        s.element,
+                        s.atoms
+                            .iter()
+                            .map(|a| a.to_string())
+                            .collect::<Vec<_>>()
+                            .join(",")
+                    ),
+                    format!("{}H", s.hydrogens),
+                    s.class.clone(),
+                    pka(s.pka_dmso),
+                    pka(s.pka_water),
+                    format!("±{:.1}", s.uncertainty),
+                    match s.regio.as_deref() {
+                        Some("kinetic") => "kinetic side".to_string(),
+                        Some("thermodynamic") => "thermodynamic side".to_string(),
+                        Some(x) => x.to_string(),
+                        None => String::new(),
+                    },
+                ]
+            })
+            .collect();
+        let head = [
+            "rank",
+            "atom",
+            "H",
+            "class",
+            "DMSO",
+            "water",
+            "±",
+            "enolate side",
+        ];
+        let mut w = [0usize; 8];
+        for (i, h) in head.iter().enumerate() {
+            w[i] = h.chars().count();
+        }
+        for r in &rows {
+            for (i, f) in r.iter().enumerate() {
+                w[i] = w[i].max(f.chars().count());
+            }
+        }
+        let line = |f: &[String; 8]| -> String {
+            let mut s = String::from("   ");
+            for (i, x) in f.iter().enumerate() {
+                let pad = w[i].saturating_sub(x.chars().count());
+                // Numbers right-aligned, text left-aligned.
+                if (4..=6).contains(&i) {
+                    s.push_str(&" ".repeat(pad));
+                    s.push_str(x);
+                } else {
+                    s.push_str(x);
+                    s.push_str(&" ".repeat(pad));
+                }
+                s.push_str("  ");
+            }
+            s.trim_end().to_string()
+        };
+        let head_s: [String; 8] = head.map(|h| h.to_string());
+        let _ = writeln!(o, "{}", line(&head_s));
+        for r in &rows {
+            let _ = writeln!(o, "{}", line(r));
+        }
+        let _ = writeln!(
+            o,
+            "   (pKa estimates from fragment rules; ± is one standard uncertainty)"
+        );
+    }
+
+    // Advice.
+    let _ = writeln!(o);
+    match rec.advice.as_ref().and_then(|a| a.as_ref()) {
+        None => {
+            let why = rec.advice_note.as_deref().unwrap_or("no site to target");
+            let _ = writeln!(o, "   advice         none: {why}");
+        }
+        Some(a) => {
+            let target = a
+                .target
+                .iter()
+                .map(|t| t.to_string())
+                .collect::<Vec<_>>()
+                .join(",");
+            let _ = writeln!(o, "   advice for atom {target}  ({})", a.target_note);
+            match &a.base {
+                Some(b) => {
+                    let eq = a
+                        .equivalents
+                        .map(|e| format!("{e:.2} equiv"))
+                        .unwrap_or_default();
+                    let _ = writeln!(o, "   base           {b}  {eq}");
+                }
+                None => {
+                    let _ = writeln!(
+                        o,
+                        "   base           none in the catalogue is strong enough and compatible"
+                    );
+                }
+            }
+            if !a.equivalents_note.is_empty() {
+                wrap(
+                    &mut o,
+                    &a.equivalents_note,
+                    "                  = ",
+                    "                    ",
+                );
+            }
+            for c in &a.counted {
+                let atoms = c
+                    .atoms
+                    .iter()
+                    .map(|t| t.to_string())
+                    .collect::<Vec<_>>()
+                    .join(",");
+                wrap(
+                    &mut o,
+                    &format!(
+                        "{} H on atom {atoms} ({}) goes first: {}",
+                        c.protons, c.class, c.reason
+                    ),
+                    "                  + ",
+                    "                    ",
+                );
+            }
+            if let Some(s) = &a.solvent {
+                let _ = writeln!(o, "   solvent        {s}");
+            }
+            if let Some(range) = a.temperature_range_c {
+                let _ = writeln!(o, "   temperature    {}", temps(range));
+            }
+            if let Some(c) = a.conversion {
+                let _ = writeln!(
+                    o,
+                    "   at equilibrium {} of the target deprotonated",
+                    percent(c)
+                );
+            }
+            if !a.scale_note.is_empty() {
+                wrap(
+                    &mut o,
+                    &a.scale_note,
+                    "   pKa basis      ",
+                    "                  ",
+                );
+            }
+            if let Some(r) = &a.regio_conditions {
+                let _ = writeln!(o, "   enolate side");
+                for (label, side) in [("kinetic", &r.kinetic), ("thermodynamic", &r.thermodynamic)]
+                {
+                    let fav = side
+                        .favours
+                        .iter()
+                        .map(|t| t.to_string())
+                        .collect::<Vec<_>>()
+                        .join(",");
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "{label} (atom {fav}): {} {:.2} equiv, {}, {}. {}",
+                            side.base,
+                            side.equivalents,
+                            side.solvent,
+                            temps(side.temperature_range_c),
+                            side.procedure
+                        ),
+                        "     > ",
+                        "       ",
+                    );
+                }
+            }
+            if !a.alternatives.is_empty() {
+                let _ = writeln!(o, "   also suitable");
+                for x in &a.alternatives {
+                    let note = if x.note.is_empty() {
+                        String::new()
+                    } else {
+                        format!(" ({})", x.note)
+                    };
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "{} {:.2} equiv in {}, {} at equilibrium{note}",
+                            x.base,
+                            x.equivalents,
+                            x.solvent,
+                            percent(x.conversion)
+                        ),
+                        "     + ",
+                        "       ",
+                    );
+                }
+            }
+            if !a.rejected.is_empty() {
+                let _ = writeln!(o, "   ruled out");
+                for r in a.rejected.iter().filter(|r| r.kind != "too-weak") {
+                    wrap(
+                        &mut o,
+                        &format!("{}: {}", r.base, r.reason),
+                        "     - ",
+                        "       ",
+                    );
+                }
+                let weak: Vec<&str> = a
+                    .rejected
+                    .iter()
+                    .filter(|r| r.kind == "too-weak")
+                    .map(|r| r.base.as_str())
+                    .collect();
+                if !weak.is_empty() {
+                    wrap(
+                        &mut o,
+                        &format!(
+                            "too weak to deprotonate the target to 99 % at equilibrium: {} (details in --json)",
+                            weak.join(", ")
+                        ),
+                        "     - ",
+                        "       ",
+                    );
+                }
+            }
+            if !a.warnings.is_empty() {
+                let _ = writeln!(o, "   watch out");
+                for w in &a.warnings {
+                    wrap(&mut o, w, "     ! ", "       ");
+                }
+            }
+            if !a.cautions.is_empty() {
+                let _ = writeln!(o);
+                let _ = writeln!(o, "   SAFETY");
+                // The recommended base in full; other reagents by their hazards
+                // (full texts in --json); the closing deferral once.
+                let text = |c: &CautionOut| {
+                    c.text
+                        .strip_suffix(DEFERRAL)
+                        .unwrap_or(&c.text)
+                        .trim_end()
+                        .to_string()
+                };
+                let is_base = |c: &CautionOut| Some(&c.reagent) == a.base.as_ref();
+                for c in a.cautions.iter().filter(|c| is_base(c)) {
+                    wrap(&mut o, &text(c), "     * ", "       ");
+                }
+                let short: Vec<String> = a
+                    .cautions
+                    .iter()
+                    .filter(|c| !is_base(c) && !c.hazards.is_empty())
+                    .map(|c| format!("{} ({})", c.reagent, c.hazards.join(", ")))
+                    .collect();
+                if !short.is_empty() {
+                    wrap(
+                        &mut o,
+                        &format!("also named here: {}", short.join("; ")),
+                        "     * ",
+                        "       ",
+                    );
+                }
+                for c in a
+                    .cautions
+                    .iter()
+                    .filter(|c| !is_base(c) && c.hazards.is_empty())
+                {
+                    wrap(&mut o, &text(c), "     * ", "       ");
+                }
+                wrap(&mut o, DEFERRAL, "     ", "     ");
+            }
+        }
+    }
+    if let Some(m) = &rec.mapped_smiles {
+        let _ = writeln!(o);
+        let _ = writeln!(o, "   sites by rank  {m}");
+    }
+    if let Some(flags) = &rec.flags {
+        let list: Vec<String> = flags.0.iter().map(|(k, v)| format!("{k}={v}")).collect();
+        let _ = writeln!(o, "   flags          {}", list.join("  "));
+    }
+    o
+}
+
+/// Width the report is wrapped to.
+const WIDTH: usize = 100;
+
+/// Append `text` word-wrapped to [`WIDTH`], the first line after `first`,
+/// the others after `rest`.
+fn wrap(o: &mut String, text: &str, first: &str, rest: &str) {
+    let mut line = String::from(first);
+    let mut empty = true;
+    for word in text.split_whitespace() {
+        let len = line.chars().count();
+        if !empty && len + 1 + word.chars().count() > WIDTH {
+            o.push_str(line.trim_end());
+            o.push('\n');
+            line = String::from(rest);
+            empty = true;
+        }
+        if !empty {
+            line.push(' ');
+        }
+        line.push_str(word);
+        empty = false;
+    }
+    o.push_str(line.trim_end());
+    o.push('\n');
+}
+
+fn temps([lo, hi]: [f64; 2]) -> String {
+    if lo == hi {
+        format!("{lo} °C")
+    } else {
+        format!("{lo} to {hi} °C, start at the low end")
+    }
+}
+
+fn pka(x: Option<f64>) -> String {
+    x.map(|v| format!("{v:.1}")).unwrap_or_else(|| "-".into())
+}
+
+fn charge(c: i32) -> String {
+    match c {
+        0 => String::new(),
+        1 => ", +".into(),
+        -1 => ", −".into(),
+        c if c > 0 => format!(", {c}+"),
+        c => format!(", {}−", -c),
+    }
+}
+
+fn percent(c: f64) -> String {
+    let p = c * 100.0;
+    if p >= 99.995 {
+        "> 99.99 %".to_string()
+    } else if p >= 99.0 {
+        format!("{p:.2} %")
+    } else if p >= 1.0 {
+        format!("{p:.1} %")
+    } else {
+        format!("{p:.2e} %")
+    }
+}

@@ -1,0 +1,103 @@
+//! `acidsite bases`, `acidsite rules` and `acidsite equilibrium` through the
+//! real binary. Issue 6.
+
+use std::process::Command;
+
+const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
+
+fn run(args: &[&str]) -> (Option<i32>, String, String) {
+    let out = Command::new(BIN).args(args).output().expect("run acidsite");
+    (
+        out.status.code(),
+        String::from_utf8(out.stdout).unwrap(),
+        String::from_utf8_lossy(&out.stderr).into_owned(),
+    )
+}
+
+#[test]
+fn rules_given_no_options_lists_version_rules_and_sources() {
+    let (code, out, _) = run(&["rules"]);
+    assert_eq!(code, Some(0));
+    let version = acidsite::sites::rule_set_version();
+    assert!(
+        out.starts_with(&format!("rule set {version} (")),
+        "{}",
+        &out[..80.min(out.len())]
+    );
+    let set = acidsite::sites::rule_set().unwrap();
+    for r in &set.rules {
+        assert!(out.contains(&r.id), "rule {} missing", r.id);
+    }
+    assert!(out.contains("\nsources\n"));
+    let (code, json, _) = run(&["rules", "--json", "--only", "malonate"]);
+    assert_eq!(code, Some(0));
+    let recs: Vec<serde_json::Value> = json
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
+    assert!(!recs.is_empty());
+    assert!(recs.iter().all(|r| r["rule_set"] == version));
+}
+
+#[test]
+fn bases_given_name_shows_one_base_with_sources() {
+    let (code, out, _) = run(&["bases"]);
+    assert_eq!(code, Some(0));
+    for name in ["LDA", "NaH", "KOtBu", "DBU", "K2CO3"] {
+        // bases every catalogue of this kind holds (issue 5 list)
+        assert!(out.lines().any(|l| l.starts_with(name)), "{name} missing");
+    }
+    let (code, json, _) = run(&["bases", "--json", "nbuli"]);
+    assert_eq!(code, Some(0));
+    let rec: serde_json::Value = serde_json::from_str(json.trim()).unwrap();
+    assert_eq!(rec["name"], "n-BuLi");
+    assert!(rec["hazards"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .any(|h| h == "pyrophoric")); // common practice
+    assert_eq!(run(&["bases", "no-such-base"]).0, Some(2));
+}
+
+#[test]
+fn equilibrium_given_acetone_and_ethoxide_in_ethanol_leaves_little_enolate() {
+    // Acetone with 1 equiv NaOEt in EtOH at 0.5 mol/L: about a thousandth or
+    // less as enolate (common practice).
+    let (code, out, err) = run(&[
+        "equilibrium",
+        "CC(C)=O",
+        "--base",
+        "NaOEt",
+        "--equiv",
+        "1",
+        "--solvent",
+        "EtOH",
+        "--json",
+    ]);
+    assert_eq!(code, Some(0), "{err}");
+    let rec: serde_json::Value = serde_json::from_str(out.trim()).unwrap();
+    let f = rec["sites"][0]["deprotonated"].as_f64().unwrap();
+    assert!(f > 0.0 && f < 2e-3, "enolate fraction {f}");
+    let anions: f64 = rec["anions"]
+        .as_array()
+        .unwrap()
+        .iter()
+        .map(|x| x.as_f64().unwrap())
+        .sum();
+    assert!((anions - 1.0).abs() < 1e-9);
+}
+
+#[test]
+fn equilibrium_given_bad_input_fails_with_right_code() {
+    assert_eq!(
+        run(&["equilibrium", "CC(C)=O", "--base", "nope"]).0,
+        Some(2)
+    );
+    assert_eq!(
+        run(&["equilibrium", "CC(C)=O", "--base", "LDA", "--equiv", "-1"]).0,
+        Some(2)
+    );
+    let (code, out, _) = run(&["equilibrium", "CC(=O", "--base", "LDA"]);
+    assert_eq!(code, Some(1));
+    assert!(out.contains("not read"), "{out}");
+}
