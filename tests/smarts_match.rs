@@ -379,3 +379,16 @@ fn count_unique_given_dative_metal_bonds() {
     assert_eq!(count("*@*", chelate), 0);
     assert_eq!(count("[R]", chelate), 0);
 }
+
+#[test]
+fn target_given_ring_queries_is_shareable_between_threads() {
+    // The ring data now lives in the molecule (issue 3: one ring
+    // perception), so a prepared target can be shared between threads.
+    fn shareable<T: Send + Sync>(_: &T) {}
+    let m = mol("C12C3C4C1C5C2C3C45");
+    let t = Target::new(&m);
+    shareable(&t);
+    // Cubane: six four-membered rings, every atom in three (RDKit 2026.09.1).
+    assert_eq!(t.ring_count(), 6);
+    assert!((0..m.atom_count()).all(|a| t.atom_ring_count(a) == 3 && t.smallest_ring(a) == 4));
+}

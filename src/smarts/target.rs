@@ -23,8 +23,8 @@ pub(crate) struct AtomInfo {
 
 /// A molecule prepared for matching many patterns. Build it once per
 /// molecule with [`Target::new`] and pass it to the `*_in` methods of
-/// [`super::Pattern`] when running more than one pattern. Not shared
-/// between threads.
+/// [`super::Pattern`] when running more than one pattern. It holds no
+/// interior mutability, so it can be shared between threads.
 #[derive(Debug, Clone)]
 pub struct Target<'m> {
     pub(crate) mol: &'m Molecule,
