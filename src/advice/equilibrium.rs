@@ -157,7 +157,7 @@ impl std::error::Error for EquilibriumError {}
 const S_LO: f64 = -400.0;
 const S_HI: f64 = 400.0;
 
-fn log10_sum_exp10(values: impl Iterator<Item = f64> + Clone) -> f64 {
+pub(crate) fn log10_sum_exp10(values: impl Iterator<Item = f64> + Clone) -> f64 {
     let m = values.clone().fold(f64::NEG_INFINITY, f64::max);
     if !m.is_finite() {
         return m;
@@ -178,6 +178,79 @@ fn unit_fractions(units: &[AcidUnit], base_pka: f64, s: f64) -> Vec<f64> {
             }
         })
         .collect()
+}
+
+/// Allocation-free core of the solver: s = log10([B-]/[BH]) at equilibrium
+/// for units given by their log10 K (`base pKa - site pKa`, summed over a
+/// unit's microsites; `-inf` for a unit that cannot lose a proton), substrate
+/// `c`, base `b0` and initial conjugate acid `a0` (mol/L). Returns s and the
+/// iterations used; s = -inf when no base is present.
+///
+/// Safeguarded Newton in log space: the residual h(s) = log10(B0 - D) -
+/// log10(A0 + D) - s is strictly decreasing, the bracket [-400, 400] always
+/// holds the root, a Newton step is taken when it stays inside the shrinking
+/// bracket and bisection otherwise, so it converges for any pKa difference.
+pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f64, u32) {
+    if b0 == 0.0 {
+        return (f64::NEG_INFINITY, 0);
+    }
+    let ln10 = std::f64::consts::LN_10;
+    // h(s) and dh/ds.
+    let h = |s: f64| -> (f64, f64) {
+        let (mut d, mut dd) = (0.0, 0.0);
+        for &a in unit_logk {
+            if a == f64::NEG_INFINITY {
+                continue;
+            }
+            let f = 1.0 / (1.0 + 10f64.powf(-(a + s)));
+            d += f;
+            dd += ln10 * f * (1.0 - f);
+        }
+        let (d, dd) = (c * d, c * dd);
+        let free = b0 - d;
+        if free <= 0.0 {
+            return (f64::NEG_INFINITY, f64::NAN);
+        }
+        let acid = a0 + d;
+        if acid <= 0.0 {
+            return (f64::INFINITY, f64::NAN);
+        }
+        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
+        (free.log10() - acid.log10() - s, slope)
+    };
+    let (mut lo, mut hi) = (S_LO, S_HI);
+    let mut iterations = 0u32;
+    let mut x = 0.5 * (lo + hi);
+    let s = loop {
+        iterations += 1;
+        let (hx, slope) = h(x);
+        if hx == 0.0 {
+            break x;
+        }
+        if hx > 0.0 {
+            lo = x;
+        } else {
+            hi = x;
+        }
+        if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
+            break 0.5 * (lo + hi);
+        }
+        let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
+            x - hx / slope
+        } else {
+            f64::NAN
+        };
+        let next = if newton > lo && newton < hi {
+            newton
+        } else {
+            0.5 * (lo + hi)
+        };
+        if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
+            break next;
+        }
+        x = next;
+    };
+    (s, iterations)
 }
 
 /// Solve the equilibrium numerically.
@@ -206,79 +279,12 @@ pub fn solve(input: &EquilibriumInput) -> Result<Equilibrium, EquilibriumError> 
     }
     let b0 = eq * c;
     let units = &input.units;
-    // Each unit as (max log K, log10 sum of 10^(log K - max)) so that its
-    // log10 X at s is a + s with a fixed: no allocation inside the loop.
+    // Each unit as log10 of its summed K so that its log10 X at s is a + s.
     let unit_logk: Vec<f64> = units
         .iter()
         .map(|u| log10_sum_exp10(u.alternatives.iter().map(|m| input.base_pka - m.pka)))
         .collect();
-    let ln10 = std::f64::consts::LN_10;
-    // D(s) and dD/ds.
-    let d_and_slope = |s: f64| -> (f64, f64) {
-        let (mut d, mut slope) = (0.0, 0.0);
-        for &a in &unit_logk {
-            if a == f64::NEG_INFINITY {
-                continue;
-            }
-            let f = 1.0 / (1.0 + 10f64.powf(-(a + s)));
-            d += f;
-            slope += ln10 * f * (1.0 - f);
-        }
-        (c * d, c * slope)
-    };
-    // h(s) = log10(B0 - D) - log10(A0 + D) - s, strictly decreasing in s;
-    // returns h and dh/ds.
-    let h = |s: f64| -> (f64, f64) {
-        let (d, dd) = d_and_slope(s);
-        let free = b0 - d;
-        if free <= 0.0 {
-            return (f64::NEG_INFINITY, f64::NAN);
-        }
-        let acid = a0 + d;
-        if acid <= 0.0 {
-            return (f64::INFINITY, f64::NAN);
-        }
-        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
-        (free.log10() - acid.log10() - s, slope)
-    };
-    // Safeguarded Newton: a Newton step when it stays inside the bracket,
-    // otherwise bisection; the bracket always holds the root.
-    let (mut lo, mut hi) = (S_LO, S_HI);
-    let mut iterations = 0u32;
-    let s = if b0 == 0.0 {
-        f64::NEG_INFINITY
-    } else {
-        let mut x = 0.5 * (lo + hi);
-        loop {
-            iterations += 1;
-            let (hx, slope) = h(x);
-            if hx == 0.0 {
-                break x;
-            }
-            if hx > 0.0 {
-                lo = x;
-            } else {
-                hi = x;
-            }
-            if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
-                break 0.5 * (lo + hi);
-            }
-            let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
-                x - hx / slope
-            } else {
-                f64::NAN
-            };
-            let next = if newton > lo && newton < hi {
-                newton
-            } else {
-                0.5 * (lo + hi)
-            };
-            if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
-                break next;
-            }
-            x = next;
-        }
-    };
+    let (s, iterations) = solve_log_ratio(&unit_logk, c, b0, a0);
     let fractions: Vec<f64> = if b0 == 0.0 {
         vec![0.0; units.len()]
     } else {

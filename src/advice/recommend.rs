@@ -6,7 +6,8 @@ use super::catalogue::{
 };
 use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
 use super::equilibrium::{
-    choose_scale, solve, AcidUnit, Equilibrium, EquilibriumInput, ScaleChoice,
+    choose_scale, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
+    EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
@@ -376,7 +377,12 @@ struct Eval<'a> {
     equivalents: f64,
     conversion: f64,
     criterion_conversion: f64,
-    equilibrium: Option<Equilibrium>,
+    /// The reported equilibrium, solved lean; built in full for the chosen base.
+    lean: Option<Lean>,
+    /// Notes of the reported equilibrium (set in the base's own solvent).
+    eq_notes: Vec<String>,
+    /// Sites whose protons are counted (left out of the equilibrium).
+    exclude: Vec<usize>,
     reasons: Vec<(RejectKind, String)>,
     notes: Vec<String>,
     score: f64,
@@ -393,6 +399,8 @@ struct Ctx<'a> {
     /// Acid units and their notes on the DMSO and water scales, built once.
     units_dmso: (Vec<AcidUnit>, Vec<String>),
     units_water: (Vec<AcidUnit>, Vec<String>),
+    /// Reused buffer of unit constants for the lean solver.
+    logk_buf: std::cell::RefCell<Vec<f64>>,
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -496,13 +504,147 @@ fn solve_with(
     .ok()
 }
 
-fn target_conversion(ctx: &Ctx, e: &Equilibrium) -> f64 {
-    e.sites
-        .iter()
-        .filter(|s| ctx.target_unit.contains(&s.site))
-        .map(|s| s.deprotonated)
-        .sum::<f64>()
-        .clamp(0.0, 1.0)
+/// A solved equilibrium kept as its parameters and log ratio: enough to
+/// judge a base without building the per-site breakdown; the full
+/// [`Equilibrium`] is built only for the base that is reported.
+#[derive(Debug, Clone, Copy)]
+struct Lean {
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    /// log10([B-]/[BH]) at equilibrium.
+    s: f64,
+}
+
+fn cached_units<'c>(ctx: &'c Ctx, scale: Scale) -> &'c (Vec<AcidUnit>, Vec<String>) {
+    match scale {
+        Scale::Water => &ctx.units_water,
+        _ => &ctx.units_dmso,
+    }
+}
+
+/// log10 of a unit's summed K over its microsites not in `exclude`
+/// (`-inf` when none is left).
+fn unit_logk(u: &AcidUnit, shift: f64, exclude: &[usize]) -> f64 {
+    log10_sum_exp10(
+        u.alternatives
+            .iter()
+            .filter(|m| !exclude.contains(&m.site))
+            .map(move |m| shift - m.pka),
+    )
+}
+
+/// The same equilibrium as [`solve_with`] without allocating per site:
+/// one buffer of unit constants, reused across calls.
+fn solve_lean(
+    ctx: &Ctx,
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    exclude: &[usize],
+) -> Option<Lean> {
+    if !(equivalents.is_finite() && (0.0..=1000.0).contains(&equivalents))
+        || !base_pka.is_finite()
+        || base_pka.abs() > 200.0
+    {
+        return None;
+    }
+    let c = ctx.opts.concentration;
+    let mut buf = ctx.logk_buf.borrow_mut();
+    buf.clear();
+    buf.extend(
+        cached_units(ctx, scale)
+            .0
+            .iter()
+            .map(|u| unit_logk(u, base_pka, exclude)),
+    );
+    let (s, _) = solve_log_ratio(&buf, c, equivalents * c, a0);
+    Some(Lean {
+        base_pka,
+        scale,
+        equivalents,
+        a0,
+        s,
+    })
+}
+
+/// Deprotonated fraction of every microsite of `l`, in the order of
+/// [`solve`]'s `sites`, passed to `visit(microsite, fraction)`; stops when
+/// `visit` returns true.
+fn lean_sites<'c>(
+    ctx: &'c Ctx,
+    l: &Lean,
+    exclude: &[usize],
+    only_target: bool,
+    mut visit: impl FnMut(&'c Microsite, f64) -> bool,
+) {
+    let b0 = l.equivalents * ctx.opts.concentration;
+    for u in &cached_units(ctx, l.scale).0 {
+        if only_target
+            && !u
+                .alternatives
+                .iter()
+                .any(|m| ctx.target_unit.contains(&m.site))
+        {
+            continue;
+        }
+        let lx = unit_logk(u, l.base_pka, exclude);
+        if lx == f64::NEG_INFINITY {
+            continue;
+        }
+        let f = if b0 == 0.0 {
+            0.0
+        } else {
+            let l2 = log10_sum_exp10(
+                u.alternatives
+                    .iter()
+                    .filter(|m| !exclude.contains(&m.site))
+                    .map(|m| l.base_pka - m.pka + l.s),
+            );
+            if l2 == f64::NEG_INFINITY {
+                0.0
+            } else {
+                1.0 / (1.0 + 10f64.powf(-l2))
+            }
+        };
+        for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
+            let share = 10f64.powf(l.base_pka - m.pka - lx);
+            if visit(m, (f * share).clamp(0.0, 1.0)) {
+                return;
+            }
+        }
+    }
+}
+
+fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
+    let mut total = 0.0;
+    lean_sites(ctx, l, exclude, true, |m, x| {
+        if ctx.target_unit.contains(&m.site) {
+            total += x;
+        }
+        false
+    });
+    total.clamp(0.0, 1.0)
+}
+
+/// The full equilibrium (every microsite, anion populations) of a base's
+/// reported lean solution.
+fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
+    let l = ev.lean?;
+    let mut scratch = Vec::new();
+    let mut e = solve_with(
+        ctx,
+        l.base_pka,
+        l.scale,
+        l.equivalents,
+        l.a0,
+        &ev.exclude,
+        &mut scratch,
+    )?;
+    e.notes = ev.eq_notes.clone();
+    Some(e)
 }
 
 fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
@@ -525,7 +667,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         equivalents: 0.0,
         conversion: 0.0,
         criterion_conversion: 0.0,
-        equilibrium: None,
+        lean: None,
+        eq_notes: Vec::new(),
+        exclude: Vec::new(),
         reasons: Vec::new(),
         notes: Vec::new(),
         score: 0.0,
@@ -588,39 +732,23 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     }
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
-    let crit = solve_with(
-        ctx,
-        base_pka,
-        scale,
-        left(needed),
-        0.0,
-        &counted_sites,
-        &mut notes,
-    );
+    notes.extend(cached_units(ctx, scale).1.iter().cloned());
+    let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
     let crit_conv = crit
         .as_ref()
-        .map(|e| target_conversion(ctx, e))
+        .map(|e| lean_conversion(ctx, e, &counted_sites))
         .unwrap_or(0.0);
     ev.criterion_conversion = crit_conv;
     let reported = if opts.equivalents.is_some() {
-        let mut n_rep = Vec::new();
-        solve_with(
-            ctx,
-            base_pka,
-            scale,
-            left(ev.equivalents),
-            0.0,
-            &counted_sites,
-            &mut n_rep,
-        )
+        solve_lean(ctx, base_pka, scale, left(ev.equivalents), 0.0, &counted_sites)
     } else {
-        crit.clone()
+        crit
     };
     ev.conversion = reported
         .as_ref()
-        .map(|e| target_conversion(ctx, e))
+        .map(|e| lean_conversion(ctx, e, &counted_sites))
         .unwrap_or(0.0);
-    ev.equilibrium = reported;
+    ev.lean = reported;
     let mut solvent_conv: Option<f64> = None;
     // In the base's own protic solvent: water scale, solvent counted.
     if let Some(p) = protic_solvent {
@@ -642,33 +770,19 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         }) = in_solvent
         {
             {
-                let mut n2 = Vec::new();
-                let at_needed = solve_with(
-                    ctx,
-                    bp2,
-                    sc2,
-                    left(needed),
-                    p.molar,
-                    &counted_sites,
-                    &mut n2,
-                );
-                solvent_conv = at_needed.as_ref().map(|e| target_conversion(ctx, e));
+                let at_needed =
+                    solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
+                solvent_conv = at_needed
+                    .as_ref()
+                    .map(|e| lean_conversion(ctx, e, &counted_sites));
                 let rep = if opts.equivalents.is_some() {
-                    solve_with(
-                        ctx,
-                        bp2,
-                        sc2,
-                        left(ev.equivalents),
-                        p.molar,
-                        &counted_sites,
-                        &mut n2,
-                    )
+                    solve_lean(ctx, bp2, sc2, left(ev.equivalents), p.molar, &counted_sites)
                 } else {
                     at_needed
                 };
-                if let Some(mut e2) = rep {
-                    let c2 = target_conversion(ctx, &e2);
-                    e2.notes = vec![
+                if let Some(e2) = rep {
+                    let c2 = lean_conversion(ctx, &e2, &counted_sites);
+                    ev.eq_notes = vec![
                         note2,
                         format!(
                             "{} counted at {} mol/L as the base's conjugate acid",
@@ -685,18 +799,18 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     ev.scale = Some(sc2);
                     ev.scale_note = format!(
                         "{} (criterion checked on {}: {:.1}%)",
-                        e2.notes[0],
+                        ev.eq_notes[0],
                         scale.name(),
                         100.0 * crit_conv
                     );
-                    ev.equilibrium = Some(e2);
+                    ev.lean = Some(e2);
                 }
             }
         }
     }
-    if let Some(e) = &ev.equilibrium {
+    if ev.lean.is_some() {
         for n in &notes {
-            if !e.notes.contains(n) {
+            if !ev.eq_notes.contains(n) {
                 ev.notes.push(n.clone());
             }
         }
@@ -716,17 +830,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 // any scale mismatch?
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
                 let mixed = mismatch > 0.0;
-                let mut n_opt = Vec::new();
-                let optimistic = solve_with(
-                    ctx,
-                    base_pka + sigma,
-                    scale,
-                    left(needed),
-                    0.0,
-                    &counted_sites,
-                    &mut n_opt,
-                )
-                .map(|e| target_conversion(ctx, &e))
+                let optimistic =
+                    solve_lean(ctx, base_pka + sigma, scale, left(needed), 0.0, &counted_sites)
+                        .map(|e| lean_conversion(ctx, &e, &counted_sites))
                 .unwrap_or(0.0);
                 if sigma > 0.0
                     && optimistic >= MIN_CONVERSION
@@ -745,20 +851,25 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             let acc_solvent = solvent_conv.unwrap_or(crit_conv);
             let weak_solvent = solvent_conv.is_some() && acc_solvent < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
-                let uncounted = crit.as_ref().and_then(|e| {
-                    e.sites.iter().find(|s| {
-                        !ctx.target_unit.contains(&s.site)
-                            && !ev.counted.iter().any(|c| c.site == s.site)
-                            && s.deprotonated > 0.01
-                    })
-                });
+                let mut uncounted: Option<(&[usize], f64)> = None;
+                if let Some(e) = &crit {
+                    lean_sites(ctx, e, &counted_sites, false, |m, x| {
+                        let hit = !ctx.target_unit.contains(&m.site)
+                            && !ev.counted.iter().any(|c| c.site == m.site)
+                            && x > 0.01;
+                        if hit {
+                            uncounted = Some((&m.atoms, m.pka));
+                        }
+                        hit
+                    });
+                }
                 match uncounted {
                     Some(u) if weak_crit => ev.reasons.push((
                         RejectKind::UncountedProton,
                         format!(
                             "also removes the proton at atoms {:?} (pKa {:.1}), which the count did not include, and leaves the target at {}",
-                            u.atoms,
-                            u.pka,
+                            u.0,
+                            u.1,
                             conv_text(crit_conv)
                         ),
                     )),
@@ -814,6 +925,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
         }
     }
+    ev.exclude = counted_sites;
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
     ev.score = score(ctx, &ev, base_pka - t_pka);
     ev
@@ -1077,6 +1189,7 @@ pub fn advise_with_features(
         target_unit,
         units_dmso: cache(Scale::Dmso),
         units_water: cache(Scale::Water),
+        logk_buf: std::cell::RefCell::new(Vec::new()),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
@@ -1256,7 +1369,7 @@ pub fn advise_with_features(
         equivalents,
         equivalents_note,
         conversion: chosen.map(|e| e.conversion),
-        equilibrium: chosen.and_then(|e| e.equilibrium.clone()),
+        equilibrium: chosen.and_then(|e| full_equilibrium(&ctx, e)),
         solvent: chosen.map(|e| e.solvent.clone()),
         temperature: chosen.map(|e| temperature(e.base)),
         scale: chosen.and_then(|e| e.scale),
@@ -1350,7 +1463,7 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
         }
         if let (Some(sc), Some(t_pka)) = (e.scale, pka_on(t, e.scale.unwrap_or(Scale::Dmso))) {
             let bp = e
-                .equilibrium
+                .lean
                 .as_ref()
                 .map(|q| q.base_pka)
                 .unwrap_or(f64::NAN);
