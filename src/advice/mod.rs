@@ -24,7 +24,9 @@ pub use catalogue::{
     catalogue, Base, BaseFamily, Catalogue, CatalogueError, CitedPka, Hazard, Nucleophilicity,
     ProticSolvent, Scale, BASES_FILE,
 };
-pub use cautions::{caution_for, Caution, DEFERRAL};
+pub use cautions::{
+    caution_for, short_caution_for, short_caution_for_reagent, Caution, DEFERRAL, SHORT_DEFERRAL,
+};
 pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
     EquilibriumOptions, Microsite, SiteFraction,

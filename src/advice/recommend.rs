@@ -4,10 +4,12 @@
 use super::catalogue::{
     catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
 };
-use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
+use super::cautions::{
+    caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
+};
 use super::equilibrium::{
-    choose_scale, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
-    EquilibriumInput, Microsite, ScaleChoice,
+    choose_scale, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium, EquilibriumInput,
+    Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
@@ -25,6 +27,13 @@ pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
 /// A base that reaches [`MIN_CONVERSION`] only within the uncertainty of the
 /// estimates must still reach this at the central values (accepted as marginal).
 pub const MIN_MARGINAL_CONVERSION: f64 = 0.5;
+/// A base rejected as too weak for a preformed anion that still gives at
+/// least this fraction at equilibrium is named as usable in practice when the
+/// electrophile drains the equilibrium.
+pub const DRAIN_FRACTION: f64 = 1e-2;
+/// Appended to such a rejection (common practice).
+pub const DRAIN_NOTE: &str =
+    "; used in practice when the alkylating agent drains the equilibrium (common practice)";
 /// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
 pub const MIN_CATALYTIC_FRACTION: f64 = 1e-7;
 /// Catalytic amount of base, equivalents (on top of counted protons).
@@ -346,6 +355,30 @@ fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
         Scale::Water => site.pka_water,
         _ => site.pka_dmso,
     }
+}
+
+/// Is `solvent` a protic medium: water or an alcohol, alone or in a mixture
+/// ("water/THF", "EtOH")?
+pub(crate) fn protic_medium(solvent: &str) -> bool {
+    solvent
+        .split(|c: char| !c.is_ascii_alphanumeric())
+        .any(|w| {
+            let w = w.to_ascii_lowercase();
+            matches!(
+                w.as_str(),
+                "water"
+                    | "h2o"
+                    | "meoh"
+                    | "etoh"
+                    | "iproh"
+                    | "tbuoh"
+                    | "methanol"
+                    | "ethanol"
+                    | "isopropanol"
+                    | "propanol"
+                    | "butanol"
+            )
+        })
 }
 
 fn alkoxy_of(base: &Base) -> Option<&'static str> {
@@ -695,11 +728,26 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         Scale::Water => t.pka_water.is_some(),
         Scale::Thf => false,
     };
-    // Criterion scale: consistent, DMSO first.
-    let Some(choice) = choose_scale(base, false, opts.scale, target_has) else {
+    // Criterion scale: consistent, DMSO first; but a hydroxide or alkoxide in
+    // a protic medium is levelled by it (its conjugate acid is water or an
+    // alcohol), so it is judged on the water scale, never through the DMSO
+    // value of water or the alcohol (issue 5).
+    let levelled = matches!(base.family, BaseFamily::Hydroxide | BaseFamily::Alkoxide)
+        && protic_medium(&solvent);
+    if levelled && opts.scale.is_none() && !target_has(Scale::Water) {
         ev.reasons.push((
             RejectKind::NoComparablePka,
-            "no pKa scale on which both this base and the target have values".into(),
+            format!(
+                "judged on the water scale in {solvent} (levelled by its conjugate acid); the target has no water-scale estimate"
+            ),
+        ));
+        side_reaction_checks(ctx.f, base, &mut ev.reasons);
+        return ev;
+    }
+    let Some(choice) = choose_scale(base, levelled, opts.scale, target_has) else {
+        ev.reasons.push((
+            RejectKind::NoComparablePka,
+            "no pKa scale shared with the target".into(),
         ));
         return ev;
     };
@@ -740,7 +788,14 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         .unwrap_or(0.0);
     ev.criterion_conversion = crit_conv;
     let reported = if opts.equivalents.is_some() {
-        solve_lean(ctx, base_pka, scale, left(ev.equivalents), 0.0, &counted_sites)
+        solve_lean(
+            ctx,
+            base_pka,
+            scale,
+            left(ev.equivalents),
+            0.0,
+            &counted_sites,
+        )
     } else {
         crit
     };
@@ -770,8 +825,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         }) = in_solvent
         {
             {
-                let at_needed =
-                    solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
+                let at_needed = solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
                 solvent_conv = at_needed
                     .as_ref()
                     .map(|e| lean_conversion(ctx, e, &counted_sites));
@@ -824,15 +878,25 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
-            let mut weak_crit = crit_conv < MIN_CONVERSION;
+            // In its own solvent (NaOEt in EtOH) a levelled base is judged by
+            // the equilibrium with the solvent counted (below); elsewhere by
+            // the 99 % rule on the water scale.
+            let own_solvent_rule = levelled && solvent_conv.is_some();
+            let mut weak_crit = crit_conv < MIN_CONVERSION && !own_solvent_rule;
             if weak_crit {
                 // Within the combined uncertainty of the target estimate and
                 // any scale mismatch?
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
                 let mixed = mismatch > 0.0;
-                let optimistic =
-                    solve_lean(ctx, base_pka + sigma, scale, left(needed), 0.0, &counted_sites)
-                        .map(|e| lean_conversion(ctx, &e, &counted_sites))
+                let optimistic = solve_lean(
+                    ctx,
+                    base_pka + sigma,
+                    scale,
+                    left(needed),
+                    0.0,
+                    &counted_sites,
+                )
+                .map(|e| lean_conversion(ctx, &e, &counted_sites))
                 .unwrap_or(0.0);
                 if sigma > 0.0
                     && optimistic >= MIN_CONVERSION
@@ -867,7 +931,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     Some(u) if weak_crit => ev.reasons.push((
                         RejectKind::UncountedProton,
                         format!(
-                            "also removes the proton at atoms {:?} (pKa {:.1}), which the count did not include, and leaves the target at {}",
+                            "also takes the uncounted proton at atoms {:?} (pKa {:.1}); target only {}",
                             u.0,
                             u.1,
                             conv_text(crit_conv)
@@ -879,13 +943,14 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         } else {
                             (crit_conv, format!("on the {} scale", scale.name()))
                         };
-                        ev.reasons.push((
-                            RejectKind::TooWeak,
-                            format!(
-                                "too weak: conjugate-acid pKa {:.1} against target {:.1}; {} of the target deprotonated at equilibrium {} with {:.2} equiv",
-                                base_pka, t_pka, conv_text(conv), where_, needed
-                            ),
-                        ));
+                        let mut reason = format!(
+                            "too weak: pKa {:.1} vs target {:.1}, {} at equilibrium {}",
+                            base_pka, t_pka, conv_text(conv), where_
+                        );
+                        if conv >= DRAIN_FRACTION && t.is_carbon() {
+                            reason.push_str(DRAIN_NOTE);
+                        }
+                        ev.reasons.push((RejectKind::TooWeak, reason));
                     }
                 }
             } else if solvent_conv.is_some() && acc_solvent < MIN_CONVERSION {
@@ -1031,11 +1096,86 @@ fn side_reaction_checks(
     }
 }
 
+/// How common, cheap and easy to source a base is, as a ranking penalty
+/// (common practice): 0 for the everyday bases of a process laboratory
+/// (carbonates, hydroxides, the simple alkoxides, tertiary amines,
+/// piperidine, DBU, NaH, LDA, n-BuLi, NaOAc), 0.5 for the silylamides
+/// bought as solutions and caesium carbonate, 1 for specialist reagents
+/// (KHMDS, LiTMP, KH, s-/t-BuLi, NaNH2, the other tert-butoxides, TMG, DMAP),
+/// 2.5 for costly metal-free superbases (phosphazenes).
+pub fn commonness_penalty(base: &Base) -> f64 {
+    match base.family {
+        BaseFamily::Phosphazene => 2.5,
+        BaseFamily::Silylamide => {
+            if base.name == "KHMDS" {
+                1.0
+            } else {
+                0.5
+            }
+        }
+        BaseFamily::LithiumAmide => {
+            if base.name == "LDA" {
+                0.0
+            } else {
+                1.0
+            }
+        }
+        BaseFamily::Alkyllithium => {
+            if base.name == "n-BuLi" {
+                0.0
+            } else {
+                1.0
+            }
+        }
+        BaseFamily::Hydride => {
+            if base.name == "NaH" {
+                0.0
+            } else {
+                1.0
+            }
+        }
+        BaseFamily::MetalAmide | BaseFamily::Guanidine => 1.0,
+        BaseFamily::Alkoxide => {
+            if matches!(base.name.as_str(), "NaOEt" | "NaOMe" | "KOtBu") {
+                0.0
+            } else {
+                1.0
+            }
+        }
+        BaseFamily::Carbonate => {
+            if base.name == "Cs2CO3" {
+                0.5
+            } else {
+                0.0
+            }
+        }
+        BaseFamily::Pyridine => {
+            if base.name == "DMAP" {
+                1.0
+            } else {
+                0.0
+            }
+        }
+        _ => 0.0,
+    }
+}
+
+/// Ranking of acceptable bases, lower first: a chemist picks the mildest
+/// adequate, common and cheap base that meets the criteria. The score adds
+/// (1) [`commonness_penalty`]; (2) excess strength: 0.1 per pKa unit beyond
+/// 10 units more than needed (stronger than needed invites side reactions)
+/// and, for a stoichiometric use, 0.2 per unit short of a 3-unit margin;
+/// (3) handling hazards (pyrophoric 3, hydrogen evolution 0.4, cryogenic 0.4,
+/// toxic 0.3); (4) the chemistry: marginal acceptance 2.5, no equilibrium
+/// check in the base's own solvent 1, weakly nucleophilic base beside a
+/// carbonyl or nitrile 0.7, a base that enolises a simple carbonyl compound
+/// slowly or reversibly 2 (LDA -0.5 there), the alkoxide matching an ester
+/// -0.8, carbonates and hydrides (heterogeneous) 0.3.
 fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let b = ev.base;
     let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
-    let mut s = 0.0;
+    let mut s = commonness_penalty(b);
     if ev.marginal {
         s += 2.5;
     }
@@ -1043,7 +1183,7 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         s += 1.0;
     }
     // Stronger than needed invites side reactions; keep a sensible margin.
-    s += 0.1 * (margin - 8.0).max(0.0);
+    s += 0.1 * (margin - 10.0).max(0.0);
     match ctx.opts.purpose {
         Purpose::Stoichiometric => s += 0.2 * (3.0 - margin).max(0.0),
         // A catalyst need not convert the substrate: prefer the mildest.
@@ -1089,10 +1229,6 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
             .unwrap_or(false)
     {
         s -= 0.8;
-    }
-    if b.family == BaseFamily::Phosphazene {
-        // Costly; kept for metal-free needs.
-        s += 1.0;
     }
     if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
         // Amines and amidines are the usual catalytic bases; pyridines are
@@ -1242,7 +1378,17 @@ pub fn advise_with_features(
             .iter()
             .filter(|r| r.kinds.contains(&RejectKind::UncountedProton))
             .count();
-        let message = if competing * 2 >= rejected.len().max(1) {
+        // Among the bases strong enough to matter (not rejected only as too
+        // weak or without a comparable pKa), do most fail on a competitor?
+        let strong = rejected
+            .iter()
+            .filter(|r| {
+                r.kinds
+                    .iter()
+                    .any(|k| !matches!(k, RejectKind::TooWeak | RejectKind::NoComparablePka))
+            })
+            .count();
+        let message = if competing > 0 && competing * 2 >= strong.max(1) {
             "no catalogue base meets the criteria for this target: another site of about the same acidity competes for the base, so selective deprotonation is not expected; protect or differentiate that site, or plan for a mixture".to_string()
         } else {
             "no catalogue base meets the criteria for this target; see the rejections".to_string()
@@ -1327,14 +1473,10 @@ pub fn advise_with_features(
     if let Some(e) = chosen {
         push(caution_for(e.base, Some(&e.solvent)));
     }
-    for e in accepted
-        .iter()
-        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
-    {
-        push(caution_for(e.base, Some(&e.solvent)));
-    }
+    // Full cautions for the reagents of the kinetic and thermodynamic
+    // conditions, one line for each other acceptable base.
     if let Some(r) = &regio {
-        for name in ["LDA", "NaH", "KOtBu", "Et3N"] {
+        for name in ["LDA", "LiHMDS", "NaH", "KOtBu", "Et3N"] {
             if r.kinetic.base.contains(name) || r.thermodynamic.base.contains(name) {
                 if let Some(b) = cat.get(name) {
                     push(caution_for(b, None));
@@ -1348,6 +1490,12 @@ pub fn advise_with_features(
                 &["releases hydrogen chloride with moisture"],
             ));
         }
+    }
+    for e in accepted
+        .iter()
+        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
+    {
+        push(short_caution_for(e.base));
     }
     push(Some(general_caution()));
 
@@ -1462,11 +1610,7 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
             add(WarningKind::IncompleteEquilibrium, msg);
         }
         if let (Some(sc), Some(t_pka)) = (e.scale, pka_on(t, e.scale.unwrap_or(Scale::Dmso))) {
-            let bp = e
-                .lean
-                .as_ref()
-                .map(|q| q.base_pka)
-                .unwrap_or(f64::NAN);
+            let bp = e.lean.as_ref().map(|q| q.base_pka).unwrap_or(f64::NAN);
             let margin = bp - t_pka;
             if margin.is_finite()
                 && margin < 2.0 + 2.0 * t.uncertainty
