@@ -33,7 +33,7 @@ pub use equilibrium::{
 };
 pub use features::{detect_features, patterns_all_parse, MoleculeFeatures, SiteFeatures};
 pub use recommend::{
-    advise, advise_with_features, Advice, AdviceError, AdviceOptions, Alternative, CountedProton,
-    Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection, Target, Temperature, Warning,
-    WarningKind,
+    advise, advise_with_features, commonness_penalty, Advice, AdviceError, AdviceOptions,
+    Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection,
+    Target, Temperature, Warning, WarningKind,
 };
