@@ -8,8 +8,8 @@ use super::cautions::{
     caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
 };
 use super::equilibrium::{
-    choose_scale, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium, EquilibriumInput,
-    Microsite, ScaleChoice,
+    choose_scale, exp10, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
+    EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
@@ -639,11 +639,11 @@ fn lean_sites<'c>(
             if l2 == f64::NEG_INFINITY {
                 0.0
             } else {
-                1.0 / (1.0 + 10f64.powf(-l2))
+                1.0 / (1.0 + exp10(-l2))
             }
         };
         for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
-            let share = 10f64.powf(l.base_pka - m.pka - lx);
+            let share = exp10(l.base_pka - m.pka - lx);
             if visit(m, (f * share).clamp(0.0, 1.0)) {
                 return;
             }
