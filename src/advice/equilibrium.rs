@@ -228,7 +228,12 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
     };
     let (mut lo, mut hi) = (S_LO, S_HI);
     let mut iterations = 0u32;
-    let mut x = 0.5 * (lo + hi);
+    // Start from the closed-form solution for the strongest unit alone
+    // (exact for one unit), so Newton usually finishes in a few steps; the
+    // bracket keeps the method safe whatever the start.
+    let mut x = start_guess(unit_logk, c, b0, a0)
+        .filter(|g| g.is_finite() && *g > lo && *g < hi)
+        .unwrap_or(0.5 * (lo + hi));
     let s = loop {
         iterations += 1;
         let (hx, slope) = h(x);
@@ -259,6 +264,25 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
         x = next;
     };
     (s, iterations)
+}
+
+/// log10 r for the strongest unit alone: D solves
+/// (K-1) D^2 - (K (B0 + C) + A0) D + K B0 C = 0 (the smaller root, written
+/// in its cancellation-free form). None when K is out of a safe range.
+fn start_guess(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> Option<f64> {
+    let a = unit_logk.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+    if !a.is_finite() || a.abs() > 100.0 {
+        return None;
+    }
+    let k = exp10(a);
+    let bq = k * (b0 + c) + a0;
+    let disc = bq * bq - 4.0 * (k - 1.0) * k * b0 * c;
+    if !(disc >= 0.0) {
+        return None;
+    }
+    let d = 2.0 * k * b0 * c / (bq + disc.sqrt());
+    let (free, acid) = (b0 - d, a0 + d);
+    (free > 0.0 && acid > 0.0).then(|| (free / acid).log10())
 }
 
 /// Solve the equilibrium numerically.
