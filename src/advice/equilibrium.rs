@@ -277,7 +277,7 @@ fn start_guess(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> Option<f64> {
     let k = exp10(a);
     let bq = k * (b0 + c) + a0;
     let disc = bq * bq - 4.0 * (k - 1.0) * k * b0 * c;
-    if !(disc >= 0.0) {
+    if disc.is_nan() || disc < 0.0 {
         return None;
     }
     let d = 2.0 * k * b0 * c / (bq + disc.sqrt());

@@ -578,10 +578,7 @@ fn solve_lean(
     a0: f64,
     exclude: &[usize],
 ) -> Option<Lean> {
-    if !(equivalents.is_finite() && (0.0..=1000.0).contains(&equivalents))
-        || !base_pka.is_finite()
-        || base_pka.abs() > 200.0
-    {
+    if !(0.0..=1000.0).contains(&equivalents) || !base_pka.is_finite() || base_pka.abs() > 200.0 {
         return None;
     }
     let c = ctx.opts.concentration;
@@ -1104,58 +1101,20 @@ fn side_reaction_checks(
 /// (KHMDS, LiTMP, KH, s-/t-BuLi, NaNH2, the other tert-butoxides, TMG, DMAP),
 /// 2.5 for costly metal-free superbases (phosphazenes).
 pub fn commonness_penalty(base: &Base) -> f64 {
+    let name = base.name.as_str();
     match base.family {
         BaseFamily::Phosphazene => 2.5,
-        BaseFamily::Silylamide => {
-            if base.name == "KHMDS" {
-                1.0
-            } else {
-                0.5
-            }
-        }
-        BaseFamily::LithiumAmide => {
-            if base.name == "LDA" {
-                0.0
-            } else {
-                1.0
-            }
-        }
-        BaseFamily::Alkyllithium => {
-            if base.name == "n-BuLi" {
-                0.0
-            } else {
-                1.0
-            }
-        }
-        BaseFamily::Hydride => {
-            if base.name == "NaH" {
-                0.0
-            } else {
-                1.0
-            }
-        }
+        BaseFamily::Silylamide if name == "KHMDS" => 1.0,
+        BaseFamily::Silylamide => 0.5,
+        BaseFamily::LithiumAmide if name == "LDA" => 0.0,
+        BaseFamily::Alkyllithium if name == "n-BuLi" => 0.0,
+        BaseFamily::Hydride if name == "NaH" => 0.0,
+        BaseFamily::LithiumAmide | BaseFamily::Alkyllithium | BaseFamily::Hydride => 1.0,
         BaseFamily::MetalAmide | BaseFamily::Guanidine => 1.0,
-        BaseFamily::Alkoxide => {
-            if matches!(base.name.as_str(), "NaOEt" | "NaOMe" | "KOtBu") {
-                0.0
-            } else {
-                1.0
-            }
-        }
-        BaseFamily::Carbonate => {
-            if base.name == "Cs2CO3" {
-                0.5
-            } else {
-                0.0
-            }
-        }
-        BaseFamily::Pyridine => {
-            if base.name == "DMAP" {
-                1.0
-            } else {
-                0.0
-            }
-        }
+        BaseFamily::Alkoxide if matches!(name, "NaOEt" | "NaOMe" | "KOtBu") => 0.0,
+        BaseFamily::Alkoxide => 1.0,
+        BaseFamily::Carbonate if name == "Cs2CO3" => 0.5,
+        BaseFamily::Pyridine if name == "DMAP" => 1.0,
         _ => 0.0,
     }
 }

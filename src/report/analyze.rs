@@ -393,7 +393,7 @@ fn advice_record(
             .into_iter()
             // A one-line caution belongs to an alternative; keep it only
             // when that alternative is listed.
-            .filter(|c| c.full || listed.iter().any(|b| *b == c.reagent))
+            .filter(|c| c.full || listed.contains(&c.reagent))
             .map(|c| CautionOut {
                 full: c.full,
                 hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
