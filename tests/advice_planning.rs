@@ -5,7 +5,9 @@
 //! in synthetic laboratories; "from memory" means recalled by the author
 //! without a source at hand.
 
-use acidsite::advice::{advise, Advice, AdviceOptions, Purpose, RejectKind, WarningKind, DEFERRAL};
+use acidsite::advice::{
+    advise, Advice, AdviceOptions, Purpose, RejectKind, WarningKind, DEFERRAL, SHORT_DEFERRAL,
+};
 use acidsite::mol::Molecule;
 use acidsite::sites::find_sites;
 
@@ -15,8 +17,43 @@ fn plan_with(smiles: &str, opts: AdviceOptions) -> Advice {
     let a = advise(&mol, &sites, &opts).expect("advice");
     // Every caution closes with the deferral; nothing reads as permission.
     assert!(!a.cautions.is_empty());
+    // Full cautions end with the full deferral, one-line cautions (other
+    // alternatives) with the short one and name every hazard.
     for c in &a.cautions {
-        assert!(c.text.ends_with(DEFERRAL), "{}: {}", c.reagent, c.text);
+        if c.full {
+            assert!(c.text.ends_with(DEFERRAL), "{}: {}", c.reagent, c.text);
+        } else {
+            assert!(
+                c.text.ends_with(SHORT_DEFERRAL),
+                "{}: {}",
+                c.reagent,
+                c.text
+            );
+            for h in &c.hazards {
+                assert!(c.text.contains(h.name()), "{}: {}", c.reagent, c.text);
+            }
+        }
+    }
+    // The recommended base always carries the full caution.
+    if let Some(b) = &a.base {
+        if let Some(c) = a.cautions.iter().find(|c| &c.reagent == b) {
+            assert!(c.full, "{b}: one-line caution for the recommended base");
+        }
+    }
+    // Every other acceptable base with a hazard carries at least one line.
+    for x in &a.alternatives {
+        let hazardous = acidsite::advice::catalogue()
+            .ok()
+            .and_then(|cat| cat.get(&x.base))
+            .map(|b| !b.hazards.is_empty())
+            .unwrap_or(false);
+        if hazardous {
+            assert!(
+                a.cautions.iter().any(|c| c.reagent == x.base),
+                "no caution for alternative {}",
+                x.base
+            );
+        }
     }
     if let Some(b) = &a.base {
         assert!(

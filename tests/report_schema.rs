@@ -1,4 +1,4 @@
-//! Locks the JSON record schema (`acidsite-record/1`, documented in
+//! Locks the JSON record schema (`acidsite-record/2`, documented in
 //! `src/report/record.rs`): records from the real binary must deserialize into
 //! mirror types that refuse unknown keys, and the required keys must be present.
 //! A change here is a schema change: bump `SCHEMA` and the docs with it. Issue 6.
@@ -79,6 +79,7 @@ struct AdviceMirror {
     temperature_c: Option<f64>,
     scale: Option<String>,
     alternatives: Vec<AlternativeMirror>,
+    alternatives_omitted: usize,
     rejected: Vec<RejectedMirror>,
     warnings: Vec<String>,
     cautions: Vec<CautionMirror>,
@@ -98,6 +99,7 @@ struct CautionMirror {
     reagent: String,
     hazards: Vec<String>,
     text: String,
+    full: bool,
 }
 
 #[derive(Debug, Deserialize)]
@@ -181,7 +183,7 @@ fn check(line: &str) -> RecordMirror {
         .unwrap_or_else(|e| panic!("record does not match the schema: {e}\n{line}"));
     let v: Value = serde_json::from_str(line).unwrap();
     let o = v.as_object().unwrap();
-    assert_eq!(rec.schema, "acidsite-record/1");
+    assert_eq!(rec.schema, "acidsite-record/2");
     for key in ["schema", "line", "id", "input", "ok"] {
         assert!(o.contains_key(key), "missing {key}: {line}");
     }

@@ -4,29 +4,37 @@
 //! assessment.
 
 use super::catalogue::{Base, Hazard};
+use std::sync::OnceLock;
 
-/// Closing sentence of every caution.
+/// Closing sentence of every full caution.
 pub const DEFERRAL: &str = "Follow local regulations, the safety data sheet and the judgement of qualified chemists; this note does not replace a risk assessment.";
+
+/// Closing sentence of a one-line caution.
+pub const SHORT_DEFERRAL: &str =
+    "Defer to local regulations, the safety data sheet and qualified chemists.";
 
 /// A caution for one reagent.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Caution {
     pub reagent: String,
     pub hazards: Vec<Hazard>,
-    /// Full text, ending with [`DEFERRAL`].
+    /// Full text ending with [`DEFERRAL`], or for a one-line caution the
+    /// hazard words ending with [`SHORT_DEFERRAL`].
     pub text: String,
+    /// Full caution (handling advice per hazard) or one line.
+    pub full: bool,
 }
 
 fn sentence(h: Hazard) -> &'static str {
     match h {
-        Hazard::Pyrophoric => "can ignite on contact with air: transfer under inert gas by syringe or cannula, keep a class D or dry-powder extinguisher (never water) at hand and do not work alone",
-        Hazard::WaterReactive => "reacts violently with water and moisture: use dry glassware, dry solvents and an inert atmosphere, and quench slowly with cooling",
-        Hazard::HydrogenEvolution => "releases hydrogen on reaction and on quench: vent the vessel, exclude ignition sources and allow for the gas volume",
-        Hazard::Corrosive => "causes severe burns to skin and eyes: wear suitable gloves and eye and face protection",
-        Hazard::Toxic => "is toxic by inhalation, ingestion or skin contact: work in a fume hood and avoid skin contact",
-        Hazard::Cryogenic => "is used cold (down to -78 C): dry-ice baths and cold surfaces cause cold burns, wear insulated gloves and keep baths away from ignition sources",
-        Hazard::Flammable => "is flammable or supplied in a flammable solvent: exclude ignition sources and earth equipment",
-        Hazard::Irritant => "irritates skin, eyes and airways: avoid dust and wear gloves and eye protection",
+        Hazard::Pyrophoric => "ignites in air: transfer under inert gas by syringe or cannula, keep a dry-powder (class D) extinguisher at hand, never water, and do not work alone",
+        Hazard::WaterReactive => "reacts violently with water: dry glassware and solvents, inert gas, quench slowly with cooling",
+        Hazard::HydrogenEvolution => "releases hydrogen on reaction and quench: vent, exclude ignition sources, allow for the gas volume",
+        Hazard::Corrosive => "causes severe skin and eye burns: gloves, eye and face protection",
+        Hazard::Toxic => "is toxic by inhalation, ingestion or skin contact: fume hood, no skin contact",
+        Hazard::Cryogenic => "is used at -78 C: cold baths and surfaces cause cold burns, wear insulated gloves",
+        Hazard::Flammable => "is flammable or in a flammable solvent: exclude ignition sources, earth equipment",
+        Hazard::Irritant => "irritates skin, eyes and airways: avoid dust, wear gloves and eye protection",
     }
 }
 
@@ -42,17 +50,97 @@ pub fn caution_for_reagent(name: &str, hazards: &[Hazard], extra: &[&str]) -> Op
         reagent: name.to_string(),
         hazards: hazards.to_vec(),
         text: format!("{name} {}. {DEFERRAL}", parts.join("; it ")),
+        full: true,
     })
+}
+
+/// One-line caution: the reagent's hazard words and the short deferral.
+/// None for a reagent with no listed hazard.
+pub fn short_caution_for_reagent(name: &str, hazards: &[Hazard]) -> Option<Caution> {
+    if hazards.is_empty() {
+        return None;
+    }
+    let words: Vec<&str> = hazards.iter().map(|h| h.name()).collect();
+    Some(Caution {
+        reagent: name.to_string(),
+        hazards: hazards.to_vec(),
+        text: format!("{name}: {}. {SHORT_DEFERRAL}", words.join(", ")),
+        full: false,
+    })
+}
+
+/// Cautions of one catalogue base, built once: full, full in DMF/DMSO/DMAc
+/// (hydrides), and one line.
+struct BaseCautions {
+    hazards: Vec<Hazard>,
+    family: super::catalogue::BaseFamily,
+    full: Option<Caution>,
+    full_dipolar: Option<Caution>,
+    short: Option<Caution>,
+}
+
+fn cached(base: &Base) -> Option<&'static BaseCautions> {
+    static CELL: OnceLock<Vec<(String, BaseCautions)>> = OnceLock::new();
+    let all = CELL.get_or_init(|| match super::catalogue::catalogue() {
+        Ok(cat) => cat
+            .bases
+            .iter()
+            .map(|b| {
+                (
+                    b.name.clone(),
+                    BaseCautions {
+                        hazards: b.hazards.clone(),
+                        family: b.family,
+                        full: build_caution(b, false),
+                        full_dipolar: build_caution(b, true),
+                        short: short_caution_for_reagent(&b.name, &b.hazards),
+                    },
+                )
+            })
+            .collect(),
+        Err(_) => Vec::new(),
+    });
+    // A hand-built base that shares a catalogue name but not its data gets
+    // its own text.
+    all.iter()
+        .find(|(n, c)| *n == base.name && c.hazards == base.hazards && c.family == base.family)
+        .map(|(_, c)| c)
+}
+
+fn dipolar_aprotic(solvent: Option<&str>) -> bool {
+    solvent
+        .map(|s| {
+            let s = s.to_ascii_uppercase();
+            s.contains("DMF") || s.contains("DMSO") || s.contains("DMAC")
+        })
+        .unwrap_or(false)
+}
+
+/// One-line caution for a catalogue base (cached text).
+pub fn short_caution_for(base: &Base) -> Option<Caution> {
+    match cached(base) {
+        Some(c) => c.short.clone(),
+        None => short_caution_for_reagent(&base.name, &base.hazards),
+    }
 }
 
 /// Caution for a catalogue base; `solvent` adds solvent-specific hazards
 /// (sodium hydride in DMF or DMSO). None for a base with no listed hazard.
+/// The text of a catalogue base is built once and cloned.
 pub fn caution_for(base: &Base, solvent: Option<&str>) -> Option<Caution> {
+    let dipolar = dipolar_aprotic(solvent);
+    match cached(base) {
+        Some(c) if dipolar => c.full_dipolar.clone(),
+        Some(c) => c.full.clone(),
+        None => build_caution(base, dipolar),
+    }
+}
+
+fn build_caution(base: &Base, dipolar: bool) -> Option<Caution> {
     let mut extra: Vec<&str> = Vec::new();
     if base.family == super::catalogue::BaseFamily::Hydride {
-        if let Some(s) = solvent {
-            let s = s.to_ascii_uppercase();
-            if s.contains("DMF") || s.contains("DMSO") || s.contains("DMAC") {
+        {
+            if dipolar {
                 extra.push("with DMF, DMSO or DMAc can undergo a self-accelerating exothermic decomposition even at moderate temperature: avoid this combination at scale unless its thermal safety has been studied");
             }
         }
@@ -68,6 +156,7 @@ pub fn general_caution() -> Caution {
     Caution {
         reagent: "all reagents named".into(),
         hazards: Vec::new(),
+        full: true,
         text: format!(
             "Every base, solvent and additive named here, including alternatives and rejected bases, has its own hazards; deprotonations can be exothermic and quenches release heat and gas. {DEFERRAL}"
         ),

@@ -157,12 +157,19 @@ impl std::error::Error for EquilibriumError {}
 const S_LO: f64 = -400.0;
 const S_HI: f64 = 400.0;
 
-fn log10_sum_exp10(values: impl Iterator<Item = f64> + Clone) -> f64 {
+pub(crate) fn log10_sum_exp10(values: impl Iterator<Item = f64> + Clone) -> f64 {
     let m = values.clone().fold(f64::NEG_INFINITY, f64::max);
     if !m.is_finite() {
         return m;
     }
-    m + values.map(|x| 10f64.powf(x - m)).sum::<f64>().log10()
+    m + values.map(|x| exp10(x - m)).sum::<f64>().log10()
+}
+
+/// 10^x computed as e^(x ln 10) (cheaper than `powf`; relative error of a
+/// few ulp times |x|, far below the precision of any pKa).
+#[inline]
+pub(crate) fn exp10(x: f64) -> f64 {
+    (x * std::f64::consts::LN_10).exp()
 }
 
 /// Deprotonated fraction of each unit at log ratio `s`.
@@ -178,6 +185,104 @@ fn unit_fractions(units: &[AcidUnit], base_pka: f64, s: f64) -> Vec<f64> {
             }
         })
         .collect()
+}
+
+/// Allocation-free core of the solver: s = log10([B-]/[BH]) at equilibrium
+/// for units given by their log10 K (`base pKa - site pKa`, summed over a
+/// unit's microsites; `-inf` for a unit that cannot lose a proton), substrate
+/// `c`, base `b0` and initial conjugate acid `a0` (mol/L). Returns s and the
+/// iterations used; s = -inf when no base is present.
+///
+/// Safeguarded Newton in log space: the residual h(s) = log10(B0 - D) -
+/// log10(A0 + D) - s is strictly decreasing, the bracket [-400, 400] always
+/// holds the root, a Newton step is taken when it stays inside the shrinking
+/// bracket and bisection otherwise, so it converges for any pKa difference.
+pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f64, u32) {
+    if b0 == 0.0 {
+        return (f64::NEG_INFINITY, 0);
+    }
+    let ln10 = std::f64::consts::LN_10;
+    // h(s) and dh/ds.
+    let h = |s: f64| -> (f64, f64) {
+        let (mut d, mut dd) = (0.0, 0.0);
+        for &a in unit_logk {
+            if a == f64::NEG_INFINITY {
+                continue;
+            }
+            // 10^x as e^(x ln 10): exp is cheaper than powf.
+            let f = 1.0 / (1.0 + (-(a + s) * ln10).exp());
+            d += f;
+            dd += ln10 * f * (1.0 - f);
+        }
+        let (d, dd) = (c * d, c * dd);
+        let free = b0 - d;
+        if free <= 0.0 {
+            return (f64::NEG_INFINITY, f64::NAN);
+        }
+        let acid = a0 + d;
+        if acid <= 0.0 {
+            return (f64::INFINITY, f64::NAN);
+        }
+        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
+        ((free / acid).log10() - s, slope)
+    };
+    let (mut lo, mut hi) = (S_LO, S_HI);
+    let mut iterations = 0u32;
+    // Start from the closed-form solution for the strongest unit alone
+    // (exact for one unit), so Newton usually finishes in a few steps; the
+    // bracket keeps the method safe whatever the start.
+    let mut x = start_guess(unit_logk, c, b0, a0)
+        .filter(|g| g.is_finite() && *g > lo && *g < hi)
+        .unwrap_or(0.5 * (lo + hi));
+    let s = loop {
+        iterations += 1;
+        let (hx, slope) = h(x);
+        if hx == 0.0 {
+            break x;
+        }
+        if hx > 0.0 {
+            lo = x;
+        } else {
+            hi = x;
+        }
+        if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
+            break 0.5 * (lo + hi);
+        }
+        let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
+            x - hx / slope
+        } else {
+            f64::NAN
+        };
+        let next = if newton > lo && newton < hi {
+            newton
+        } else {
+            0.5 * (lo + hi)
+        };
+        if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
+            break next;
+        }
+        x = next;
+    };
+    (s, iterations)
+}
+
+/// log10 r for the strongest unit alone: D solves
+/// (K-1) D^2 - (K (B0 + C) + A0) D + K B0 C = 0 (the smaller root, written
+/// in its cancellation-free form). None when K is out of a safe range.
+fn start_guess(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> Option<f64> {
+    let a = unit_logk.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+    if !a.is_finite() || a.abs() > 100.0 {
+        return None;
+    }
+    let k = exp10(a);
+    let bq = k * (b0 + c) + a0;
+    let disc = bq * bq - 4.0 * (k - 1.0) * k * b0 * c;
+    if disc.is_nan() || disc < 0.0 {
+        return None;
+    }
+    let d = 2.0 * k * b0 * c / (bq + disc.sqrt());
+    let (free, acid) = (b0 - d, a0 + d);
+    (free > 0.0 && acid > 0.0).then(|| (free / acid).log10())
 }
 
 /// Solve the equilibrium numerically.
@@ -206,79 +311,12 @@ pub fn solve(input: &EquilibriumInput) -> Result<Equilibrium, EquilibriumError> 
     }
     let b0 = eq * c;
     let units = &input.units;
-    // Each unit as (max log K, log10 sum of 10^(log K - max)) so that its
-    // log10 X at s is a + s with a fixed: no allocation inside the loop.
+    // Each unit as log10 of its summed K so that its log10 X at s is a + s.
     let unit_logk: Vec<f64> = units
         .iter()
         .map(|u| log10_sum_exp10(u.alternatives.iter().map(|m| input.base_pka - m.pka)))
         .collect();
-    let ln10 = std::f64::consts::LN_10;
-    // D(s) and dD/ds.
-    let d_and_slope = |s: f64| -> (f64, f64) {
-        let (mut d, mut slope) = (0.0, 0.0);
-        for &a in &unit_logk {
-            if a == f64::NEG_INFINITY {
-                continue;
-            }
-            let f = 1.0 / (1.0 + 10f64.powf(-(a + s)));
-            d += f;
-            slope += ln10 * f * (1.0 - f);
-        }
-        (c * d, c * slope)
-    };
-    // h(s) = log10(B0 - D) - log10(A0 + D) - s, strictly decreasing in s;
-    // returns h and dh/ds.
-    let h = |s: f64| -> (f64, f64) {
-        let (d, dd) = d_and_slope(s);
-        let free = b0 - d;
-        if free <= 0.0 {
-            return (f64::NEG_INFINITY, f64::NAN);
-        }
-        let acid = a0 + d;
-        if acid <= 0.0 {
-            return (f64::INFINITY, f64::NAN);
-        }
-        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
-        (free.log10() - acid.log10() - s, slope)
-    };
-    // Safeguarded Newton: a Newton step when it stays inside the bracket,
-    // otherwise bisection; the bracket always holds the root.
-    let (mut lo, mut hi) = (S_LO, S_HI);
-    let mut iterations = 0u32;
-    let s = if b0 == 0.0 {
-        f64::NEG_INFINITY
-    } else {
-        let mut x = 0.5 * (lo + hi);
-        loop {
-            iterations += 1;
-            let (hx, slope) = h(x);
-            if hx == 0.0 {
-                break x;
-            }
-            if hx > 0.0 {
-                lo = x;
-            } else {
-                hi = x;
-            }
-            if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
-                break 0.5 * (lo + hi);
-            }
-            let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
-                x - hx / slope
-            } else {
-                f64::NAN
-            };
-            let next = if newton > lo && newton < hi {
-                newton
-            } else {
-                0.5 * (lo + hi)
-            };
-            if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
-                break next;
-            }
-            x = next;
-        }
-    };
+    let (s, iterations) = solve_log_ratio(&unit_logk, c, b0, a0);
     let fractions: Vec<f64> = if b0 == 0.0 {
         vec![0.0; units.len()]
     } else {
@@ -397,6 +435,58 @@ pub(crate) fn choose_scale(
     forced: Option<Scale>,
     site_has: impl Fn(Scale) -> bool,
 ) -> Option<ScaleChoice> {
+    // The choice depends only on the base, the flags and which scales the
+    // sites have: cache it per thread so the note is formatted once per
+    // catalogue base rather than once per molecule.
+    type Key = (usize, bool, u8, bool, bool);
+    thread_local! {
+        static CACHE: std::cell::RefCell<Vec<(Key, Option<ScaleChoice>)>> =
+            const { std::cell::RefCell::new(Vec::new()) };
+    }
+    let key: Key = (
+        base as *const Base as usize,
+        protic,
+        match forced {
+            None => 0,
+            Some(Scale::Dmso) => 1,
+            Some(Scale::Water) => 2,
+            Some(Scale::Thf) => 3,
+        },
+        site_has(Scale::Dmso),
+        site_has(Scale::Water),
+    );
+    // Only catalogue bases live at a fixed address for the whole run.
+    let cacheable = catalogue()
+        .map(|c| c.bases.as_ptr_range().contains(&(base as *const Base)))
+        .unwrap_or(false);
+    if cacheable {
+        if let Some(hit) = CACHE.with(|c| {
+            c.borrow()
+                .iter()
+                .find(|(k, _)| *k == key)
+                .map(|(_, v)| v.clone())
+        }) {
+            return hit;
+        }
+    }
+    let (has_dmso, has_water) = (key.3, key.4);
+    let v = choose_scale_uncached(base, protic, forced, &|s| match s {
+        Scale::Dmso => has_dmso,
+        Scale::Water => has_water,
+        Scale::Thf => site_has(Scale::Thf),
+    });
+    if cacheable {
+        CACHE.with(|c| c.borrow_mut().push((key, v.clone())));
+    }
+    v
+}
+
+fn choose_scale_uncached(
+    base: &Base,
+    protic: bool,
+    forced: Option<Scale>,
+    site_has: &dyn Fn(Scale) -> bool,
+) -> Option<ScaleChoice> {
     let src = |s: Scale| base.pka_source(s).unwrap_or("-").to_string();
     let same = |sc: Scale, p: f64, why: &str| ScaleChoice {
         site_scale: sc,
@@ -413,7 +503,7 @@ pub(crate) fn choose_scale(
         if let (Some(p), true) = (base.pka(f), site_has(f)) {
             return Some(same(f, p, " as requested"));
         }
-        let mut fallback = choose_scale(base, protic, None, site_has)?;
+        let mut fallback = choose_scale_uncached(base, protic, None, site_has)?;
         fallback.note = format!(
             "the requested {} scale has no value for {} or the sites; {}",
             f.name(),

@@ -24,14 +24,16 @@ pub use catalogue::{
     catalogue, Base, BaseFamily, Catalogue, CatalogueError, CitedPka, Hazard, Nucleophilicity,
     ProticSolvent, Scale, BASES_FILE,
 };
-pub use cautions::{caution_for, Caution, DEFERRAL};
+pub use cautions::{
+    caution_for, short_caution_for, short_caution_for_reagent, Caution, DEFERRAL, SHORT_DEFERRAL,
+};
 pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
     EquilibriumOptions, Microsite, SiteFraction,
 };
 pub use features::{detect_features, patterns_all_parse, MoleculeFeatures, SiteFeatures};
 pub use recommend::{
-    advise, advise_with_features, Advice, AdviceError, AdviceOptions, Alternative, CountedProton,
-    Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection, Target, Temperature, Warning,
-    WarningKind,
+    advise, advise_with_features, commonness_penalty, Advice, AdviceError, AdviceOptions,
+    Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection,
+    Target, Temperature, Warning, WarningKind,
 };

@@ -4,9 +4,12 @@
 use super::catalogue::{
     catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
 };
-use super::cautions::{caution_for, caution_for_reagent, general_caution, Caution};
+use super::cautions::{
+    caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
+};
 use super::equilibrium::{
-    choose_scale, solve, AcidUnit, Equilibrium, EquilibriumInput, ScaleChoice,
+    choose_scale, exp10, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
+    EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use crate::mol::Molecule;
@@ -24,6 +27,13 @@ pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
 /// A base that reaches [`MIN_CONVERSION`] only within the uncertainty of the
 /// estimates must still reach this at the central values (accepted as marginal).
 pub const MIN_MARGINAL_CONVERSION: f64 = 0.5;
+/// A base rejected as too weak for a preformed anion that still gives at
+/// least this fraction at equilibrium is named as usable in practice when the
+/// electrophile drains the equilibrium.
+pub const DRAIN_FRACTION: f64 = 1e-2;
+/// Appended to such a rejection (common practice).
+pub const DRAIN_NOTE: &str =
+    "; used in practice when the alkylating agent drains the equilibrium (common practice)";
 /// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
 pub const MIN_CATALYTIC_FRACTION: f64 = 1e-7;
 /// Catalytic amount of base, equivalents (on top of counted protons).
@@ -347,6 +357,30 @@ fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
     }
 }
 
+/// Is `solvent` a protic medium: water or an alcohol, alone or in a mixture
+/// ("water/THF", "EtOH")?
+pub(crate) fn protic_medium(solvent: &str) -> bool {
+    solvent
+        .split(|c: char| !c.is_ascii_alphanumeric())
+        .any(|w| {
+            let w = w.to_ascii_lowercase();
+            matches!(
+                w.as_str(),
+                "water"
+                    | "h2o"
+                    | "meoh"
+                    | "etoh"
+                    | "iproh"
+                    | "tbuoh"
+                    | "methanol"
+                    | "ethanol"
+                    | "isopropanol"
+                    | "propanol"
+                    | "butanol"
+            )
+        })
+}
+
 fn alkoxy_of(base: &Base) -> Option<&'static str> {
     match base.conjugate_acid.as_str() {
         "CO" => Some("methyl"),
@@ -376,7 +410,12 @@ struct Eval<'a> {
     equivalents: f64,
     conversion: f64,
     criterion_conversion: f64,
-    equilibrium: Option<Equilibrium>,
+    /// The reported equilibrium, solved lean; built in full for the chosen base.
+    lean: Option<Lean>,
+    /// Notes of the reported equilibrium (set in the base's own solvent).
+    eq_notes: Vec<String>,
+    /// Sites whose protons are counted (left out of the equilibrium).
+    exclude: Vec<usize>,
     reasons: Vec<(RejectKind, String)>,
     notes: Vec<String>,
     score: f64,
@@ -393,6 +432,8 @@ struct Ctx<'a> {
     /// Acid units and their notes on the DMSO and water scales, built once.
     units_dmso: (Vec<AcidUnit>, Vec<String>),
     units_water: (Vec<AcidUnit>, Vec<String>),
+    /// Reused buffer of unit constants for the lean solver.
+    logk_buf: std::cell::RefCell<Vec<f64>>,
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -496,13 +537,144 @@ fn solve_with(
     .ok()
 }
 
-fn target_conversion(ctx: &Ctx, e: &Equilibrium) -> f64 {
-    e.sites
-        .iter()
-        .filter(|s| ctx.target_unit.contains(&s.site))
-        .map(|s| s.deprotonated)
-        .sum::<f64>()
-        .clamp(0.0, 1.0)
+/// A solved equilibrium kept as its parameters and log ratio: enough to
+/// judge a base without building the per-site breakdown; the full
+/// [`Equilibrium`] is built only for the base that is reported.
+#[derive(Debug, Clone, Copy)]
+struct Lean {
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    /// log10([B-]/[BH]) at equilibrium.
+    s: f64,
+}
+
+fn cached_units<'c>(ctx: &'c Ctx, scale: Scale) -> &'c (Vec<AcidUnit>, Vec<String>) {
+    match scale {
+        Scale::Water => &ctx.units_water,
+        _ => &ctx.units_dmso,
+    }
+}
+
+/// log10 of a unit's summed K over its microsites not in `exclude`
+/// (`-inf` when none is left).
+fn unit_logk(u: &AcidUnit, shift: f64, exclude: &[usize]) -> f64 {
+    log10_sum_exp10(
+        u.alternatives
+            .iter()
+            .filter(|m| !exclude.contains(&m.site))
+            .map(move |m| shift - m.pka),
+    )
+}
+
+/// The same equilibrium as [`solve_with`] without allocating per site:
+/// one buffer of unit constants, reused across calls.
+fn solve_lean(
+    ctx: &Ctx,
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    exclude: &[usize],
+) -> Option<Lean> {
+    if !(0.0..=1000.0).contains(&equivalents) || !base_pka.is_finite() || base_pka.abs() > 200.0 {
+        return None;
+    }
+    let c = ctx.opts.concentration;
+    let mut buf = ctx.logk_buf.borrow_mut();
+    buf.clear();
+    buf.extend(
+        cached_units(ctx, scale)
+            .0
+            .iter()
+            .map(|u| unit_logk(u, base_pka, exclude)),
+    );
+    let (s, _) = solve_log_ratio(&buf, c, equivalents * c, a0);
+    Some(Lean {
+        base_pka,
+        scale,
+        equivalents,
+        a0,
+        s,
+    })
+}
+
+/// Deprotonated fraction of every microsite of `l`, in the order of
+/// [`solve`]'s `sites`, passed to `visit(microsite, fraction)`; stops when
+/// `visit` returns true.
+fn lean_sites<'c>(
+    ctx: &'c Ctx,
+    l: &Lean,
+    exclude: &[usize],
+    only_target: bool,
+    mut visit: impl FnMut(&'c Microsite, f64) -> bool,
+) {
+    let b0 = l.equivalents * ctx.opts.concentration;
+    for u in &cached_units(ctx, l.scale).0 {
+        if only_target
+            && !u
+                .alternatives
+                .iter()
+                .any(|m| ctx.target_unit.contains(&m.site))
+        {
+            continue;
+        }
+        let lx = unit_logk(u, l.base_pka, exclude);
+        if lx == f64::NEG_INFINITY {
+            continue;
+        }
+        let f = if b0 == 0.0 {
+            0.0
+        } else {
+            let l2 = log10_sum_exp10(
+                u.alternatives
+                    .iter()
+                    .filter(|m| !exclude.contains(&m.site))
+                    .map(|m| l.base_pka - m.pka + l.s),
+            );
+            if l2 == f64::NEG_INFINITY {
+                0.0
+            } else {
+                1.0 / (1.0 + exp10(-l2))
+            }
+        };
+        for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
+            let share = exp10(l.base_pka - m.pka - lx);
+            if visit(m, (f * share).clamp(0.0, 1.0)) {
+                return;
+            }
+        }
+    }
+}
+
+fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
+    let mut total = 0.0;
+    lean_sites(ctx, l, exclude, true, |m, x| {
+        if ctx.target_unit.contains(&m.site) {
+            total += x;
+        }
+        false
+    });
+    total.clamp(0.0, 1.0)
+}
+
+/// The full equilibrium (every microsite, anion populations) of a base's
+/// reported lean solution.
+fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
+    let l = ev.lean?;
+    let mut scratch = Vec::new();
+    let mut e = solve_with(
+        ctx,
+        l.base_pka,
+        l.scale,
+        l.equivalents,
+        l.a0,
+        &ev.exclude,
+        &mut scratch,
+    )?;
+    e.notes = ev.eq_notes.clone();
+    Some(e)
 }
 
 fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
@@ -525,7 +697,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         equivalents: 0.0,
         conversion: 0.0,
         criterion_conversion: 0.0,
-        equilibrium: None,
+        lean: None,
+        eq_notes: Vec::new(),
+        exclude: Vec::new(),
         reasons: Vec::new(),
         notes: Vec::new(),
         score: 0.0,
@@ -551,11 +725,26 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         Scale::Water => t.pka_water.is_some(),
         Scale::Thf => false,
     };
-    // Criterion scale: consistent, DMSO first.
-    let Some(choice) = choose_scale(base, false, opts.scale, target_has) else {
+    // Criterion scale: consistent, DMSO first; but a hydroxide or alkoxide in
+    // a protic medium is levelled by it (its conjugate acid is water or an
+    // alcohol), so it is judged on the water scale, never through the DMSO
+    // value of water or the alcohol (issue 5).
+    let levelled = matches!(base.family, BaseFamily::Hydroxide | BaseFamily::Alkoxide)
+        && protic_medium(&solvent);
+    if levelled && opts.scale.is_none() && !target_has(Scale::Water) {
         ev.reasons.push((
             RejectKind::NoComparablePka,
-            "no pKa scale on which both this base and the target have values".into(),
+            format!(
+                "judged on the water scale in {solvent} (levelled by its conjugate acid); the target has no water-scale estimate"
+            ),
+        ));
+        side_reaction_checks(ctx.f, base, &mut ev.reasons);
+        return ev;
+    }
+    let Some(choice) = choose_scale(base, levelled, opts.scale, target_has) else {
+        ev.reasons.push((
+            RejectKind::NoComparablePka,
+            "no pKa scale shared with the target".into(),
         ));
         return ev;
     };
@@ -588,39 +777,30 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     }
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
-    let crit = solve_with(
-        ctx,
-        base_pka,
-        scale,
-        left(needed),
-        0.0,
-        &counted_sites,
-        &mut notes,
-    );
+    notes.extend(cached_units(ctx, scale).1.iter().cloned());
+    let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
     let crit_conv = crit
         .as_ref()
-        .map(|e| target_conversion(ctx, e))
+        .map(|e| lean_conversion(ctx, e, &counted_sites))
         .unwrap_or(0.0);
     ev.criterion_conversion = crit_conv;
     let reported = if opts.equivalents.is_some() {
-        let mut n_rep = Vec::new();
-        solve_with(
+        solve_lean(
             ctx,
             base_pka,
             scale,
             left(ev.equivalents),
             0.0,
             &counted_sites,
-            &mut n_rep,
         )
     } else {
-        crit.clone()
+        crit
     };
     ev.conversion = reported
         .as_ref()
-        .map(|e| target_conversion(ctx, e))
+        .map(|e| lean_conversion(ctx, e, &counted_sites))
         .unwrap_or(0.0);
-    ev.equilibrium = reported;
+    ev.lean = reported;
     let mut solvent_conv: Option<f64> = None;
     // In the base's own protic solvent: water scale, solvent counted.
     if let Some(p) = protic_solvent {
@@ -642,33 +822,18 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         }) = in_solvent
         {
             {
-                let mut n2 = Vec::new();
-                let at_needed = solve_with(
-                    ctx,
-                    bp2,
-                    sc2,
-                    left(needed),
-                    p.molar,
-                    &counted_sites,
-                    &mut n2,
-                );
-                solvent_conv = at_needed.as_ref().map(|e| target_conversion(ctx, e));
+                let at_needed = solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
+                solvent_conv = at_needed
+                    .as_ref()
+                    .map(|e| lean_conversion(ctx, e, &counted_sites));
                 let rep = if opts.equivalents.is_some() {
-                    solve_with(
-                        ctx,
-                        bp2,
-                        sc2,
-                        left(ev.equivalents),
-                        p.molar,
-                        &counted_sites,
-                        &mut n2,
-                    )
+                    solve_lean(ctx, bp2, sc2, left(ev.equivalents), p.molar, &counted_sites)
                 } else {
                     at_needed
                 };
-                if let Some(mut e2) = rep {
-                    let c2 = target_conversion(ctx, &e2);
-                    e2.notes = vec![
+                if let Some(e2) = rep {
+                    let c2 = lean_conversion(ctx, &e2, &counted_sites);
+                    ev.eq_notes = vec![
                         note2,
                         format!(
                             "{} counted at {} mol/L as the base's conjugate acid",
@@ -685,18 +850,18 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     ev.scale = Some(sc2);
                     ev.scale_note = format!(
                         "{} (criterion checked on {}: {:.1}%)",
-                        e2.notes[0],
+                        ev.eq_notes[0],
                         scale.name(),
                         100.0 * crit_conv
                     );
-                    ev.equilibrium = Some(e2);
+                    ev.lean = Some(e2);
                 }
             }
         }
     }
-    if let Some(e) = &ev.equilibrium {
+    if ev.lean.is_some() {
         for n in &notes {
-            if !e.notes.contains(n) {
+            if !ev.eq_notes.contains(n) {
                 ev.notes.push(n.clone());
             }
         }
@@ -710,23 +875,25 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
-            let mut weak_crit = crit_conv < MIN_CONVERSION;
+            // In its own solvent (NaOEt in EtOH) a levelled base is judged by
+            // the equilibrium with the solvent counted (below); elsewhere by
+            // the 99 % rule on the water scale.
+            let own_solvent_rule = levelled && solvent_conv.is_some();
+            let mut weak_crit = crit_conv < MIN_CONVERSION && !own_solvent_rule;
             if weak_crit {
                 // Within the combined uncertainty of the target estimate and
                 // any scale mismatch?
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
                 let mixed = mismatch > 0.0;
-                let mut n_opt = Vec::new();
-                let optimistic = solve_with(
+                let optimistic = solve_lean(
                     ctx,
                     base_pka + sigma,
                     scale,
                     left(needed),
                     0.0,
                     &counted_sites,
-                    &mut n_opt,
                 )
-                .map(|e| target_conversion(ctx, &e))
+                .map(|e| lean_conversion(ctx, &e, &counted_sites))
                 .unwrap_or(0.0);
                 if sigma > 0.0
                     && optimistic >= MIN_CONVERSION
@@ -745,20 +912,25 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             let acc_solvent = solvent_conv.unwrap_or(crit_conv);
             let weak_solvent = solvent_conv.is_some() && acc_solvent < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
-                let uncounted = crit.as_ref().and_then(|e| {
-                    e.sites.iter().find(|s| {
-                        !ctx.target_unit.contains(&s.site)
-                            && !ev.counted.iter().any(|c| c.site == s.site)
-                            && s.deprotonated > 0.01
-                    })
-                });
+                let mut uncounted: Option<(&[usize], f64)> = None;
+                if let Some(e) = &crit {
+                    lean_sites(ctx, e, &counted_sites, false, |m, x| {
+                        let hit = !ctx.target_unit.contains(&m.site)
+                            && !ev.counted.iter().any(|c| c.site == m.site)
+                            && x > 0.01;
+                        if hit {
+                            uncounted = Some((&m.atoms, m.pka));
+                        }
+                        hit
+                    });
+                }
                 match uncounted {
                     Some(u) if weak_crit => ev.reasons.push((
                         RejectKind::UncountedProton,
                         format!(
-                            "also removes the proton at atoms {:?} (pKa {:.1}), which the count did not include, and leaves the target at {}",
-                            u.atoms,
-                            u.pka,
+                            "also takes the uncounted proton at atoms {:?} (pKa {:.1}); target only {}",
+                            u.0,
+                            u.1,
                             conv_text(crit_conv)
                         ),
                     )),
@@ -768,13 +940,14 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         } else {
                             (crit_conv, format!("on the {} scale", scale.name()))
                         };
-                        ev.reasons.push((
-                            RejectKind::TooWeak,
-                            format!(
-                                "too weak: conjugate-acid pKa {:.1} against target {:.1}; {} of the target deprotonated at equilibrium {} with {:.2} equiv",
-                                base_pka, t_pka, conv_text(conv), where_, needed
-                            ),
-                        ));
+                        let mut reason = format!(
+                            "too weak: pKa {:.1} vs target {:.1}, {} at equilibrium {}",
+                            base_pka, t_pka, conv_text(conv), where_
+                        );
+                        if conv >= DRAIN_FRACTION && t.is_carbon() {
+                            reason.push_str(DRAIN_NOTE);
+                        }
+                        ev.reasons.push((RejectKind::TooWeak, reason));
                     }
                 }
             } else if solvent_conv.is_some() && acc_solvent < MIN_CONVERSION {
@@ -814,6 +987,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
         }
     }
+    ev.exclude = counted_sites;
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
     ev.score = score(ctx, &ev, base_pka - t_pka);
     ev
@@ -919,11 +1093,48 @@ fn side_reaction_checks(
     }
 }
 
+/// How common, cheap and easy to source a base is, as a ranking penalty
+/// (common practice): 0 for the everyday bases of a process laboratory
+/// (carbonates, hydroxides, the simple alkoxides, tertiary amines,
+/// piperidine, DBU, NaH, LDA, n-BuLi, NaOAc), 0.5 for the silylamides
+/// bought as solutions and caesium carbonate, 1 for specialist reagents
+/// (KHMDS, LiTMP, KH, s-/t-BuLi, NaNH2, the other tert-butoxides, TMG, DMAP),
+/// 2.5 for costly metal-free superbases (phosphazenes).
+pub fn commonness_penalty(base: &Base) -> f64 {
+    let name = base.name.as_str();
+    match base.family {
+        BaseFamily::Phosphazene => 2.5,
+        BaseFamily::Silylamide if name == "KHMDS" => 1.0,
+        BaseFamily::Silylamide => 0.5,
+        BaseFamily::LithiumAmide if name == "LDA" => 0.0,
+        BaseFamily::Alkyllithium if name == "n-BuLi" => 0.0,
+        BaseFamily::Hydride if name == "NaH" => 0.0,
+        BaseFamily::LithiumAmide | BaseFamily::Alkyllithium | BaseFamily::Hydride => 1.0,
+        BaseFamily::MetalAmide | BaseFamily::Guanidine => 1.0,
+        BaseFamily::Alkoxide if matches!(name, "NaOEt" | "NaOMe" | "KOtBu") => 0.0,
+        BaseFamily::Alkoxide => 1.0,
+        BaseFamily::Carbonate if name == "Cs2CO3" => 0.5,
+        BaseFamily::Pyridine if name == "DMAP" => 1.0,
+        _ => 0.0,
+    }
+}
+
+/// Ranking of acceptable bases, lower first: a chemist picks the mildest
+/// adequate, common and cheap base that meets the criteria. The score adds
+/// (1) [`commonness_penalty`]; (2) excess strength: 0.1 per pKa unit beyond
+/// 10 units more than needed (stronger than needed invites side reactions)
+/// and, for a stoichiometric use, 0.2 per unit short of a 3-unit margin;
+/// (3) handling hazards (pyrophoric 3, hydrogen evolution 0.4, cryogenic 0.4,
+/// toxic 0.3); (4) the chemistry: marginal acceptance 2.5, no equilibrium
+/// check in the base's own solvent 1, weakly nucleophilic base beside a
+/// carbonyl or nitrile 0.7, a base that enolises a simple carbonyl compound
+/// slowly or reversibly 2 (LDA -0.5 there), the alkoxide matching an ester
+/// -0.8, carbonates and hydrides (heterogeneous) 0.3.
 fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let b = ev.base;
     let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
-    let mut s = 0.0;
+    let mut s = commonness_penalty(b);
     if ev.marginal {
         s += 2.5;
     }
@@ -931,7 +1142,7 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         s += 1.0;
     }
     // Stronger than needed invites side reactions; keep a sensible margin.
-    s += 0.1 * (margin - 8.0).max(0.0);
+    s += 0.1 * (margin - 10.0).max(0.0);
     match ctx.opts.purpose {
         Purpose::Stoichiometric => s += 0.2 * (3.0 - margin).max(0.0),
         // A catalyst need not convert the substrate: prefer the mildest.
@@ -977,10 +1188,6 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
             .unwrap_or(false)
     {
         s -= 0.8;
-    }
-    if b.family == BaseFamily::Phosphazene {
-        // Costly; kept for metal-free needs.
-        s += 1.0;
     }
     if ctx.opts.purpose == Purpose::Catalytic && b.family.is_neutral() {
         // Amines and amidines are the usual catalytic bases; pyridines are
@@ -1077,6 +1284,7 @@ pub fn advise_with_features(
         target_unit,
         units_dmso: cache(Scale::Dmso),
         units_water: cache(Scale::Water),
+        logk_buf: std::cell::RefCell::new(Vec::new()),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
@@ -1129,7 +1337,17 @@ pub fn advise_with_features(
             .iter()
             .filter(|r| r.kinds.contains(&RejectKind::UncountedProton))
             .count();
-        let message = if competing * 2 >= rejected.len().max(1) {
+        // Among the bases strong enough to matter (not rejected only as too
+        // weak or without a comparable pKa), do most fail on a competitor?
+        let strong = rejected
+            .iter()
+            .filter(|r| {
+                r.kinds
+                    .iter()
+                    .any(|k| !matches!(k, RejectKind::TooWeak | RejectKind::NoComparablePka))
+            })
+            .count();
+        let message = if competing > 0 && competing * 2 >= strong.max(1) {
             "no catalogue base meets the criteria for this target: another site of about the same acidity competes for the base, so selective deprotonation is not expected; protect or differentiate that site, or plan for a mixture".to_string()
         } else {
             "no catalogue base meets the criteria for this target; see the rejections".to_string()
@@ -1214,14 +1432,10 @@ pub fn advise_with_features(
     if let Some(e) = chosen {
         push(caution_for(e.base, Some(&e.solvent)));
     }
-    for e in accepted
-        .iter()
-        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
-    {
-        push(caution_for(e.base, Some(&e.solvent)));
-    }
+    // Full cautions for the reagents of the kinetic and thermodynamic
+    // conditions, one line for each other acceptable base.
     if let Some(r) = &regio {
-        for name in ["LDA", "NaH", "KOtBu", "Et3N"] {
+        for name in ["LDA", "LiHMDS", "NaH", "KOtBu", "Et3N"] {
             if r.kinetic.base.contains(name) || r.thermodynamic.base.contains(name) {
                 if let Some(b) = cat.get(name) {
                     push(caution_for(b, None));
@@ -1235,6 +1449,12 @@ pub fn advise_with_features(
                 &["releases hydrogen chloride with moisture"],
             ));
         }
+    }
+    for e in accepted
+        .iter()
+        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
+    {
+        push(short_caution_for(e.base));
     }
     push(Some(general_caution()));
 
@@ -1256,7 +1476,7 @@ pub fn advise_with_features(
         equivalents,
         equivalents_note,
         conversion: chosen.map(|e| e.conversion),
-        equilibrium: chosen.and_then(|e| e.equilibrium.clone()),
+        equilibrium: chosen.and_then(|e| full_equilibrium(&ctx, e)),
         solvent: chosen.map(|e| e.solvent.clone()),
         temperature: chosen.map(|e| temperature(e.base)),
         scale: chosen.and_then(|e| e.scale),
@@ -1349,11 +1569,7 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
             add(WarningKind::IncompleteEquilibrium, msg);
         }
         if let (Some(sc), Some(t_pka)) = (e.scale, pka_on(t, e.scale.unwrap_or(Scale::Dmso))) {
-            let bp = e
-                .equilibrium
-                .as_ref()
-                .map(|q| q.base_pka)
-                .unwrap_or(f64::NAN);
+            let bp = e.lean.as_ref().map(|q| q.base_pka).unwrap_or(f64::NAN);
             let margin = bp - t_pka;
             if margin.is_finite()
                 && margin < 2.0 + 2.0 * t.uncertainty

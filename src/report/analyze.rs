@@ -4,7 +4,7 @@
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
     round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
-    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, SCHEMA,
+    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
 };
 use crate::advice::{advise, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
@@ -322,6 +322,12 @@ fn advice_record(
         Err(e) => return (None, Some(e.to_string())),
     };
     let range = |t: Temperature| [t.low_c, t.high_c];
+    let listed: Vec<String> = a
+        .alternatives
+        .iter()
+        .take(MAX_ALTERNATIVES)
+        .map(|x| x.base.clone())
+        .collect();
     let out = AdviceOut {
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
         target: a.target.atoms,
@@ -344,9 +350,11 @@ fn advice_record(
         temperature_range_c: a.temperature.map(range),
         scale: a.scale.map(|s| s.name().to_string()),
         scale_note: a.scale_note,
+        alternatives_omitted: a.alternatives.len().saturating_sub(MAX_ALTERNATIVES),
         alternatives: a
             .alternatives
             .into_iter()
+            .take(MAX_ALTERNATIVES)
             .map(|x| AlternativeOut {
                 base: x.base,
                 equivalents: round(x.equivalents, 0.01).unwrap_or(0.0),
@@ -383,7 +391,11 @@ fn advice_record(
         cautions: a
             .cautions
             .into_iter()
+            // A one-line caution belongs to an alternative; keep it only
+            // when that alternative is listed.
+            .filter(|c| c.full || listed.contains(&c.reagent))
             .map(|c| CautionOut {
+                full: c.full,
                 hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
                 reagent: c.reagent,
                 text: c.text,

@@ -12,7 +12,7 @@
 //!
 //! | key | type | meaning |
 //! |---|---|---|
-//! | `schema` | string | schema version, currently `"acidsite-record/1"` |
+//! | `schema` | string | schema version, currently `"acidsite-record/2"` |
 //! | `line` | integer | 1-based line number of the record in its input (for `scan`, the 1-based position of the argument) |
 //! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file) |
 //! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD) |
@@ -43,8 +43,12 @@
 use serde::ser::{SerializeMap, Serializer};
 use serde::{Deserialize, Serialize};
 
+/// Most alternatives listed in a record (`alternatives_omitted` counts
+/// the rest).
+pub const MAX_ALTERNATIVES: usize = 5;
+
 /// Version of the record schema, stamped into every record as `schema`.
-pub const SCHEMA: &str = "acidsite-record/1";
+pub const SCHEMA: &str = "acidsite-record/2";
 
 /// One output record (see the module documentation for the keys).
 #[derive(Debug, Clone, PartialEq, Serialize)]
@@ -205,8 +209,12 @@ pub struct AdviceOut {
     pub scale: Option<String>,
     /// Why that scale, with the base's conjugate-acid pKa and its source.
     pub scale_note: String,
-    /// Other acceptable bases, best first.
+    /// Other acceptable bases, best first: at most
+    /// [`MAX_ALTERNATIVES`] (the mildest, most common ones).
     pub alternatives: Vec<AlternativeOut>,
+    /// How many further acceptable bases were left out of `alternatives`
+    /// (see `acidsite scan` or the library for all of them).
+    pub alternatives_omitted: usize,
     /// Bases ruled out, each with its reason.
     pub rejected: Vec<RejectedOut>,
     /// Chemistry warnings (side reactions, selectivity, proton counting).
@@ -229,8 +237,14 @@ pub struct CautionOut {
     /// Hazard codes: `pyrophoric`, `water-reactive`, `hydrogen-evolution`,
     /// `corrosive`, `toxic`, `cryogenic`, `flammable`, `irritant`.
     pub hazards: Vec<String>,
-    /// Full text, ending with the deferral.
+    /// Text ending with the deferral to local regulations, the safety data
+    /// sheet and qualified chemists: handling advice per hazard when `full`,
+    /// else one line of hazard words.
     pub text: String,
+    /// True for a full caution (the recommended base, the reagents of the
+    /// kinetic and thermodynamic conditions, the general caution); false for
+    /// the one-line caution of another named alternative.
+    pub full: bool,
 }
 
 /// A proton removed before the target.

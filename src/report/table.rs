@@ -264,6 +264,13 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                         "       ",
                     );
                 }
+                if a.alternatives_omitted > 0 {
+                    let _ = writeln!(
+                        o,
+                        "     + {} more acceptable base(s), less preferred (check with --base NAME)",
+                        a.alternatives_omitted
+                    );
+                }
             }
             if !a.rejected.is_empty() {
                 let _ = writeln!(o, "   ruled out");
