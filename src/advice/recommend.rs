@@ -12,6 +12,7 @@ use super::equilibrium::{
     EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
+use super::numfmt;
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
 use std::fmt;
@@ -769,15 +770,12 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     // together with the base they consume.
     let counted_sites: Vec<usize> = ev.counted.iter().map(|c| c.site).collect();
     let left = |eq: f64| (eq - n_counted as f64).max(0.0);
-    let mut notes = Vec::new();
-    if n_counted > 0 {
-        notes.push(format!(
-            "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
-        ));
-    }
+    // Notes of the equilibrium itself (counted protons, acid units): only an
+    // accepted base reports its notes, so they are added at the end, and
+    // only then.
+    let unit_notes: &[String] = &cached_units(ctx, scale).1;
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
-    notes.extend(cached_units(ctx, scale).1.iter().cloned());
     let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
     let crit_conv = crit
         .as_ref()
@@ -859,19 +857,16 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
         }
     }
-    if ev.lean.is_some() {
-        for n in &notes {
-            if !ev.eq_notes.contains(n) {
-                ev.notes.push(n.clone());
-            }
-        }
-    }
+    let notes_at = ev.lean.is_some().then_some(ev.notes.len());
     let conv_text = |c: f64| {
+        let mut s = String::with_capacity(8);
         if c < 1e-3 {
-            format!("{c:.1e}")
+            numfmt::push_exp1(&mut s, c);
         } else {
-            format!("{:.1}%", 100.0 * c)
+            numfmt::push_fixed1(&mut s, 100.0 * c);
+            s.push('%');
         }
+        s
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
@@ -928,9 +923,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     Some(u) if weak_crit => ev.reasons.push((
                         RejectKind::UncountedProton,
                         format!(
-                            "also takes the uncounted proton at atoms {:?} (pKa {:.1}); target only {}",
+                            "also takes the uncounted proton at atoms {:?} (pKa {}); target only {}",
                             u.0,
-                            u.1,
+                            numfmt::fixed1(u.1),
                             conv_text(crit_conv)
                         ),
                     )),
@@ -940,10 +935,15 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         } else {
                             (crit_conv, format!("on the {} scale", scale.name()))
                         };
-                        let mut reason = format!(
-                            "too weak: pKa {:.1} vs target {:.1}, {} at equilibrium {}",
-                            base_pka, t_pka, conv_text(conv), where_
-                        );
+                        let mut reason = String::with_capacity(96);
+                        reason.push_str("too weak: pKa ");
+                        numfmt::push_fixed1(&mut reason, base_pka);
+                        reason.push_str(" vs target ");
+                        numfmt::push_fixed1(&mut reason, t_pka);
+                        reason.push_str(", ");
+                        reason.push_str(&conv_text(conv));
+                        reason.push_str(" at equilibrium ");
+                        reason.push_str(&where_);
                         if conv >= DRAIN_FRACTION && t.is_carbon() {
                             reason.push_str(DRAIN_NOTE);
                         }
@@ -977,10 +977,10 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 ev.reasons.push((
                     RejectKind::TooWeak,
                     format!(
-                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {:.1} against {:.1}, {} scale)",
+                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {} against {}, {} scale)",
                         conv_text(acc),
-                        base_pka,
-                        t_pka,
+                        numfmt::fixed1(base_pka),
+                        numfmt::fixed1(t_pka),
                         scale.name()
                     ),
                 ));
@@ -989,6 +989,24 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     }
     ev.exclude = counted_sites;
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
+    if let (Some(at), true) = (notes_at, ev.reasons.is_empty()) {
+        let mut notes = Vec::with_capacity(unit_notes.len() + 1);
+        if n_counted > 0 {
+            let n = format!(
+                "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
+            );
+            if !ev.eq_notes.contains(&n) {
+                notes.push(n);
+            }
+        }
+        notes.extend(
+            unit_notes
+                .iter()
+                .filter(|n| !ev.eq_notes.contains(n))
+                .cloned(),
+        );
+        ev.notes.splice(at..at, notes);
+    }
     ev.score = score(ctx, &ev, base_pka - t_pka);
     ev
 }
