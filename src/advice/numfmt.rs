@@ -16,9 +16,24 @@ const TIE_GUARD: f64 = 1e-6;
 pub(crate) fn push_fixed1(out: &mut String, x: f64) {
     if x.is_finite() && x.is_sign_positive() && x < 1e6 {
         let y = x * 10.0;
-        let frac = y - y.floor();
-        if (frac - 0.5).abs() > TIE_GUARD {
-            let r = y.round() as u64;
+        let k = y.floor();
+        let frac = y - k;
+        // Near a tie, the sign of the exact x*10 - (k + 0.5) decides; a
+        // fused multiply-add rounds once, so it keeps that sign (zero only
+        // for an exact tie, left to the standard formatter).
+        let r = if (frac - 0.5).abs() > TIE_GUARD {
+            Some(y.round() as u64)
+        } else {
+            let d = x.mul_add(10.0, -(k + 0.5));
+            if d > 0.0 {
+                Some(k as u64 + 1)
+            } else if d < 0.0 {
+                Some(k as u64)
+            } else {
+                None
+            }
+        };
+        if let Some(r) = r {
             push_u64(out, r / 10);
             out.push('.');
             out.push((b'0' + (r % 10) as u8) as char);

@@ -435,6 +435,8 @@ struct Ctx<'a> {
     units_water: (Vec<AcidUnit>, Vec<String>),
     /// Reused buffer of unit constants for the lean solver.
     logk_buf: std::cell::RefCell<Vec<f64>>,
+    /// `carbonyl_class` of the target's class, computed once.
+    target_carbonyl: bool,
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -480,12 +482,15 @@ fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<Coun
             1
         };
         let reason = if more_acidic {
-            format!(
-                "more acidic than the target ({} pKa {:.1} vs {:.1})",
-                scale.name(),
-                cmp.map(|c| c.0).unwrap_or(f64::NAN),
-                cmp.map(|c| c.1).unwrap_or(f64::NAN)
-            )
+            let mut r = String::with_capacity(48);
+            r.push_str("more acidic than the target (");
+            r.push_str(scale.name());
+            r.push_str(" pKa ");
+            numfmt::push_fixed1(&mut r, cmp.map(|c| c.0).unwrap_or(f64::NAN));
+            r.push_str(" vs ");
+            numfmt::push_fixed1(&mut r, cmp.map(|c| c.1).unwrap_or(f64::NAN));
+            r.push(')');
+            r
         } else {
             format!(
                 "{}–H proton transfer is fast: {} bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)",
@@ -1150,7 +1155,6 @@ pub fn commonness_penalty(base: &Base) -> f64 {
 /// -0.8, carbonates and hydrides (heterogeneous) 0.3.
 fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let b = ev.base;
-    let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
     let mut s = commonness_penalty(b);
     if ev.marginal {
@@ -1188,7 +1192,7 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         .map(|x| x.dicarbonyl)
         .unwrap_or(false);
     let monocarbonyl =
-        carbonyl_class(&t.class) && !dicarbonyl && ctx.opts.purpose == Purpose::Stoichiometric;
+        ctx.target_carbonyl && !dicarbonyl && ctx.opts.purpose == Purpose::Stoichiometric;
     if monocarbonyl && !matches!(b.family, BaseFamily::LithiumAmide | BaseFamily::Silylamide) {
         // Self-condensation competes unless enolisation is fast and complete.
         s += 2.0;
@@ -1303,6 +1307,11 @@ pub fn advise_with_features(
         units_dmso: cache(Scale::Dmso),
         units_water: cache(Scale::Water),
         logk_buf: std::cell::RefCell::new(Vec::new()),
+        target_carbonyl: sites
+            .sites
+            .get(target)
+            .map(|t| carbonyl_class(&t.class))
+            .unwrap_or(false),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
