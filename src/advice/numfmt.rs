@@ -2,9 +2,8 @@
 //! `{:.1e}`), byte-identical to the standard formatter. The standard
 //! formatter is exact but slow (arbitrary-precision fallback); these write
 //! the digits from one rounded integer and fall back to the standard
-//! formatter whenever the value is negative, large, or within a hair of a
-//! rounding tie, where binary rounding of `x * 10` could pick the other
-//! digit.
+//! formatter whenever the value is negative or large; near a rounding tie
+//! the side is decided exactly with a fused multiply-add.
 
 use std::fmt::Write;
 
@@ -20,25 +19,30 @@ pub(crate) fn push_fixed1(out: &mut String, x: f64) {
         let frac = y - k;
         // Near a tie, the sign of the exact x*10 - (k + 0.5) decides; a
         // fused multiply-add rounds once, so it keeps that sign (zero only
-        // for an exact tie, left to the standard formatter).
+        // for an exact tie).
         let r = if (frac - 0.5).abs() > TIE_GUARD {
-            Some(y.round() as u64)
+            y.round() as u64
         } else {
             let d = x.mul_add(10.0, -(k + 0.5));
             if d > 0.0 {
-                Some(k as u64 + 1)
+                k as u64 + 1
             } else if d < 0.0 {
-                Some(k as u64)
+                k as u64
             } else {
-                None
+                // An exact tie: the standard formatter rounds half to even
+                // (the tests compare every value with it).
+                let k = k as u64;
+                if k % 2 == 0 {
+                    k
+                } else {
+                    k + 1
+                }
             }
         };
-        if let Some(r) = r {
-            push_u64(out, r / 10);
-            out.push('.');
-            out.push((b'0' + (r % 10) as u8) as char);
-            return;
-        }
+        push_u64(out, r / 10);
+        out.push('.');
+        out.push((b'0' + (r % 10) as u8) as char);
+        return;
     }
     let _ = write!(out, "{x:.1}");
 }
@@ -106,7 +110,9 @@ mod tests {
     #[test]
     fn push_fixed1_given_many_values_matches_std() {
         let mut s = 1u64;
-        let mut vals: Vec<f64> = vec![0.0, -0.0, 0.05, 0.25, 0.35, 26.35, 99.95, -3.25, 1e12];
+        let mut vals: Vec<f64> = vec![
+            0.0, -0.0, 0.05, 0.25, 0.35, 0.75, 26.25, 26.35, 26.75, 99.95, -3.25, 1e12,
+        ];
         for _ in 0..200_000 {
             vals.push(lcg(&mut s) * 120.0 - 20.0);
             vals.push((lcg(&mut s) * 1000.0).round() / 100.0);
