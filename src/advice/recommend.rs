@@ -437,6 +437,27 @@ struct Ctx<'a> {
     logk_buf: std::cell::RefCell<Vec<f64>>,
     /// `carbonyl_class` of the target's class, computed once.
     target_carbonyl: bool,
+    /// Lean solutions and target conversions already computed for this
+    /// molecule, keyed by the exact inputs (several catalogue bases share a
+    /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
+    lean_memo: std::cell::RefCell<Vec<(LeanKey, Option<Lean>, Option<f64>)>>,
+}
+
+type LeanKey = (u64, u8, u64, u64, Vec<usize>);
+
+fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64, exclude: &[usize]) -> LeanKey {
+    let sc = match scale {
+        Scale::Dmso => 0,
+        Scale::Water => 1,
+        Scale::Thf => 2,
+    };
+    (
+        base_pka.to_bits(),
+        sc,
+        equivalents.to_bits(),
+        a0.to_bits(),
+        exclude.to_vec(),
+    )
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -584,6 +605,23 @@ fn solve_lean(
     a0: f64,
     exclude: &[usize],
 ) -> Option<Lean> {
+    let key = lean_key(base_pka, scale, equivalents, a0, exclude);
+    if let Some(hit) = ctx.lean_memo.borrow().iter().find(|e| e.0 == key) {
+        return hit.1;
+    }
+    let l = solve_lean_uncached(ctx, base_pka, scale, equivalents, a0, exclude);
+    ctx.lean_memo.borrow_mut().push((key, l, None));
+    l
+}
+
+fn solve_lean_uncached(
+    ctx: &Ctx,
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    exclude: &[usize],
+) -> Option<Lean> {
     if !(0.0..=1000.0).contains(&equivalents) || !base_pka.is_finite() || base_pka.abs() > 200.0 {
         return None;
     }
@@ -655,6 +693,27 @@ fn lean_sites<'c>(
 }
 
 fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
+    let key = lean_key(l.base_pka, l.scale, l.equivalents, l.a0, exclude);
+    let pos = {
+        let memo = ctx.lean_memo.borrow();
+        let pos = memo
+            .iter()
+            .position(|e| e.0 == key && e.1.map(|m| m.s.to_bits()) == Some(l.s.to_bits()));
+        if let Some(c) = pos.and_then(|p| memo[p].2) {
+            return c;
+        }
+        pos
+    };
+    let c = lean_conversion_uncached(ctx, l, exclude);
+    if let Some(p) = pos {
+        if let Some(e) = ctx.lean_memo.borrow_mut().get_mut(p) {
+            e.2 = Some(c);
+        }
+    }
+    c
+}
+
+fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
     let mut total = 0.0;
     lean_sites(ctx, l, exclude, true, |m, x| {
         if ctx.target_unit.contains(&m.site) {
@@ -1312,6 +1371,7 @@ pub fn advise_with_features(
             .get(target)
             .map(|t| carbonyl_class(&t.class))
             .unwrap_or(false),
+        lean_memo: std::cell::RefCell::new(Vec::new()),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
