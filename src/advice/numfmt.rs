@@ -32,7 +32,7 @@ pub(crate) fn push_fixed1(out: &mut String, x: f64) {
                 // An exact tie: the standard formatter rounds half to even
                 // (the tests compare every value with it).
                 let k = k as u64;
-                if k % 2 == 0 {
+                if k.is_multiple_of(2) {
                     k
                 } else {
                     k + 1

@@ -440,10 +440,12 @@ struct Ctx<'a> {
     /// Lean solutions and target conversions already computed for this
     /// molecule, keyed by the exact inputs (several catalogue bases share a
     /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
-    lean_memo: std::cell::RefCell<Vec<(LeanKey, Option<Lean>, Option<f64>)>>,
+    lean_memo: std::cell::RefCell<Vec<LeanMemo>>,
 }
 
 type LeanKey = (u64, u8, u64, u64, Vec<usize>);
+/// A memoised lean solution and, once asked for, its target conversion.
+type LeanMemo = (LeanKey, Option<Lean>, Option<f64>);
 
 fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64, exclude: &[usize]) -> LeanKey {
     let sc = match scale {
