@@ -18,6 +18,7 @@ mod catalogue;
 mod cautions;
 mod equilibrium;
 mod features;
+mod numfmt;
 mod recommend;
 
 pub use catalogue::{

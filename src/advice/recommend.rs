@@ -12,6 +12,7 @@ use super::equilibrium::{
     EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
+use super::numfmt;
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
 use std::fmt;
@@ -434,6 +435,31 @@ struct Ctx<'a> {
     units_water: (Vec<AcidUnit>, Vec<String>),
     /// Reused buffer of unit constants for the lean solver.
     logk_buf: std::cell::RefCell<Vec<f64>>,
+    /// `carbonyl_class` of the target's class, computed once.
+    target_carbonyl: bool,
+    /// Lean solutions and target conversions already computed for this
+    /// molecule, keyed by the exact inputs (several catalogue bases share a
+    /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
+    lean_memo: std::cell::RefCell<Vec<LeanMemo>>,
+}
+
+type LeanKey = (u64, u8, u64, u64, Vec<usize>);
+/// A memoised lean solution and, once asked for, its target conversion.
+type LeanMemo = (LeanKey, Option<Lean>, Option<f64>);
+
+fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64, exclude: &[usize]) -> LeanKey {
+    let sc = match scale {
+        Scale::Dmso => 0,
+        Scale::Water => 1,
+        Scale::Thf => 2,
+    };
+    (
+        base_pka.to_bits(),
+        sc,
+        equivalents.to_bits(),
+        a0.to_bits(),
+        exclude.to_vec(),
+    )
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -479,12 +505,15 @@ fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<Coun
             1
         };
         let reason = if more_acidic {
-            format!(
-                "more acidic than the target ({} pKa {:.1} vs {:.1})",
-                scale.name(),
-                cmp.map(|c| c.0).unwrap_or(f64::NAN),
-                cmp.map(|c| c.1).unwrap_or(f64::NAN)
-            )
+            let mut r = String::with_capacity(48);
+            r.push_str("more acidic than the target (");
+            r.push_str(scale.name());
+            r.push_str(" pKa ");
+            numfmt::push_fixed1(&mut r, cmp.map(|c| c.0).unwrap_or(f64::NAN));
+            r.push_str(" vs ");
+            numfmt::push_fixed1(&mut r, cmp.map(|c| c.1).unwrap_or(f64::NAN));
+            r.push(')');
+            r
         } else {
             format!(
                 "{}–H proton transfer is fast: {} bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)",
@@ -578,6 +607,23 @@ fn solve_lean(
     a0: f64,
     exclude: &[usize],
 ) -> Option<Lean> {
+    let key = lean_key(base_pka, scale, equivalents, a0, exclude);
+    if let Some(hit) = ctx.lean_memo.borrow().iter().find(|e| e.0 == key) {
+        return hit.1;
+    }
+    let l = solve_lean_uncached(ctx, base_pka, scale, equivalents, a0, exclude);
+    ctx.lean_memo.borrow_mut().push((key, l, None));
+    l
+}
+
+fn solve_lean_uncached(
+    ctx: &Ctx,
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    exclude: &[usize],
+) -> Option<Lean> {
     if !(0.0..=1000.0).contains(&equivalents) || !base_pka.is_finite() || base_pka.abs() > 200.0 {
         return None;
     }
@@ -649,6 +695,27 @@ fn lean_sites<'c>(
 }
 
 fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
+    let key = lean_key(l.base_pka, l.scale, l.equivalents, l.a0, exclude);
+    let pos = {
+        let memo = ctx.lean_memo.borrow();
+        let pos = memo
+            .iter()
+            .position(|e| e.0 == key && e.1.map(|m| m.s.to_bits()) == Some(l.s.to_bits()));
+        if let Some(c) = pos.and_then(|p| memo[p].2) {
+            return c;
+        }
+        pos
+    };
+    let c = lean_conversion_uncached(ctx, l, exclude);
+    if let Some(p) = pos {
+        if let Some(e) = ctx.lean_memo.borrow_mut().get_mut(p) {
+            e.2 = Some(c);
+        }
+    }
+    c
+}
+
+fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
     let mut total = 0.0;
     lean_sites(ctx, l, exclude, true, |m, x| {
         if ctx.target_unit.contains(&m.site) {
@@ -769,15 +836,12 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     // together with the base they consume.
     let counted_sites: Vec<usize> = ev.counted.iter().map(|c| c.site).collect();
     let left = |eq: f64| (eq - n_counted as f64).max(0.0);
-    let mut notes = Vec::new();
-    if n_counted > 0 {
-        notes.push(format!(
-            "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
-        ));
-    }
+    // Notes of the equilibrium itself (counted protons, acid units): only an
+    // accepted base reports its notes, so they are added at the end, and
+    // only then.
+    let unit_notes: &[String] = &cached_units(ctx, scale).1;
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
-    notes.extend(cached_units(ctx, scale).1.iter().cloned());
     let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
     let crit_conv = crit
         .as_ref()
@@ -859,19 +923,16 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
         }
     }
-    if ev.lean.is_some() {
-        for n in &notes {
-            if !ev.eq_notes.contains(n) {
-                ev.notes.push(n.clone());
-            }
-        }
-    }
+    let notes_at = ev.lean.is_some().then_some(ev.notes.len());
     let conv_text = |c: f64| {
+        let mut s = String::with_capacity(8);
         if c < 1e-3 {
-            format!("{c:.1e}")
+            numfmt::push_exp1(&mut s, c);
         } else {
-            format!("{:.1}%", 100.0 * c)
+            numfmt::push_fixed1(&mut s, 100.0 * c);
+            s.push('%');
         }
+        s
     };
     match opts.purpose {
         Purpose::Stoichiometric => {
@@ -928,9 +989,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     Some(u) if weak_crit => ev.reasons.push((
                         RejectKind::UncountedProton,
                         format!(
-                            "also takes the uncounted proton at atoms {:?} (pKa {:.1}); target only {}",
+                            "also takes the uncounted proton at atoms {:?} (pKa {}); target only {}",
                             u.0,
-                            u.1,
+                            numfmt::fixed1(u.1),
                             conv_text(crit_conv)
                         ),
                     )),
@@ -940,10 +1001,15 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         } else {
                             (crit_conv, format!("on the {} scale", scale.name()))
                         };
-                        let mut reason = format!(
-                            "too weak: pKa {:.1} vs target {:.1}, {} at equilibrium {}",
-                            base_pka, t_pka, conv_text(conv), where_
-                        );
+                        let mut reason = String::with_capacity(96);
+                        reason.push_str("too weak: pKa ");
+                        numfmt::push_fixed1(&mut reason, base_pka);
+                        reason.push_str(" vs target ");
+                        numfmt::push_fixed1(&mut reason, t_pka);
+                        reason.push_str(", ");
+                        reason.push_str(&conv_text(conv));
+                        reason.push_str(" at equilibrium ");
+                        reason.push_str(&where_);
                         if conv >= DRAIN_FRACTION && t.is_carbon() {
                             reason.push_str(DRAIN_NOTE);
                         }
@@ -977,10 +1043,10 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 ev.reasons.push((
                     RejectKind::TooWeak,
                     format!(
-                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {:.1} against {:.1}, {} scale)",
+                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {} against {}, {} scale)",
                         conv_text(acc),
-                        base_pka,
-                        t_pka,
+                        numfmt::fixed1(base_pka),
+                        numfmt::fixed1(t_pka),
                         scale.name()
                     ),
                 ));
@@ -989,6 +1055,24 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     }
     ev.exclude = counted_sites;
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
+    if let (Some(at), true) = (notes_at, ev.reasons.is_empty()) {
+        let mut notes = Vec::with_capacity(unit_notes.len() + 1);
+        if n_counted > 0 {
+            let n = format!(
+                "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
+            );
+            if !ev.eq_notes.contains(&n) {
+                notes.push(n);
+            }
+        }
+        notes.extend(
+            unit_notes
+                .iter()
+                .filter(|n| !ev.eq_notes.contains(n))
+                .cloned(),
+        );
+        ev.notes.splice(at..at, notes);
+    }
     ev.score = score(ctx, &ev, base_pka - t_pka);
     ev
 }
@@ -1132,7 +1216,6 @@ pub fn commonness_penalty(base: &Base) -> f64 {
 /// -0.8, carbonates and hydrides (heterogeneous) 0.3.
 fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let b = ev.base;
-    let t = &ctx.sites.sites[ctx.target];
     let f = ctx.f;
     let mut s = commonness_penalty(b);
     if ev.marginal {
@@ -1170,7 +1253,7 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         .map(|x| x.dicarbonyl)
         .unwrap_or(false);
     let monocarbonyl =
-        carbonyl_class(&t.class) && !dicarbonyl && ctx.opts.purpose == Purpose::Stoichiometric;
+        ctx.target_carbonyl && !dicarbonyl && ctx.opts.purpose == Purpose::Stoichiometric;
     if monocarbonyl && !matches!(b.family, BaseFamily::LithiumAmide | BaseFamily::Silylamide) {
         // Self-condensation competes unless enolisation is fast and complete.
         s += 2.0;
@@ -1285,6 +1368,12 @@ pub fn advise_with_features(
         units_dmso: cache(Scale::Dmso),
         units_water: cache(Scale::Water),
         logk_buf: std::cell::RefCell::new(Vec::new()),
+        target_carbonyl: sites
+            .sites
+            .get(target)
+            .map(|t| carbonyl_class(&t.class))
+            .unwrap_or(false),
+        lean_memo: std::cell::RefCell::new(Vec::new()),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
