@@ -3,27 +3,14 @@
 //! and stdin input, `.smi` ids, column choice. Issue 6.
 
 use std::io::Write;
-use std::process::{Command, Stdio};
-
-const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
+mod common;
 const DEMO: &str = concat!(
     env!("CARGO_MANIFEST_DIR"),
     "/corpus/demo/route-intermediates.csv"
 );
 
 fn run(args: &[&str], stdin: &[u8]) -> (Option<i32>, String, String) {
-    let mut child = Command::new(BIN)
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run acidsite");
-    let mut input = child.stdin.take().unwrap();
-    // The binary may exit (bad options) before reading stdin: a broken pipe here is expected.
-    let _ = input.write_all(stdin);
-    drop(input);
-    let out = child.wait_with_output().unwrap();
+    let out = common::run_binary(args, stdin);
     (
         out.status.code(),
         String::from_utf8(out.stdout).unwrap(),

@@ -1,27 +1,14 @@
 //! Exit codes of the real binary: 0 all records fine, 1 some failed, 2 fatal,
 //! and a closed stdout pipe ends quietly with 0 (issue 6).
 
-use std::io::{Read, Write};
+use std::io::Read;
 use std::process::{Command, Stdio};
 
-const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
+mod common;
+use common::BIN;
 
 fn run(args: &[&str], stdin: &[u8]) -> std::process::Output {
-    let mut child = Command::new(BIN)
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run acidsite");
-    let mut input = child.stdin.take().expect("stdin");
-    let data = stdin.to_vec();
-    let t = std::thread::spawn(move || {
-        let _ = input.write_all(&data);
-    });
-    let out = child.wait_with_output().expect("wait");
-    t.join().expect("writer");
-    out
+    common::run_binary(args, stdin)
 }
 
 fn temp_file(name: &str, content: &[u8]) -> std::path::PathBuf {
