@@ -152,12 +152,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         "\n   site (atoms)        class                              pKa   deprotonated"
     )?;
     for s in &eq.sites {
-        let atoms = s
-            .atoms
-            .iter()
-            .map(|a| a.to_string())
-            .collect::<Vec<_>>()
-            .join(",");
+        let atoms = acidsite::report::table::atom_list(&s.atoms);
         writeln!(
             out,
             "   {:<19} {:<33} {:>5.1}   {}",

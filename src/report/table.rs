@@ -73,15 +73,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
             .map(|s| {
                 [
                     format!("#{}", s.rank),
-                    format!(
-                        "{}{}",
-                        s.element,
-                        s.atoms
-                            .iter()
-                            .map(|a| a.to_string())
-                            .collect::<Vec<_>>()
-                            .join(",")
-                    ),
+                    format!("{}{}", s.element, atom_list(&s.atoms)),
                     format!("{}H", s.hydrogens),
                     s.class.clone(),
                     pka(s.pka_dmso),
@@ -150,12 +142,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
             let _ = writeln!(o, "   advice         none: {why}");
         }
         Some(a) => {
-            let target = a
-                .target
-                .iter()
-                .map(|t| t.to_string())
-                .collect::<Vec<_>>()
-                .join(",");
+            let target = atom_list(&a.target);
             let _ = writeln!(o, "   advice for atom {target}  ({})", a.target_note);
             match &a.base {
                 Some(b) => {
@@ -181,12 +168,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                 );
             }
             for c in &a.counted {
-                let atoms = c
-                    .atoms
-                    .iter()
-                    .map(|t| t.to_string())
-                    .collect::<Vec<_>>()
-                    .join(",");
+                let atoms = atom_list(&c.atoms);
                 wrap(
                     &mut o,
                     &format!(
@@ -222,12 +204,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                 let _ = writeln!(o, "   enolate side");
                 for (label, side) in [("kinetic", &r.kinetic), ("thermodynamic", &r.thermodynamic)]
                 {
-                    let fav = side
-                        .favours
-                        .iter()
-                        .map(|t| t.to_string())
-                        .collect::<Vec<_>>()
-                        .join(",");
+                    let fav = atom_list(&side.favours);
                     wrap(
                         &mut o,
                         &format!(
@@ -363,6 +340,15 @@ const WIDTH: usize = 100;
 
 /// Append `text` word-wrapped to [`WIDTH`], the first line after `first`,
 /// the others after `rest`.
+/// Comma-separated atom indices (`3,7`).
+pub fn atom_list(atoms: &[usize]) -> String {
+    atoms
+        .iter()
+        .map(|a| a.to_string())
+        .collect::<Vec<_>>()
+        .join(",")
+}
+
 fn wrap(o: &mut String, text: &str, first: &str, rest: &str) {
     let mut line = String::from(first);
     let mut empty = true;
