@@ -193,17 +193,29 @@ fn unit_fractions(units: &[AcidUnit], base_pka: f64, s: f64) -> Vec<f64> {
 /// `c`, base `b0` and initial conjugate acid `a0` (mol/L). Returns s and the
 /// iterations used; s = -inf when no base is present.
 ///
-/// Safeguarded Newton in log space: the residual h(s) = log10(B0 - D) -
-/// log10(A0 + D) - s is strictly decreasing, the bracket [-400, 400] always
-/// holds the root, a Newton step is taken when it stays inside the shrinking
-/// bracket and bisection otherwise, so it converges for any pKa difference.
+/// The condition is free base = r x conjugate acid, with r = 10^s, free base
+/// B0 - D and conjugate acid A0 + D (D: protons removed). The root is kept in
+/// a bracket (initially [-400, 400], which always holds it); a Newton step
+/// that leaves the bracket, or is more than half the step before the last,
+/// is replaced by bisection, so the method converges for any pKa difference. The Newton step comes from whichever form of the
+/// condition is nearly linear in s where the iterate is:
+/// - most base free (a weak base): h(s) = log10(B0 - D) - log10(A0 + D) - s;
+/// - most base consumed, near the root: g(s) = (B0 - D) - r (A0 + D), smooth
+///   where the free base runs to zero (h has a pole there, and Newton on h
+///   would only halve the distance each step);
+/// - far above the root (r (A0 + D) > B0): p(s) = log10(D + r (A0 + D)) -
+///   log10(B0), of slope near 1 there (g is exponential there).
+///
+/// All three vanish at the same root and share its sign. It stops when a
+/// Newton step is at most 1e-7 (the step is taken: the error left is of the
+/// order of its square) or the bracket has closed.
 pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f64, u32) {
     if b0 == 0.0 {
         return (f64::NEG_INFINITY, 0);
     }
     let ln10 = std::f64::consts::LN_10;
-    // h(s) and dh/ds.
-    let h = |s: f64| -> (f64, f64) {
+    // D and dD/ds at s.
+    let sums = |s: f64| -> (f64, f64) {
         let (mut d, mut dd) = (0.0, 0.0);
         for &a in unit_logk {
             if a == f64::NEG_INFINITY {
@@ -214,33 +226,29 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
             d += f;
             dd += ln10 * f * (1.0 - f);
         }
-        let (d, dd) = (c * d, c * dd);
-        let free = b0 - d;
-        if free <= 0.0 {
-            return (f64::NEG_INFINITY, f64::NAN);
-        }
-        let acid = a0 + d;
-        if acid <= 0.0 {
-            return (f64::INFINITY, f64::NAN);
-        }
-        let slope = -dd / (ln10 * free) - dd / (ln10 * acid) - 1.0;
-        ((free / acid).log10() - s, slope)
+        (c * d, c * dd)
     };
     let (mut lo, mut hi) = (S_LO, S_HI);
     let mut iterations = 0u32;
-    // Start from the closed-form solution for the strongest unit alone
-    // (exact for one unit), so Newton usually finishes in a few steps; the
-    // bracket keeps the method safe whatever the start.
+    // Start from the greedy titration (exact for one unit), so Newton
+    // usually finishes in one to three steps.
     let mut x = start_guess(unit_logk, c, b0, a0)
         .filter(|g| g.is_finite() && *g > lo && *g < hi)
         .unwrap_or(0.5 * (lo + hi));
+    // The last two steps taken (bisection test as in safeguarded Newton).
+    let (mut step_last, mut step_old) = (hi - lo, hi - lo);
     let s = loop {
         iterations += 1;
-        let (hx, slope) = h(x);
-        if hx == 0.0 {
+        let (d, dd) = sums(x);
+        let free = b0 - d;
+        let acid = a0 + d;
+        let r = exp10(x);
+        let ra = r * acid;
+        if free == ra {
             break x;
         }
-        if hx > 0.0 {
+        // The root lies above x exactly when free base exceeds r x acid.
+        if free > ra {
             lo = x;
         } else {
             hi = x;
@@ -248,16 +256,30 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
         if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
             break 0.5 * (lo + hi);
         }
-        let newton = if hx.is_finite() && slope.is_finite() && slope < 0.0 {
-            x - hx / slope
+        let newton = if free > 0.5 * b0 && acid > 0.0 {
+            let hx = (free / acid).log10() - x;
+            x - hx / (-dd / (ln10 * free) - dd / (ln10 * acid) - 1.0)
+        } else if ra <= b0 {
+            x - (free - ra) / (-dd - ln10 * ra - r * dd)
         } else {
-            f64::NAN
+            let px = ((d + ra) / b0).log10();
+            x - px * ln10 * (d + ra) / (dd + ln10 * ra + r * dd)
         };
-        let next = if newton > lo && newton < hi {
-            newton
+        // A Newton step this small is within rounding noise of the root
+        // (which may put it just outside the bracket): take it and stop.
+        if (newton - x).abs() <= 1e-7 {
+            break newton;
+        }
+        // Bisection when the Newton step leaves the bracket or is not at
+        // least halving the step before the last (no fast convergence: the
+        // iterates are cycling around an inflection).
+        let (next, step) = if newton > lo && newton < hi && (newton - x).abs() <= 0.5 * step_old {
+            (newton, (newton - x).abs())
         } else {
-            0.5 * (lo + hi)
+            (0.5 * (lo + hi), 0.5 * (hi - lo))
         };
+        step_old = step_last;
+        step_last = step;
         if (next - x).abs() <= 1e-14 * (1.0 + x.abs()) {
             break next;
         }
@@ -266,23 +288,58 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
     (s, iterations)
 }
 
-/// log10 r for the strongest unit alone: D solves
-/// (K-1) D^2 - (K (B0 + C) + A0) D + K B0 C = 0 (the smaller root, written
-/// in its cancellation-free form). None when K is out of a safe range.
+/// The greedy titration estimate of log10 r: units taken strongest first;
+/// while base is left for a whole unit and the unit would be mostly
+/// deprotonated by it, the unit counts as fully deprotonated, and the first
+/// other unit gets the exact one-unit solution with the base left over and
+/// the conjugate acid formed so far. Only a start: the solver brackets the
+/// root itself. None when no finite estimate exists.
 fn start_guess(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> Option<f64> {
-    let a = unit_logk.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
-    if !a.is_finite() || a.abs() > 100.0 {
+    // Few units: sort a small copy without allocating.
+    let mut buf = [f64::NEG_INFINITY; 16];
+    let n = unit_logk.len();
+    if n > buf.len() {
+        let strongest = unit_logk.iter().cloned().fold(f64::NEG_INFINITY, f64::max);
+        return one_unit_log_ratio(strongest, c, b0, a0);
+    }
+    buf[..n].copy_from_slice(unit_logk);
+    let units = &mut buf[..n];
+    units.sort_unstable_by(|a, b| b.total_cmp(a));
+    let (mut b, mut acid) = (b0, a0);
+    for &a in units.iter() {
+        if !a.is_finite() {
+            break;
+        }
+        let s1 = one_unit_log_ratio(a, c, b, acid)?;
+        if b > c && a + s1 > 0.0 {
+            b -= c;
+            acid += c;
+            continue;
+        }
+        return Some(s1);
+    }
+    // Every unit filled: the base left over against the acid formed.
+    (b > 0.0 && acid > 0.0).then(|| (b / acid).log10())
+}
+
+/// log10 r for one unit of log10 K = `a` alone: r = [B-]/[BH] solves
+/// K (A0 + C) r^2 + (A0 + K (C - B0)) r - B0 = 0, taken in the form of its
+/// positive root that avoids cancellation. None when K is out of a safe
+/// range or no base is present.
+fn one_unit_log_ratio(a: f64, c: f64, b0: f64, a0: f64) -> Option<f64> {
+    if !a.is_finite() || a.abs() > 100.0 || b0 <= 0.0 {
         return None;
     }
     let k = exp10(a);
-    let bq = k * (b0 + c) + a0;
-    let disc = bq * bq - 4.0 * (k - 1.0) * k * b0 * c;
-    if disc.is_nan() || disc < 0.0 {
-        return None;
-    }
-    let d = 2.0 * k * b0 * c / (bq + disc.sqrt());
-    let (free, acid) = (b0 - d, a0 + d);
-    (free > 0.0 && acid > 0.0).then(|| (free / acid).log10())
+    let qa = k * (a0 + c);
+    let p = a0 + k * (c - b0);
+    let root = (p * p + 4.0 * qa * b0).sqrt();
+    let r = if p >= 0.0 {
+        2.0 * b0 / (p + root)
+    } else {
+        (root - p) / (2.0 * qa)
+    };
+    (r.is_finite() && r > 0.0).then(|| r.log10())
 }
 
 /// Solve the equilibrium numerically.
