@@ -199,7 +199,11 @@ fn solve_given_hard_multi_unit_cases_converges_in_few_steps_issue_6() {
         let units = pkas.iter().enumerate().map(|(i, &p)| unit(i, p)).collect();
         let e = solve(&input(units, base, eq, 0.5, 0.0)).unwrap();
         assert!(e.iterations <= 12, "{pkas:?}: {} steps", e.iterations);
-        assert!(e.mass_balance_residual <= 1e-9, "{pkas:?}: {}", e.mass_balance_residual);
+        assert!(
+            e.mass_balance_residual <= 1e-9,
+            "{pkas:?}: {}",
+            e.mass_balance_residual
+        );
         // The reported ratio is the free base over the conjugate acid.
         let r = 10f64.powf(e.log_ratio);
         let rel = (r * e.conjugate_acid_molar - e.free_base_molar).abs() / e.free_base_molar;

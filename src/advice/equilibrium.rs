@@ -33,6 +33,7 @@ use super::features::{detect_features, site_units};
 use crate::mol::Molecule;
 use crate::sites::SiteReport;
 use std::fmt;
+use std::rc::Rc;
 
 /// One place a unit can lose its proton.
 #[derive(Debug, Clone, PartialEq)]
@@ -491,13 +492,14 @@ pub(crate) fn choose_scale(
     protic: bool,
     forced: Option<Scale>,
     site_has: impl Fn(Scale) -> bool,
-) -> Option<ScaleChoice> {
+) -> Option<Rc<ScaleChoice>> {
     // The choice depends only on the base, the flags and which scales the
     // sites have: cache it per thread so the note is formatted once per
-    // catalogue base rather than once per molecule.
+    // catalogue base rather than once per molecule, and shared (not copied)
+    // afterwards.
     type Key = (usize, bool, u8, bool, bool);
     thread_local! {
-        static CACHE: std::cell::RefCell<Vec<(Key, Option<ScaleChoice>)>> =
+        static CACHE: std::cell::RefCell<Vec<(Key, Option<Rc<ScaleChoice>>)>> =
             const { std::cell::RefCell::new(Vec::new()) };
     }
     let key: Key = (
@@ -512,26 +514,25 @@ pub(crate) fn choose_scale(
         site_has(Scale::Dmso),
         site_has(Scale::Water),
     );
-    // Only catalogue bases live at a fixed address for the whole run.
-    let cacheable = catalogue()
-        .map(|c| c.bases.as_ptr_range().contains(&(base as *const Base)))
-        .unwrap_or(false);
-    if cacheable {
-        if let Some(hit) = CACHE.with(|c| {
-            c.borrow()
-                .iter()
-                .find(|(k, _)| *k == key)
-                .map(|(_, v)| v.clone())
-        }) {
-            return hit;
-        }
+    if let Some(hit) = CACHE.with(|c| {
+        c.borrow()
+            .iter()
+            .find(|(k, _)| *k == key)
+            .map(|(_, v)| v.clone())
+    }) {
+        return hit;
     }
     let (has_dmso, has_water) = (key.3, key.4);
     let v = choose_scale_uncached(base, protic, forced, &|s| match s {
         Scale::Dmso => has_dmso,
         Scale::Water => has_water,
         Scale::Thf => site_has(Scale::Thf),
-    });
+    })
+    .map(Rc::new);
+    // Only catalogue bases live at a fixed address for the whole run.
+    let cacheable = catalogue()
+        .map(|c| c.bases.as_ptr_range().contains(&(base as *const Base)))
+        .unwrap_or(false);
     if cacheable {
         CACHE.with(|c| c.borrow_mut().push((key, v.clone())));
     }
@@ -655,7 +656,7 @@ pub(crate) fn solve_for_base(
     let choice = choose_scale(base, protic.is_some(), opts.scale, site_has)
         .ok_or_else(|| EquilibriumError::NoCommonScale(base.name.clone()))?;
     let (scale, base_pka) = (choice.site_scale, choice.base_pka);
-    notes.push(choice.note);
+    notes.push(choice.note.clone());
     if base.family.is_metal_base() && protic.is_none() {
         let pka = |x: &crate::sites::Site| match scale {
             Scale::Water => x.pka_water,

@@ -48,6 +48,7 @@ pub(crate) fn push_fixed1(out: &mut String, x: f64) {
 }
 
 /// `x` as `format!("{x:.1}")` would.
+#[cfg(test)]
 pub(crate) fn fixed1(x: f64) -> String {
     let mut s = String::with_capacity(8);
     push_fixed1(&mut s, x);
@@ -77,6 +78,11 @@ pub(crate) fn push_exp1(out: &mut String, x: f64) {
         }
     }
     let _ = write!(out, "{x:.1e}");
+}
+
+/// Appends `v` as `format!("{v}")` would.
+pub(crate) fn push_usize(out: &mut String, v: usize) {
+    push_u64(out, v as u64);
 }
 
 fn push_u64(out: &mut String, mut v: u64) {

@@ -2,7 +2,7 @@
 //! bases, rejections, warnings, regiochemistry and cautions.
 
 use super::catalogue::{
-    catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, Scale,
+    catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, ProticSolvent, Scale,
 };
 use super::cautions::{
     caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
@@ -15,7 +15,9 @@ use super::features::{detect_features, site_units, MoleculeFeatures};
 use super::numfmt;
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
+use std::borrow::Cow;
 use std::fmt;
+use std::rc::Rc;
 
 /// Practical excess added to the stoichiometric equivalents (titre of
 /// organometallic solutions, adventitious moisture).
@@ -404,10 +406,10 @@ fn carbonyl_class(class: &str) -> bool {
 /// Per-base evaluation.
 struct Eval<'a> {
     base: &'a Base,
-    solvent: String,
+    solvent: Cow<'a, str>,
     scale: Option<Scale>,
     scale_note: String,
-    counted: Vec<CountedProton>,
+    counted: Rc<Vec<CountedProton>>,
     equivalents: f64,
     conversion: f64,
     criterion_conversion: f64,
@@ -441,25 +443,63 @@ struct Ctx<'a> {
     /// molecule, keyed by the exact inputs (several catalogue bases share a
     /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
     lean_memo: std::cell::RefCell<Vec<LeanMemo>>,
+    /// The base asked for (`AdviceOptions::base`), reported even if rejected.
+    requested: Option<&'a Base>,
+    /// Counted protons already worked out for this molecule: they depend on
+    /// the scale, whether the base is a metal base, a protic solvent and the
+    /// counter-ion named in the reason, not on the base itself.
+    counted_memo: std::cell::RefCell<Vec<(CountedKey, Rc<Vec<CountedProton>>)>>,
 }
 
-type LeanKey = (u64, u8, u64, u64, Vec<usize>);
-/// A memoised lean solution and, once asked for, its target conversion.
-type LeanMemo = (LeanKey, Option<Lean>, Option<f64>);
+/// (scale, metal base, protic solvent, counter-ion).
+type CountedKey = (Scale, bool, bool, Option<String>);
 
-fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64, exclude: &[usize]) -> LeanKey {
+/// [`count_protons`], memoised per molecule.
+fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Rc<Vec<CountedProton>> {
+    let metal = base.family.is_metal_base();
+    let ion = base.counter_ion.as_deref();
+    if let Some((_, v)) = ctx
+        .counted_memo
+        .borrow()
+        .iter()
+        .find(|(k, _)| k.0 == scale && k.1 == metal && k.2 == protic && k.3.as_deref() == ion)
+    {
+        return v.clone();
+    }
+    let v = Rc::new(count_protons(ctx, base, scale, protic));
+    ctx.counted_memo
+        .borrow_mut()
+        .push(((scale, metal, protic, ion.map(str::to_string)), v.clone()));
+    v
+}
+
+/// Numeric part of a memo key: (base pKa, scale, equivalents, a0) as bits.
+type LeanKey = (u64, u8, u64, u64);
+
+/// A memoised lean solution and, once asked for, its target conversion,
+/// keyed by the exact inputs and the excluded sites.
+struct LeanMemo {
+    key: LeanKey,
+    exclude: Vec<usize>,
+    lean: Option<Lean>,
+    conversion: Option<f64>,
+}
+
+fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64) -> LeanKey {
     let sc = match scale {
         Scale::Dmso => 0,
         Scale::Water => 1,
         Scale::Thf => 2,
     };
-    (
-        base_pka.to_bits(),
-        sc,
-        equivalents.to_bits(),
-        a0.to_bits(),
-        exclude.to_vec(),
-    )
+    (base_pka.to_bits(), sc, equivalents.to_bits(), a0.to_bits())
+}
+
+/// Position of the memo entry for these inputs (no allocation).
+fn memo_position(ctx: &Ctx, key: LeanKey, exclude: &[usize]) -> Option<usize> {
+    ctx.lean_memo
+        .borrow()
+        .iter()
+        .position(|e| e.key == key && e.exclude == exclude)
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -607,12 +647,17 @@ fn solve_lean(
     a0: f64,
     exclude: &[usize],
 ) -> Option<Lean> {
-    let key = lean_key(base_pka, scale, equivalents, a0, exclude);
-    if let Some(hit) = ctx.lean_memo.borrow().iter().find(|e| e.0 == key) {
-        return hit.1;
+    let key = lean_key(base_pka, scale, equivalents, a0);
+    if let Some(p) = memo_position(ctx, key, exclude) {
+        return ctx.lean_memo.borrow()[p].lean;
     }
     let l = solve_lean_uncached(ctx, base_pka, scale, equivalents, a0, exclude);
-    ctx.lean_memo.borrow_mut().push((key, l, None));
+    ctx.lean_memo.borrow_mut().push(LeanMemo {
+        key,
+        exclude: exclude.to_vec(),
+        lean: l,
+        conversion: None,
+    });
     l
 }
 
@@ -695,21 +740,16 @@ fn lean_sites<'c>(
 }
 
 fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
-    let key = lean_key(l.base_pka, l.scale, l.equivalents, l.a0, exclude);
-    let pos = {
-        let memo = ctx.lean_memo.borrow();
-        let pos = memo
-            .iter()
-            .position(|e| e.0 == key && e.1.map(|m| m.s.to_bits()) == Some(l.s.to_bits()));
-        if let Some(c) = pos.and_then(|p| memo[p].2) {
-            return c;
-        }
-        pos
-    };
+    let key = lean_key(l.base_pka, l.scale, l.equivalents, l.a0);
+    let pos = memo_position(ctx, key, exclude)
+        .filter(|&p| ctx.lean_memo.borrow()[p].lean.map(|m| m.s.to_bits()) == Some(l.s.to_bits()));
+    if let Some(c) = pos.and_then(|p| ctx.lean_memo.borrow()[p].conversion) {
+        return c;
+    }
     let c = lean_conversion_uncached(ctx, l, exclude);
     if let Some(p) = pos {
         if let Some(e) = ctx.lean_memo.borrow_mut().get_mut(p) {
-            e.2 = Some(c);
+            e.conversion = Some(c);
         }
     }
     c
@@ -744,13 +784,32 @@ fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
     Some(e)
 }
 
+/// `c` as the advice prose writes a conversion: `{:.1e}` below 0.1 %, else
+/// a percentage with one decimal.
+fn push_conv_text(out: &mut String, c: f64) {
+    if c < 1e-3 {
+        numfmt::push_exp1(out, c);
+    } else {
+        numfmt::push_fixed1(out, 100.0 * c);
+        out.push('%');
+    }
+}
+
+/// What the equilibrium in the base's own protic solvent gave, kept to word
+/// the notes of a base that is reported.
+struct InSolvent<'b> {
+    solvent: &'b ProticSolvent,
+    choice: Rc<ScaleChoice>,
+    conversion: f64,
+}
+
 fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     let opts = ctx.opts;
     let t = &ctx.sites.sites[ctx.target];
-    let solvent = opts
-        .solvent
-        .clone()
-        .unwrap_or_else(|| base.usual_solvent().to_string());
+    let solvent: Cow<'a, str> = match &opts.solvent {
+        Some(s) => Cow::Owned(s.clone()),
+        None => Cow::Borrowed(base.usual_solvent()),
+    };
     let protic_solvent = base
         .acid_solvent
         .as_ref()
@@ -760,7 +819,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         solvent: solvent.clone(),
         scale: None,
         scale_note: String::new(),
-        counted: Vec::new(),
+        counted: Rc::default(),
         equivalents: 0.0,
         conversion: 0.0,
         criterion_conversion: 0.0,
@@ -773,20 +832,26 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         marginal: false,
         no_solvent_check: false,
     };
-    if let Some(sv) = &opts.solvent {
-        if !base
+    let requested = ctx
+        .requested
+        .map(|r| std::ptr::eq(r, base))
+        .unwrap_or(false);
+    // Notes are worded only for a base that is reported (accepted or
+    // requested); rejected bases report their reasons only.
+    let unusual_solvent = opts.solvent.as_ref().filter(|sv| {
+        !base
             .solvents
             .iter()
             .any(|x| x.eq_ignore_ascii_case(sv.trim()))
-        {
-            ev.notes.push(format!(
-                "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
-                sv,
-                base.name,
-                base.solvents.join(", ")
-            ));
-        }
-    }
+    });
+    let unusual_solvent_note = |sv: &str| {
+        format!(
+            "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
+            sv,
+            base.name,
+            base.solvents.join(", ")
+        )
+    };
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
         Scale::Water => t.pka_water.is_some(),
@@ -806,6 +871,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             ),
         ));
         side_reaction_checks(ctx.f, base, &mut ev.reasons);
+        if let Some(sv) = unusual_solvent.filter(|_| requested) {
+            ev.notes.push(unusual_solvent_note(sv));
+        }
         return ev;
     }
     let Some(choice) = choose_scale(base, levelled, opts.scale, target_has) else {
@@ -813,19 +881,27 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             RejectKind::NoComparablePka,
             "no pKa scale shared with the target".into(),
         ));
+        if let Some(sv) = unusual_solvent.filter(|_| requested) {
+            ev.notes.push(unusual_solvent_note(sv));
+        }
         return ev;
     };
     let (scale, base_pka, mismatch) = (choice.site_scale, choice.base_pka, choice.mismatch);
     ev.scale = Some(scale);
-    ev.scale_note = choice.note;
     let Some(t_pka) = pka_on(t, scale) else {
         ev.reasons.push((
             RejectKind::NoComparablePka,
             "the target has no value on this scale".into(),
         ));
+        if requested {
+            if let Some(sv) = unusual_solvent {
+                ev.notes.push(unusual_solvent_note(sv));
+            }
+            ev.scale_note = choice.note.clone();
+        }
         return ev;
     };
-    ev.counted = count_protons(ctx, base, scale, protic_solvent.is_some());
+    ev.counted = counted_for(ctx, base, scale, protic_solvent.is_some());
     let n_counted: usize = ev.counted.iter().map(|c| c.protons).sum();
     let needed = match opts.purpose {
         Purpose::Stoichiometric => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
@@ -836,10 +912,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     // together with the base they consume.
     let counted_sites: Vec<usize> = ev.counted.iter().map(|c| c.site).collect();
     let left = |eq: f64| (eq - n_counted as f64).max(0.0);
-    // Notes of the equilibrium itself (counted protons, acid units): only an
-    // accepted base reports its notes, so they are added at the end, and
-    // only then.
-    let unit_notes: &[String] = &cached_units(ctx, scale).1;
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
     let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
@@ -867,25 +939,18 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     ev.lean = reported;
     let mut solvent_conv: Option<f64> = None;
     // In the base's own protic solvent: water scale, solvent counted.
+    let mut no_water_in: Option<&ProticSolvent> = None;
+    let mut in_solvent_eq: Option<InSolvent> = None;
     if let Some(p) = protic_solvent {
         let in_solvent = choose_scale(base, true, None, target_has)
             .filter(|c| c.mismatch == 0.0 && c.site_scale == Scale::Water);
-        if in_solvent.is_none() {
-            ev.no_solvent_check = true;
-            ev.notes.push(format!(
-                "the target has no water-scale value, so the equilibrium in {} was not computed; the {} comparison overstates an alkoxide or hydroxide in its own solvent",
-                p.name,
-                scale.name()
-            ));
-        }
-        if let Some(ScaleChoice {
-            site_scale: sc2,
-            base_pka: bp2,
-            note: note2,
-            ..
-        }) = in_solvent
-        {
-            {
+        match in_solvent {
+            None => {
+                ev.no_solvent_check = true;
+                no_water_in = Some(p);
+            }
+            Some(c2) => {
+                let (sc2, bp2) = (c2.site_scale, c2.base_pka);
                 let at_needed = solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
                 solvent_conv = at_needed
                     .as_ref()
@@ -896,44 +961,23 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     at_needed
                 };
                 if let Some(e2) = rep {
-                    let c2 = lean_conversion(ctx, &e2, &counted_sites);
-                    ev.eq_notes = vec![
-                        note2,
-                        format!(
-                            "{} counted at {} mol/L as the base's conjugate acid",
-                            p.name, p.molar
-                        ),
-                    ];
-                    ev.notes.push(format!(
-                        "in {} ({} mol/L, water scale) {:.3}% of the target is deprotonated at equilibrium",
-                        p.name,
-                        p.molar,
-                        100.0 * c2
-                    ));
-                    ev.conversion = c2;
+                    let conv2 = lean_conversion(ctx, &e2, &counted_sites);
+                    ev.conversion = conv2;
                     ev.scale = Some(sc2);
-                    ev.scale_note = format!(
-                        "{} (criterion checked on {}: {:.1}%)",
-                        ev.eq_notes[0],
-                        scale.name(),
-                        100.0 * crit_conv
-                    );
                     ev.lean = Some(e2);
+                    in_solvent_eq = Some(InSolvent {
+                        solvent: p,
+                        choice: c2,
+                        conversion: conv2,
+                    });
                 }
             }
         }
     }
-    let notes_at = ev.lean.is_some().then_some(ev.notes.len());
-    let conv_text = |c: f64| {
-        let mut s = String::with_capacity(8);
-        if c < 1e-3 {
-            numfmt::push_exp1(&mut s, c);
-        } else {
-            numfmt::push_fixed1(&mut s, 100.0 * c);
-            s.push('%');
-        }
-        s
-    };
+    // Marginal acceptance (central and optimistic conversion, sigma, mixed
+    // scales) and the drained-equilibrium fraction, worded at the end.
+    let mut marginal_note: Option<(f64, f64, f64, bool)> = None;
+    let mut drained_note: Option<f64> = None;
     match opts.purpose {
         Purpose::Stoichiometric => {
             // In its own solvent (NaOEt in EtOH) a levelled base is judged by
@@ -943,31 +987,26 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             let mut weak_crit = crit_conv < MIN_CONVERSION && !own_solvent_rule;
             if weak_crit {
                 // Within the combined uncertainty of the target estimate and
-                // any scale mismatch?
+                // any scale mismatch? Solved only where it can matter: a base
+                // below the marginal floor at the central values is rejected
+                // anyway.
                 let sigma = (t.uncertainty.max(0.0).powi(2) + mismatch.powi(2)).sqrt();
-                let mixed = mismatch > 0.0;
-                let optimistic = solve_lean(
-                    ctx,
-                    base_pka + sigma,
-                    scale,
-                    left(needed),
-                    0.0,
-                    &counted_sites,
-                )
-                .map(|e| lean_conversion(ctx, &e, &counted_sites))
-                .unwrap_or(0.0);
-                if sigma > 0.0
-                    && optimistic >= MIN_CONVERSION
-                    && crit_conv >= MIN_MARGINAL_CONVERSION
-                {
-                    weak_crit = false;
-                    ev.marginal = true;
-                    ev.notes.push(format!(
-                        "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
-                        100.0 * crit_conv,
-                        100.0 * optimistic,
-                        if mixed { ", including the scale mismatch" } else { "" }
-                    ));
+                if sigma > 0.0 && crit_conv >= MIN_MARGINAL_CONVERSION {
+                    let optimistic = solve_lean(
+                        ctx,
+                        base_pka + sigma,
+                        scale,
+                        left(needed),
+                        0.0,
+                        &counted_sites,
+                    )
+                    .map(|e| lean_conversion(ctx, &e, &counted_sites))
+                    .unwrap_or(0.0);
+                    if optimistic >= MIN_CONVERSION {
+                        weak_crit = false;
+                        ev.marginal = true;
+                        marginal_note = Some((crit_conv, optimistic, sigma, mismatch > 0.0));
+                    }
                 }
             }
             let acc_solvent = solvent_conv.unwrap_or(crit_conv);
@@ -985,31 +1024,39 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         hit
                     });
                 }
+                let mut reason = String::with_capacity(112);
                 match uncounted {
-                    Some(u) if weak_crit => ev.reasons.push((
-                        RejectKind::UncountedProton,
-                        format!(
-                            "also takes the uncounted proton at atoms {:?} (pKa {}); target only {}",
-                            u.0,
-                            numfmt::fixed1(u.1),
-                            conv_text(crit_conv)
-                        ),
-                    )),
+                    Some(u) if weak_crit => {
+                        reason.push_str("also takes the uncounted proton at atoms [");
+                        for (k, a) in u.0.iter().enumerate() {
+                            if k > 0 {
+                                reason.push_str(", ");
+                            }
+                            numfmt::push_usize(&mut reason, *a);
+                        }
+                        reason.push_str("] (pKa ");
+                        numfmt::push_fixed1(&mut reason, u.1);
+                        reason.push_str("); target only ");
+                        push_conv_text(&mut reason, crit_conv);
+                        ev.reasons.push((RejectKind::UncountedProton, reason));
+                    }
                     _ => {
-                        let (conv, where_) = if weak_solvent {
-                            (acc_solvent, format!("in {}", ev.solvent))
-                        } else {
-                            (crit_conv, format!("on the {} scale", scale.name()))
-                        };
-                        let mut reason = String::with_capacity(96);
+                        let conv = if weak_solvent { acc_solvent } else { crit_conv };
                         reason.push_str("too weak: pKa ");
                         numfmt::push_fixed1(&mut reason, base_pka);
                         reason.push_str(" vs target ");
                         numfmt::push_fixed1(&mut reason, t_pka);
                         reason.push_str(", ");
-                        reason.push_str(&conv_text(conv));
+                        push_conv_text(&mut reason, conv);
                         reason.push_str(" at equilibrium ");
-                        reason.push_str(&where_);
+                        if weak_solvent {
+                            reason.push_str("in ");
+                            reason.push_str(&ev.solvent);
+                        } else {
+                            reason.push_str("on the ");
+                            reason.push_str(scale.name());
+                            reason.push_str(" scale");
+                        }
                         if conv >= DRAIN_FRACTION && t.is_carbon() {
                             reason.push_str(DRAIN_NOTE);
                         }
@@ -1017,11 +1064,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     }
                 }
             } else if solvent_conv.is_some() && acc_solvent < MIN_CONVERSION {
-                ev.notes.push(format!(
-                    "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
-                    ev.solvent,
-                    100.0 * acc_solvent
-                ));
+                drained_note = Some(acc_solvent);
             }
         }
         Purpose::Catalytic => {
@@ -1040,38 +1083,96 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
             let acc = solvent_conv.unwrap_or(crit_conv);
             if acc < MIN_CATALYTIC_FRACTION {
-                ev.reasons.push((
-                    RejectKind::TooWeak,
-                    format!(
-                        "too weak even for catalytic use: {} of the target as anion at equilibrium (pKa {} against {}, {} scale)",
-                        conv_text(acc),
-                        numfmt::fixed1(base_pka),
-                        numfmt::fixed1(t_pka),
-                        scale.name()
-                    ),
-                ));
+                let mut reason = String::with_capacity(112);
+                reason.push_str("too weak even for catalytic use: ");
+                push_conv_text(&mut reason, acc);
+                reason.push_str(" of the target as anion at equilibrium (pKa ");
+                numfmt::push_fixed1(&mut reason, base_pka);
+                reason.push_str(" against ");
+                numfmt::push_fixed1(&mut reason, t_pka);
+                reason.push_str(", ");
+                reason.push_str(scale.name());
+                reason.push_str(" scale)");
+                ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
     }
     ev.exclude = counted_sites;
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
-    if let (Some(at), true) = (notes_at, ev.reasons.is_empty()) {
-        let mut notes = Vec::with_capacity(unit_notes.len() + 1);
-        if n_counted > 0 {
-            let n = format!(
-                "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
-            );
-            if !ev.eq_notes.contains(&n) {
-                notes.push(n);
-            }
+    let accepted = ev.reasons.is_empty();
+    if accepted || requested {
+        // The notes, in their reported order: solvent, the equilibrium in
+        // the base's own solvent, the equilibrium's own notes (accepted
+        // bases only), then marginal acceptance and a drained equilibrium.
+        if let Some(sv) = unusual_solvent {
+            ev.notes.push(unusual_solvent_note(sv));
         }
-        notes.extend(
-            unit_notes
-                .iter()
-                .filter(|n| !ev.eq_notes.contains(n))
-                .cloned(),
-        );
-        ev.notes.splice(at..at, notes);
+        ev.scale_note = choice.note.clone();
+        if let Some(p) = no_water_in {
+            ev.notes.push(format!(
+                "the target has no water-scale value, so the equilibrium in {} was not computed; the {} comparison overstates an alkoxide or hydroxide in its own solvent",
+                p.name,
+                scale.name()
+            ));
+        }
+        if let Some(ins) = &in_solvent_eq {
+            let p = ins.solvent;
+            ev.eq_notes = vec![
+                ins.choice.note.clone(),
+                format!(
+                    "{} counted at {} mol/L as the base's conjugate acid",
+                    p.name, p.molar
+                ),
+            ];
+            ev.notes.push(format!(
+                "in {} ({} mol/L, water scale) {:.3}% of the target is deprotonated at equilibrium",
+                p.name,
+                p.molar,
+                100.0 * ins.conversion
+            ));
+            ev.scale_note = format!(
+                "{} (criterion checked on {}: {:.1}%)",
+                ins.choice.note,
+                scale.name(),
+                100.0 * crit_conv
+            );
+        }
+        let notes_at = ev.lean.is_some().then_some(ev.notes.len());
+        if let Some((central, optimistic, sigma, mixed)) = marginal_note {
+            ev.notes.push(format!(
+                "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
+                100.0 * central,
+                100.0 * optimistic,
+                if mixed { ", including the scale mismatch" } else { "" }
+            ));
+        }
+        if let Some(acc) = drained_note {
+            ev.notes.push(format!(
+                "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
+                ev.solvent,
+                100.0 * acc
+            ));
+        }
+        if let (Some(at), true) = (notes_at, accepted) {
+            // Notes of the equilibrium itself (counted protons, acid units).
+            let unit_notes: &[String] = &cached_units(ctx, scale).1;
+            let mut notes = Vec::with_capacity(unit_notes.len() + 1);
+            if n_counted > 0 {
+                let n = format!(
+                    "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
+                );
+                if !ev.eq_notes.contains(&n) {
+                    notes.push(n);
+                }
+            }
+            notes.extend(
+                unit_notes
+                    .iter()
+                    .filter(|n| !ev.eq_notes.contains(n))
+                    .cloned(),
+            );
+            ev.notes.splice(at..at, notes);
+        }
     }
     ev.score = score(ctx, &ev, base_pka - t_pka);
     ev
@@ -1374,6 +1475,8 @@ pub fn advise_with_features(
             .map(|t| carbonyl_class(&t.class))
             .unwrap_or(false),
         lean_memo: std::cell::RefCell::new(Vec::new()),
+        requested,
+        counted_memo: std::cell::RefCell::new(Vec::new()),
     };
     let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
@@ -1454,7 +1557,7 @@ pub fn advise_with_features(
             equivalents: e.equivalents,
             conversion: e.conversion,
             scale: e.scale.unwrap_or(Scale::Dmso),
-            solvent: e.solvent.clone(),
+            solvent: e.solvent.to_string(),
             temperature: temperature(e.base),
             note: e.notes.join("; "),
         })
@@ -1496,7 +1599,7 @@ pub fn advise_with_features(
                     });
                 }
             }
-            (e.counted.clone(), e.equivalents, note, cn)
+            (e.counted.to_vec(), e.equivalents, note, cn)
         }
         None => (Vec::new(), 0.0, "no base chosen".to_string(), None),
     };
@@ -1566,7 +1669,7 @@ pub fn advise_with_features(
         equivalents_note,
         conversion: chosen.map(|e| e.conversion),
         equilibrium: chosen.and_then(|e| full_equilibrium(&ctx, e)),
-        solvent: chosen.map(|e| e.solvent.clone()),
+        solvent: chosen.map(|e| e.solvent.to_string()),
         temperature: chosen.map(|e| temperature(e.base)),
         scale: chosen.and_then(|e| e.scale),
         scale_note: chosen.map(|e| e.scale_note.clone()).unwrap_or_default(),
