@@ -494,47 +494,58 @@ pub(crate) fn choose_scale(
     site_has: impl Fn(Scale) -> bool,
 ) -> Option<Rc<ScaleChoice>> {
     // The choice depends only on the base, the flags and which scales the
-    // sites have: cache it per thread so the note is formatted once per
-    // catalogue base rather than once per molecule, and shared (not copied)
-    // afterwards.
-    type Key = (usize, bool, u8, bool, bool);
+    // sites have: cache it per thread, one slot per catalogue base and
+    // combination of flags, so the note is formatted once per catalogue
+    // base rather than once per molecule, and shared (not copied) after.
+    const FLAGS: usize = 32;
     thread_local! {
-        static CACHE: std::cell::RefCell<Vec<(Key, Option<Rc<ScaleChoice>>)>> =
+        static CACHE: std::cell::RefCell<Vec<Option<Option<Rc<ScaleChoice>>>>> =
             const { std::cell::RefCell::new(Vec::new()) };
     }
-    let key: Key = (
-        base as *const Base as usize,
-        protic,
-        match forced {
+    let (has_dmso, has_water) = (site_has(Scale::Dmso), site_has(Scale::Water));
+    let flags = usize::from(protic)
+        | (match forced {
             None => 0,
             Some(Scale::Dmso) => 1,
             Some(Scale::Water) => 2,
             Some(Scale::Thf) => 3,
-        },
-        site_has(Scale::Dmso),
-        site_has(Scale::Water),
-    );
-    if let Some(hit) = CACHE.with(|c| {
-        c.borrow()
-            .iter()
-            .find(|(k, _)| *k == key)
-            .map(|(_, v)| v.clone())
-    }) {
-        return hit;
+        }) << 1
+        | usize::from(has_dmso) << 3
+        | usize::from(has_water) << 4;
+    // Only catalogue bases live at a fixed address for the whole run; the
+    // slot is the base's position in the catalogue.
+    let slot = catalogue().ok().and_then(|c| {
+        let i = c
+            .bases
+            .as_ptr_range()
+            .contains(&(base as *const Base))
+            .then(|| {
+                (base as *const Base as usize - c.bases.as_ptr() as usize)
+                    / std::mem::size_of::<Base>()
+            })?;
+        Some((i * FLAGS + flags, c.bases.len() * FLAGS))
+    });
+    if let Some((k, _)) = slot {
+        if let Some(Some(hit)) = CACHE.with(|c| c.borrow().get(k).cloned()) {
+            return hit;
+        }
     }
-    let (has_dmso, has_water) = (key.3, key.4);
     let v = choose_scale_uncached(base, protic, forced, &|s| match s {
         Scale::Dmso => has_dmso,
         Scale::Water => has_water,
         Scale::Thf => site_has(Scale::Thf),
     })
     .map(Rc::new);
-    // Only catalogue bases live at a fixed address for the whole run.
-    let cacheable = catalogue()
-        .map(|c| c.bases.as_ptr_range().contains(&(base as *const Base)))
-        .unwrap_or(false);
-    if cacheable {
-        CACHE.with(|c| c.borrow_mut().push((key, v.clone())));
+    if let Some((k, n)) = slot {
+        CACHE.with(|c| {
+            let mut c = c.borrow_mut();
+            if c.len() < n {
+                c.resize(n, None);
+            }
+            if let Some(e) = c.get_mut(k) {
+                *e = Some(v.clone());
+            }
+        });
     }
     v
 }

@@ -15,13 +15,21 @@ const TIE_GUARD: f64 = 1e-6;
 pub(crate) fn push_fixed1(out: &mut String, x: f64) {
     if x.is_finite() && x.is_sign_positive() && x < 1e6 {
         let y = x * 10.0;
-        let k = y.floor();
+        // Truncation is the floor here (0 <= y < 1e7, exact in f64), and
+        // cheaper than `floor`/`round`, which are library calls on baseline
+        // x86-64.
+        let ki = y as u64;
+        let k = ki as f64;
         let frac = y - k;
         // Near a tie, the sign of the exact x*10 - (k + 0.5) decides; a
         // fused multiply-add rounds once, so it keeps that sign (zero only
         // for an exact tie).
         let r = if (frac - 0.5).abs() > TIE_GUARD {
-            y.round() as u64
+            if frac > 0.5 {
+                ki + 1
+            } else {
+                ki
+            }
         } else {
             let d = x.mul_add(10.0, -(k + 0.5));
             if d > 0.0 {

@@ -366,21 +366,21 @@ pub(crate) fn protic_medium(solvent: &str) -> bool {
     solvent
         .split(|c: char| !c.is_ascii_alphanumeric())
         .any(|w| {
-            let w = w.to_ascii_lowercase();
-            matches!(
-                w.as_str(),
-                "water"
-                    | "h2o"
-                    | "meoh"
-                    | "etoh"
-                    | "iproh"
-                    | "tbuoh"
-                    | "methanol"
-                    | "ethanol"
-                    | "isopropanol"
-                    | "propanol"
-                    | "butanol"
-            )
+            [
+                "water",
+                "h2o",
+                "meoh",
+                "etoh",
+                "iproh",
+                "tbuoh",
+                "methanol",
+                "ethanol",
+                "isopropanol",
+                "propanol",
+                "butanol",
+            ]
+            .iter()
+            .any(|p| w.eq_ignore_ascii_case(p))
         })
 }
 
@@ -629,6 +629,14 @@ fn cached_units<'c>(ctx: &'c Ctx, scale: Scale) -> &'c (Vec<AcidUnit>, Vec<Strin
 /// log10 of a unit's summed K over its microsites not in `exclude`
 /// (`-inf` when none is left).
 fn unit_logk(u: &AcidUnit, shift: f64, exclude: &[usize]) -> f64 {
+    // Most units have one microsite: its own value (the sum is exact then).
+    if let [m] = u.alternatives.as_slice() {
+        return if exclude.contains(&m.site) {
+            f64::NEG_INFINITY
+        } else {
+            shift - m.pka
+        };
+    }
     log10_sum_exp10(
         u.alternatives
             .iter()
@@ -718,18 +726,30 @@ fn lean_sites<'c>(
         let f = if b0 == 0.0 {
             0.0
         } else {
-            let l2 = log10_sum_exp10(
-                u.alternatives
-                    .iter()
-                    .filter(|m| !exclude.contains(&m.site))
-                    .map(|m| l.base_pka - m.pka + l.s),
-            );
+            let l2 = if let [m] = u.alternatives.as_slice() {
+                // One microsite (not excluded: lx is finite).
+                l.base_pka - m.pka + l.s
+            } else {
+                log10_sum_exp10(
+                    u.alternatives
+                        .iter()
+                        .filter(|m| !exclude.contains(&m.site))
+                        .map(|m| l.base_pka - m.pka + l.s),
+                )
+            };
             if l2 == f64::NEG_INFINITY {
                 0.0
             } else {
                 1.0 / (1.0 + exp10(-l2))
             }
         };
+        if let [m] = u.alternatives.as_slice() {
+            // Its share of the unit is 1 (exactly: 10^0).
+            if visit(m, f.clamp(0.0, 1.0)) {
+                return;
+            }
+            continue;
+        }
         for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
             let share = exp10(l.base_pka - m.pka - lx);
             if visit(m, (f * share).clamp(0.0, 1.0)) {
