@@ -443,6 +443,10 @@ struct Ctx<'a> {
     /// molecule, keyed by the exact inputs (several catalogue bases share a
     /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
     lean_memo: std::cell::RefCell<Vec<LeanMemo>>,
+    /// Units (indices into `units_dmso` / `units_water`) holding a target
+    /// microsite.
+    target_units_dmso: Vec<usize>,
+    target_units_water: Vec<usize>,
     /// The base asked for (`AdviceOptions::base`), reported even if rejected.
     requested: Option<&'a Base>,
     /// Counted protons already worked out for this molecule: they depend on
@@ -476,13 +480,12 @@ fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Rc<Vec<Cou
 /// Numeric part of a memo key: (base pKa, scale, equivalents, a0) as bits.
 type LeanKey = (u64, u8, u64, u64);
 
-/// A memoised lean solution and, once asked for, its target conversion,
-/// keyed by the exact inputs and the excluded sites.
+/// A memoised lean solution and its target conversion, keyed by the exact
+/// inputs and the excluded sites.
 struct LeanMemo {
     key: LeanKey,
     exclude: Vec<usize>,
-    lean: Option<Lean>,
-    conversion: Option<f64>,
+    solution: Option<(Lean, f64)>,
 }
 
 fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64) -> LeanKey {
@@ -645,8 +648,9 @@ fn unit_logk(u: &AcidUnit, shift: f64, exclude: &[usize]) -> f64 {
     )
 }
 
-/// The same equilibrium as [`solve_with`] without allocating per site:
-/// one buffer of unit constants, reused across calls.
+/// The same equilibrium as [`solve_with`] without allocating per site (one
+/// buffer of unit constants, reused across calls), with the target's
+/// conversion; memoised per molecule (several catalogue bases share a pKa).
 fn solve_lean(
     ctx: &Ctx,
     base_pka: f64,
@@ -654,19 +658,19 @@ fn solve_lean(
     equivalents: f64,
     a0: f64,
     exclude: &[usize],
-) -> Option<Lean> {
+) -> Option<(Lean, f64)> {
     let key = lean_key(base_pka, scale, equivalents, a0);
     if let Some(p) = memo_position(ctx, key, exclude) {
-        return ctx.lean_memo.borrow()[p].lean;
+        return ctx.lean_memo.borrow()[p].solution;
     }
-    let l = solve_lean_uncached(ctx, base_pka, scale, equivalents, a0, exclude);
+    let solution = solve_lean_uncached(ctx, base_pka, scale, equivalents, a0, exclude)
+        .map(|l| (l, lean_conversion_uncached(ctx, &l, exclude)));
     ctx.lean_memo.borrow_mut().push(LeanMemo {
         key,
         exclude: exclude.to_vec(),
-        lean: l,
-        conversion: None,
+        solution,
     });
-    l
+    solution
 }
 
 fn solve_lean_uncached(
@@ -701,7 +705,7 @@ fn solve_lean_uncached(
 
 /// Deprotonated fraction of every microsite of `l`, in the order of
 /// [`solve`]'s `sites`, passed to `visit(microsite, fraction)`; stops when
-/// `visit` returns true.
+/// `visit` returns true. `only_target`: the units holding the target only.
 fn lean_sites<'c>(
     ctx: &'c Ctx,
     l: &Lean,
@@ -709,70 +713,72 @@ fn lean_sites<'c>(
     only_target: bool,
     mut visit: impl FnMut(&'c Microsite, f64) -> bool,
 ) {
-    let b0 = l.equivalents * ctx.opts.concentration;
-    for u in &cached_units(ctx, l.scale).0 {
-        if only_target
-            && !u
-                .alternatives
-                .iter()
-                .any(|m| ctx.target_unit.contains(&m.site))
-        {
-            continue;
-        }
-        let lx = unit_logk(u, l.base_pka, exclude);
-        if lx == f64::NEG_INFINITY {
-            continue;
-        }
-        let f = if b0 == 0.0 {
-            0.0
-        } else {
-            let l2 = if let [m] = u.alternatives.as_slice() {
-                // One microsite (not excluded: lx is finite).
-                l.base_pka - m.pka + l.s
-            } else {
-                log10_sum_exp10(
-                    u.alternatives
-                        .iter()
-                        .filter(|m| !exclude.contains(&m.site))
-                        .map(|m| l.base_pka - m.pka + l.s),
-                )
-            };
-            if l2 == f64::NEG_INFINITY {
-                0.0
-            } else {
-                1.0 / (1.0 + exp10(-l2))
-            }
+    let units = &cached_units(ctx, l.scale).0;
+    if only_target {
+        let tu = match l.scale {
+            Scale::Water => &ctx.target_units_water,
+            _ => &ctx.target_units_dmso,
         };
-        if let [m] = u.alternatives.as_slice() {
-            // Its share of the unit is 1 (exactly: 10^0).
-            if visit(m, f.clamp(0.0, 1.0)) {
-                return;
+        for &i in tu {
+            if let Some(u) = units.get(i) {
+                if unit_sites(ctx, l, exclude, u, &mut visit) {
+                    return;
+                }
             }
-            continue;
         }
-        for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
-            let share = exp10(l.base_pka - m.pka - lx);
-            if visit(m, (f * share).clamp(0.0, 1.0)) {
+    } else {
+        for u in units {
+            if unit_sites(ctx, l, exclude, u, &mut visit) {
                 return;
             }
         }
     }
 }
 
-fn lean_conversion(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
-    let key = lean_key(l.base_pka, l.scale, l.equivalents, l.a0);
-    let pos = memo_position(ctx, key, exclude)
-        .filter(|&p| ctx.lean_memo.borrow()[p].lean.map(|m| m.s.to_bits()) == Some(l.s.to_bits()));
-    if let Some(c) = pos.and_then(|p| ctx.lean_memo.borrow()[p].conversion) {
-        return c;
+/// [`lean_sites`] for one unit; true when `visit` asked to stop.
+fn unit_sites<'c>(
+    ctx: &'c Ctx,
+    l: &Lean,
+    exclude: &[usize],
+    u: &'c AcidUnit,
+    visit: &mut impl FnMut(&'c Microsite, f64) -> bool,
+) -> bool {
+    let b0 = l.equivalents * ctx.opts.concentration;
+    let lx = unit_logk(u, l.base_pka, exclude);
+    if lx == f64::NEG_INFINITY {
+        return false;
     }
-    let c = lean_conversion_uncached(ctx, l, exclude);
-    if let Some(p) = pos {
-        if let Some(e) = ctx.lean_memo.borrow_mut().get_mut(p) {
-            e.conversion = Some(c);
+    let f = if b0 == 0.0 {
+        0.0
+    } else {
+        let l2 = if let [m] = u.alternatives.as_slice() {
+            // One microsite (not excluded: lx is finite).
+            l.base_pka - m.pka + l.s
+        } else {
+            log10_sum_exp10(
+                u.alternatives
+                    .iter()
+                    .filter(|m| !exclude.contains(&m.site))
+                    .map(|m| l.base_pka - m.pka + l.s),
+            )
+        };
+        if l2 == f64::NEG_INFINITY {
+            0.0
+        } else {
+            1.0 / (1.0 + exp10(-l2))
+        }
+    };
+    if let [m] = u.alternatives.as_slice() {
+        // Its share of the unit is 1 (exactly: 10^0).
+        return visit(m, f.clamp(0.0, 1.0));
+    }
+    for m in u.alternatives.iter().filter(|m| !exclude.contains(&m.site)) {
+        let share = exp10(l.base_pka - m.pka - lx);
+        if visit(m, (f * share).clamp(0.0, 1.0)) {
+            return true;
         }
     }
-    c
+    false
 }
 
 fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
@@ -935,10 +941,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
     let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
-    let crit_conv = crit
-        .as_ref()
-        .map(|e| lean_conversion(ctx, e, &counted_sites))
-        .unwrap_or(0.0);
+    let crit_conv = crit.map(|e| e.1).unwrap_or(0.0);
     ev.criterion_conversion = crit_conv;
     let reported = if opts.equivalents.is_some() {
         solve_lean(
@@ -952,11 +955,8 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     } else {
         crit
     };
-    ev.conversion = reported
-        .as_ref()
-        .map(|e| lean_conversion(ctx, e, &counted_sites))
-        .unwrap_or(0.0);
-    ev.lean = reported;
+    ev.conversion = reported.map(|e| e.1).unwrap_or(0.0);
+    ev.lean = reported.map(|e| e.0);
     let mut solvent_conv: Option<f64> = None;
     // In the base's own protic solvent: water scale, solvent counted.
     let mut no_water_in: Option<&ProticSolvent> = None;
@@ -972,16 +972,13 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             Some(c2) => {
                 let (sc2, bp2) = (c2.site_scale, c2.base_pka);
                 let at_needed = solve_lean(ctx, bp2, sc2, left(needed), p.molar, &counted_sites);
-                solvent_conv = at_needed
-                    .as_ref()
-                    .map(|e| lean_conversion(ctx, e, &counted_sites));
+                solvent_conv = at_needed.map(|e| e.1);
                 let rep = if opts.equivalents.is_some() {
                     solve_lean(ctx, bp2, sc2, left(ev.equivalents), p.molar, &counted_sites)
                 } else {
                     at_needed
                 };
-                if let Some(e2) = rep {
-                    let conv2 = lean_conversion(ctx, &e2, &counted_sites);
+                if let Some((e2, conv2)) = rep {
                     ev.conversion = conv2;
                     ev.scale = Some(sc2);
                     ev.lean = Some(e2);
@@ -1020,7 +1017,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         0.0,
                         &counted_sites,
                     )
-                    .map(|e| lean_conversion(ctx, &e, &counted_sites))
+                    .map(|e| e.1)
                     .unwrap_or(0.0);
                     if optimistic >= MIN_CONVERSION {
                         weak_crit = false;
@@ -1033,7 +1030,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             let weak_solvent = solvent_conv.is_some() && acc_solvent < MIN_IN_SOLVENT_CONVERSION;
             if weak_crit || weak_solvent {
                 let mut uncounted: Option<(&[usize], f64)> = None;
-                if let Some(e) = &crit {
+                if let Some((e, _)) = &crit {
                     lean_sites(ctx, e, &counted_sites, false, |m, x| {
                         let hit = !ctx.target_unit.contains(&m.site)
                             && !ev.counted.iter().any(|c| c.site == m.site)
@@ -1335,10 +1332,31 @@ pub fn commonness_penalty(base: &Base) -> f64 {
 /// carbonyl or nitrile 0.7, a base that enolises a simple carbonyl compound
 /// slowly or reversibly 2 (LDA -0.5 there), the alkoxide matching an ester
 /// -0.8, carbonates and hydrides (heterogeneous) 0.3.
+/// [`commonness_penalty`], worked out once per catalogue base.
+fn base_penalty(b: &Base) -> f64 {
+    static TABLE: std::sync::OnceLock<Vec<f64>> = std::sync::OnceLock::new();
+    let Ok(cat) = catalogue() else {
+        return commonness_penalty(b);
+    };
+    let table = TABLE.get_or_init(|| cat.bases.iter().map(commonness_penalty).collect());
+    catalogue_slot(cat, b)
+        .and_then(|i| table.get(i).copied())
+        .unwrap_or_else(|| commonness_penalty(b))
+}
+
+/// Position of `b` in the catalogue when it is a catalogue entry.
+fn catalogue_slot(cat: &super::catalogue::Catalogue, b: &Base) -> Option<usize> {
+    let p = b as *const Base;
+    cat.bases
+        .as_ptr_range()
+        .contains(&p)
+        .then(|| (p as usize - cat.bases.as_ptr() as usize) / std::mem::size_of::<Base>())
+}
+
 fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     let b = ev.base;
     let f = ctx.f;
-    let mut s = commonness_penalty(b);
+    let mut s = base_penalty(b);
     if ev.marginal {
         s += 2.5;
     }
@@ -1480,14 +1498,28 @@ pub fn advise_with_features(
         let units = site_units(sites, &f.site_unit, sc, &mut notes);
         (units, notes)
     };
+    let units_dmso = cache(Scale::Dmso);
+    let units_water = cache(Scale::Water);
+    let holding_target = |units: &[AcidUnit]| -> Vec<usize> {
+        units
+            .iter()
+            .enumerate()
+            .filter(|(_, u)| u.alternatives.iter().any(|m| target_unit.contains(&m.site)))
+            .map(|(i, _)| i)
+            .collect()
+    };
+    let target_units_dmso = holding_target(&units_dmso.0);
+    let target_units_water = holding_target(&units_water.0);
     let ctx = Ctx {
         f,
         sites,
         opts,
         target,
         target_unit,
-        units_dmso: cache(Scale::Dmso),
-        units_water: cache(Scale::Water),
+        units_dmso,
+        units_water,
+        target_units_dmso,
+        target_units_water,
         logk_buf: std::cell::RefCell::new(Vec::new()),
         target_carbonyl: sites
             .sites
