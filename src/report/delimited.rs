@@ -145,7 +145,7 @@ impl RowWriter {
                     f.push(num(s.pka_dmso));
                     f.push(num(s.pka_water));
                     f.push(num(Some(s.uncertainty)));
-                    f.push(s.regio.clone().unwrap_or_default());
+                    f.push(s.regio.unwrap_or_default().to_string());
                     f.push(error.clone());
                     out.push_str(&self.join(&f));
                 }
