@@ -79,7 +79,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     pka(s.pka_dmso),
                     pka(s.pka_water),
                     format!("±{:.1}", s.uncertainty),
-                    match s.regio.as_deref() {
+                    match s.regio {
                         Some("kinetic") => "kinetic side".to_string(),
                         Some("thermodynamic") => "thermodynamic side".to_string(),
                         Some(x) => x.to_string(),
