@@ -25,9 +25,7 @@ fn plain(s: &[u8]) -> bool {
     }
     let rest = blocks.remainder();
     if s.len() < 8 {
-        let mut pad = [b' '; 8];
-        pad[..rest.len()].copy_from_slice(rest);
-        return !word_has_bad(u64::from_le_bytes(pad));
+        return !word_has_bad(short_word(s));
     }
     let mut words = rest.chunks_exact(8);
     for w in &mut words {
@@ -39,6 +37,28 @@ fn plain(s: &[u8]) -> bool {
     }
     // The last word overlaps the bytes already checked.
     words.remainder().is_empty() || !word_has_bad(last_word(s))
+}
+
+/// The bytes of `s` (shorter than 8) as one word: two overlapping 4-byte
+/// loads from 4 bytes on, else the bytes one by one over spaces.
+fn short_word(s: &[u8]) -> u64 {
+    let n = s.len();
+    match (s.get(..4), s.get(n.saturating_sub(4)..)) {
+        (Some(head), Some(tail)) if n >= 4 => {
+            let mut a = [0u8; 4];
+            let mut b = [0u8; 4];
+            a.copy_from_slice(head);
+            b.copy_from_slice(tail);
+            u64::from(u32::from_le_bytes(a)) | u64::from(u32::from_le_bytes(b)) << 32
+        }
+        _ => {
+            let mut w = u64::from_le_bytes([b' '; 8]);
+            for (i, &b) in s.iter().enumerate().take(8) {
+                w = (w & !(0xff << (8 * i))) | u64::from(b) << (8 * i);
+            }
+            w
+        }
+    }
 }
 
 /// The last 8 bytes of `s` (at least 8 long) as a word.
@@ -66,6 +86,7 @@ fn word_has_bad(w: u64) -> bool {
 }
 
 /// Append `s` as a JSON string (quoted, escaped as `serde_json` does).
+#[inline]
 pub(crate) fn string(out: &mut Vec<u8>, s: &str) {
     if plain(s.as_bytes()) {
         out.reserve(s.len() + 2);
@@ -79,6 +100,7 @@ pub(crate) fn string(out: &mut Vec<u8>, s: &str) {
 }
 
 /// Append a JSON string or `null`.
+#[inline]
 pub(crate) fn opt_string(out: &mut Vec<u8>, s: Option<&str>) {
     match s {
         Some(s) => string(out, s),
@@ -88,6 +110,7 @@ pub(crate) fn opt_string(out: &mut Vec<u8>, s: Option<&str>) {
 
 /// Append a float as `serde_json` writes an `f64`: shortest round-trip
 /// decimal, `null` when not finite.
+#[inline]
 pub(crate) fn float(out: &mut Vec<u8>, x: f64) {
     if x.is_finite() {
         // Writing into a `Vec<u8>` cannot fail.
@@ -98,6 +121,7 @@ pub(crate) fn float(out: &mut Vec<u8>, x: f64) {
 }
 
 /// Append a float or `null`.
+#[inline]
 pub(crate) fn opt_float(out: &mut Vec<u8>, x: Option<f64>) {
     match x {
         Some(x) => float(out, x),
@@ -106,6 +130,7 @@ pub(crate) fn opt_float(out: &mut Vec<u8>, x: Option<f64>) {
 }
 
 /// Append an unsigned integer.
+#[inline]
 pub(crate) fn uint(out: &mut Vec<u8>, x: u64) {
     if x < 10 {
         out.push(b'0' + x as u8);
@@ -120,6 +145,7 @@ pub(crate) fn int(out: &mut Vec<u8>, x: i64) {
 }
 
 /// Append a boolean.
+#[inline]
 pub(crate) fn boolean(out: &mut Vec<u8>, b: bool) {
     out.extend_from_slice(if b { b"true" } else { b"false" });
 }
@@ -137,11 +163,13 @@ pub(crate) fn array<T>(out: &mut Vec<u8>, items: &[T], mut item: impl FnMut(&mut
 }
 
 /// Append an array of atom indices.
+#[inline]
 pub(crate) fn indices(out: &mut Vec<u8>, items: &[usize]) {
     array(out, items, |o, &a| uint(o, a as u64));
 }
 
 /// Append a `[low, high]` pair of floats.
+#[inline]
 pub(crate) fn pair(out: &mut Vec<u8>, p: &[f64; 2]) {
     out.push(b'[');
     float(out, p[0]);

@@ -303,7 +303,10 @@ impl SiteOut {
             o.push(b'}');
         });
         out.extend_from_slice(b",\"regio\":");
-        json::opt_string(out, self.regio);
+        match self.regio {
+            Some(r) => json::string(out, r),
+            None => out.extend_from_slice(b"null"),
+        }
         out.push(b'}');
     }
 }
@@ -400,7 +403,10 @@ impl AdviceOut {
             None => out.extend_from_slice(b"null"),
         }
         out.extend_from_slice(b",\"scale\":");
-        json::opt_string(out, self.scale);
+        match self.scale {
+            Some(s) => json::string(out, s),
+            None => out.extend_from_slice(b"null"),
+        }
         out.extend_from_slice(b",\"scale_note\":");
         json::string(out, &self.scale_note);
         out.extend_from_slice(b",\"alternatives\":");
