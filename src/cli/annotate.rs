@@ -218,7 +218,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<Batch> = Vec::new();
+        let mut pending: Vec<(Box<[u8]>, bool)> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -226,15 +226,17 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             let (analysed, io) = rayon::join(
                 || {
                     analysing
-                        .par_chunks(BATCH)
-                        .map(|b| render_batch(b, &ctx))
+                        .par_iter()
+                        .map(|l| render_record(l, &ctx))
                         .collect::<Vec<_>>()
                 },
                 || -> anyhow::Result<Vec<RawLine>> {
-                    for batch in &to_write {
-                        out.write_all(&batch.text)?;
-                        records += batch.records;
-                        failed += batch.failed;
+                    for (text, ok) in &to_write {
+                        out.write_all(text)?;
+                        records += 1;
+                        if !ok {
+                            failed += 1;
+                        }
                     }
                     if let Some(b) = &bar {
                         if !to_write.is_empty() {
@@ -324,39 +326,28 @@ fn split_fields(format: InputFormat, line: &str) -> Option<Vec<String>> {
     }
 }
 
-/// Records rendered by one worker task at a time: the output of up to
-/// [`BATCH`] consecutive input records in one buffer.
-const BATCH: usize = 32;
-
-/// The output text of consecutive records, in input order.
-struct Batch {
-    text: Vec<u8>,
-    records: u64,
-    failed: u64,
-}
-
 thread_local! {
-    /// Bytes of the last batch this worker rendered: the capacity to
-    /// reserve for the next one, so the buffer rarely grows by copying.
-    static LAST_BATCH_BYTES: std::cell::Cell<usize> = const { std::cell::Cell::new(0) };
+    /// Each worker's output buffer, reused for every record it renders (its
+    /// capacity settles at the largest record seen; see [`render_record`]).
+    static SCRATCH: std::cell::Cell<Vec<u8>> = const { std::cell::Cell::new(Vec::new()) };
 }
 
-/// Render consecutive raw lines into one buffer.
-fn render_batch(lines: &[RawLine], ctx: &Context_) -> Batch {
-    let hint = LAST_BATCH_BYTES.with(|c| c.get());
-    let mut text = Vec::with_capacity(hint + hint / 8 + 256);
-    let mut failed = 0u64;
-    for raw in lines {
-        if !process_guarded(raw, ctx, &mut text) {
-            failed += 1;
-        }
+/// A worker's buffer larger than this is freed rather than kept.
+const SCRATCH_KEEP: usize = 1 << 20;
+
+/// One raw line to its output text, rendered in the worker's reused buffer
+/// and copied out at its exact size, and whether it was analysed.
+fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool) {
+    // Taking the buffer out of the cell leaves an empty one behind, so a
+    // nested call (none today) would simply allocate its own.
+    let mut buf = SCRATCH.take();
+    buf.clear();
+    let ok = process_guarded(raw, ctx, &mut buf);
+    let text: Box<[u8]> = buf.as_slice().into();
+    if buf.capacity() <= SCRATCH_KEEP {
+        SCRATCH.set(buf);
     }
-    LAST_BATCH_BYTES.with(|c| c.set(text.len()));
-    Batch {
-        text,
-        records: lines.len() as u64,
-        failed,
-    }
+    (text, ok)
 }
 
 /// [`process`], turning a panic in the library into an error record so the
