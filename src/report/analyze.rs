@@ -251,7 +251,7 @@ fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
     };
     // The usual case: one component written without a dot. Its text is the
     // whole input and its formula that of the whole input.
-    if mol.component_count() == 1 && !smiles.contains('.') {
+    if mol.component_count() == 1 && mol.main_component() == 0 && !smiles.contains('.') {
         let all = mol.atoms.len();
         let n = smiles.chars().count();
         let one_piece = (0..all).all(|a| mol.component_of(a) == 0);
@@ -450,6 +450,45 @@ mod tests {
         assert_eq!(significant(7.1234567e-4), Some(7.12346e-4));
         assert_eq!(significant(1234567.0), Some(1234570.0));
         assert_eq!(significant(f64::NAN), None);
+    }
+
+    #[test]
+    fn dot_pieces_given_salts_brackets_and_non_ascii_text() {
+        // Character ranges, not byte ranges (the record's position rule).
+        assert_eq!(
+            dot_pieces("[Na+].\u{b5}CC(=O)[O-]"),
+            vec![(0..5, "[Na+]"), (6..17, "\u{b5}CC(=O)[O-]")]
+        );
+        assert_eq!(dot_pieces("C[.]C"), vec![(0..5, "C[.]C")]);
+        assert_eq!(dot_pieces("C."), vec![(0..1, "C"), (2..2, "")]);
+        assert_eq!(dot_pieces(""), vec![(0..0, "")]);
+    }
+
+    #[test]
+    fn molecule_facts_given_one_and_several_components() {
+        // Sodium acetate written both ways round; formulas by hand (common practice).
+        let one = Molecule::from_smiles("CC(=O)[O-]").unwrap();
+        let (f, c) = molecule_facts("CC(=O)[O-]", &one);
+        assert_eq!(f, "C2H3O2");
+        assert_eq!(c.len(), 1);
+        assert_eq!(
+            (c[0].role, c[0].smiles.as_str(), c[0].charge),
+            ("main", "CC(=O)[O-]", -1)
+        );
+        let salt = Molecule::from_smiles("[Na+].CC(=O)[O-]").unwrap();
+        let (f, c) = molecule_facts("[Na+].CC(=O)[O-]", &salt);
+        assert_eq!(f, "C2H3NaO2");
+        let got: Vec<_> = c
+            .iter()
+            .map(|c| (c.role, c.smiles.as_str(), c.formula.as_str(), c.charge))
+            .collect();
+        assert_eq!(
+            got,
+            vec![
+                ("main", "CC(=O)[O-]", "C2H3O2", -1),
+                ("counter_ion", "[Na+]", "Na", 1)
+            ]
+        );
     }
 
     #[test]
