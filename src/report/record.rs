@@ -6,6 +6,12 @@
 //! without changing the published schema. The schema is versioned by
 //! [`SCHEMA`]; a key is never renamed or removed without a new version.
 //!
+//! A record owns its text, moved in from the library's results rather than
+//! copied. [`Record::write_json`] writes it with a small hand-written writer
+//! that gives exactly the bytes `serde_json` gives for the same record
+//! through the derived `Serialize` implementations (which stay, for callers
+//! that want them and as the reference the tests compare against).
+//!
 //! # Keys
 //!
 //! Always present:
