@@ -81,8 +81,10 @@ struct BaseCautions {
 
 fn cached(base: &Base) -> Option<&'static BaseCautions> {
     static CELL: OnceLock<Vec<(String, BaseCautions)>> = OnceLock::new();
-    let all = CELL.get_or_init(|| match super::catalogue::catalogue() {
-        Ok(cat) => cat
+    let cat = super::catalogue::catalogue().ok();
+    // One entry per catalogue base, in catalogue order.
+    let all = CELL.get_or_init(|| match cat {
+        Some(cat) => cat
             .bases
             .iter()
             .map(|b| {
@@ -98,8 +100,15 @@ fn cached(base: &Base) -> Option<&'static BaseCautions> {
                 )
             })
             .collect(),
-        Err(_) => Vec::new(),
+        None => Vec::new(),
     });
+    // A base from the catalogue itself (the usual case) is found by its
+    // place there, without comparing names.
+    if let Some(i) = cat.and_then(|c| c.bases.iter().position(|b| std::ptr::eq(b, base))) {
+        if let Some((_, c)) = all.get(i) {
+            return Some(c);
+        }
+    }
     // A hand-built base that shares a catalogue name but not its data gets
     // its own text.
     all.iter()
@@ -108,11 +117,14 @@ fn cached(base: &Base) -> Option<&'static BaseCautions> {
 }
 
 fn dipolar_aprotic(solvent: Option<&str>) -> bool {
+    // Any-case substring test without building an upper-case copy.
+    let has = |s: &str, word: &str| {
+        s.as_bytes()
+            .windows(word.len())
+            .any(|w| w.eq_ignore_ascii_case(word.as_bytes()))
+    };
     solvent
-        .map(|s| {
-            let s = s.to_ascii_uppercase();
-            s.contains("DMF") || s.contains("DMSO") || s.contains("DMAC")
-        })
+        .map(|s| has(s, "DMF") || has(s, "DMSO") || has(s, "DMAC"))
         .unwrap_or(false)
 }
 
@@ -160,5 +172,41 @@ pub fn general_caution() -> Caution {
         text: format!(
             "Every base, solvent and additive named here, including alternatives and rejected bases, has its own hazards; deprotonations can be exothermic and quenches release heat and gas. {DEFERRAL}"
         ),
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::advice::catalogue::catalogue;
+
+    #[test]
+    fn caution_for_given_catalogue_base_and_hand_built_copies() {
+        // Sodium hydride in DMF: the runaway hazard (common practice).
+        let cat = catalogue().expect("catalogue");
+        let nah = cat.bases.iter().find(|b| b.name == "NaH").expect("NaH");
+        let from_catalogue = caution_for(nah, Some("dmf")).expect("caution");
+        assert!(from_catalogue.text.contains("self-accelerating"));
+        assert_eq!(caution_for(nah, Some("THF")), build_caution(nah, false));
+        // An equal copy made elsewhere gets the same text.
+        let copy = nah.clone();
+        assert_eq!(caution_for(&copy, Some("DMF")), Some(from_catalogue));
+        // A hand-built base with a catalogue name but other hazards gets its own.
+        let mut odd = nah.clone();
+        odd.hazards = vec![Hazard::Irritant];
+        let c = short_caution_for(&odd).expect("caution");
+        assert_eq!(c.hazards, vec![Hazard::Irritant]);
+        assert!(c.text.starts_with("NaH: irritant."), "{}", c.text);
+    }
+
+    #[test]
+    fn dipolar_aprotic_given_solvent_names_in_any_case() {
+        assert!(dipolar_aprotic(Some("DMF")));
+        assert!(dipolar_aprotic(Some("dry dmso")));
+        assert!(dipolar_aprotic(Some("DMAc/THF")));
+        assert!(dipolar_aprotic(Some("\u{b5}dMf")));
+        assert!(!dipolar_aprotic(Some("THF")));
+        assert!(!dipolar_aprotic(Some("DM")));
+        assert!(!dipolar_aprotic(None));
     }
 }

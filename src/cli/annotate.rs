@@ -4,7 +4,9 @@
 //! failures included. The input is streamed in chunks (at most `--chunk`
 //! lines or 16 MiB at a time); each chunk is analysed in parallel while the
 //! previous one is written in order and the next one is read, so at most three
-//! chunks are alive and memory stays bounded whatever the input size.
+//! chunks are alive and memory stays bounded whatever the input size. Workers
+//! render runs of consecutive records into one buffer each, which is written
+//! as it is (no per-record strings).
 
 use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
 use super::{parse_flag, Outcome, ScaleArg};
@@ -92,7 +94,6 @@ struct Context_ {
     id_col: Option<usize>,
     header: Vec<String>,
     opts: Options,
-    output: OutputFormat,
     rows: Option<RowWriter>,
 }
 
@@ -186,7 +187,6 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             flags: args.flags.clone(),
             sites_only: args.sites_only,
         },
-        output: args.format,
         rows,
     };
 
@@ -218,7 +218,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(String, bool)> = Vec::new();
+        let mut pending: Vec<(Box<[u8]>, bool)> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -227,12 +227,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 || {
                     analysing
                         .par_iter()
-                        .map(|l| process_guarded(l, &ctx))
+                        .map(|l| render_record(l, &ctx))
                         .collect::<Vec<_>>()
                 },
                 || -> anyhow::Result<Vec<RawLine>> {
                     for (text, ok) in &to_write {
-                        out.write_all(text.as_bytes())?;
+                        out.write_all(text)?;
                         records += 1;
                         if !ok {
                             failed += 1;
@@ -326,12 +326,40 @@ fn split_fields(format: InputFormat, line: &str) -> Option<Vec<String>> {
     }
 }
 
+thread_local! {
+    /// Each worker's output buffer, reused for every record it renders (its
+    /// capacity settles at the largest record seen; see [`render_record`]).
+    static SCRATCH: std::cell::Cell<Vec<u8>> = const { std::cell::Cell::new(Vec::new()) };
+}
+
+/// A worker's buffer larger than this is freed rather than kept.
+const SCRATCH_KEEP: usize = 1 << 20;
+
+/// One raw line to its output text, rendered in the worker's reused buffer
+/// and copied out at its exact size, and whether it was analysed.
+fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool) {
+    // Taking the buffer out of the cell leaves an empty one behind, so a
+    // nested call (none today) would simply allocate its own.
+    let mut buf = SCRATCH.take();
+    buf.clear();
+    let ok = process_guarded(raw, ctx, &mut buf);
+    let text: Box<[u8]> = buf.as_slice().into();
+    if buf.capacity() <= SCRATCH_KEEP {
+        SCRATCH.set(buf);
+    }
+    (text, ok)
+}
+
 /// [`process`], turning a panic in the library into an error record so the
-/// run keeps one output record per input record.
-fn process_guarded(raw: &RawLine, ctx: &Context_) -> (String, bool) {
-    match std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| process(raw, ctx))) {
-        Ok(r) => r,
+/// run keeps one output record per input record. Appends to `out` and
+/// returns whether the record was analysed.
+fn process_guarded(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>) -> bool {
+    let start = out.len();
+    match std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| process(raw, ctx, out))) {
+        Ok(ok) => ok,
         Err(p) => {
+            // Drop whatever the failed record had written.
+            out.truncate(start);
             let what = p
                 .downcast_ref::<&str>()
                 .map(|s| s.to_string())
@@ -349,27 +377,29 @@ fn process_guarded(raw: &RawLine, ctx: &Context_) -> (String, bool) {
                     position: None,
                 },
             );
-            (render(&rec, ctx), false)
+            render(&rec, ctx, out);
+            false
         }
     }
 }
 
-fn render(rec: &Record, ctx: &Context_) -> String {
-    match (&ctx.rows, ctx.output) {
-        (Some(w), _) => w.rows(rec),
-        (None, _) => {
-            let mut s = rec.to_json_line();
-            s.push('\n');
-            s
+/// Append the record's output text (a JSON line, or CSV/TSV rows) to `out`.
+fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
+    match &ctx.rows {
+        Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
+        None => {
+            rec.write_json(out);
+            out.push(b'\n');
         }
     }
 }
 
-/// One raw line to its output text and whether it was analysed.
-fn process(raw: &RawLine, ctx: &Context_) -> (String, bool) {
+/// One raw line to its output text (appended to `out`); returns whether it
+/// was analysed.
+fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>) -> bool {
     let rec = record_for(raw, ctx);
-    let ok = rec.ok;
-    (render(&rec, ctx), ok)
+    render(&rec, ctx, out);
+    rec.ok
 }
 
 fn record_for(raw: &RawLine, ctx: &Context_) -> Record {

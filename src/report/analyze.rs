@@ -147,12 +147,14 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
             },
         },
     );
-    let sites_out = site_records(&report);
     let (advice, advice_note) = if opts.sites_only {
         (None, Some("not requested (sites only)".to_string()))
     } else {
         advice_record(&mol, &report, opts)
     };
+    // The report is not needed after the advice: its strings move into the
+    // record.
+    let sites_out = site_records(report);
     let mapped = mapped_smiles(smiles, &mol, &sites_out);
     let flags = if opts.flags.is_empty() {
         None
@@ -174,7 +176,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         columns: None,
         formula: Some(formula),
         components: Some(components),
-        rule_set: Some(sites::rule_set_version().to_string()),
+        rule_set: Some(sites::rule_set_version()),
         sites: Some(sites_out),
         advice: Some(advice),
         advice_note,
@@ -185,39 +187,34 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
 }
 
 /// Sites as output records, in the library's ranking (rank 1 = most acidic).
-fn site_records(report: &SiteReport) -> Vec<SiteOut> {
-    let order: Vec<usize> = (0..report.sites.len()).collect();
-    order
+/// The report is consumed: its strings and atom lists move into the records.
+fn site_records(report: SiteReport) -> Vec<SiteOut> {
+    report
+        .sites
         .into_iter()
         .enumerate()
-        .map(|(rank, i)| {
-            let s = &report.sites[i];
-            SiteOut {
-                rank: rank as u32 + 1,
-                atoms: s.atoms.clone(),
-                element: s.element.clone(),
-                hydrogens: s.hydrogens,
-                class: s.class.clone(),
-                pka_dmso: s.pka_dmso.and_then(|x| round(x, 0.01)),
-                pka_water: s.pka_water.and_then(|x| round(x, 0.01)),
-                uncertainty: round(s.uncertainty, 0.01).unwrap_or(0.0),
-                rules: s
-                    .rules
-                    .iter()
-                    .map(|r| RuleOut {
-                        id: r.id.clone(),
-                        dmso: r.dmso.and_then(|x| round(x, 0.01)),
-                        water: r.water.and_then(|x| round(x, 0.01)),
-                    })
-                    .collect(),
-                regio: s.regio.map(|r| {
-                    match r {
-                        Regio::Kinetic => "kinetic",
-                        Regio::Thermodynamic => "thermodynamic",
-                    }
-                    .to_string()
-                }),
-            }
+        .map(|(rank, s)| SiteOut {
+            rank: rank as u32 + 1,
+            atoms: s.atoms,
+            element: s.element,
+            hydrogens: s.hydrogens,
+            class: s.class,
+            pka_dmso: s.pka_dmso.and_then(|x| round(x, 0.01)),
+            pka_water: s.pka_water.and_then(|x| round(x, 0.01)),
+            uncertainty: round(s.uncertainty, 0.01).unwrap_or(0.0),
+            rules: s
+                .rules
+                .into_iter()
+                .map(|r| RuleOut {
+                    id: r.id,
+                    dmso: r.dmso.and_then(|x| round(x, 0.01)),
+                    water: r.water.and_then(|x| round(x, 0.01)),
+                })
+                .collect(),
+            regio: s.regio.map(|r| match r {
+                Regio::Kinetic => "kinetic",
+                Regio::Thermodynamic => "thermodynamic",
+            }),
         })
         .collect()
 }
@@ -245,6 +242,29 @@ fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<Stri
 /// Formula of the whole input and its components (main component first, then
 /// the counter-ions in input order).
 fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
+    let formula = mol.formula();
+    let charge_of = |atoms: &mut dyn Iterator<Item = usize>| -> i32 {
+        atoms
+            .filter_map(|a| mol.atoms.get(a))
+            .map(|a| a.charge as i32)
+            .sum()
+    };
+    // The usual case: one component written without a dot. Its text is the
+    // whole input and its formula that of the whole input.
+    if mol.component_count() == 1 && mol.main_component() == 0 && !smiles.contains('.') {
+        let all = mol.atoms.len();
+        let n = smiles.chars().count();
+        let one_piece = (0..all).all(|a| mol.component_of(a) == 0);
+        if one_piece && mol.atoms.iter().any(|a| a.span.start < n) {
+            let component = ComponentOut {
+                role: "main",
+                smiles: smiles.to_string(),
+                formula: formula.clone(),
+                charge: charge_of(&mut (0..all)),
+            };
+            return (formula, vec![component]);
+        }
+    }
     let pieces = dot_pieces(smiles);
     let main = mol.main_component();
     let mut order: Vec<usize> = (0..mol.component_count()).collect();
@@ -254,53 +274,53 @@ fn molecule_facts(smiles: &str, mol: &Molecule) -> (String, Vec<ComponentOut>) {
         .map(|c| {
             let atoms = mol.component_atoms(c);
             // The text pieces whose first atom belongs to this component.
-            let text: Vec<&str> = pieces
-                .iter()
-                .filter(|(range, _)| {
-                    atoms
-                        .iter()
-                        .filter_map(|&a| mol.atoms.get(a))
-                        .any(|a| a.span.start >= range.start && a.span.start < range.end)
-                })
-                .map(|(_, t)| t.as_str())
-                .collect();
-            ComponentOut {
-                role: if c == main { "main" } else { "counter_ion" }.to_string(),
-                smiles: text.join("."),
-                formula: mol.formula_of_atoms(&atoms),
-                charge: atoms
+            let mut text = String::new();
+            let mut first = true;
+            for (range, t) in &pieces {
+                let inside = atoms
                     .iter()
                     .filter_map(|&a| mol.atoms.get(a))
-                    .map(|a| a.charge as i32)
-                    .sum(),
+                    .any(|a| a.span.start >= range.start && a.span.start < range.end);
+                if inside {
+                    if !first {
+                        text.push('.');
+                    }
+                    first = false;
+                    text.push_str(t);
+                }
+            }
+            ComponentOut {
+                role: if c == main { "main" } else { "counter_ion" },
+                smiles: text,
+                formula: mol.formula_of_atoms(&atoms),
+                charge: charge_of(&mut atoms.iter().copied()),
             }
         })
         .collect();
-    (mol.formula(), out)
+    (formula, out)
 }
 
 /// The input split at `.` outside brackets: (character range, text) of each piece.
-fn dot_pieces(smiles: &str) -> Vec<(std::ops::Range<usize>, String)> {
+fn dot_pieces(smiles: &str) -> Vec<(std::ops::Range<usize>, &str)> {
     let mut out = Vec::new();
-    let mut start = 0usize;
-    let mut cur = String::new();
+    let mut start = 0usize; // characters
+    let mut start_byte = 0usize;
     let mut depth = 0i32;
     let mut n = 0usize;
-    for (i, c) in smiles.chars().enumerate() {
+    for (i, (byte, c)) in smiles.char_indices().enumerate() {
         n = i + 1;
         match c {
             '[' => depth += 1,
             ']' => depth -= 1,
             '.' if depth <= 0 => {
-                out.push((start..i, std::mem::take(&mut cur)));
+                out.push((start..i, smiles.get(start_byte..byte).unwrap_or("")));
                 start = i + 1;
-                continue;
+                start_byte = byte + 1;
             }
             _ => {}
         }
-        cur.push(c);
     }
-    out.push((start..n.max(start), cur));
+    out.push((start..n.max(start), smiles.get(start_byte..).unwrap_or("")));
     out
 }
 
@@ -322,11 +342,19 @@ fn advice_record(
         Err(e) => return (None, Some(e.to_string())),
     };
     let range = |t: Temperature| [t.low_c, t.high_c];
-    let listed: Vec<String> = a
-        .alternatives
-        .iter()
-        .take(MAX_ALTERNATIVES)
-        .map(|x| x.base.clone())
+    // A one-line caution belongs to an alternative; keep it only when that
+    // alternative is listed.
+    let listed = &a.alternatives[..a.alternatives.len().min(MAX_ALTERNATIVES)];
+    let cautions: Vec<CautionOut> = a
+        .cautions
+        .into_iter()
+        .filter(|c| c.full || listed.iter().any(|x| x.base == c.reagent))
+        .map(|c| CautionOut {
+            full: c.full,
+            hazards: c.hazards.iter().map(|h| h.name()).collect(),
+            reagent: c.reagent,
+            text: c.text,
+        })
         .collect();
     let out = AdviceOut {
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
@@ -348,7 +376,7 @@ fn advice_record(
         solvent: a.solvent,
         temperature_c: a.temperature.and_then(|t| round(t.low_c, 0.1)),
         temperature_range_c: a.temperature.map(range),
-        scale: a.scale.map(|s| s.name().to_string()),
+        scale: a.scale.map(|s| s.name()),
         scale_note: a.scale_note,
         alternatives_omitted: a.alternatives.len().saturating_sub(MAX_ALTERNATIVES),
         alternatives: a
@@ -368,39 +396,27 @@ fn advice_record(
             .rejected
             .into_iter()
             .map(|r| RejectedOut {
-                kind: r.kind.name().to_string(),
+                kind: r.kind.name(),
                 base: r.base,
                 reason: r.reason,
             })
             .collect(),
         warnings: a.warnings.into_iter().map(|w| w.message).collect(),
-        regio_conditions: a.regio.as_ref().map(|r| {
-            let side = |c: &RegioConditions| RegioSideOut {
-                base: c.base.clone(),
+        regio_conditions: a.regio.map(|r| {
+            let side = |c: RegioConditions| RegioSideOut {
+                base: c.base,
                 equivalents: round(c.equivalents, 0.01).unwrap_or(0.0),
-                solvent: c.solvent.clone(),
+                solvent: c.solvent,
                 temperature_range_c: range(c.temperature),
-                procedure: c.procedure.clone(),
-                favours: c.favours_atoms.clone(),
+                procedure: c.procedure,
+                favours: c.favours_atoms,
             };
             RegioOut {
-                kinetic: side(&r.kinetic),
-                thermodynamic: side(&r.thermodynamic),
+                kinetic: side(r.kinetic),
+                thermodynamic: side(r.thermodynamic),
             }
         }),
-        cautions: a
-            .cautions
-            .into_iter()
-            // A one-line caution belongs to an alternative; keep it only
-            // when that alternative is listed.
-            .filter(|c| c.full || listed.contains(&c.reagent))
-            .map(|c| CautionOut {
-                full: c.full,
-                hazards: c.hazards.iter().map(|h| h.name().to_string()).collect(),
-                reagent: c.reagent,
-                text: c.text,
-            })
-            .collect(),
+        cautions,
         catalogue: a.catalogue_version,
     };
     (Some(out), None)
@@ -434,6 +450,45 @@ mod tests {
         assert_eq!(significant(7.1234567e-4), Some(7.12346e-4));
         assert_eq!(significant(1234567.0), Some(1234570.0));
         assert_eq!(significant(f64::NAN), None);
+    }
+
+    #[test]
+    fn dot_pieces_given_salts_brackets_and_non_ascii_text() {
+        // Character ranges, not byte ranges (the record's position rule).
+        assert_eq!(
+            dot_pieces("[Na+].\u{b5}CC(=O)[O-]"),
+            vec![(0..5, "[Na+]"), (6..17, "\u{b5}CC(=O)[O-]")]
+        );
+        assert_eq!(dot_pieces("C[.]C"), vec![(0..5, "C[.]C")]);
+        assert_eq!(dot_pieces("C."), vec![(0..1, "C"), (2..2, "")]);
+        assert_eq!(dot_pieces(""), vec![(0..0, "")]);
+    }
+
+    #[test]
+    fn molecule_facts_given_one_and_several_components() {
+        // Sodium acetate written both ways round; formulas by hand (common practice).
+        let one = Molecule::from_smiles("CC(=O)[O-]").unwrap();
+        let (f, c) = molecule_facts("CC(=O)[O-]", &one);
+        assert_eq!(f, "C2H3O2");
+        assert_eq!(c.len(), 1);
+        assert_eq!(
+            (c[0].role, c[0].smiles.as_str(), c[0].charge),
+            ("main", "CC(=O)[O-]", -1)
+        );
+        let salt = Molecule::from_smiles("[Na+].CC(=O)[O-]").unwrap();
+        let (f, c) = molecule_facts("[Na+].CC(=O)[O-]", &salt);
+        assert_eq!(f, "C2H3NaO2");
+        let got: Vec<_> = c
+            .iter()
+            .map(|c| (c.role, c.smiles.as_str(), c.formula.as_str(), c.charge))
+            .collect();
+        assert_eq!(
+            got,
+            vec![
+                ("main", "CC(=O)[O-]", "C2H3O2", -1),
+                ("counter_ion", "[Na+]", "Na", 1)
+            ]
+        );
     }
 
     #[test]

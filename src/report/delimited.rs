@@ -145,7 +145,7 @@ impl RowWriter {
                     f.push(num(s.pka_dmso));
                     f.push(num(s.pka_water));
                     f.push(num(Some(s.uncertainty)));
-                    f.push(s.regio.clone().unwrap_or_default());
+                    f.push(s.regio.unwrap_or_default().to_string());
                     f.push(error.clone());
                     out.push_str(&self.join(&f));
                 }
@@ -204,6 +204,10 @@ fn num(x: Option<f64>) -> String {
 /// Split one CSV line into fields (RFC 4180 quoting within the line; a
 /// record never spans lines here). Returns None on an unterminated quote.
 pub fn split_csv_line(line: &str) -> Option<Vec<String>> {
+    if !line.contains('"') {
+        // Nothing quoted: every comma separates.
+        return Some(line.split(',').map(str::to_string).collect());
+    }
     let mut fields = Vec::new();
     let mut cur = String::new();
     let mut chars = line.chars().peekable();

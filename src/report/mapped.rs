@@ -40,52 +40,84 @@ impl std::error::Error for MapError {}
 /// * organic-subset atom `C` with 3 H and map 1 → `[CH3:1]`, `c` → `[cH:1]`;
 /// * bracket atom `[C@@H]` → `[C@@H:1]`; an existing map `[CH3:7]` is replaced.
 pub fn atom_mapped_smiles(input: &str, labels: &[Label]) -> Result<String, MapError> {
-    let chars: Vec<char> = input.chars().collect();
+    // Byte offset of every character boundary (only needed beyond ASCII,
+    // where characters and bytes differ).
+    let ascii = input.is_ascii();
+    let bounds: Vec<usize> = if ascii {
+        Vec::new()
+    } else {
+        input
+            .char_indices()
+            .map(|(b, _)| b)
+            .chain(std::iter::once(input.len()))
+            .collect()
+    };
+    let chars = if ascii {
+        input.len()
+    } else {
+        bounds.len().saturating_sub(1)
+    };
+    // Character index (at most `chars`) to byte offset.
+    let byte = |c: usize| {
+        if ascii {
+            c
+        } else {
+            bounds.get(c).copied().unwrap_or(input.len())
+        }
+    };
     let mut sorted: Vec<&Label> = labels.iter().collect();
     sorted.sort_by_key(|l| l.span.start);
     let mut out = String::with_capacity(input.len() + 8 * labels.len());
     let mut pos = 0usize;
     for label in sorted {
         let Range { start, end } = label.span.clone();
-        if start < pos || end > chars.len() || start >= end {
+        if start < pos || end > chars || start >= end {
             return Err(MapError {
                 message: format!(
-                    "atom span {start}..{end} does not fit the input of {} characters",
-                    chars.len()
+                    "atom span {start}..{end} does not fit the input of {chars} characters"
                 ),
             });
         }
-        out.extend(&chars[pos..start]);
-        let text: String = chars[start..end].iter().collect();
-        out.push_str(&relabel(&text, label)?);
+        out.push_str(input.get(byte(pos)..byte(start)).unwrap_or(""));
+        let text = input.get(byte(start)..byte(end)).unwrap_or("");
+        relabel(&mut out, text, label)?;
         pos = end;
     }
-    out.extend(&chars[pos..]);
+    out.push_str(input.get(byte(pos)..).unwrap_or(""));
     Ok(out)
 }
 
 // atom ::= bracket_atom | organic_symbol
-fn relabel(text: &str, label: &Label) -> Result<String, MapError> {
+fn relabel(out: &mut String, text: &str, label: &Label) -> Result<(), MapError> {
     if label.bracket || text.starts_with('[') {
-        relabel_bracket(text, label.map)
+        relabel_bracket(out, text, label.map)
     } else {
-        Ok(relabel_organic(text, label.hydrogens, label.map))
+        relabel_organic(out, text, label.hydrogens, label.map);
+        Ok(())
     }
 }
 
 // organic_symbol ::= 'B' | 'C' | 'N' | 'O' | 'P' | 'S' | 'F' | 'Cl' | 'Br' | 'I'
 //                  | 'b' | 'c' | 'n' | 'o' | 'p' | 's' | '*'
-fn relabel_organic(symbol: &str, hydrogens: u8, map: u32) -> String {
+fn relabel_organic(out: &mut String, symbol: &str, hydrogens: u8, map: u32) {
+    out.push('[');
+    out.push_str(symbol);
     match hydrogens {
-        0 => format!("[{symbol}:{map}]"),
-        1 => format!("[{symbol}H:{map}]"),
-        n => format!("[{symbol}H{n}:{map}]"),
+        0 => {}
+        1 => out.push('H'),
+        n => {
+            out.push('H');
+            push_number(out, n as u32);
+        }
     }
+    out.push(':');
+    push_number(out, map);
+    out.push(']');
 }
 
 // bracket_atom ::= '[' isotope? symbol chiral? hcount? charge? class? ']'
 // class ::= ':' NUMBER
-fn relabel_bracket(text: &str, map: u32) -> Result<String, MapError> {
+fn relabel_bracket(out: &mut String, text: &str, map: u32) -> Result<(), MapError> {
     let inner = text
         .strip_prefix('[')
         .and_then(|t| t.strip_suffix(']'))
@@ -97,7 +129,30 @@ fn relabel_bracket(text: &str, map: u32) -> Result<String, MapError> {
         Some(i) if inner[i + 1..].chars().all(|c| c.is_ascii_digit()) => &inner[..i],
         _ => inner,
     };
-    Ok(format!("[{body}:{map}]"))
+    out.push('[');
+    out.push_str(body);
+    out.push(':');
+    push_number(out, map);
+    out.push(']');
+    Ok(())
+}
+
+/// Append a number in decimal.
+fn push_number(out: &mut String, n: u32) {
+    let mut digits = [0u8; 10];
+    let mut i = digits.len();
+    let mut n = n;
+    loop {
+        i -= 1;
+        digits[i] = b'0' + (n % 10) as u8;
+        n /= 10;
+        if n == 0 {
+            break;
+        }
+    }
+    for &d in &digits[i..] {
+        out.push(d as char);
+    }
 }
 
 #[cfg(test)]
@@ -140,6 +195,17 @@ mod tests {
         assert_eq!(s, "c1ccccc1C[Cl:3]");
         let s = atom_mapped_smiles("c1ccccc1", &[label(2..3, false, 1, 1)]).unwrap();
         assert_eq!(s, "c1[cH:1]cccc1");
+    }
+
+    #[test]
+    fn atom_mapped_smiles_given_non_ascii_text_and_large_numbers() {
+        // Spans count characters, not bytes (the record's `position` rule).
+        let s = atom_mapped_smiles("[Na+].\u{b5}CC(=O)C", &[label(7..8, false, 3, 1234567890)])
+            .unwrap();
+        assert_eq!(s, "[Na+].\u{b5}[CH3:1234567890]C(=O)C");
+        let s = atom_mapped_smiles("\u{b5}\u{b5}C", &[label(2..3, false, 4, 10)]).unwrap();
+        assert_eq!(s, "\u{b5}\u{b5}[CH4:10]");
+        assert!(atom_mapped_smiles("\u{b5}C", &[label(1..3, false, 3, 1)]).is_err());
     }
 
     #[test]

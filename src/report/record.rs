@@ -6,6 +6,12 @@
 //! without changing the published schema. The schema is versioned by
 //! [`SCHEMA`]; a key is never renamed or removed without a new version.
 //!
+//! A record owns its text, moved in from the library's results rather than
+//! copied. [`Record::write_json`] writes it with a small hand-written writer
+//! that gives exactly the bytes `serde_json` gives for the same record
+//! through the derived `Serialize` implementations (which stay, for callers
+//! that want them and as the reference the tests compare against).
+//!
 //! # Keys
 //!
 //! Always present:
@@ -40,8 +46,9 @@
 //! Numbers: pKa values and uncertainties are rounded to 0.01, conversion (a
 //! fraction 0..1) to 1e-6, equivalents to 0.01.
 
+use super::json;
 use serde::ser::{SerializeMap, Serializer};
-use serde::{Deserialize, Serialize};
+use serde::Serialize;
 
 /// Most alternatives listed in a record (`alternatives_omitted` counts
 /// the rest).
@@ -51,6 +58,11 @@ pub const MAX_ALTERNATIVES: usize = 5;
 pub const SCHEMA: &str = "acidsite-record/2";
 
 /// One output record (see the module documentation for the keys).
+///
+/// The record owns its text: strings move in from the library's results
+/// (no copies), and names that come from fixed vocabularies (component role,
+/// regio side, scale, rejection kind, hazard codes, rule-set version) are
+/// `&'static str`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Record {
     pub schema: &'static str,
@@ -65,7 +77,7 @@ pub struct Record {
     #[serde(skip_serializing_if = "Option::is_none")]
     pub components: Option<Vec<ComponentOut>>,
     #[serde(skip_serializing_if = "Option::is_none")]
-    pub rule_set: Option<String>,
+    pub rule_set: Option<&'static str>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub sites: Option<Vec<SiteOut>>,
     /// `Some(None)` serializes as `"advice": null` (no target site).
@@ -107,15 +119,81 @@ impl Record {
 
     /// The record as one JSON line (no trailing newline).
     pub fn to_json_line(&self) -> String {
-        // Serializing these plain types cannot fail (no maps with non-string
-        // keys, no non-finite floats: see `round`).
-        serde_json::to_string(self).unwrap_or_else(|e| {
-            format!(
-                "{{\"schema\":\"{SCHEMA}\",\"line\":{},\"ok\":false,\"error\":{{\"kind\":\"internal\",\"message\":{},\"position\":null}}}}",
-                self.line,
-                serde_json::Value::String(e.to_string())
-            )
-        })
+        let mut out = Vec::with_capacity(8 << 10);
+        self.write_json(&mut out);
+        // The writer only appends whole UTF-8 strings and ASCII.
+        String::from_utf8(out)
+            .unwrap_or_else(|e| String::from_utf8_lossy(e.as_bytes()).into_owned())
+    }
+
+    /// Append the record as one JSON line (no trailing newline) to `out`:
+    /// byte for byte what `serde_json::to_string` makes of the record, with
+    /// keys in the documented order, absent keys left out and non-finite
+    /// numbers written as `null`. Lets a caller reuse one buffer for many
+    /// records.
+    pub fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"schema\":");
+        json::string(out, self.schema);
+        out.extend_from_slice(b",\"line\":");
+        json::uint(out, self.line);
+        out.extend_from_slice(b",\"id\":");
+        json::opt_string(out, self.id.as_deref());
+        out.extend_from_slice(b",\"input\":");
+        json::string(out, &self.input);
+        out.extend_from_slice(b",\"ok\":");
+        json::boolean(out, self.ok);
+        if let Some(c) = &self.columns {
+            out.extend_from_slice(b",\"columns\":");
+            c.write_json(out, |o, v| json::string(o, v));
+        }
+        if let Some(f) = &self.formula {
+            out.extend_from_slice(b",\"formula\":");
+            json::string(out, f);
+        }
+        if let Some(c) = &self.components {
+            out.extend_from_slice(b",\"components\":");
+            json::array(out, c, |o, c| c.write_json(o));
+        }
+        if let Some(r) = self.rule_set {
+            out.extend_from_slice(b",\"rule_set\":");
+            json::string(out, r);
+        }
+        if let Some(s) = &self.sites {
+            out.extend_from_slice(b",\"sites\":");
+            json::array(out, s, |o, s| s.write_json(o));
+        }
+        if let Some(a) = &self.advice {
+            out.extend_from_slice(b",\"advice\":");
+            match a {
+                Some(a) => a.write_json(out),
+                None => out.extend_from_slice(b"null"),
+            }
+        }
+        if let Some(n) = &self.advice_note {
+            out.extend_from_slice(b",\"advice_note\":");
+            json::string(out, n);
+        }
+        if let Some(m) = &self.mapped_smiles {
+            out.extend_from_slice(b",\"mapped_smiles\":");
+            json::string(out, m);
+        }
+        if let Some(f) = &self.flags {
+            out.extend_from_slice(b",\"flags\":");
+            f.write_json(out, |o, v| json::uint(o, *v));
+        }
+        if let Some(e) = &self.error {
+            out.extend_from_slice(b",\"error\":{\"kind\":");
+            json::string(out, &e.kind);
+            out.extend_from_slice(b",\"message\":");
+            json::string(out, &e.message);
+            out.extend_from_slice(b",\"position\":");
+            match e.position {
+                Some(p) => json::uint(out, p as u64),
+                None => out.extend_from_slice(b"null"),
+            }
+            out.push(b'}');
+        }
+        out.push(b'}');
     }
 
     /// The most acidic C–H site, if any (sites are ranked).
@@ -138,11 +216,26 @@ impl<V: Serialize> Serialize for Pairs<V> {
     }
 }
 
+impl<V> Pairs<V> {
+    fn write_json(&self, out: &mut Vec<u8>, mut value: impl FnMut(&mut Vec<u8>, &V)) {
+        out.push(b'{');
+        for (i, (k, v)) in self.0.iter().enumerate() {
+            if i > 0 {
+                out.push(b',');
+            }
+            json::string(out, k);
+            out.push(b':');
+            value(out, v);
+        }
+        out.push(b'}');
+    }
+}
+
 /// One `.`-separated component of the input.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ComponentOut {
     /// `"main"` (the component analysed) or `"counter_ion"`.
-    pub role: String,
+    pub role: &'static str,
     /// The component's text in the input SMILES.
     pub smiles: String,
     pub formula: String,
@@ -150,8 +243,22 @@ pub struct ComponentOut {
     pub charge: i32,
 }
 
+impl ComponentOut {
+    fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"role\":");
+        json::string(out, self.role);
+        out.extend_from_slice(b",\"smiles\":");
+        json::string(out, &self.smiles);
+        out.extend_from_slice(b",\"formula\":");
+        json::string(out, &self.formula);
+        out.extend_from_slice(b",\"charge\":");
+        json::int(out, self.charge as i64);
+        out.push(b'}');
+    }
+}
+
 /// One acidic site.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct SiteOut {
     /// 1-based rank (1 = most acidic); also the atom-map number in `mapped_smiles`.
     pub rank: u32,
@@ -170,11 +277,48 @@ pub struct SiteOut {
     /// Rules applied, with their contributions (the estimate is their sum).
     pub rules: Vec<RuleOut>,
     /// `"kinetic"`, `"thermodynamic"` or null.
-    pub regio: Option<String>,
+    pub regio: Option<&'static str>,
+}
+
+impl SiteOut {
+    fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"rank\":");
+        json::uint(out, self.rank as u64);
+        out.extend_from_slice(b",\"atoms\":");
+        json::indices(out, &self.atoms);
+        out.extend_from_slice(b",\"element\":");
+        json::string(out, &self.element);
+        out.extend_from_slice(b",\"hydrogens\":");
+        json::uint(out, self.hydrogens as u64);
+        out.extend_from_slice(b",\"class\":");
+        json::string(out, &self.class);
+        out.extend_from_slice(b",\"pka_dmso\":");
+        json::opt_float(out, self.pka_dmso);
+        out.extend_from_slice(b",\"pka_water\":");
+        json::opt_float(out, self.pka_water);
+        out.extend_from_slice(b",\"uncertainty\":");
+        json::float(out, self.uncertainty);
+        out.extend_from_slice(b",\"rules\":");
+        json::array(out, &self.rules, |o, r| {
+            o.extend_from_slice(b"{\"id\":");
+            json::string(o, &r.id);
+            o.extend_from_slice(b",\"dmso\":");
+            json::opt_float(o, r.dmso);
+            o.extend_from_slice(b",\"water\":");
+            json::opt_float(o, r.water);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"regio\":");
+        match self.regio {
+            Some(r) => json::string(out, r),
+            None => out.extend_from_slice(b"null"),
+        }
+        out.push(b'}');
+    }
 }
 
 /// One applied rule and its contribution on each scale.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RuleOut {
     pub id: String,
     pub dmso: Option<f64>,
@@ -182,7 +326,7 @@ pub struct RuleOut {
 }
 
 /// Base advice for one target site.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct AdviceOut {
     /// Atoms of the target site.
     pub target: Vec<usize>,
@@ -206,7 +350,7 @@ pub struct AdviceOut {
     /// Usual working range, °C: `[low, high]`.
     pub temperature_range_c: Option<[f64; 2]>,
     /// pKa scale the comparison used: `"dmso"`, `"water"` or `"thf"`.
-    pub scale: Option<String>,
+    pub scale: Option<&'static str>,
     /// Why that scale, with the base's conjugate-acid pKa and its source.
     pub scale_note: String,
     /// Other acceptable bases, best first: at most
@@ -229,14 +373,115 @@ pub struct AdviceOut {
     pub catalogue: String,
 }
 
+impl AdviceOut {
+    fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"target\":");
+        json::indices(out, &self.target);
+        out.extend_from_slice(b",\"target_note\":");
+        json::string(out, &self.target_note);
+        out.extend_from_slice(b",\"base\":");
+        json::opt_string(out, self.base.as_deref());
+        out.extend_from_slice(b",\"equivalents\":");
+        json::opt_float(out, self.equivalents);
+        out.extend_from_slice(b",\"equivalents_note\":");
+        json::string(out, &self.equivalents_note);
+        out.extend_from_slice(b",\"counted\":");
+        json::array(out, &self.counted, |o, c| {
+            o.extend_from_slice(b"{\"atoms\":");
+            json::indices(o, &c.atoms);
+            o.extend_from_slice(b",\"class\":");
+            json::string(o, &c.class);
+            o.extend_from_slice(b",\"protons\":");
+            json::uint(o, c.protons as u64);
+            o.extend_from_slice(b",\"reason\":");
+            json::string(o, &c.reason);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"conversion\":");
+        json::opt_float(out, self.conversion);
+        out.extend_from_slice(b",\"solvent\":");
+        json::opt_string(out, self.solvent.as_deref());
+        out.extend_from_slice(b",\"temperature_c\":");
+        json::opt_float(out, self.temperature_c);
+        out.extend_from_slice(b",\"temperature_range_c\":");
+        match &self.temperature_range_c {
+            Some(p) => json::pair(out, p),
+            None => out.extend_from_slice(b"null"),
+        }
+        out.extend_from_slice(b",\"scale\":");
+        match self.scale {
+            Some(s) => json::string(out, s),
+            None => out.extend_from_slice(b"null"),
+        }
+        out.extend_from_slice(b",\"scale_note\":");
+        json::string(out, &self.scale_note);
+        out.extend_from_slice(b",\"alternatives\":");
+        json::array(out, &self.alternatives, |o, x| {
+            o.extend_from_slice(b"{\"base\":");
+            json::string(o, &x.base);
+            o.extend_from_slice(b",\"equivalents\":");
+            json::float(o, x.equivalents);
+            o.extend_from_slice(b",\"conversion\":");
+            json::float(o, x.conversion);
+            o.extend_from_slice(b",\"solvent\":");
+            json::string(o, &x.solvent);
+            o.extend_from_slice(b",\"temperature_range_c\":");
+            json::pair(o, &x.temperature_range_c);
+            o.extend_from_slice(b",\"note\":");
+            json::string(o, &x.note);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"alternatives_omitted\":");
+        json::uint(out, self.alternatives_omitted as u64);
+        out.extend_from_slice(b",\"rejected\":");
+        json::array(out, &self.rejected, |o, r| {
+            o.extend_from_slice(b"{\"base\":");
+            json::string(o, &r.base);
+            o.extend_from_slice(b",\"kind\":");
+            json::string(o, r.kind);
+            o.extend_from_slice(b",\"reason\":");
+            json::string(o, &r.reason);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"warnings\":");
+        json::array(out, &self.warnings, |o, w| json::string(o, w));
+        out.extend_from_slice(b",\"regio_conditions\":");
+        match &self.regio_conditions {
+            Some(r) => {
+                out.extend_from_slice(b"{\"kinetic\":");
+                r.kinetic.write_json(out);
+                out.extend_from_slice(b",\"thermodynamic\":");
+                r.thermodynamic.write_json(out);
+                out.push(b'}');
+            }
+            None => out.extend_from_slice(b"null"),
+        }
+        out.extend_from_slice(b",\"cautions\":");
+        json::array(out, &self.cautions, |o, c| {
+            o.extend_from_slice(b"{\"reagent\":");
+            json::string(o, &c.reagent);
+            o.extend_from_slice(b",\"hazards\":");
+            json::array(o, &c.hazards, |o, h| json::string(o, h));
+            o.extend_from_slice(b",\"text\":");
+            json::string(o, &c.text);
+            o.extend_from_slice(b",\"full\":");
+            json::boolean(o, c.full);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"catalogue\":");
+        json::string(out, &self.catalogue);
+        out.push(b'}');
+    }
+}
+
 /// A safety caution for one reagent.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct CautionOut {
     /// Reagent named (or "all reagents named" for the general caution).
     pub reagent: String,
     /// Hazard codes: `pyrophoric`, `water-reactive`, `hydrogen-evolution`,
     /// `corrosive`, `toxic`, `cryogenic`, `flammable`, `irritant`.
-    pub hazards: Vec<String>,
+    pub hazards: Vec<&'static str>,
     /// Text ending with the deferral to local regulations, the safety data
     /// sheet and qualified chemists: handling advice per hazard when `full`,
     /// else one line of hazard words.
@@ -248,7 +493,7 @@ pub struct CautionOut {
 }
 
 /// A proton removed before the target.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct CountedOut {
     pub atoms: Vec<usize>,
     pub class: String,
@@ -257,7 +502,7 @@ pub struct CountedOut {
 }
 
 /// An acceptable base other than the recommendation.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct AlternativeOut {
     pub base: String,
     pub equivalents: f64,
@@ -268,14 +513,14 @@ pub struct AlternativeOut {
 }
 
 /// Conditions for each side of an unsymmetrical ketone.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RegioOut {
     pub kinetic: RegioSideOut,
     pub thermodynamic: RegioSideOut,
 }
 
 /// Conditions favouring one enolate side.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RegioSideOut {
     pub base: String,
     pub equivalents: f64,
@@ -286,18 +531,36 @@ pub struct RegioSideOut {
     pub favours: Vec<usize>,
 }
 
+impl RegioSideOut {
+    fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"base\":");
+        json::string(out, &self.base);
+        out.extend_from_slice(b",\"equivalents\":");
+        json::float(out, self.equivalents);
+        out.extend_from_slice(b",\"solvent\":");
+        json::string(out, &self.solvent);
+        out.extend_from_slice(b",\"temperature_range_c\":");
+        json::pair(out, &self.temperature_range_c);
+        out.extend_from_slice(b",\"procedure\":");
+        json::string(out, &self.procedure);
+        out.extend_from_slice(b",\"favours\":");
+        json::indices(out, &self.favours);
+        out.push(b'}');
+    }
+}
+
 /// A base ruled out, with the reason.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RejectedOut {
     pub base: String,
     /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
     /// `hydrolysis`, `uncounted-proton`, `no-comparable-pka`.
-    pub kind: String,
+    pub kind: &'static str,
     pub reason: String,
 }
 
 /// Why a record failed.
-#[derive(Debug, Clone, PartialEq, Serialize, Deserialize)]
+#[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ErrorOut {
     pub kind: String,
     pub message: String,

@@ -79,7 +79,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     pka(s.pka_dmso),
                     pka(s.pka_water),
                     format!("±{:.1}", s.uncertainty),
-                    match s.regio.as_deref() {
+                    match s.regio {
                         Some("kinetic") => "kinetic side".to_string(),
                         Some("thermodynamic") => "thermodynamic side".to_string(),
                         Some(x) => x.to_string(),
@@ -338,8 +338,6 @@ pub fn render(rec: &Record, scale: Scale) -> String {
 /// Width the report is wrapped to.
 const WIDTH: usize = 100;
 
-/// Append `text` word-wrapped to [`WIDTH`], the first line after `first`,
-/// the others after `rest`.
 /// Comma-separated atom indices (`3,7`).
 pub fn atom_list(atoms: &[usize]) -> String {
     atoms
@@ -349,6 +347,8 @@ pub fn atom_list(atoms: &[usize]) -> String {
         .join(",")
 }
 
+/// Append `text` word-wrapped to [`WIDTH`], the first line after `first`,
+/// the others after `rest`.
 fn wrap(o: &mut String, text: &str, first: &str, rest: &str) {
     let mut line = String::from(first);
     let mut empty = true;
