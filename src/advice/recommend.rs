@@ -703,31 +703,22 @@ fn solve_lean_uncached(
     })
 }
 
-/// Deprotonated fraction of every microsite of `l`, in the order of
-/// [`solve`]'s `sites`, passed to `visit(microsite, fraction)`; stops when
-/// `visit` returns true. `only_target`: the units holding the target only.
+/// Deprotonated fraction of every microsite of the units holding the
+/// target, in the order of [`solve`]'s `sites`, passed to
+/// `visit(microsite, fraction)`; stops when `visit` returns true.
 fn lean_sites<'c>(
     ctx: &'c Ctx,
     l: &Lean,
     exclude: &[usize],
-    only_target: bool,
     mut visit: impl FnMut(&'c Microsite, f64) -> bool,
 ) {
     let units = &cached_units(ctx, l.scale).0;
-    if only_target {
-        let tu = match l.scale {
-            Scale::Water => &ctx.target_units_water,
-            _ => &ctx.target_units_dmso,
-        };
-        for &i in tu {
-            if let Some(u) = units.get(i) {
-                if unit_sites(ctx, l, exclude, u, &mut visit) {
-                    return;
-                }
-            }
-        }
-    } else {
-        for u in units {
+    let tu = match l.scale {
+        Scale::Water => &ctx.target_units_water,
+        _ => &ctx.target_units_dmso,
+    };
+    for &i in tu {
+        if let Some(u) = units.get(i) {
             if unit_sites(ctx, l, exclude, u, &mut visit) {
                 return;
             }
@@ -735,7 +726,8 @@ fn lean_sites<'c>(
     }
 }
 
-/// [`lean_sites`] for one unit; true when `visit` asked to stop.
+/// The fractions of one unit's microsites (see [`lean_sites`]); true when
+/// `visit` asked to stop.
 fn unit_sites<'c>(
     ctx: &'c Ctx,
     l: &Lean,
@@ -783,7 +775,7 @@ fn unit_sites<'c>(
 
 fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
     let mut total = 0.0;
-    lean_sites(ctx, l, exclude, true, |m, x| {
+    lean_sites(ctx, l, exclude, |m, x| {
         if ctx.target_unit.contains(&m.site) {
             total += x;
         }
@@ -1031,15 +1023,36 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             if weak_crit || weak_solvent {
                 let mut uncounted: Option<(&[usize], f64)> = None;
                 if let Some((e, _)) = &crit {
-                    lean_sites(ctx, e, &counted_sites, false, |m, x| {
-                        let hit = !ctx.target_unit.contains(&m.site)
-                            && !ev.counted.iter().any(|c| c.site == m.site)
-                            && x > 0.01;
-                        if hit {
-                            uncounted = Some((&m.atoms, m.pka));
+                    // Units that cannot reach 1 % are skipped unsolved: a
+                    // microsite's fraction is at most its unit's, and that
+                    // is below 10^b / (1 + 10^b) for b = the largest
+                    // log10 K of the unit + s + log10(microsites).
+                    let units = &cached_units(ctx, e.scale).0;
+                    for u in units {
+                        let n = u.alternatives.len();
+                        let top = u
+                            .alternatives
+                            .iter()
+                            .filter(|m| !counted_sites.contains(&m.site))
+                            .map(|m| e.base_pka - m.pka)
+                            .fold(f64::NEG_INFINITY, f64::max);
+                        let bound = top + e.s + if n > 1 { (n as f64).log10() } else { 0.0 };
+                        if !(bound >= -2.0) {
+                            continue;
                         }
-                        hit
-                    });
+                        let stop = unit_sites(ctx, e, &counted_sites, u, &mut |m, x| {
+                            let hit = !ctx.target_unit.contains(&m.site)
+                                && !ev.counted.iter().any(|c| c.site == m.site)
+                                && x > 0.01;
+                            if hit {
+                                uncounted = Some((&m.atoms, m.pka));
+                            }
+                            hit
+                        });
+                        if stop {
+                            break;
+                        }
+                    }
                 }
                 let mut reason = String::with_capacity(112);
                 match uncounted {
