@@ -558,11 +558,12 @@ fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<Coun
             r.push(')');
             r
         } else {
-            format!(
-                "{}–H proton transfer is fast: {} bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)",
-                s.element,
-                base.counter_ion.as_deref().unwrap_or("metal")
-            )
+            let mut r = String::with_capacity(160);
+            r.push_str(&s.element);
+            r.push_str("–H proton transfer is fast: ");
+            r.push_str(base.counter_ion.as_deref().unwrap_or("metal"));
+            r.push_str(" bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)");
+            r
         };
         out.push(CountedProton {
             site: i,
@@ -1204,7 +1205,10 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             ev.notes.splice(at..at, notes);
         }
     }
-    ev.score = score(ctx, &ev, base_pka - t_pka);
+    // The score only ranks acceptable bases.
+    if accepted {
+        ev.score = score(ctx, &ev, base_pka - t_pka);
+    }
     ev
 }
 
