@@ -418,7 +418,7 @@ struct Eval<'a> {
     /// Notes of the reported equilibrium (set in the base's own solvent).
     eq_notes: Vec<String>,
     /// Sites whose protons are counted (left out of the equilibrium).
-    exclude: Vec<usize>,
+    exclude: Rc<[usize]>,
     reasons: Vec<(RejectKind, String)>,
     notes: Vec<String>,
     score: f64,
@@ -452,14 +452,19 @@ struct Ctx<'a> {
     /// Counted protons already worked out for this molecule: they depend on
     /// the scale, whether the base is a metal base, a protic solvent and the
     /// counter-ion named in the reason, not on the base itself.
-    counted_memo: std::cell::RefCell<Vec<(CountedKey, Rc<Vec<CountedProton>>)>>,
+    counted_memo: std::cell::RefCell<Vec<(CountedKey, CountedSet)>>,
+    /// The empty counted set, shared by bases rejected before counting.
+    none_counted: CountedSet,
 }
 
 /// (scale, metal base, protic solvent, counter-ion).
 type CountedKey = (Scale, bool, bool, Option<String>);
 
 /// [`count_protons`], memoised per molecule.
-fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Rc<Vec<CountedProton>> {
+/// Counted protons and their sites (shared by the bases that count alike).
+type CountedSet = (Rc<Vec<CountedProton>>, Rc<[usize]>);
+
+fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> CountedSet {
     let metal = base.family.is_metal_base();
     let ion = base.counter_ion.as_deref();
     if let Some((_, v)) = ctx
@@ -470,7 +475,9 @@ fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Rc<Vec<Cou
     {
         return v.clone();
     }
-    let v = Rc::new(count_protons(ctx, base, scale, protic));
+    let protons = count_protons(ctx, base, scale, protic);
+    let sites: Rc<[usize]> = protons.iter().map(|c| c.site).collect();
+    let v = (Rc::new(protons), sites);
     ctx.counted_memo
         .borrow_mut()
         .push(((scale, metal, protic, ion.map(str::to_string)), v.clone()));
@@ -803,6 +810,18 @@ fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
     Some(e)
 }
 
+/// All reasons in words, separated by "; ".
+fn join_reasons(reasons: &[(RejectKind, String)]) -> String {
+    let mut out = String::with_capacity(reasons.iter().map(|r| r.1.len() + 2).sum());
+    for (i, r) in reasons.iter().enumerate() {
+        if i > 0 {
+            out.push_str("; ");
+        }
+        out.push_str(&r.1);
+    }
+    out
+}
+
 /// `c` as the advice prose writes a conversion: `{:.1e}` below 0.1 %, else
 /// a percentage with one decimal.
 fn push_conv_text(out: &mut String, c: f64) {
@@ -838,13 +857,13 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         solvent: solvent.clone(),
         scale: None,
         scale_note: String::new(),
-        counted: Rc::default(),
+        counted: ctx.none_counted.0.clone(),
         equivalents: 0.0,
         conversion: 0.0,
         criterion_conversion: 0.0,
         lean: None,
         eq_notes: Vec::new(),
-        exclude: Vec::new(),
+        exclude: ctx.none_counted.1.clone(),
         reasons: Vec::new(),
         notes: Vec::new(),
         score: 0.0,
@@ -920,7 +939,8 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         }
         return ev;
     };
-    ev.counted = counted_for(ctx, base, scale, protic_solvent.is_some());
+    let (counted, counted_sites) = counted_for(ctx, base, scale, protic_solvent.is_some());
+    ev.counted = counted;
     let n_counted: usize = ev.counted.iter().map(|c| c.protons).sum();
     let needed = match opts.purpose {
         Purpose::Stoichiometric => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
@@ -929,7 +949,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     ev.equivalents = opts.equivalents.unwrap_or(needed);
     // Counted protons are removed first: their sites leave the equilibrium
     // together with the base they consume.
-    let counted_sites: Vec<usize> = ev.counted.iter().map(|c| c.site).collect();
     let left = |eq: f64| (eq - n_counted as f64).max(0.0);
     // Acceptance is judged at the needed equivalents; the reported
     // composition uses the requested equivalents when given.
@@ -1546,53 +1565,62 @@ pub fn advise_with_features(
         lean_memo: std::cell::RefCell::new(Vec::new()),
         requested,
         counted_memo: std::cell::RefCell::new(Vec::new()),
+        none_counted: (Rc::new(Vec::new()), Rc::from([])),
     };
-    let evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
-    let mut accepted: Vec<&Eval> = evals.iter().filter(|e| e.reasons.is_empty()).collect();
-    accepted.sort_by(|a, b| {
-        a.score
-            .partial_cmp(&b.score)
+    let mut evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
+    // Acceptable bases as indices into `evals`, best score first (a stable
+    // sort: ties keep catalogue order).
+    let mut accepted: Vec<usize> = (0..evals.len())
+        .filter(|&i| evals[i].reasons.is_empty())
+        .collect();
+    accepted.sort_by(|&a, &b| {
+        evals[a]
+            .score
+            .partial_cmp(&evals[b].score)
             .unwrap_or(std::cmp::Ordering::Equal)
     });
-    let rejected: Vec<Rejection> = evals
-        .iter()
-        .filter(|e| !e.reasons.is_empty())
-        .map(|e| Rejection {
-            base: e.base.name.clone(),
-            kind: e.reasons[0].0,
-            kinds: e.reasons.iter().map(|r| r.0).collect(),
-            reason: e
-                .reasons
-                .iter()
-                .map(|r| r.1.as_str())
-                .collect::<Vec<_>>()
-                .join("; "),
-        })
-        .collect();
     let mut warnings: Vec<Warning> = Vec::new();
-    let chosen: Option<&Eval> = match requested {
+    let chosen_at: Option<usize> = match requested {
         Some(b) => {
-            let e = evals.iter().find(|e| e.base.name == b.name);
-            if let Some(e) = e {
+            let i = evals.iter().position(|e| e.base.name == b.name);
+            if let Some(e) = i.map(|i| &evals[i]) {
                 if !e.reasons.is_empty() {
                     warnings.push(Warning {
                         kind: WarningKind::RequestedBase,
                         message: format!(
                             "the requested base {} is not suitable here: {}",
                             b.name,
-                            e.reasons
-                                .iter()
-                                .map(|r| r.1.as_str())
-                                .collect::<Vec<_>>()
-                                .join("; ")
+                            join_reasons(&e.reasons)
                         ),
                     });
                 }
             }
-            e
+            i
         }
         None => accepted.first().copied(),
     };
+    // Rejections take their reasons over (nothing reads them after this).
+    let rejected: Vec<Rejection> = evals
+        .iter_mut()
+        .filter(|e| !e.reasons.is_empty())
+        .map(|e| {
+            let reasons = std::mem::take(&mut e.reasons);
+            let kinds: Vec<RejectKind> = reasons.iter().map(|r| r.0).collect();
+            let reason = if reasons.len() == 1 {
+                reasons.into_iter().next().map(|r| r.1).unwrap_or_default()
+            } else {
+                join_reasons(&reasons)
+            };
+            Rejection {
+                base: e.base.name.clone(),
+                kind: kinds[0],
+                kinds,
+                reason,
+            }
+        })
+        .collect();
+    let chosen: Option<&Eval> = chosen_at.map(|i| &evals[i]);
+    let accepted: Vec<&Eval> = accepted.iter().map(|&i| &evals[i]).collect();
     if chosen.is_none() {
         let competing = rejected
             .iter()
