@@ -153,8 +153,6 @@ pub(crate) struct QueryBond {
     /// The expression tabulated over the twelve bond states (five orders
     /// and dative, in a ring or not): bit `state + 6 * ring`.
     pub mask: u16,
-    /// Does the answer depend on ring membership?
-    pub ring_sensitive: bool,
 }
 
 impl QueryBond {
@@ -172,14 +170,7 @@ impl QueryBond {
                 }
             }
         }
-        let low = (1u16 << states) - 1;
-        let ring_sensitive = (mask & low) != (mask >> states);
-        QueryBond {
-            atoms,
-            expr,
-            mask,
-            ring_sensitive,
-        }
+        QueryBond { atoms, expr, mask }
     }
 }
 
@@ -191,7 +182,32 @@ pub(crate) struct Step {
     pub atom: usize,
     pub parent: Option<(usize, usize)>,
     pub closures: Vec<(usize, usize)>,
+    /// First step only: what the neighbourhood of a molecule atom must
+    /// offer before this atom can be placed on it (see [`Reach`]).
+    pub reach: Vec<Reach>,
 }
+
+/// A necessary condition on the surroundings of the atom a search starts
+/// from: pattern atom `atom` needs a neighbour, reached through a bond
+/// passing pattern bond `bond` and not the atom the walk came from, that
+/// passes the atom's signature filter and in turn meets every condition of
+/// `next`; the conditions of one list need different neighbours. Built
+/// from the pattern's bonds out to [`REACH_DEPTH`] bonds from the start
+/// atom. It looks at each path from the start on its own (two branches
+/// may use the same molecule atom), so it can let a non-match through but
+/// never rejects a match.
+#[derive(Debug, Clone)]
+pub(crate) struct Reach {
+    pub atom: usize,
+    pub bond: usize,
+    pub next: Vec<Reach>,
+}
+
+/// How many bonds out from the start atom [`Reach`] conditions look.
+const REACH_DEPTH: usize = 6;
+
+/// Most [`Reach`] conditions built for one start atom.
+const REACH_MAX: usize = 64;
 
 /// A query graph (the main pattern or one recursive part).
 #[derive(Debug, Clone, Default)]
@@ -298,9 +314,39 @@ impl Query {
                 atom: a,
                 parent,
                 closures,
+                reach: Vec::new(),
             });
         }
+        if let Some(first) = steps.first_mut() {
+            let mut budget = REACH_MAX;
+            first.reach = self.reach(first.atom, usize::MAX, REACH_DEPTH, &mut budget);
+        }
         steps
+    }
+
+    /// [`Reach`] conditions for the neighbours of pattern atom `atom`
+    /// other than `from`, `depth` bonds deep (recursion bounded by
+    /// [`REACH_DEPTH`]).
+    fn reach(&self, atom: usize, from: usize, depth: usize, budget: &mut usize) -> Vec<Reach> {
+        let mut out = Vec::new();
+        if depth == 0 {
+            return out;
+        }
+        for &(x, b) in self.adj.get(atom).map(Vec::as_slice).unwrap_or(&[]) {
+            if x == from || *budget == 0 {
+                continue;
+            }
+            if x >= self.atoms.len() {
+                continue;
+            }
+            *budget -= 1;
+            out.push(Reach {
+                atom: x,
+                bond: b,
+                next: self.reach(x, atom, depth - 1, budget),
+            });
+        }
+        out
     }
 }
 
@@ -333,8 +379,27 @@ impl Pattern {
     pub fn parse(smarts: &str) -> Result<Pattern, PatternError> {
         let parse::Parsed {
             mut main,
-            recursive,
+            mut recursive,
         } = parse::parse(smarts)?;
+        // Signature filters implied by whole expressions (alternatives and
+        // recursive parts included), computed once all parts are known.
+        let implied: Vec<Vec<(u64, u64)>> = recursive
+            .iter()
+            .map(|q| {
+                q.atoms
+                    .iter()
+                    .map(|a| expr::implied_signature(&a.expr, &recursive, 0))
+                    .collect()
+            })
+            .collect();
+        for (q, sigs) in recursive.iter_mut().zip(implied) {
+            for (a, sig) in q.atoms.iter_mut().zip(sigs) {
+                (a.sig_mask, a.sig_value) = sig;
+            }
+        }
+        for a in &mut main.atoms {
+            (a.sig_mask, a.sig_value) = expr::implied_signature(&a.expr, &recursive, 0);
+        }
         let anchor = main.atoms.iter().position(|a| a.map == Some(1));
         if let Some(a) = anchor {
             main.set_anchor(a);
@@ -568,6 +633,10 @@ impl Pattern {
         // once; the rest of its expression is tested by the search.
         let qa = self.main.atoms.get(self.anchor_or_first())?;
         if t.sig.get(atom)? & qa.sig_mask != qa.sig_value || !self.passes_screen(t) {
+            return None;
+        }
+        let first = self.main.plan_anchor.first()?;
+        if !matcher::reach_ok(&self.main, &first.reach, atom, usize::MAX, t) {
             return None;
         }
         let mut cache = new_cache(u64::MAX);

@@ -31,9 +31,10 @@ pub struct Target<'m> {
     pub(crate) atoms: Vec<AtomInfo>,
     /// Per-atom signatures for the atom filters.
     pub(crate) sig: Vec<u64>,
-    pub(crate) bond_order: Vec<BondOrder>,
-    /// Dative bonds (donor to metal): they match only `~` and negations.
-    pub(crate) bond_dative: Vec<bool>,
+    /// Per bond its state for [`super::QueryBond::mask`]: order (0 to 4)
+    /// or 5 for a dative bond (donor to metal; it matches only `~` and
+    /// negations), plus 6 when the bond is in a ring.
+    pub(crate) bond_state: Vec<u8>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
     pub(crate) aromatic_count: usize,
@@ -84,14 +85,32 @@ impl<'m> Target<'m> {
                 valence: valence.min(255) as u8,
             });
         }
-        let bond_order: Vec<BondOrder> = mol.bonds.iter().map(|b| b.order).collect();
-        let bond_dative: Vec<bool> = (0..mol.bonds.len())
-            .map(|b| mol.dative_donor(b).is_some())
+        let (mut double_count, mut triple_count, mut aromatic_bond_count) = (0, 0, 0);
+        let bond_state: Vec<u8> = mol
+            .bonds
+            .iter()
+            .enumerate()
+            .map(|(b, bond)| {
+                let state = if mol.dative_donor(b).is_some() {
+                    5
+                } else {
+                    match bond.order {
+                        BondOrder::Single => 0,
+                        BondOrder::Double => 1,
+                        BondOrder::Triple => 2,
+                        BondOrder::Quadruple => 3,
+                        BondOrder::Aromatic => 4,
+                    }
+                };
+                match bond.order {
+                    BondOrder::Double => double_count += 1,
+                    BondOrder::Triple => triple_count += 1,
+                    BondOrder::Aromatic => aromatic_bond_count += 1,
+                    _ => {}
+                }
+                state + if mol.bond_in_ring(b) { 6 } else { 0 }
+            })
             .collect();
-        let count = |o| bond_order.iter().filter(|&&x| x == o).count();
-        let double_count = count(BondOrder::Double);
-        let triple_count = count(BondOrder::Triple);
-        let aromatic_bond_count = count(BondOrder::Aromatic);
         let mut by_element: Vec<usize> = (0..atoms.len()).collect();
         by_element.sort_by_key(|&i| atoms[i].element);
         let mut groups: Vec<(u8, usize, usize)> = Vec::new();
@@ -102,13 +121,19 @@ impl<'m> Target<'m> {
                 _ => groups.push((e, k, k + 1)),
             }
         }
-        let sig = atoms.iter().map(super::expr::atom_signature).collect();
+        let sig = atoms
+            .iter()
+            .enumerate()
+            .map(|(i, info)| {
+                let ring = u64::from(mol.ring_bond_count(i) > 0) << super::expr::SIG_RING;
+                super::expr::atom_signature(info) | ring
+            })
+            .collect();
         Target {
             mol,
             atoms,
             sig,
-            bond_order,
-            bond_dative,
+            bond_state,
             double_count,
             triple_count,
             aromatic_bond_count,
