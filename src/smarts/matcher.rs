@@ -108,19 +108,21 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
             }
         }
     }
-    let mut found = false;
+    // The quick tests are not worth a cache slot (which allocates).
     let reach = q.plan_anchor.first().map_or(&[][..], |s| &s.reach);
     let root_ok = t.sig.get(a).is_some_and(|&s| {
         q.atoms
             .get(q.plan_anchor.first().map_or(0, |s| s.atom))
             .is_some_and(|qa| s & qa.sig_mask == qa.sig_value)
     }) && reach_ok(q, reach, a, usize::MAX, t);
-    if root_ok {
-        search(pat, q, &q.plan_anchor, t, cache, Some(a), None, &mut |_| {
-            found = true;
-            false
-        });
+    if !root_ok {
+        return false;
     }
+    let mut found = false;
+    search(pat, q, &q.plan_anchor, t, cache, Some(a), None, &mut |_| {
+        found = true;
+        false
+    });
     if cache.exhausted {
         return false;
     }

@@ -111,15 +111,34 @@ impl<'m> Target<'m> {
                 state + if mol.bond_in_ring(b) { 6 } else { 0 }
             })
             .collect();
-        let mut by_element: Vec<usize> = (0..atoms.len()).collect();
-        by_element.sort_by_key(|&i| atoms[i].element);
-        let mut groups: Vec<(u8, usize, usize)> = Vec::new();
-        for (k, &i) in by_element.iter().enumerate() {
-            let e = atoms[i].element;
-            match groups.last_mut() {
-                Some(g) if g.0 == e => g.2 = k + 1,
-                _ => groups.push((e, k, k + 1)),
+        // Atoms grouped by element (a counting sort: ascending index within
+        // a group, groups by ascending element).
+        let mut per_element = [0u32; 256];
+        let mut present: Vec<u8> = Vec::new();
+        for a in &atoms {
+            let c = &mut per_element[a.element as usize];
+            if *c == 0 {
+                present.push(a.element);
             }
+            *c += 1;
+        }
+        present.sort_unstable();
+        let mut groups: Vec<(u8, usize, usize)> = Vec::with_capacity(present.len());
+        let mut next = [0u32; 256];
+        let mut start = 0usize;
+        for &e in &present {
+            let n = per_element[e as usize] as usize;
+            groups.push((e, start, start + n));
+            next[e as usize] = start as u32;
+            start += n;
+        }
+        let mut by_element = vec![0usize; atoms.len()];
+        for (i, a) in atoms.iter().enumerate() {
+            let slot = &mut next[a.element as usize];
+            if let Some(x) = by_element.get_mut(*slot as usize) {
+                *x = i;
+            }
+            *slot += 1;
         }
         let sig = atoms
             .iter()
