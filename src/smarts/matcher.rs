@@ -359,6 +359,16 @@ pub(crate) fn query_atom_matches(
     }
 }
 
+/// The start atom's cheap tests before its full expression: signature
+/// filter, then the neighbourhood conditions.
+#[inline]
+fn root_passes(q: &Query, step: &Step, a: usize, t: &Target) -> bool {
+    let (Some(qa), Some(&sig)) = (q.atoms.get(step.atom), t.sig.get(a)) else {
+        return false;
+    };
+    sig & qa.sig_mask == qa.sig_value && reach_ok(q, &step.reach, a, usize::MAX, t)
+}
+
 /// Enumerate matches of `q` following `plan`. With `start`, the first plan
 /// atom is fixed to that molecule atom. `visit` receives the mapping
 /// (pattern atom -> molecule atom) and returns whether to continue. With
@@ -421,7 +431,7 @@ pub(crate) fn search(
                 cache.steps_left -= 1;
                 !chosen[..d].contains(&a)
                     && !(skip_depth == Some(d) && skip.is_some_and(|(_, done)| done.get(a)))
-                    && (d != 0 || reach_ok(q, &step.reach, a, usize::MAX, t))
+                    && (d != 0 || root_passes(q, step, a, t))
                     && query_atom_matches(q, step.atom, a, t, pat, cache)
                     && step.closures.iter().all(|&(other, qb)| {
                         match (t.bond_between(a, map[other]), q.bonds.get(qb)) {
