@@ -6,7 +6,7 @@
 //! nesting limit of the parser.
 
 use super::expr::{AtomExpr, AtomPrim};
-use super::target::Target;
+use super::target::{NbrInfo, Target};
 use super::{Pattern, Query, QueryBond, Reach, Step};
 use crate::mol::BondOrder;
 use std::cell::Cell;
@@ -114,7 +114,7 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
         q.atoms
             .get(q.plan_anchor.first().map_or(0, |s| s.atom))
             .is_some_and(|qa| s & qa.sig_mask == qa.sig_value)
-    }) && reach_ok(q, reach, a, usize::MAX, t);
+    }) && reach_ok(reach, a, usize::MAX, t);
     if !root_ok {
         return false;
     }
@@ -142,43 +142,32 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
 /// At most [`REACH_BUDGET`] neighbour tests are made; beyond that the
 /// answer is yes (the test only has to be necessary). Recursion depth is
 /// bounded by the depth the conditions were built with.
-pub(crate) fn reach_ok(q: &Query, reach: &[Reach], a: usize, from: usize, t: &Target) -> bool {
+pub(crate) fn reach_ok(reach: &[Reach], a: usize, from: usize, t: &Target) -> bool {
     let mut budget = REACH_BUDGET;
-    reach_within(q, reach, a, from, t, &mut budget)
+    reach_within(reach, a, from, t, &mut budget)
 }
 
 /// Neighbour tests one [`reach_ok`] call may make.
 const REACH_BUDGET: u32 = 400;
 
-fn reach_within(
-    q: &Query,
-    reach: &[Reach],
-    a: usize,
-    from: usize,
-    t: &Target,
-    budget: &mut u32,
-) -> bool {
+fn reach_within(reach: &[Reach], a: usize, from: usize, t: &Target, budget: &mut u32) -> bool {
     if reach.is_empty() {
         return true;
     }
-    let nbrs = t.neighbors(a);
+    let nbrs = t.nbr_info(a);
     // The neighbour itself: bond and signature filter.
-    let near = |r: &Reach, nb: &crate::mol::Neighbor| -> bool {
-        nb.atom != from
-            && match (q.atoms.get(r.atom), t.sig.get(nb.atom), q.bonds.get(r.bond)) {
-                (Some(qa), Some(&sig), Some(qb)) => {
-                    sig & qa.sig_mask == qa.sig_value && bond_matches(qb, nb.bond, t)
-                }
-                _ => false,
-            }
+    let near = |r: &Reach, nb: &NbrInfo| -> bool {
+        nb.sig & r.sig_mask == r.sig_value
+            && r.bond_mask >> nb.state & 1 == 1
+            && nb.atom as usize != from
     };
     // ... and what lies beyond it.
-    let far = |r: &Reach, nb: &crate::mol::Neighbor, budget: &mut u32| -> bool {
+    let far = |r: &Reach, nb: &NbrInfo, budget: &mut u32| -> bool {
         if *budget == 0 {
             return true;
         }
         *budget -= 1;
-        reach_within(q, &r.next, nb.atom, a, t, budget)
+        reach_within(&r.next, nb.atom as usize, a, t, budget)
     };
     const MAX_ALTS: usize = 8;
     if reach.len() == 1 || reach.len() > MAX_ALTS || nbrs.len() > 64 {
@@ -366,7 +355,7 @@ fn root_passes(q: &Query, step: &Step, a: usize, t: &Target) -> bool {
     let (Some(qa), Some(&sig)) = (q.atoms.get(step.atom), t.sig.get(a)) else {
         return false;
     };
-    sig & qa.sig_mask == qa.sig_value && reach_ok(q, &step.reach, a, usize::MAX, t)
+    sig & qa.sig_mask == qa.sig_value && reach_ok(&step.reach, a, usize::MAX, t)
 }
 
 /// Enumerate matches of `q` following `plan`. With `start`, the first plan

@@ -201,6 +201,11 @@ pub(crate) struct Reach {
     pub atom: usize,
     pub bond: usize,
     pub next: Vec<Reach>,
+    /// Copies of the atom's signature filter and the bond's state mask
+    /// (filled in by [`Query::fill_reach`] once the filters are final).
+    pub sig_mask: u64,
+    pub sig_value: u64,
+    pub bond_mask: u16,
 }
 
 /// How many bonds out from the start atom [`Reach`] conditions look.
@@ -249,6 +254,98 @@ impl Query {
 
     fn set_anchor(&mut self, anchor: usize) {
         self.plan_anchor = self.plan(anchor);
+    }
+
+    /// Pattern bonds that can only match ring bonds: bonds on a cycle of
+    /// the pattern none of whose bonds can match a dative bond. Their
+    /// matches form a cycle of the molecule without dative bonds, which is
+    /// a ring (the molecule's rings leave dative bonds out), so such bonds
+    /// match only ring bonds and their atoms only ring atoms.
+    fn ring_only_bonds(&self) -> Vec<bool> {
+        const DATIVE: u16 = 1 << 5 | 1 << 11;
+        let usable = |b: &QueryBond| b.mask & DATIVE == 0;
+        let n = self.atoms.len();
+        let mut out = vec![false; self.bonds.len()];
+        let mut seen = vec![false; n];
+        let mut stack: Vec<usize> = Vec::new();
+        for (bi, b) in self.bonds.iter().enumerate() {
+            let [u, v] = b.atoms;
+            if !usable(b) || u >= n || v >= n || u == v {
+                continue;
+            }
+            // Another path from u to v of at least two usable bonds.
+            seen.iter_mut().for_each(|x| *x = false);
+            stack.clear();
+            seen[u] = true;
+            stack.push(u);
+            let mut found = false;
+            while let Some(x) = stack.pop() {
+                for &(y, b2) in self.adj.get(x).map(Vec::as_slice).unwrap_or(&[]) {
+                    let Some(qb2) = self.bonds.get(b2) else {
+                        continue;
+                    };
+                    // No direct u-v bond (this one or a parallel one).
+                    let direct = (x == u && y == v) || (x == v && y == u);
+                    if direct || !usable(qb2) || seen.get(y).copied().unwrap_or(true) {
+                        continue;
+                    }
+                    if y == v {
+                        found = true;
+                        break;
+                    }
+                    seen[y] = true;
+                    stack.push(y);
+                }
+                if found {
+                    break;
+                }
+            }
+            out[bi] = found;
+        }
+        out
+    }
+
+    /// Add the ring requirement of [`Query::ring_only_bonds`] to the atom
+    /// filters, and copy the final atom filters and bond masks into the
+    /// [`Reach`] conditions of both plans.
+    fn fill_reach(&mut self) {
+        let ring_only = self.ring_only_bonds();
+        let ring_bit = 1u64 << expr::SIG_RING;
+        for (b, &r) in self.bonds.iter().zip(&ring_only) {
+            if r {
+                for a in b.atoms {
+                    if let Some(qa) = self.atoms.get_mut(a) {
+                        // Unless the filter already asks for no ring (then
+                        // nothing matches anyway).
+                        if qa.sig_mask & ring_bit == 0 {
+                            qa.sig_mask |= ring_bit;
+                            qa.sig_value |= ring_bit;
+                        }
+                    }
+                }
+            }
+        }
+        fn fill(list: &mut [Reach], atoms: &[QueryAtom], bonds: &[QueryBond], ring_only: &[bool]) {
+            for r in list {
+                if let Some(qa) = atoms.get(r.atom) {
+                    (r.sig_mask, r.sig_value) = (qa.sig_mask, qa.sig_value);
+                }
+                // A bond index out of range never matches; a ring-only
+                // bond keeps its in-ring states (bits 6 to 11).
+                let ring_states = if ring_only.get(r.bond).copied().unwrap_or(false) {
+                    0xfc0
+                } else {
+                    0xfff
+                };
+                r.bond_mask = bonds.get(r.bond).map_or(0, |qb| qb.mask & ring_states);
+                fill(&mut r.next, atoms, bonds, ring_only);
+            }
+        }
+        for plan in [&mut self.plan_free, &mut self.plan_anchor] {
+            if let Some(first) = plan.first_mut() {
+                fill(&mut first.reach, &self.atoms, &self.bonds, &ring_only);
+            }
+        }
     }
 
     fn score(&self, i: usize) -> u32 {
@@ -344,6 +441,9 @@ impl Query {
                 atom: x,
                 bond: b,
                 next: self.reach(x, atom, depth - 1, budget),
+                sig_mask: 0,
+                sig_value: 0,
+                bond_mask: u16::MAX,
             });
         }
         out
@@ -403,6 +503,9 @@ impl Pattern {
         let anchor = main.atoms.iter().position(|a| a.map == Some(1));
         if let Some(a) = anchor {
             main.set_anchor(a);
+        }
+        for q in recursive.iter_mut().chain(std::iter::once(&mut main)) {
+            q.fill_reach();
         }
         let mut screen = Screen {
             atoms: main.atoms.len(),
@@ -636,7 +739,7 @@ impl Pattern {
             return None;
         }
         let first = self.main.plan_anchor.first()?;
-        if !matcher::reach_ok(&self.main, &first.reach, atom, usize::MAX, t) {
+        if !matcher::reach_ok(&first.reach, atom, usize::MAX, t) {
             return None;
         }
         let mut cache = new_cache(u64::MAX);

@@ -21,6 +21,16 @@ pub(crate) struct AtomInfo {
     pub valence: u8,
 }
 
+/// One neighbour entry as the neighbourhood screens read it.
+#[derive(Debug, Clone, Copy)]
+pub(crate) struct NbrInfo {
+    /// The neighbour's atom signature.
+    pub sig: u64,
+    pub atom: u32,
+    /// State of the bond to it (see [`Target::bond_state`]).
+    pub state: u8,
+}
+
 /// A molecule prepared for matching many patterns. Build it once per
 /// molecule with [`Target::new`] and pass it to the `*_in` methods of
 /// [`super::Pattern`] when running more than one pattern. It holds no
@@ -35,6 +45,10 @@ pub struct Target<'m> {
     /// or 5 for a dative bond (donor to metal; it matches only `~` and
     /// negations), plus 6 when the bond is in a ring.
     pub(crate) bond_state: Vec<u8>,
+    /// Neighbours with their signatures and bond states, in compressed
+    /// rows: atom `i` has `nbr[nbr_start[i]..nbr_start[i + 1]]`.
+    nbr_start: Vec<u32>,
+    nbr: Vec<NbrInfo>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
     pub(crate) aromatic_count: usize,
@@ -140,7 +154,7 @@ impl<'m> Target<'m> {
             }
             *slot += 1;
         }
-        let sig = atoms
+        let sig: Vec<u64> = atoms
             .iter()
             .enumerate()
             .map(|(i, info)| {
@@ -148,8 +162,25 @@ impl<'m> Target<'m> {
                 super::expr::atom_signature(info) | ring
             })
             .collect();
+        let mut nbr_start: Vec<u32> = Vec::with_capacity(atoms.len() + 1);
+        let mut nbr: Vec<NbrInfo> = Vec::with_capacity(2 * mol.bonds.len());
+        nbr_start.push(0);
+        for i in 0..atoms.len() {
+            for nb in mol.neighbors(i) {
+                if let (Some(&s), Some(&state)) = (sig.get(nb.atom), bond_state.get(nb.bond)) {
+                    nbr.push(NbrInfo {
+                        sig: s,
+                        atom: nb.atom as u32,
+                        state,
+                    });
+                }
+            }
+            nbr_start.push(nbr.len() as u32);
+        }
         Target {
             mol,
+            nbr_start,
+            nbr,
             atoms,
             sig,
             bond_state,
@@ -214,6 +245,15 @@ impl<'m> Target<'m> {
         match self.groups.iter().find(|g| g.0 == e) {
             Some(&(_, s, x)) => self.by_element.get(s..x).unwrap_or(&[]),
             None => &[],
+        }
+    }
+
+    /// Neighbours of atom `a` with signatures and bond states.
+    #[inline]
+    pub(crate) fn nbr_info(&self, a: usize) -> &[NbrInfo] {
+        match self.nbr_start.get(a..a + 2) {
+            Some(&[s, e]) => self.nbr.get(s as usize..e as usize).unwrap_or(&[]),
+            _ => &[],
         }
     }
 
