@@ -287,6 +287,11 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
     let mut f = MoleculeFeatures::default();
     for (name, p) in &pats.groups {
         if *name == "ester_alkoxy" {
+            // The same pattern as "ester" (the oxygen labelled): no ester,
+            // no matches.
+            if !f.ester {
+                continue;
+            }
             let oxygen = p.anchor().unwrap_or(0);
             for m in p.unique_matches_in(&target) {
                 let Some(&o) = m.get(oxygen) else { continue };

@@ -627,7 +627,10 @@ fn run_on(
             7 | 8 | 16 => {}
             _ => continue,
         }
-        for (r, rule) in set.rules.iter().enumerate() {
+        for &r in set.rules_for(a.element) {
+            let Some(rule) = set.rules.get(r) else {
+                continue;
+            };
             if rule.z != a.element
                 || rule.required_elements & !mask != 0
                 || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)

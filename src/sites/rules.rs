@@ -144,6 +144,19 @@ pub struct RuleSet {
     pub increments: Vec<Increment>,
     /// Citation key -> full reference.
     pub sources: HashMap<String, String>,
+    /// Indices into `rules` per acidic element (atomic number, list in
+    /// rule order), so that an atom is tried only against its own rows.
+    by_element: Vec<(u8, Vec<usize>)>,
+}
+
+impl RuleSet {
+    /// Indices of the rules for acidic atoms of element `z`, in rule order.
+    pub(crate) fn rules_for(&self, z: u8) -> &[usize] {
+        self.by_element
+            .iter()
+            .find(|(e, _)| *e == z)
+            .map_or(&[], |(_, v)| v.as_slice())
+    }
 }
 
 /// One parsed line of a table: 1-based line number and cells by column.
@@ -553,12 +566,20 @@ pub fn parse_rule_set(
             }
         }
     }
+    let mut by_element: Vec<(u8, Vec<usize>)> = Vec::new();
+    for (i, r) in rule_rows.iter().enumerate() {
+        match by_element.iter_mut().find(|(e, _)| *e == r.z) {
+            Some((_, v)) => v.push(i),
+            None => by_element.push((r.z, vec![i])),
+        }
+    }
     Ok(RuleSet {
         version,
         match_order,
         rules: rule_rows,
         increments: incs,
         sources: src,
+        by_element,
     })
 }
 
