@@ -65,46 +65,18 @@ pub struct Target<'m> {
 impl<'m> Target<'m> {
     /// Prepare `mol` for matching.
     pub fn new(mol: &'m Molecule) -> Target<'m> {
-        let mut element_count = [0u16; 128];
-        let mut aromatic_count = 0;
-        let mut atoms: Vec<AtomInfo> = Vec::with_capacity(mol.atoms.len());
-        for (i, a) in mol.atoms.iter().enumerate() {
-            let nbrs = mol.neighbors(i);
-            let mut valence = a.hydrogens as u32;
-            for nb in nbrs {
-                // A dative bond does not count for its donor (RDKit).
-                if mol.dative_donor(nb.bond) == Some(i) {
-                    continue;
-                }
-                valence += mol
-                    .bonds
-                    .get(nb.bond)
-                    .map_or(0, |b| match (b.kekule, b.order) {
-                        (k, _) if k > 0 => k as u32,
-                        (_, o) => o.as_u8() as u32,
-                    });
-            }
-            let e = (a.element as usize).min(127);
-            element_count[e] = element_count[e].saturating_add(1);
-            if a.aromatic {
-                aromatic_count += 1;
-            }
-            atoms.push(AtomInfo {
-                element: a.element,
-                aromatic: a.aromatic,
-                charge: a.charge,
-                isotope: a.isotope.unwrap_or(0),
-                hydrogens: a.hydrogens,
-                degree: nbrs.len().min(255) as u8,
-                valence: valence.min(255) as u8,
-            });
-        }
         let (mut double_count, mut triple_count, mut aromatic_bond_count) = (0, 0, 0);
         let bond_state: Vec<u8> = mol
             .bonds
             .iter()
             .enumerate()
             .map(|(b, bond)| {
+                match bond.order {
+                    BondOrder::Double => double_count += 1,
+                    BondOrder::Triple => triple_count += 1,
+                    BondOrder::Aromatic => aromatic_bond_count += 1,
+                    _ => {}
+                }
                 let state = if mol.dative_donor(b).is_some() {
                     5
                 } else {
@@ -116,20 +88,50 @@ impl<'m> Target<'m> {
                         BondOrder::Aromatic => 4,
                     }
                 };
-                match bond.order {
-                    BondOrder::Double => double_count += 1,
-                    BondOrder::Triple => triple_count += 1,
-                    BondOrder::Aromatic => aromatic_bond_count += 1,
-                    _ => {}
-                }
                 state + if mol.bond_in_ring(b) { 6 } else { 0 }
             })
             .collect();
+        let atoms: Vec<AtomInfo> = mol
+            .atoms
+            .iter()
+            .enumerate()
+            .map(|(i, a)| {
+                let nbrs = mol.neighbors(i);
+                let mut valence = a.hydrogens as u32;
+                for nb in nbrs {
+                    // A dative bond does not count for its donor (RDKit).
+                    if mol.dative_donor(nb.bond) == Some(i) {
+                        continue;
+                    }
+                    valence += mol
+                        .bonds
+                        .get(nb.bond)
+                        .map_or(0, |b| match (b.kekule, b.order) {
+                            (k, _) if k > 0 => k as u32,
+                            (_, o) => o.as_u8() as u32,
+                        });
+                }
+                AtomInfo {
+                    element: a.element,
+                    aromatic: a.aromatic,
+                    charge: a.charge,
+                    isotope: a.isotope.unwrap_or(0),
+                    hydrogens: a.hydrogens,
+                    degree: nbrs.len().min(255) as u8,
+                    valence: valence.min(255) as u8,
+                }
+            })
+            .collect();
+        let mut element_count = [0u16; 128];
+        let mut aromatic_count = 0;
         // Atoms grouped by element (a counting sort: ascending index within
         // a group, groups by ascending element).
         let mut per_element = [0u32; 256];
-        let mut present: Vec<u8> = Vec::new();
+        let mut present: Vec<u8> = Vec::with_capacity(8);
         for a in &atoms {
+            let e = (a.element as usize).min(127);
+            element_count[e] = element_count[e].saturating_add(1);
+            aromatic_count += usize::from(a.aromatic);
             let c = &mut per_element[a.element as usize];
             if *c == 0 {
                 present.push(a.element);
@@ -138,17 +140,18 @@ impl<'m> Target<'m> {
         }
         present.sort_unstable();
         let mut groups: Vec<(u8, usize, usize)> = Vec::with_capacity(present.len());
-        let mut next = [0u32; 256];
-        let mut start = 0usize;
+        // `per_element` becomes each group's next free slot.
+        let mut start = 0u32;
         for &e in &present {
-            let n = per_element[e as usize] as usize;
-            groups.push((e, start, start + n));
-            next[e as usize] = start as u32;
-            start += n;
+            let slot = &mut per_element[e as usize];
+            let count = *slot;
+            groups.push((e, start as usize, (start + count) as usize));
+            *slot = start;
+            start += count;
         }
         let mut by_element = vec![0usize; atoms.len()];
         for (i, a) in atoms.iter().enumerate() {
-            let slot = &mut next[a.element as usize];
+            let slot = &mut per_element[a.element as usize];
             if let Some(x) = by_element.get_mut(*slot as usize) {
                 *x = i;
             }
@@ -166,15 +169,12 @@ impl<'m> Target<'m> {
         let mut nbr: Vec<NbrInfo> = Vec::with_capacity(2 * mol.bonds.len());
         nbr_start.push(0);
         for i in 0..atoms.len() {
-            for nb in mol.neighbors(i) {
-                if let (Some(&s), Some(&state)) = (sig.get(nb.atom), bond_state.get(nb.bond)) {
-                    nbr.push(NbrInfo {
-                        sig: s,
-                        atom: nb.atom as u32,
-                        state,
-                    });
-                }
-            }
+            nbr.extend(mol.neighbors(i).iter().map(|nb| NbrInfo {
+                sig: sig.get(nb.atom).copied().unwrap_or(0),
+                atom: nb.atom as u32,
+                // 15: a state no bond mask has.
+                state: bond_state.get(nb.bond).copied().unwrap_or(15),
+            }));
             nbr_start.push(nbr.len() as u32);
         }
         Target {
