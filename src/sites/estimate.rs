@@ -322,8 +322,9 @@ fn apply_increments(
             }
         };
         let find = |kind: &str| {
-            set.increments
+            set.increments_of(kind)
                 .iter()
+                .filter_map(|&k| set.increments.get(k))
                 .filter(|r| {
                     r.kind == kind
                         && r.nth <= n
