@@ -614,6 +614,8 @@ fn run_on(
     let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();
+    // Per rule: 0 screen not run yet, 1 passed, 2 failed.
+    let mut screened = vec![0u8; set.rules.len()];
     for &i in &atoms {
         let a = &mol.atoms[i];
         if a.hydrogens == 0 {
@@ -638,7 +640,22 @@ fn run_on(
             {
                 continue;
             }
-            if let Some(m) = rule.pattern.matches_at_in(&target, i) {
+            // The molecule-wide screen once per rule and molecule.
+            let passes = match screened.get(r).copied() {
+                Some(0) => {
+                    let ok = rule.pattern.passes_screen(&target);
+                    if let Some(x) = screened.get_mut(r) {
+                        *x = if ok { 1 } else { 2 };
+                    }
+                    ok
+                }
+                Some(x) => x == 1,
+                None => rule.pattern.passes_screen(&target),
+            };
+            if !passes {
+                continue;
+            }
+            if let Some(m) = rule.pattern.matches_at_screened(&target, i) {
                 let site = estimate_atom(mol, set, sigma, i, rule, &m);
                 raws.push(Raw {
                     atom: i,

@@ -308,6 +308,42 @@ pub(crate) fn implied_signature(
     }
 }
 
+/// Elements (atomic numbers below 128, as bits) an atom matching `expr`
+/// can have; None when any element can match. `depth` bounds the
+/// recursion through nested recursive parts.
+pub(crate) fn possible_elements(
+    expr: &AtomExpr,
+    recursive: &[super::Query],
+    depth: usize,
+) -> Option<u128> {
+    const MAX_DEPTH: usize = 8;
+    if depth > MAX_DEPTH {
+        return None;
+    }
+    match expr {
+        AtomExpr::Prim(AtomPrim::Element { number, .. }) => {
+            (*number < 128).then(|| 1u128 << number)
+        }
+        AtomExpr::Prim(AtomPrim::Recursive(id)) => {
+            let q = recursive.get(*id)?;
+            let root = q.plan_anchor.first().map_or(0, |s| s.atom);
+            possible_elements(&q.atoms.get(root)?.expr, recursive, depth + 1)
+        }
+        AtomExpr::Prim(_) | AtomExpr::Not(_) => None,
+        AtomExpr::And(v) => v
+            .iter()
+            .filter_map(|e| possible_elements(e, recursive, depth + 1))
+            .reduce(|a, b| a & b),
+        AtomExpr::Or(v) => {
+            let mut out = 0u128;
+            for e in v {
+                out |= possible_elements(e, recursive, depth + 1)?;
+            }
+            Some(out)
+        }
+    }
+}
+
 pub(crate) fn ring_signature(expr: &AtomExpr) -> (u64, u64) {
     let mut parts = Vec::new();
     flatten_and(expr, &mut parts);

@@ -455,6 +455,10 @@ impl Query {
 struct Screen {
     atoms: usize,
     elements: Vec<(u8, u16)>,
+    /// Per pattern atom that allows several elements only: the molecule
+    /// needs an atom of one of them (bits as in
+    /// [`expr::possible_elements`]).
+    element_sets: Vec<u128>,
     aromatic: usize,
     ring: bool,
     double: usize,
@@ -561,6 +565,13 @@ impl Pattern {
             .filter(|(_, &c)| c > 0)
             .map(|(e, &c)| (e as u8, c))
             .collect();
+        for a in &main.atoms {
+            if let Some(set) = expr::possible_elements(&a.expr, &recursive, 0) {
+                if set.count_ones() != 1 && !screen.element_sets.contains(&set) {
+                    screen.element_sets.push(set);
+                }
+            }
+        }
         Ok(Pattern {
             source: smarts.to_string(),
             main,
@@ -632,6 +643,9 @@ impl Pattern {
             .iter()
             .all(|&(e, c)| t.element_count.get(e as usize).copied().unwrap_or(0) >= c)
         {
+            return false;
+        }
+        if !s.element_sets.iter().all(|&set| set & t.element_mask != 0) {
             return false;
         }
         !s.ring || t.has_ring()
@@ -732,10 +746,20 @@ impl Pattern {
 
     /// [`Pattern::matches_at`] on a prepared molecule.
     pub fn matches_at_in(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
+        if !self.passes_screen(t) {
+            return None;
+        }
+        self.matches_at_screened(t, atom)
+    }
+
+    /// [`Pattern::matches_at_in`] for a caller that has already seen
+    /// [`Pattern::passes_screen`] hold for this target (when trying one
+    /// pattern on many atoms).
+    pub(crate) fn matches_at_screened(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
         // The anchor's simple comparisons first: they reject most atoms at
         // once; the rest of its expression is tested by the search.
         let qa = self.main.atoms.get(self.anchor_or_first())?;
-        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value || !self.passes_screen(t) {
+        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value {
             return None;
         }
         let first = self.main.plan_anchor.first()?;

@@ -51,6 +51,8 @@ pub struct Target<'m> {
     nbr: Vec<NbrInfo>,
     /// Atom count per atomic number (0..=127; larger numbers are clamped).
     pub(crate) element_count: [u16; 128],
+    /// Bit `e` set when the molecule has an atom of element `e` (below 128).
+    pub(crate) element_mask: u128,
     pub(crate) aromatic_count: usize,
     /// Non-aromatic double and triple bonds, aromatic bonds.
     pub(crate) double_count: usize,
@@ -123,6 +125,7 @@ impl<'m> Target<'m> {
             })
             .collect();
         let mut element_count = [0u16; 128];
+        let mut element_mask = 0u128;
         let mut aromatic_count = 0;
         // Atoms grouped by element (a counting sort: ascending index within
         // a group, groups by ascending element).
@@ -131,6 +134,9 @@ impl<'m> Target<'m> {
         for a in &atoms {
             let e = (a.element as usize).min(127);
             element_count[e] = element_count[e].saturating_add(1);
+            if a.element < 128 {
+                element_mask |= 1u128 << a.element;
+            }
             aromatic_count += usize::from(a.aromatic);
             let c = &mut per_element[a.element as usize];
             if *c == 0 {
@@ -190,6 +196,7 @@ impl<'m> Target<'m> {
             by_element,
             groups,
             element_count,
+            element_mask,
             aromatic_count,
         }
     }
