@@ -9,7 +9,7 @@
 
 use super::catalogue::Scale;
 use super::equilibrium::{AcidUnit, Microsite};
-use crate::mol::{BondOrder, Molecule};
+use crate::mol::{BondOrder, Molecule, Neighbor};
 use crate::sites::SiteReport;
 use crate::smarts::{Pattern, Target as SmartsTarget};
 use std::sync::OnceLock;
@@ -57,23 +57,16 @@ pub struct SiteFeatures {
 
 const C: u8 = 6;
 
+/// Read-only helpers over the molecule's bond graph (its own compressed
+/// adjacency; the reader rejects self-bonds, so every entry is a real
+/// neighbour).
 struct Graph<'a> {
     mol: &'a Molecule,
-    adj: Vec<Vec<(usize, usize)>>,
 }
 
 impl<'a> Graph<'a> {
     fn new(mol: &'a Molecule) -> Self {
-        let n = mol.atoms.len();
-        let mut adj = vec![Vec::new(); n];
-        for (bi, b) in mol.bonds.iter().enumerate() {
-            let [a, c] = b.atoms;
-            if a < n && c < n && a != c {
-                adj[a].push((c, bi));
-                adj[c].push((a, bi));
-            }
-        }
-        Graph { mol, adj }
+        Graph { mol }
     }
     fn el(&self, i: usize) -> u8 {
         self.mol.atoms.get(i).map(|a| a.element).unwrap_or(0)
@@ -81,8 +74,8 @@ impl<'a> Graph<'a> {
     fn h(&self, i: usize) -> u8 {
         self.mol.atoms.get(i).map(|a| a.hydrogens).unwrap_or(0)
     }
-    fn nbrs(&self, i: usize) -> &[(usize, usize)] {
-        self.adj.get(i).map(Vec::as_slice).unwrap_or(&[])
+    fn nbrs(&self, i: usize) -> &'a [Neighbor] {
+        self.mol.neighbors(i)
     }
     fn order(&self, bond: usize) -> u8 {
         match self.mol.bonds.get(bond) {
@@ -102,7 +95,7 @@ impl<'a> Graph<'a> {
     fn is_sp3_carbon(&self, i: usize) -> bool {
         self.el(i) == C
             && !self.aromatic(i)
-            && self.nbrs(i).iter().all(|&(_, b)| self.order(b) == 1)
+            && self.nbrs(i).iter().all(|nb| self.order(nb.bond) == 1)
     }
 
     /// Bounded environment signature of the branch entered from `parent` at `atom`.
@@ -121,8 +114,14 @@ impl<'a> Graph<'a> {
         let mut kids: Vec<String> = self
             .nbrs(atom)
             .iter()
-            .filter(|&&(j, _)| j != parent)
-            .map(|&(j, b)| format!("{}{}", self.order(b), self.signature(j, atom, depth - 1)))
+            .filter(|nb| nb.atom != parent)
+            .map(|nb| {
+                format!(
+                    "{}{}",
+                    self.order(nb.bond),
+                    self.signature(nb.atom, atom, depth - 1)
+                )
+            })
             .collect();
         kids.sort();
         s.push('(');
@@ -130,6 +129,70 @@ impl<'a> Graph<'a> {
         s.push(')');
         s
     }
+
+    /// Hash of what [`Graph::signature`] describes (same arguments), built
+    /// without allocating: the children are combined by a sum and an xor of
+    /// their mixed hashes, so their order does not matter and equal
+    /// signatures always give equal hashes.
+    fn branch_hash(&self, atom: usize, parent: usize, depth: u8) -> u64 {
+        let Some(a) = self.mol.atoms.get(atom) else {
+            return 0;
+        };
+        let label = u64::from(a.element)
+            | u64::from(a.charge as u8) << 8
+            | u64::from(a.hydrogens) << 16
+            | u64::from(a.aromatic) << 24
+            | u64::from(depth) << 32;
+        let mut h = mix64(label ^ 0x5163_7a2b_9e37_79b9);
+        if depth == 0 {
+            return h;
+        }
+        let (mut sum, mut xor, mut count) = (0u64, 0u64, 0u64);
+        for nb in self.nbrs(atom) {
+            if nb.atom == parent {
+                continue;
+            }
+            let kid = mix64(
+                self.branch_hash(nb.atom, atom, depth - 1)
+                    ^ u64::from(self.order(nb.bond)).wrapping_mul(0x9e37_79b9_7f4a_7c15),
+            );
+            sum = sum.wrapping_add(kid);
+            xor ^= kid.rotate_left(29);
+            count += 1;
+        }
+        h = mix64(h ^ sum);
+        mix64(h ^ xor ^ count.wrapping_mul(0xd6e8_feb8_6659_fd93))
+    }
+}
+
+/// Are the three branches at `t` pairwise different up to four bonds out
+/// (compared by [`Graph::signature`])? Equal branches give equal
+/// [`Graph::branch_hash`] values, so three different hashes settle it
+/// without building the signatures; otherwise the signatures decide.
+fn three_distinct_branches(g: &Graph, t: usize) -> bool {
+    let nbrs = g.nbrs(t);
+    let [x, y, z] = nbrs else {
+        return false;
+    };
+    let (hx, hy, hz) = (
+        g.branch_hash(x.atom, t, 4),
+        g.branch_hash(y.atom, t, 4),
+        g.branch_hash(z.atom, t, 4),
+    );
+    if hx != hy && hx != hz && hy != hz {
+        return true;
+    }
+    let mut sigs: Vec<String> = nbrs.iter().map(|nb| g.signature(nb.atom, t, 4)).collect();
+    sigs.sort();
+    sigs.dedup();
+    sigs.len() == 3
+}
+
+/// 64-bit mixing step (the SplitMix64 finaliser).
+fn mix64(mut x: u64) -> u64 {
+    x = (x ^ (x >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+    x = (x ^ (x >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+    x ^ (x >> 31)
 }
 
 /// SMARTS patterns for the molecule-wide groups (name, pattern).
@@ -224,6 +287,11 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
     let mut f = MoleculeFeatures::default();
     for (name, p) in &pats.groups {
         if *name == "ester_alkoxy" {
+            // The same pattern as "ester" (the oxygen labelled): no ester,
+            // no matches.
+            if !f.ester {
+                continue;
+            }
             let oxygen = p.anchor().unwrap_or(0);
             for m in p.unique_matches_in(&target) {
                 let Some(&o) = m.get(oxygen) else { continue };
@@ -277,17 +345,12 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
                 {
                     sf.dicarbonyl = true;
                 }
-                if g.h(t) == 1 && g.is_sp3_carbon(t) && g.nbrs(t).len() == 3 {
-                    let mut sigs: Vec<String> = g
-                        .nbrs(t)
-                        .iter()
-                        .map(|&(j, _)| g.signature(j, t, 4))
-                        .collect();
-                    sigs.sort();
-                    sigs.dedup();
-                    if sigs.len() == 3 {
-                        sf.stereocentre = true;
-                    }
+                if g.h(t) == 1
+                    && g.is_sp3_carbon(t)
+                    && g.nbrs(t).len() == 3
+                    && three_distinct_branches(&g, t)
+                {
+                    sf.stereocentre = true;
                 }
             }
         }
@@ -311,11 +374,13 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
         if a == b {
             return true;
         }
-        let na: Vec<usize> = g.nbrs(a).iter().map(|&(x, _)| x).collect();
-        if na.contains(&b) {
+        let na = g.nbrs(a);
+        if na.iter().any(|x| x.atom == b) {
             return true;
         }
-        g.nbrs(b).iter().any(|&(x, _)| na.contains(&x))
+        g.nbrs(b)
+            .iter()
+            .any(|x| na.iter().any(|y| y.atom == x.atom))
     };
     for i in 0..n {
         for j in (i + 1)..n {

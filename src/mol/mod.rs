@@ -516,37 +516,66 @@ impl Molecule {
 
 fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
     let mut counts = [0u32; 119];
+    // Elements present, in order of first appearance (no scan of the
+    // whole table afterwards).
+    let mut present: Vec<u8> = Vec::with_capacity(8);
     let mut hydrogens = 0u32;
     for a in atoms {
         if let Some(c) = counts.get_mut(a.element as usize) {
+            if *c == 0 {
+                present.push(a.element);
+            }
             *c += 1;
         }
         hydrogens += a.hydrogens as u32;
     }
+    if counts[1] == 0 && hydrogens > 0 {
+        present.push(1);
+    }
     counts[1] += hydrogens;
-    let mut parts: Vec<(&str, u32)> = Vec::new();
+    let mut out = String::with_capacity(4 * present.len() + 4);
+    let mut put = |sym: &str, c: u32| {
+        out.push_str(sym);
+        if c > 1 {
+            push_decimal(&mut out, c);
+        }
+    };
     let has_carbon = counts[6] > 0;
     if has_carbon {
-        parts.push(("C", counts[6]));
+        put("C", counts[6]);
         if counts[1] > 0 {
-            parts.push(("H", counts[1]));
+            put("H", counts[1]);
         }
     }
     // `*` sorts before the letters, as RDKit writes it.
-    let mut rest: Vec<(&str, u32)> = (0..119)
-        .filter(|&z| counts[z] > 0 && !(has_carbon && (z == 6 || z == 1)))
+    let mut rest: Vec<(&str, u32)> = present
+        .iter()
+        .map(|&z| z as usize)
+        .filter(|&z| !(has_carbon && (z == 6 || z == 1)))
         .map(|z| (elements::SYMBOLS[z], counts[z]))
         .collect();
     rest.sort_unstable_by(|a, b| a.0.cmp(b.0));
-    parts.extend(rest);
-    let mut out = String::new();
-    for (sym, c) in parts {
-        out.push_str(sym);
-        if c > 1 {
-            out.push_str(&c.to_string());
-        }
+    for (sym, c) in rest {
+        put(sym, c);
     }
     out
+}
+
+/// Append `n` in decimal.
+fn push_decimal(out: &mut String, mut n: u32) {
+    let mut digits = [0u8; 10];
+    let mut k = digits.len();
+    loop {
+        k -= 1;
+        digits[k] = b'0' + (n % 10) as u8;
+        n /= 10;
+        if n == 0 {
+            break;
+        }
+    }
+    for &d in &digits[k..] {
+        out.push(d as char);
+    }
 }
 
 fn raw_order_value(o: RawOrder) -> u8 {

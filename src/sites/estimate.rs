@@ -322,8 +322,9 @@ fn apply_increments(
             }
         };
         let find = |kind: &str| {
-            set.increments
+            set.increments_of(kind)
                 .iter()
+                .filter_map(|&k| set.increments.get(k))
                 .filter(|r| {
                     r.kind == kind
                         && r.nth <= n
@@ -613,6 +614,8 @@ fn run_on(
     let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();
+    // Per rule: 0 screen not run yet, 1 passed, 2 failed.
+    let mut screened = vec![0u8; set.rules.len()];
     for &i in &atoms {
         let a = &mol.atoms[i];
         if a.hydrogens == 0 {
@@ -627,14 +630,32 @@ fn run_on(
             7 | 8 | 16 => {}
             _ => continue,
         }
-        for (r, rule) in set.rules.iter().enumerate() {
+        for &r in set.rules_for(a.element) {
+            let Some(rule) = set.rules.get(r) else {
+                continue;
+            };
             if rule.z != a.element
                 || rule.required_elements & !mask != 0
                 || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
             {
                 continue;
             }
-            if let Some(m) = rule.pattern.matches_at_in(&target, i) {
+            // The molecule-wide screen once per rule and molecule.
+            let passes = match screened.get(r).copied() {
+                Some(0) => {
+                    let ok = rule.pattern.passes_screen(&target);
+                    if let Some(x) = screened.get_mut(r) {
+                        *x = if ok { 1 } else { 2 };
+                    }
+                    ok
+                }
+                Some(x) => x == 1,
+                None => rule.pattern.passes_screen(&target),
+            };
+            if !passes {
+                continue;
+            }
+            if let Some(m) = rule.pattern.matches_at_screened(&target, i) {
                 let site = estimate_atom(mol, set, sigma, i, rule, &m);
                 raws.push(Raw {
                     atom: i,

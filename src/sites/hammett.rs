@@ -77,6 +77,9 @@ pub struct SigmaEntry {
 pub struct SigmaTable {
     pub entries: Vec<SigmaEntry>,
     by_key: HashMap<String, usize>,
+    /// [`key_hash`] of every key, sorted: a substituent whose hash is not
+    /// here has no entry, and its key text is never built.
+    hashes: Vec<u64>,
 }
 
 const MAX_ATOMS: usize = 12;
@@ -134,6 +137,88 @@ fn key_rec(
         s.push(')');
     }
     Some(s)
+}
+
+/// Molecule atoms visited by [`key_hash`]: the same list [`key_rec`] keeps,
+/// on the stack (it never holds more than `MAX_ATOMS + 2` atoms).
+struct Seen {
+    atoms: [usize; MAX_ATOMS + 4],
+    len: usize,
+}
+
+impl Seen {
+    fn contains(&self, a: usize) -> bool {
+        self.atoms[..self.len].contains(&a)
+    }
+    fn push(&mut self, a: usize) -> bool {
+        match self.atoms.get_mut(self.len) {
+            Some(slot) => {
+                *slot = a;
+                self.len += 1;
+                true
+            }
+            None => false,
+        }
+    }
+}
+
+/// 64-bit mixing step (the SplitMix64 finaliser).
+fn mix64(mut x: u64) -> u64 {
+    x = (x ^ (x >> 30)).wrapping_mul(0xbf58_476d_1ce4_e5b9);
+    x = (x ^ (x >> 27)).wrapping_mul(0x94d0_49bb_1331_11eb);
+    x ^ (x >> 31)
+}
+
+/// Hash of the text [`key`] gives for the same arguments (None exactly
+/// when `key` gives None), made by the same walk without building text:
+/// equal keys always give equal hashes (the branches are combined by a
+/// sum and an xor, so their order does not matter).
+fn key_hash(mol: &Molecule, atom: usize, parent: usize) -> Option<u64> {
+    let mut seen = Seen {
+        atoms: [usize::MAX; MAX_ATOMS + 4],
+        len: 0,
+    };
+    seen.push(parent);
+    seen.push(atom);
+    key_hash_rec(mol, atom, parent, &mut seen, 0)
+}
+
+fn key_hash_rec(
+    mol: &Molecule,
+    atom: usize,
+    parent: usize,
+    seen: &mut Seen,
+    depth: usize,
+) -> Option<u64> {
+    if depth > 6 || seen.len > MAX_ATOMS + 1 {
+        return None;
+    }
+    let a = mol.atoms.get(atom)?;
+    let label = u64::from(a.element)
+        | u64::from(a.aromatic) << 8
+        | u64::from(a.charge as u8) << 16
+        | u64::from(a.hydrogens) << 24;
+    let (mut sum, mut xor, mut count) = (0u64, 0u64, 0u64);
+    for nb in mol.neighbors(atom) {
+        if nb.atom == parent {
+            continue;
+        }
+        let order = u64::from(super::estimate::order_code(mol.bonds.get(nb.bond)?.order));
+        let kid = if seen.contains(nb.atom) {
+            mix64(order ^ 0x2545_f491_4f6c_dd1d)
+        } else {
+            if !seen.push(nb.atom) {
+                return None;
+            }
+            let h = key_hash_rec(mol, nb.atom, atom, seen, depth + 1)?;
+            mix64(h ^ order.wrapping_mul(0x9e37_79b9_7f4a_7c15))
+        };
+        sum = sum.wrapping_add(kid);
+        xor ^= kid.rotate_left(23);
+        count += 1;
+    }
+    let h = mix64(mix64(label ^ 0x5163_7a2b_9e37_79b9) ^ sum);
+    Some(mix64(h ^ xor ^ count.wrapping_mul(0xd6e8_feb8_6659_fd93)))
 }
 
 impl SigmaTable {
@@ -198,9 +283,10 @@ impl SigmaTable {
             let Some(first) = mol.neighbors(star).first().map(|nb| nb.atom) else {
                 return Err(err(line, "`*` is not bonded".into()));
             };
-            let Some(k) = key(&mol, first, star) else {
+            let (Some(k), Some(h)) = (key(&mol, first, star), key_hash(&mol, first, star)) else {
                 return Err(err(line, "substituent too large".into()));
             };
+            t.hashes.push(h);
             let idx = t.entries.len();
             t.entries.push(SigmaEntry {
                 name,
@@ -212,11 +298,15 @@ impl SigmaTable {
             });
             t.by_key.entry(k).or_insert(idx);
         }
+        t.hashes.sort_unstable();
+        t.hashes.dedup();
         Ok(t)
     }
 
     /// σ entry for the substituent `sub` on ring atom `ring_atom`.
     pub fn lookup(&self, mol: &Molecule, ring_atom: usize, sub: usize) -> Option<&SigmaEntry> {
+        let h = key_hash(mol, sub, ring_atom)?;
+        self.hashes.binary_search(&h).ok()?;
         let k = key(mol, sub, ring_atom)?;
         self.by_key.get(&k).map(|&i| &self.entries[i])
     }

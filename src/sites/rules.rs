@@ -144,6 +144,30 @@ pub struct RuleSet {
     pub increments: Vec<Increment>,
     /// Citation key -> full reference.
     pub sources: HashMap<String, String>,
+    /// Indices into `rules` per acidic element (atomic number, list in
+    /// rule order), so that an atom is tried only against its own rows.
+    by_element: Vec<(u8, Vec<usize>)>,
+    /// Indices into `increments` per substituent kind, in table order.
+    by_kind: Vec<(String, Vec<usize>)>,
+}
+
+impl RuleSet {
+    /// Indices of the rules for acidic atoms of element `z`, in rule order.
+    pub(crate) fn rules_for(&self, z: u8) -> &[usize] {
+        self.by_element
+            .iter()
+            .find(|(e, _)| *e == z)
+            .map_or(&[], |(_, v)| v.as_slice())
+    }
+
+    /// Indices of the increment rows for substituent kind `kind`, in
+    /// table order.
+    pub(crate) fn increments_of(&self, kind: &str) -> &[usize] {
+        self.by_kind
+            .iter()
+            .find(|(k, _)| k == kind)
+            .map_or(&[], |(_, v)| v.as_slice())
+    }
 }
 
 /// One parsed line of a table: 1-based line number and cells by column.
@@ -553,12 +577,28 @@ pub fn parse_rule_set(
             }
         }
     }
+    let mut by_element: Vec<(u8, Vec<usize>)> = Vec::new();
+    for (i, r) in rule_rows.iter().enumerate() {
+        match by_element.iter_mut().find(|(e, _)| *e == r.z) {
+            Some((_, v)) => v.push(i),
+            None => by_element.push((r.z, vec![i])),
+        }
+    }
+    let mut by_kind: Vec<(String, Vec<usize>)> = Vec::new();
+    for (i, inc) in incs.iter().enumerate() {
+        match by_kind.iter_mut().find(|(k, _)| *k == inc.kind) {
+            Some((_, v)) => v.push(i),
+            None => by_kind.push((inc.kind.clone(), vec![i])),
+        }
+    }
     Ok(RuleSet {
+        by_kind,
         version,
         match_order,
         rules: rule_rows,
         increments: incs,
         sources: src,
+        by_element,
     })
 }
 

@@ -244,6 +244,137 @@ const SIG_H: u32 = 10;
 const SIG_DEGREE: u32 = 18;
 const SIG_X: u32 = 26;
 const SIG_CHARGE: u32 = 34;
+/// Set when the atom has a ring bond (see [`ring_signature`]).
+pub(crate) const SIG_RING: u32 = 42;
+
+/// The ring-membership part of an atom signature: bit [`SIG_RING`] as
+/// (mask, value) when the top-level conjunction of `expr` fixes it (`R`,
+/// `r`, `x` alone or negated, `R0`, `r0`, `x0`, `x n`); (0, 0) otherwise.
+/// The primitives stay in the expression, so this only adds an early test.
+/// Signature filter (mask, value) every atom matching `expr` passes:
+/// the simple conjunctive primitives and ring membership as in
+/// [`AtomFilter::split`] and [`ring_signature`], the fields on which all
+/// alternatives of an `,` agree, and the filter of the first atom of a
+/// recursive part. `depth` bounds the recursion through nested parts.
+pub(crate) fn implied_signature(
+    expr: &AtomExpr,
+    recursive: &[super::Query],
+    depth: usize,
+) -> (u64, u64) {
+    const MAX_DEPTH: usize = 8;
+    if depth > MAX_DEPTH {
+        return (0, 0);
+    }
+    match expr {
+        AtomExpr::And(v) => {
+            let (mut mask, mut value) = (0u64, 0u64);
+            for e in v {
+                let (m, x) = implied_signature(e, recursive, depth + 1);
+                // Conflicting fields cannot both hold: any filter is then
+                // correct, keep the first.
+                let fresh = m & !mask;
+                mask |= fresh;
+                value |= x & fresh;
+            }
+            (mask, value)
+        }
+        AtomExpr::Or(v) => {
+            let mut it = v.iter().map(|e| implied_signature(e, recursive, depth + 1));
+            let Some((mut mask, mut value)) = it.next() else {
+                return (0, 0);
+            };
+            for (m, x) in it {
+                mask &= m & !(value ^ x);
+                value &= mask;
+            }
+            (mask, value & mask)
+        }
+        AtomExpr::Prim(AtomPrim::Recursive(id)) => {
+            let Some(q) = recursive.get(*id) else {
+                return (0, 0);
+            };
+            let root = q.plan_anchor.first().map_or(0, |s| s.atom);
+            match q.atoms.get(root) {
+                Some(a) => implied_signature(&a.expr, recursive, depth + 1),
+                None => (0, 0),
+            }
+        }
+        _ => {
+            let (f, _) = AtomFilter::split(expr);
+            let (m, x) = f.signature();
+            let (rm, rx) = ring_signature(expr);
+            (m | rm, x | rx)
+        }
+    }
+}
+
+/// Elements (atomic numbers below 128, as bits) an atom matching `expr`
+/// can have; None when any element can match. `depth` bounds the
+/// recursion through nested recursive parts.
+pub(crate) fn possible_elements(
+    expr: &AtomExpr,
+    recursive: &[super::Query],
+    depth: usize,
+) -> Option<u128> {
+    const MAX_DEPTH: usize = 8;
+    if depth > MAX_DEPTH {
+        return None;
+    }
+    match expr {
+        AtomExpr::Prim(AtomPrim::Element { number, .. }) => {
+            (*number < 128).then(|| 1u128 << number)
+        }
+        AtomExpr::Prim(AtomPrim::Recursive(id)) => {
+            let q = recursive.get(*id)?;
+            let root = q.plan_anchor.first().map_or(0, |s| s.atom);
+            possible_elements(&q.atoms.get(root)?.expr, recursive, depth + 1)
+        }
+        AtomExpr::Prim(_) | AtomExpr::Not(_) => None,
+        AtomExpr::And(v) => v
+            .iter()
+            .filter_map(|e| possible_elements(e, recursive, depth + 1))
+            .reduce(|a, b| a & b),
+        AtomExpr::Or(v) => {
+            let mut out = 0u128;
+            for e in v {
+                out |= possible_elements(e, recursive, depth + 1)?;
+            }
+            Some(out)
+        }
+    }
+}
+
+pub(crate) fn ring_signature(expr: &AtomExpr) -> (u64, u64) {
+    let mut parts = Vec::new();
+    flatten_and(expr, &mut parts);
+    let bit = 1u64 << SIG_RING;
+    for p in parts {
+        let in_ring = match p {
+            AtomExpr::Prim(
+                AtomPrim::RingCount(n) | AtomPrim::RingSize(n) | AtomPrim::RingBonds(n),
+            ) if n.is_none() => Some(true),
+            AtomExpr::Prim(
+                AtomPrim::RingCount(Some(0))
+                | AtomPrim::RingSize(Some(0))
+                | AtomPrim::RingBonds(Some(0)),
+            ) => Some(false),
+            AtomExpr::Prim(AtomPrim::RingBonds(Some(_))) => Some(true),
+            AtomExpr::Not(inner) => match **inner {
+                AtomExpr::Prim(
+                    AtomPrim::RingCount(None)
+                    | AtomPrim::RingSize(None)
+                    | AtomPrim::RingBonds(None),
+                ) => Some(false),
+                _ => None,
+            },
+            _ => None,
+        };
+        if let Some(r) = in_ring {
+            return (bit, if r { bit } else { 0 });
+        }
+    }
+    (0, 0)
+}
 
 /// The signature of an atom (see [`AtomFilter::signature`]).
 pub(crate) fn atom_signature(info: &super::target::AtomInfo) -> u64 {

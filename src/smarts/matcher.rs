@@ -6,8 +6,8 @@
 //! nesting limit of the parser.
 
 use super::expr::{AtomExpr, AtomPrim};
-use super::target::Target;
-use super::{Pattern, Query, QueryBond, Step};
+use super::target::{NbrInfo, Target};
+use super::{Pattern, Query, QueryBond, Reach, Step};
 use crate::mol::BondOrder;
 use std::cell::Cell;
 
@@ -108,6 +108,16 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
             }
         }
     }
+    // The quick tests are not worth a cache slot (which allocates).
+    let reach = q.plan_anchor.first().map_or(&[][..], |s| &s.reach);
+    let root_ok = t.sig.get(a).is_some_and(|&s| {
+        q.atoms
+            .get(q.plan_anchor.first().map_or(0, |s| s.atom))
+            .is_some_and(|qa| s & qa.sig_mask == qa.sig_value)
+    }) && reach_ok(reach, a, usize::MAX, t);
+    if !root_ok {
+        return false;
+    }
     let mut found = false;
     search(pat, q, &q.plan_anchor, t, cache, Some(a), None, &mut |_| {
         found = true;
@@ -125,6 +135,112 @@ fn recursive_matches(id: usize, a: usize, t: &Target, pat: &Pattern, cache: &mut
         }
     }
     found
+}
+
+/// Does molecule atom `a` (reached from `from`, or `usize::MAX` at the
+/// start) meet every condition of `reach`, each with its own neighbour?
+/// At most [`REACH_BUDGET`] neighbour tests are made; beyond that the
+/// answer is yes (the test only has to be necessary). Recursion depth is
+/// bounded by the depth the conditions were built with.
+pub(crate) fn reach_ok(reach: &[Reach], a: usize, from: usize, t: &Target) -> bool {
+    let mut budget = REACH_BUDGET;
+    reach_within(reach, a, from, t, &mut budget)
+}
+
+/// Neighbour tests one [`reach_ok`] call may make.
+const REACH_BUDGET: u32 = 400;
+
+fn reach_within(reach: &[Reach], a: usize, from: usize, t: &Target, budget: &mut u32) -> bool {
+    if reach.is_empty() {
+        return true;
+    }
+    let nbrs = t.nbr_info(a);
+    // The neighbour itself: bond and signature filter.
+    let near = |r: &Reach, nb: &NbrInfo| -> bool {
+        nb.sig & r.sig_mask == r.sig_value
+            && r.bond_mask >> nb.state & 1 == 1
+            && nb.atom as usize != from
+    };
+    // ... and what lies beyond it.
+    let far = |r: &Reach, nb: &NbrInfo, budget: &mut u32| -> bool {
+        if *budget == 0 {
+            return true;
+        }
+        *budget -= 1;
+        reach_within(&r.next, nb.atom as usize, a, t, budget)
+    };
+    const MAX_ALTS: usize = 8;
+    if reach.len() == 1 || reach.len() > MAX_ALTS || nbrs.len() > 64 {
+        return reach.iter().all(|r| nbrs.iter().any(|nb| near(r, nb)))
+            && reach
+                .iter()
+                .all(|r| nbrs.iter().any(|nb| near(r, nb) && far(r, nb, budget)));
+    }
+    // Several conditions: they need different neighbours (a matching),
+    // first on the neighbours alone, then with what lies beyond.
+    let mut masks = [0u64; MAX_ALTS];
+    for (r, mask) in reach.iter().zip(masks.iter_mut()) {
+        for (j, nb) in nbrs.iter().enumerate() {
+            if near(r, nb) {
+                *mask |= 1 << j;
+            }
+        }
+        if *mask == 0 {
+            return false;
+        }
+    }
+    let n = reach.len();
+    if !has_matching(&masks[..n]) {
+        return false;
+    }
+    let mut deep = false;
+    for (r, mask) in reach.iter().zip(masks.iter_mut()) {
+        if r.next.is_empty() {
+            continue;
+        }
+        deep = true;
+        let mut bits = *mask;
+        while bits != 0 {
+            let j = bits.trailing_zeros() as usize;
+            bits &= bits - 1;
+            if let Some(nb) = nbrs.get(j) {
+                if !far(r, nb, budget) {
+                    *mask &= !(1 << j);
+                }
+            }
+        }
+        if *mask == 0 {
+            return false;
+        }
+    }
+    !deep || has_matching(&masks[..n])
+}
+
+/// Can every condition (bit mask of the neighbours it accepts) have a
+/// neighbour of its own?
+fn has_matching(masks: &[u64]) -> bool {
+    let mut owner = [u8::MAX; 64];
+    (0..masks.len()).all(|i| {
+        let mut seen = 0u64;
+        augment(i, masks, &mut owner, &mut seen)
+    })
+}
+
+/// Kuhn's augmenting path for condition `i` over neighbour bit masks;
+/// recursion depth is at most the number of conditions.
+fn augment(i: usize, masks: &[u64], owner: &mut [u8; 64], seen: &mut u64) -> bool {
+    let mut free = masks.get(i).copied().unwrap_or(0) & !*seen;
+    while free != 0 {
+        let j = free.trailing_zeros() as usize;
+        free &= free - 1;
+        *seen |= 1 << j;
+        let holder = owner[j];
+        if holder == u8::MAX || augment(holder as usize, masks, owner, seen) {
+            owner[j] = i as u8;
+            return true;
+        }
+    }
+    false
 }
 
 /// Molecule atoms already found as anchors: a bit set on the stack for
@@ -202,24 +318,11 @@ pub(crate) const STATES: u16 = 6;
 /// Does molecule bond `b` satisfy pattern bond `q`?
 #[inline]
 pub(crate) fn bond_matches(q: &QueryBond, b: usize, t: &Target) -> bool {
-    let Some(&order) = t.bond_order.get(b) else {
-        return false;
-    };
-    let mut state = if t.bond_dative.get(b).copied().unwrap_or(false) {
-        5
-    } else {
-        match order {
-            BondOrder::Single => 0,
-            BondOrder::Double => 1,
-            BondOrder::Triple => 2,
-            BondOrder::Quadruple => 3,
-            BondOrder::Aromatic => 4,
-        }
-    };
-    if q.ring_sensitive && t.bond_in_ring(b) {
-        state += STATES;
-    }
-    q.mask >> state & 1 == 1
+    // A bond whose answer does not depend on ring membership has the same
+    // bits in both halves of the mask.
+    t.bond_state
+        .get(b)
+        .is_some_and(|&state| q.mask >> state & 1 == 1)
 }
 
 /// Cheap test of a pattern atom against a molecule atom, then the full
@@ -243,6 +346,16 @@ pub(crate) fn query_atom_matches(
         None => true,
         Some(rest) => atom_matches(rest, a, t, pat, cache),
     }
+}
+
+/// The start atom's cheap tests before its full expression: signature
+/// filter, then the neighbourhood conditions.
+#[inline]
+fn root_passes(q: &Query, step: &Step, a: usize, t: &Target) -> bool {
+    let (Some(qa), Some(&sig)) = (q.atoms.get(step.atom), t.sig.get(a)) else {
+        return false;
+    };
+    sig & qa.sig_mask == qa.sig_value && reach_ok(&step.reach, a, usize::MAX, t)
 }
 
 /// Enumerate matches of `q` following `plan`. With `start`, the first plan
@@ -307,6 +420,7 @@ pub(crate) fn search(
                 cache.steps_left -= 1;
                 !chosen[..d].contains(&a)
                     && !(skip_depth == Some(d) && skip.is_some_and(|(_, done)| done.get(a)))
+                    && (d != 0 || root_passes(q, step, a, t))
                     && query_atom_matches(q, step.atom, a, t, pat, cache)
                     && step.closures.iter().all(|&(other, qb)| {
                         match (t.bond_between(a, map[other]), q.bonds.get(qb)) {

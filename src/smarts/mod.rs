@@ -153,8 +153,6 @@ pub(crate) struct QueryBond {
     /// The expression tabulated over the twelve bond states (five orders
     /// and dative, in a ring or not): bit `state + 6 * ring`.
     pub mask: u16,
-    /// Does the answer depend on ring membership?
-    pub ring_sensitive: bool,
 }
 
 impl QueryBond {
@@ -172,14 +170,7 @@ impl QueryBond {
                 }
             }
         }
-        let low = (1u16 << states) - 1;
-        let ring_sensitive = (mask & low) != (mask >> states);
-        QueryBond {
-            atoms,
-            expr,
-            mask,
-            ring_sensitive,
-        }
+        QueryBond { atoms, expr, mask }
     }
 }
 
@@ -191,7 +182,37 @@ pub(crate) struct Step {
     pub atom: usize,
     pub parent: Option<(usize, usize)>,
     pub closures: Vec<(usize, usize)>,
+    /// First step only: what the neighbourhood of a molecule atom must
+    /// offer before this atom can be placed on it (see [`Reach`]).
+    pub reach: Vec<Reach>,
 }
+
+/// A necessary condition on the surroundings of the atom a search starts
+/// from: pattern atom `atom` needs a neighbour, reached through a bond
+/// passing pattern bond `bond` and not the atom the walk came from, that
+/// passes the atom's signature filter and in turn meets every condition of
+/// `next`; the conditions of one list need different neighbours. Built
+/// from the pattern's bonds out to [`REACH_DEPTH`] bonds from the start
+/// atom. It looks at each path from the start on its own (two branches
+/// may use the same molecule atom), so it can let a non-match through but
+/// never rejects a match.
+#[derive(Debug, Clone)]
+pub(crate) struct Reach {
+    pub atom: usize,
+    pub bond: usize,
+    pub next: Vec<Reach>,
+    /// Copies of the atom's signature filter and the bond's state mask
+    /// (filled in by [`Query::fill_reach`] once the filters are final).
+    pub sig_mask: u64,
+    pub sig_value: u64,
+    pub bond_mask: u16,
+}
+
+/// How many bonds out from the start atom [`Reach`] conditions look.
+const REACH_DEPTH: usize = 6;
+
+/// Most [`Reach`] conditions built for one start atom.
+const REACH_MAX: usize = 64;
 
 /// A query graph (the main pattern or one recursive part).
 #[derive(Debug, Clone, Default)]
@@ -233,6 +254,98 @@ impl Query {
 
     fn set_anchor(&mut self, anchor: usize) {
         self.plan_anchor = self.plan(anchor);
+    }
+
+    /// Pattern bonds that can only match ring bonds: bonds on a cycle of
+    /// the pattern none of whose bonds can match a dative bond. Their
+    /// matches form a cycle of the molecule without dative bonds, which is
+    /// a ring (the molecule's rings leave dative bonds out), so such bonds
+    /// match only ring bonds and their atoms only ring atoms.
+    fn ring_only_bonds(&self) -> Vec<bool> {
+        const DATIVE: u16 = 1 << 5 | 1 << 11;
+        let usable = |b: &QueryBond| b.mask & DATIVE == 0;
+        let n = self.atoms.len();
+        let mut out = vec![false; self.bonds.len()];
+        let mut seen = vec![false; n];
+        let mut stack: Vec<usize> = Vec::new();
+        for (bi, b) in self.bonds.iter().enumerate() {
+            let [u, v] = b.atoms;
+            if !usable(b) || u >= n || v >= n || u == v {
+                continue;
+            }
+            // Another path from u to v of at least two usable bonds.
+            seen.iter_mut().for_each(|x| *x = false);
+            stack.clear();
+            seen[u] = true;
+            stack.push(u);
+            let mut found = false;
+            while let Some(x) = stack.pop() {
+                for &(y, b2) in self.adj.get(x).map(Vec::as_slice).unwrap_or(&[]) {
+                    let Some(qb2) = self.bonds.get(b2) else {
+                        continue;
+                    };
+                    // No direct u-v bond (this one or a parallel one).
+                    let direct = (x == u && y == v) || (x == v && y == u);
+                    if direct || !usable(qb2) || seen.get(y).copied().unwrap_or(true) {
+                        continue;
+                    }
+                    if y == v {
+                        found = true;
+                        break;
+                    }
+                    seen[y] = true;
+                    stack.push(y);
+                }
+                if found {
+                    break;
+                }
+            }
+            out[bi] = found;
+        }
+        out
+    }
+
+    /// Add the ring requirement of [`Query::ring_only_bonds`] to the atom
+    /// filters, and copy the final atom filters and bond masks into the
+    /// [`Reach`] conditions of both plans.
+    fn fill_reach(&mut self) {
+        let ring_only = self.ring_only_bonds();
+        let ring_bit = 1u64 << expr::SIG_RING;
+        for (b, &r) in self.bonds.iter().zip(&ring_only) {
+            if r {
+                for a in b.atoms {
+                    if let Some(qa) = self.atoms.get_mut(a) {
+                        // Unless the filter already asks for no ring (then
+                        // nothing matches anyway).
+                        if qa.sig_mask & ring_bit == 0 {
+                            qa.sig_mask |= ring_bit;
+                            qa.sig_value |= ring_bit;
+                        }
+                    }
+                }
+            }
+        }
+        fn fill(list: &mut [Reach], atoms: &[QueryAtom], bonds: &[QueryBond], ring_only: &[bool]) {
+            for r in list {
+                if let Some(qa) = atoms.get(r.atom) {
+                    (r.sig_mask, r.sig_value) = (qa.sig_mask, qa.sig_value);
+                }
+                // A bond index out of range never matches; a ring-only
+                // bond keeps its in-ring states (bits 6 to 11).
+                let ring_states = if ring_only.get(r.bond).copied().unwrap_or(false) {
+                    0xfc0
+                } else {
+                    0xfff
+                };
+                r.bond_mask = bonds.get(r.bond).map_or(0, |qb| qb.mask & ring_states);
+                fill(&mut r.next, atoms, bonds, ring_only);
+            }
+        }
+        for plan in [&mut self.plan_free, &mut self.plan_anchor] {
+            if let Some(first) = plan.first_mut() {
+                fill(&mut first.reach, &self.atoms, &self.bonds, &ring_only);
+            }
+        }
     }
 
     fn score(&self, i: usize) -> u32 {
@@ -298,9 +411,42 @@ impl Query {
                 atom: a,
                 parent,
                 closures,
+                reach: Vec::new(),
             });
         }
+        if let Some(first) = steps.first_mut() {
+            let mut budget = REACH_MAX;
+            first.reach = self.reach(first.atom, usize::MAX, REACH_DEPTH, &mut budget);
+        }
         steps
+    }
+
+    /// [`Reach`] conditions for the neighbours of pattern atom `atom`
+    /// other than `from`, `depth` bonds deep (recursion bounded by
+    /// [`REACH_DEPTH`]).
+    fn reach(&self, atom: usize, from: usize, depth: usize, budget: &mut usize) -> Vec<Reach> {
+        let mut out = Vec::new();
+        if depth == 0 {
+            return out;
+        }
+        for &(x, b) in self.adj.get(atom).map(Vec::as_slice).unwrap_or(&[]) {
+            if x == from || *budget == 0 {
+                continue;
+            }
+            if x >= self.atoms.len() {
+                continue;
+            }
+            *budget -= 1;
+            out.push(Reach {
+                atom: x,
+                bond: b,
+                next: self.reach(x, atom, depth - 1, budget),
+                sig_mask: 0,
+                sig_value: 0,
+                bond_mask: u16::MAX,
+            });
+        }
+        out
     }
 }
 
@@ -309,6 +455,10 @@ impl Query {
 struct Screen {
     atoms: usize,
     elements: Vec<(u8, u16)>,
+    /// Per pattern atom that allows several elements only: the molecule
+    /// needs an atom of one of them (bits as in
+    /// [`expr::possible_elements`]).
+    element_sets: Vec<u128>,
     aromatic: usize,
     ring: bool,
     double: usize,
@@ -333,11 +483,33 @@ impl Pattern {
     pub fn parse(smarts: &str) -> Result<Pattern, PatternError> {
         let parse::Parsed {
             mut main,
-            recursive,
+            mut recursive,
         } = parse::parse(smarts)?;
+        // Signature filters implied by whole expressions (alternatives and
+        // recursive parts included), computed once all parts are known.
+        let implied: Vec<Vec<(u64, u64)>> = recursive
+            .iter()
+            .map(|q| {
+                q.atoms
+                    .iter()
+                    .map(|a| expr::implied_signature(&a.expr, &recursive, 0))
+                    .collect()
+            })
+            .collect();
+        for (q, sigs) in recursive.iter_mut().zip(implied) {
+            for (a, sig) in q.atoms.iter_mut().zip(sigs) {
+                (a.sig_mask, a.sig_value) = sig;
+            }
+        }
+        for a in &mut main.atoms {
+            (a.sig_mask, a.sig_value) = expr::implied_signature(&a.expr, &recursive, 0);
+        }
         let anchor = main.atoms.iter().position(|a| a.map == Some(1));
         if let Some(a) = anchor {
             main.set_anchor(a);
+        }
+        for q in recursive.iter_mut().chain(std::iter::once(&mut main)) {
+            q.fill_reach();
         }
         let mut screen = Screen {
             atoms: main.atoms.len(),
@@ -393,6 +565,13 @@ impl Pattern {
             .filter(|(_, &c)| c > 0)
             .map(|(e, &c)| (e as u8, c))
             .collect();
+        for a in &main.atoms {
+            if let Some(set) = expr::possible_elements(&a.expr, &recursive, 0) {
+                if set.count_ones() != 1 && !screen.element_sets.contains(&set) {
+                    screen.element_sets.push(set);
+                }
+            }
+        }
         Ok(Pattern {
             source: smarts.to_string(),
             main,
@@ -464,6 +643,9 @@ impl Pattern {
             .iter()
             .all(|&(e, c)| t.element_count.get(e as usize).copied().unwrap_or(0) >= c)
         {
+            return false;
+        }
+        if !s.element_sets.iter().all(|&set| set & t.element_mask != 0) {
             return false;
         }
         !s.ring || t.has_ring()
@@ -564,10 +746,24 @@ impl Pattern {
 
     /// [`Pattern::matches_at`] on a prepared molecule.
     pub fn matches_at_in(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
+        if !self.passes_screen(t) {
+            return None;
+        }
+        self.matches_at_screened(t, atom)
+    }
+
+    /// [`Pattern::matches_at_in`] for a caller that has already seen
+    /// [`Pattern::passes_screen`] hold for this target (when trying one
+    /// pattern on many atoms).
+    pub(crate) fn matches_at_screened(&self, t: &Target, atom: usize) -> Option<Vec<usize>> {
         // The anchor's simple comparisons first: they reject most atoms at
         // once; the rest of its expression is tested by the search.
         let qa = self.main.atoms.get(self.anchor_or_first())?;
-        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value || !self.passes_screen(t) {
+        if t.sig.get(atom)? & qa.sig_mask != qa.sig_value {
+            return None;
+        }
+        let first = self.main.plan_anchor.first()?;
+        if !matcher::reach_ok(&first.reach, atom, usize::MAX, t) {
             return None;
         }
         let mut cache = new_cache(u64::MAX);
