@@ -243,13 +243,30 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
         let (d, dd) = sums(x);
         let free = b0 - d;
         let acid = a0 + d;
-        let r = exp10(x);
-        let ra = r * acid;
-        if free == ra {
+        // The sign of the condition (positive: the root lies above x, the
+        // free base exceeds r x acid) and the Newton step of the form that
+        // suits the iterate; the log form needs no 10^x.
+        let (sign, newton) = if free > 0.5 * b0 && acid > 0.0 {
+            let hx = (free / acid).log10() - x;
+            (
+                hx,
+                x - hx / (-dd / (ln10 * free) - dd / (ln10 * acid) - 1.0),
+            )
+        } else {
+            let r = exp10(x);
+            let ra = r * acid;
+            let step = if ra <= b0 {
+                x - (free - ra) / (-dd - ln10 * ra - r * dd)
+            } else {
+                let px = ((d + ra) / b0).log10();
+                x - px * ln10 * (d + ra) / (dd + ln10 * ra + r * dd)
+            };
+            (free - ra, step)
+        };
+        if sign == 0.0 {
             break x;
         }
-        // The root lies above x exactly when free base exceeds r x acid.
-        if free > ra {
+        if sign > 0.0 {
             lo = x;
         } else {
             hi = x;
@@ -257,15 +274,6 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
         if hi - lo <= 1e-13 * (1.0 + x.abs()) || iterations >= 400 {
             break 0.5 * (lo + hi);
         }
-        let newton = if free > 0.5 * b0 && acid > 0.0 {
-            let hx = (free / acid).log10() - x;
-            x - hx / (-dd / (ln10 * free) - dd / (ln10 * acid) - 1.0)
-        } else if ra <= b0 {
-            x - (free - ra) / (-dd - ln10 * ra - r * dd)
-        } else {
-            let px = ((d + ra) / b0).log10();
-            x - px * ln10 * (d + ra) / (dd + ln10 * ra + r * dd)
-        };
         // A Newton step this small is within rounding noise of the root
         // (which may put it just outside the bracket): take it and stop.
         if (newton - x).abs() <= 1e-7 {

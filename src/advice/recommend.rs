@@ -466,7 +466,9 @@ type CountedSet = (Rc<Vec<CountedProton>>, Rc<[usize]>);
 
 fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> CountedSet {
     let metal = base.family.is_metal_base();
-    let ion = base.counter_ion.as_deref();
+    // The counter-ion is named only by the fast-transfer rule of a metal
+    // base outside a protic solvent; elsewhere it does not split the memo.
+    let ion = base.counter_ion.as_deref().filter(|_| metal && !protic);
     if let Some((_, v)) = ctx
         .counted_memo
         .borrow()
