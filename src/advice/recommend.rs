@@ -1059,7 +1059,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                             .map(|m| e.base_pka - m.pka)
                             .fold(f64::NEG_INFINITY, f64::max);
                         let bound = top + e.s + if n > 1 { (n as f64).log10() } else { 0.0 };
-                        if !(bound >= -2.0) {
+                        // (NaN, which cannot arise, would not be skipped
+                        // wrongly either: no fraction passes x > 0.01 then.)
+                        if bound.is_nan() || bound < -2.0 {
                             continue;
                         }
                         let stop = unit_sites(ctx, e, &counted_sites, u, &mut |m, x| {
