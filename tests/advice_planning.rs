@@ -524,3 +524,54 @@ fn advise_given_requested_water_scale_uses_it_or_says_why_not() {
         b.scale_note
     );
 }
+
+/// Listing fewer alternatives changes nothing else (issue 6, where bulk
+/// records keep five): the listed ones are the first of the full list with
+/// the same notes, the rest are counted, and every other part of the advice
+/// is the same. A consistency check; no reference values.
+#[test]
+fn advise_given_alternatives_limit_lists_the_best_and_counts_the_rest_issue_6() {
+    for smi in [
+        "CC(=O)CC(=O)OCC",
+        "CCOC(=O)CC(=O)OCC",
+        "CC(=O)CC(C)=O",
+        "O=C1CCC(=O)C1",
+    ] {
+        let all = plan(smi);
+        let few = plan_with(
+            smi,
+            AdviceOptions {
+                alternatives: Some(2),
+                ..AdviceOptions::default()
+            },
+        );
+        assert!(
+            all.alternatives.len() > 2,
+            "{smi}: too few alternatives to test"
+        );
+        assert_eq!(all.alternatives_omitted, 0, "{smi}");
+        assert_eq!(few.alternatives[..], all.alternatives[..2], "{smi}");
+        assert_eq!(
+            few.alternatives_omitted,
+            all.alternatives.len() - 2,
+            "{smi}"
+        );
+        assert_eq!(few.base, all.base, "{smi}");
+        assert_eq!(few.scale_note, all.scale_note, "{smi}");
+        assert_eq!(few.rejected, all.rejected, "{smi}");
+        assert_eq!(few.warnings, all.warnings, "{smi}");
+        assert_eq!(few.equilibrium, all.equilibrium, "{smi}");
+        // Cautions: the same ones, less the one-line cautions of the bases
+        // no longer listed.
+        let kept: Vec<_> = all
+            .cautions
+            .iter()
+            .filter(|c| {
+                c.full
+                    || few.alternatives.iter().any(|a| a.base == c.reagent)
+                    || few.base.as_deref() == Some(c.reagent.as_str())
+            })
+            .collect();
+        assert_eq!(few.cautions.iter().collect::<Vec<_>>(), kept, "{smi}");
+    }
+}

@@ -139,6 +139,7 @@ proptest! {
             solvent: solvent.map(str::to_string),
             scale: None,
             purpose: if catalytic { Purpose::Catalytic } else { Purpose::Stoichiometric },
+            alternatives: None,
         };
         let f = detect_features(&mol, &report);
         let _ = advise_with_features(&f, &report, &opts);

@@ -68,6 +68,10 @@ pub struct AdviceOptions {
     /// Force a pKa scale.
     pub scale: Option<Scale>,
     pub purpose: Purpose,
+    /// List at most this many alternatives (best first) and word only
+    /// their notes and cautions; the rest are counted in
+    /// [`Advice::alternatives_omitted`]. None lists every acceptable base.
+    pub alternatives: Option<usize>,
 }
 
 impl Default for AdviceOptions {
@@ -80,6 +84,7 @@ impl Default for AdviceOptions {
             solvent: None,
             scale: None,
             purpose: Purpose::Stoichiometric,
+            alternatives: None,
         }
     }
 }
@@ -283,6 +288,9 @@ pub struct Advice {
     pub counted: Vec<CountedProton>,
     pub counted_note: Option<String>,
     pub alternatives: Vec<Alternative>,
+    /// Acceptable bases left out of `alternatives` by
+    /// [`AdviceOptions::alternatives`].
+    pub alternatives_omitted: usize,
     pub rejected: Vec<Rejection>,
     pub warnings: Vec<Warning>,
     pub cautions: Vec<Caution>,
@@ -424,6 +432,23 @@ struct Eval<'a> {
     score: f64,
     marginal: bool,
     no_solvent_check: bool,
+    /// What the notes of a reported base are worded from ([`word_notes`]);
+    /// None once worded or for a base that is not reported.
+    words: Option<Words<'a>>,
+}
+
+/// The ingredients of a reported base's notes, kept so that only the bases
+/// that are listed get their notes written.
+struct Words<'b> {
+    choice: Rc<ScaleChoice>,
+    scale: Scale,
+    crit_conv: f64,
+    n_counted: usize,
+    accepted: bool,
+    no_water_in: Option<&'b ProticSolvent>,
+    in_solvent: Option<InSolvent<'b>>,
+    marginal: Option<(f64, f64, f64, bool)>,
+    drained: Option<f64>,
 }
 
 struct Ctx<'a> {
@@ -871,6 +896,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         score: 0.0,
         marginal: false,
         no_solvent_check: false,
+        words: None,
     };
     let requested = ctx
         .requested
@@ -884,14 +910,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             .iter()
             .any(|x| x.eq_ignore_ascii_case(sv.trim()))
     });
-    let unusual_solvent_note = |sv: &str| {
-        format!(
-            "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
-            sv,
-            base.name,
-            base.solvents.join(", ")
-        )
-    };
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
         Scale::Water => t.pka_water.is_some(),
@@ -912,7 +930,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         ));
         side_reaction_checks(ctx.f, base, &mut ev.reasons);
         if let Some(sv) = unusual_solvent.filter(|_| requested) {
-            ev.notes.push(unusual_solvent_note(sv));
+            ev.notes.push(unusual_solvent_note(base, sv));
         }
         return ev;
     }
@@ -922,7 +940,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             "no pKa scale shared with the target".into(),
         ));
         if let Some(sv) = unusual_solvent.filter(|_| requested) {
-            ev.notes.push(unusual_solvent_note(sv));
+            ev.notes.push(unusual_solvent_note(base, sv));
         }
         return ev;
     };
@@ -935,7 +953,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         ));
         if requested {
             if let Some(sv) = unusual_solvent {
-                ev.notes.push(unusual_solvent_note(sv));
+                ev.notes.push(unusual_solvent_note(base, sv));
             }
             ev.scale_note = choice.note.clone();
         }
@@ -1155,84 +1173,119 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
     let accepted = ev.reasons.is_empty();
     if accepted || requested {
-        // The notes, in their reported order: solvent, the equilibrium in
-        // the base's own solvent, the equilibrium's own notes (accepted
-        // bases only), then marginal acceptance and a drained equilibrium.
-        if let Some(sv) = unusual_solvent {
-            ev.notes.push(unusual_solvent_note(sv));
-        }
-        ev.scale_note = choice.note.clone();
-        if let Some(p) = no_water_in {
-            ev.notes.push(format!(
-                "the target has no water-scale value, so the equilibrium in {} was not computed; the {} comparison overstates an alkoxide or hydroxide in its own solvent",
-                p.name,
-                scale.name()
-            ));
-        }
-        if let Some(ins) = &in_solvent_eq {
-            let p = ins.solvent;
-            ev.eq_notes = vec![
-                ins.choice.note.clone(),
-                format!(
-                    "{} counted at {} mol/L as the base's conjugate acid",
-                    p.name, p.molar
-                ),
-            ];
-            ev.notes.push(format!(
-                "in {} ({} mol/L, water scale) {:.3}% of the target is deprotonated at equilibrium",
-                p.name,
-                p.molar,
-                100.0 * ins.conversion
-            ));
-            ev.scale_note = format!(
-                "{} (criterion checked on {}: {:.1}%)",
-                ins.choice.note,
-                scale.name(),
-                100.0 * crit_conv
-            );
-        }
-        let notes_at = ev.lean.is_some().then_some(ev.notes.len());
-        if let Some((central, optimistic, sigma, mixed)) = marginal_note {
-            ev.notes.push(format!(
-                "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
-                100.0 * central,
-                100.0 * optimistic,
-                if mixed { ", including the scale mismatch" } else { "" }
-            ));
-        }
-        if let Some(acc) = drained_note {
-            ev.notes.push(format!(
-                "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
-                ev.solvent,
-                100.0 * acc
-            ));
-        }
-        if let (Some(at), true) = (notes_at, accepted) {
-            // Notes of the equilibrium itself (counted protons, acid units).
-            let unit_notes: &[String] = &cached_units(ctx, scale).1;
-            let mut notes = Vec::with_capacity(unit_notes.len() + 1);
-            if n_counted > 0 {
-                let n = format!(
-                    "the {n_counted} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume"
-                );
-                if !ev.eq_notes.contains(&n) {
-                    notes.push(n);
-                }
-            }
-            notes.extend(
-                unit_notes
-                    .iter()
-                    .filter(|n| !ev.eq_notes.contains(n))
-                    .cloned(),
-            );
-            ev.notes.splice(at..at, notes);
-        }
+        ev.words = Some(Words {
+            choice,
+            scale,
+            crit_conv,
+            n_counted,
+            accepted,
+            no_water_in,
+            in_solvent: in_solvent_eq,
+            marginal: marginal_note,
+            drained: drained_note,
+        });
     }
     // The score only ranks acceptable bases.
     if accepted {
         ev.score = score(ctx, &ev, base_pka - t_pka);
     }
     ev
+}
+
+/// Writes the notes, scale note and equilibrium notes of a reported base
+/// (see [`Words`]), in their reported order: solvent, the equilibrium in the
+/// base's own solvent, the equilibrium's own notes (accepted bases only),
+/// then marginal acceptance and a drained equilibrium.
+fn word_notes(ctx: &Ctx, ev: &mut Eval) {
+    let Some(w) = ev.words.take() else {
+        return;
+    };
+    let base = ev.base;
+    if let Some(sv) = ctx.opts.solvent.as_ref().filter(|sv| {
+        !base
+            .solvents
+            .iter()
+            .any(|x| x.eq_ignore_ascii_case(sv.trim()))
+    }) {
+        ev.notes.push(unusual_solvent_note(base, sv));
+    }
+    ev.scale_note = w.choice.note.clone();
+    if let Some(p) = w.no_water_in {
+        ev.notes.push(format!(
+            "the target has no water-scale value, so the equilibrium in {} was not computed; the {} comparison overstates an alkoxide or hydroxide in its own solvent",
+            p.name,
+            w.scale.name()
+        ));
+    }
+    if let Some(ins) = &w.in_solvent {
+        let p = ins.solvent;
+        ev.eq_notes = vec![
+            ins.choice.note.clone(),
+            format!(
+                "{} counted at {} mol/L as the base's conjugate acid",
+                p.name, p.molar
+            ),
+        ];
+        ev.notes.push(format!(
+            "in {} ({} mol/L, water scale) {:.3}% of the target is deprotonated at equilibrium",
+            p.name,
+            p.molar,
+            100.0 * ins.conversion
+        ));
+        ev.scale_note = format!(
+            "{} (criterion checked on {}: {:.1}%)",
+            ins.choice.note,
+            w.scale.name(),
+            100.0 * w.crit_conv
+        );
+    }
+    let notes_at = ev.lean.is_some().then_some(ev.notes.len());
+    if let Some((central, optimistic, sigma, mixed)) = w.marginal {
+        ev.notes.push(format!(
+            "marginal: {:.1}% at the central estimates, {:.1}% one standard uncertainty ({sigma:.1} units{}) in the base's favour",
+            100.0 * central,
+            100.0 * optimistic,
+            if mixed { ", including the scale mismatch" } else { "" }
+        ));
+    }
+    if let Some(acc) = w.drained {
+        ev.notes.push(format!(
+            "the equilibrium in {} lies {:.0}% to the anion; the electrophile pulls it over as the anion is consumed (common practice)",
+            ev.solvent,
+            100.0 * acc
+        ));
+    }
+    if let (Some(at), true) = (notes_at, w.accepted) {
+        // Notes of the equilibrium itself (counted protons, acid units).
+        let unit_notes: &[String] = &cached_units(ctx, w.scale).1;
+        let mut notes = Vec::with_capacity(unit_notes.len() + 1);
+        if w.n_counted > 0 {
+            let n = format!(
+                "the {} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume",
+                w.n_counted
+            );
+            if !ev.eq_notes.contains(&n) {
+                notes.push(n);
+            }
+        }
+        notes.extend(
+            unit_notes
+                .iter()
+                .filter(|n| !ev.eq_notes.contains(n))
+                .cloned(),
+        );
+        ev.notes.splice(at..at, notes);
+    }
+}
+
+/// The note on a solvent that is not among a base's usual ones.
+fn unusual_solvent_note(base: &Base, sv: &str) -> String {
+    format!(
+        "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
+        sv,
+        base.name,
+        base.solvents.join(", ")
+    )
 }
 
 fn side_reaction_checks(
@@ -1623,8 +1676,23 @@ pub fn advise_with_features(
             }
         })
         .collect();
+    // The alternatives listed: acceptable bases other than the chosen one,
+    // best first, as many as asked for; only these and the chosen base get
+    // their notes worded.
+    let others: Vec<usize> = accepted
+        .iter()
+        .copied()
+        .filter(|&i| Some(i) != chosen_at)
+        .collect();
+    let shown = others.len().min(opts.alternatives.unwrap_or(usize::MAX));
+    let alternatives_omitted = others.len() - shown;
+    for &i in chosen_at.iter().chain(&others[..shown]) {
+        if let Some(e) = evals.get_mut(i) {
+            word_notes(&ctx, e);
+        }
+    }
     let chosen: Option<&Eval> = chosen_at.map(|i| &evals[i]);
-    let accepted: Vec<&Eval> = accepted.iter().map(|&i| &evals[i]).collect();
+    let listed: Vec<&Eval> = others[..shown].iter().map(|&i| &evals[i]).collect();
     if chosen.is_none() {
         let competing = rejected
             .iter()
@@ -1650,9 +1718,8 @@ pub fn advise_with_features(
             message,
         });
     }
-    let alternatives: Vec<Alternative> = accepted
+    let alternatives: Vec<Alternative> = listed
         .iter()
-        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
         .map(|e| Alternative {
             base: e.base.name.clone(),
             equivalents: e.equivalents,
@@ -1743,10 +1810,7 @@ pub fn advise_with_features(
             ));
         }
     }
-    for e in accepted
-        .iter()
-        .filter(|e| chosen.map(|c| c.base.name != e.base.name).unwrap_or(true))
-    {
+    for e in &listed {
         push(short_caution_for(e.base));
     }
     push(Some(general_caution()));
@@ -1778,6 +1842,7 @@ pub fn advise_with_features(
         counted,
         counted_note,
         alternatives,
+        alternatives_omitted,
         rejected,
         warnings,
         cautions,

@@ -334,6 +334,7 @@ fn advice_record(
     let aopts = AdviceOptions {
         base: opts.base.clone(),
         site: opts.site,
+        alternatives: Some(MAX_ALTERNATIVES),
         ..AdviceOptions::default()
     };
     // The advice is consumed: its strings move into the record.
@@ -343,7 +344,8 @@ fn advice_record(
     };
     let range = |t: Temperature| [t.low_c, t.high_c];
     // A one-line caution belongs to an alternative; keep it only when that
-    // alternative is listed.
+    // alternative is listed (the advice already lists at most
+    // MAX_ALTERNATIVES).
     let listed = &a.alternatives[..a.alternatives.len().min(MAX_ALTERNATIVES)];
     let cautions: Vec<CautionOut> = a
         .cautions
@@ -378,7 +380,8 @@ fn advice_record(
         temperature_range_c: a.temperature.map(range),
         scale: a.scale.map(|s| s.name()),
         scale_note: a.scale_note,
-        alternatives_omitted: a.alternatives.len().saturating_sub(MAX_ALTERNATIVES),
+        alternatives_omitted: a.alternatives_omitted
+            + a.alternatives.len().saturating_sub(MAX_ALTERNATIVES),
         alternatives: a
             .alternatives
             .into_iter()
