@@ -518,7 +518,7 @@ type LeanKey = (u64, u8, u64, u64);
 /// inputs and the excluded sites.
 struct LeanMemo {
     key: LeanKey,
-    exclude: Vec<usize>,
+    exclude: Rc<[usize]>,
     solution: Option<(Lean, f64)>,
 }
 
@@ -536,7 +536,7 @@ fn memo_position(ctx: &Ctx, key: LeanKey, exclude: &[usize]) -> Option<usize> {
     ctx.lean_memo
         .borrow()
         .iter()
-        .position(|e| e.key == key && e.exclude == exclude)
+        .position(|e| e.key == key && *e.exclude == *exclude)
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
@@ -692,7 +692,7 @@ fn solve_lean(
     scale: Scale,
     equivalents: f64,
     a0: f64,
-    exclude: &[usize],
+    exclude: &Rc<[usize]>,
 ) -> Option<(Lean, f64)> {
     let key = lean_key(base_pka, scale, equivalents, a0);
     if let Some(p) = memo_position(ctx, key, exclude) {
@@ -702,7 +702,7 @@ fn solve_lean(
         .map(|l| (l, lean_conversion_uncached(ctx, &l, exclude)));
     ctx.lean_memo.borrow_mut().push(LeanMemo {
         key,
-        exclude: exclude.to_vec(),
+        exclude: exclude.clone(),
         solution,
     });
     solution
