@@ -144,7 +144,7 @@ pub struct Temperature {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Alternative {
     /// Catalogue name.
-    pub base: String,
+    pub base: &'static str,
     /// Equivalents it would need.
     pub equivalents: f64,
     /// Fraction of the target deprotonated at equilibrium, 0..=1.
@@ -191,7 +191,7 @@ impl RejectKind {
 #[derive(Debug, Clone, PartialEq)]
 pub struct Rejection {
     /// Catalogue name.
-    pub base: String,
+    pub base: &'static str,
     /// The first reason found.
     pub kind: RejectKind,
     /// Every reason found, in the order of `reason`.
@@ -1669,7 +1669,7 @@ pub fn advise_with_features(
                 join_reasons(&reasons)
             };
             Rejection {
-                base: e.base.name.clone(),
+                base: e.base.name.as_str(),
                 kind: kinds[0],
                 kinds,
                 reason,
@@ -1721,7 +1721,7 @@ pub fn advise_with_features(
     let alternatives: Vec<Alternative> = listed
         .iter()
         .map(|e| Alternative {
-            base: e.base.name.clone(),
+            base: e.base.name.as_str(),
             equivalents: e.equivalents,
             conversion: e.conversion,
             scale: e.scale.unwrap_or(Scale::Dmso),

@@ -504,7 +504,7 @@ pub struct CountedOut {
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct AlternativeOut {
-    pub base: String,
+    pub base: &'static str,
     pub equivalents: f64,
     pub conversion: f64,
     pub solvent: String,
@@ -552,7 +552,7 @@ impl RegioSideOut {
 /// A base ruled out, with the reason.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RejectedOut {
-    pub base: String,
+    pub base: &'static str,
     /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
     /// `hydrolysis`, `uncounted-proton`, `no-comparable-pka`.
     pub kind: &'static str,

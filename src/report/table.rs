@@ -263,7 +263,7 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     .rejected
                     .iter()
                     .filter(|r| r.kind == "too-weak")
-                    .map(|r| r.base.as_str())
+                    .map(|r| r.base)
                     .collect();
                 if !weak.is_empty() {
                     wrap(
