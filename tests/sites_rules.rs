@@ -178,7 +178,7 @@ fn sigma_table_lookup_given_each_table_substituent_finds_its_row() {
             .iter()
             .position(|x| std::ptr::eq(x, found))
             .expect("a table row");
-        assert!(k == i || k < i, "{} resolved to {}", e.name, found.name);
+        assert!(k <= i, "{} resolved to {}", e.name, found.name);
     }
     // A substituent not in the table (hexa-2,4-diynyl): from memory, no σ
     // row describes it.
