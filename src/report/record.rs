@@ -418,7 +418,7 @@ impl AdviceOut {
         out.extend_from_slice(b",\"alternatives\":");
         json::array(out, &self.alternatives, |o, x| {
             o.extend_from_slice(b"{\"base\":");
-            json::string(o, &x.base);
+            json::string(o, x.base);
             o.extend_from_slice(b",\"equivalents\":");
             json::float(o, x.equivalents);
             o.extend_from_slice(b",\"conversion\":");
@@ -436,7 +436,7 @@ impl AdviceOut {
         out.extend_from_slice(b",\"rejected\":");
         json::array(out, &self.rejected, |o, r| {
             o.extend_from_slice(b"{\"base\":");
-            json::string(o, &r.base);
+            json::string(o, r.base);
             o.extend_from_slice(b",\"kind\":");
             json::string(o, r.kind);
             o.extend_from_slice(b",\"reason\":");
