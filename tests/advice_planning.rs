@@ -44,7 +44,7 @@ fn plan_with(smiles: &str, opts: AdviceOptions) -> Advice {
     for x in &a.alternatives {
         let hazardous = acidsite::advice::catalogue()
             .ok()
-            .and_then(|cat| cat.get(&x.base))
+            .and_then(|cat| cat.get(x.base))
             .map(|b| !b.hazards.is_empty())
             .unwrap_or(false);
         if hazardous {
