@@ -1,12 +1,46 @@
 //! Never panic on any input; equilibrium set-up from a molecule (issue 5).
 
 use acidsite::advice::{
-    advise, advise_with_features, detect_features, equilibrium_for, patterns_all_parse,
-    AdviceOptions, EquilibriumError, EquilibriumOptions, Purpose, Scale,
+    advise, advise_in, advise_with_features, detect_features, detect_features_in, equilibrium_for,
+    patterns_all_parse, AdviceOptions, EquilibriumError, EquilibriumOptions, Purpose, Scale,
 };
 use acidsite::mol::Molecule;
-use acidsite::sites::{find_sites, Regio, Site, SiteReport};
+use acidsite::sites::{find_sites, find_sites_in, Regio, Site, SiteReport};
+use acidsite::smarts::Target;
 use proptest::prelude::*;
+
+/// One pattern-matching view shared by the sites and the advice gives the
+/// same results as each building its own (issue 6), including a salt that
+/// the sites read as its ammonium form. A consistency check; no reference
+/// values.
+#[test]
+fn advise_in_given_a_shared_target_equals_advise() {
+    for smi in [
+        "CC(=O)CC(=O)OCC",
+        "CC1CCCCC1=O",
+        "OCCC(=O)c1ccccc1",
+        "CCN(CC)CC.OC(=O)CC(=O)OCC",
+        "O=C(O)c1ccccc1N",
+        "CC(C)(C)OC(=O)NCC(=O)OC",
+    ] {
+        let mol = Molecule::from_smiles(smi).unwrap();
+        let target = Target::new(&mol);
+        let opts = acidsite::sites::Options::default();
+        let sites = find_sites_in(&mol, &target, &opts);
+        assert_eq!(sites, find_sites(&mol), "{smi}");
+        assert_eq!(
+            detect_features_in(&mol, &target, &sites),
+            detect_features(&mol, &sites),
+            "{smi}"
+        );
+        let aopts = AdviceOptions::default();
+        assert_eq!(
+            advise_in(&mol, &target, &sites, &aopts),
+            advise(&mol, &sites, &aopts),
+            "{smi}"
+        );
+    }
+}
 
 #[test]
 fn patterns_all_parse_given_the_embedded_smarts_succeeds() {

@@ -281,9 +281,18 @@ pub fn patterns_all_parse() -> Result<(), crate::smarts::PatternError> {
 /// Gather the features of `mol` for the sites of `sites`: functional groups
 /// by SMARTS pattern, per-site facts, and the grouping of alternative sites.
 pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
+    detect_features_in(mol, &SmartsTarget::new(mol), sites)
+}
+
+/// [`detect_features`] on a pattern-matching view of `mol` that the caller
+/// already built; `target` must come from `smarts::Target::new(mol)`.
+pub fn detect_features_in(
+    mol: &Molecule,
+    target: &SmartsTarget,
+    sites: &SiteReport,
+) -> MoleculeFeatures {
     let g = Graph::new(mol);
     let pats = compiled();
-    let target = SmartsTarget::new(mol);
     let mut f = MoleculeFeatures::default();
     for (name, p) in &pats.groups {
         if *name == "ester_alkoxy" {
@@ -293,19 +302,19 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
                 continue;
             }
             let oxygen = p.anchor().unwrap_or(0);
-            for m in p.unique_matches_in(&target) {
+            for m in p.unique_matches_in(target) {
                 let Some(&o) = m.get(oxygen) else { continue };
                 let kind = pats
                     .alkoxy
                     .iter()
-                    .find(|(_, a)| a.matches_at_in(&target, o).is_some())
+                    .find(|(_, a)| a.matches_at_in(target, o).is_some())
                     .map(|(n, _)| *n)
                     .unwrap_or("other");
                 f.ester_alkoxy.push(kind.to_string());
             }
             continue;
         }
-        if !p.is_match_in(&target) {
+        if !p.is_match_in(target) {
             continue;
         }
         match *name {
@@ -334,13 +343,13 @@ pub fn detect_features(mol: &Molecule, sites: &SiteReport) -> MoleculeFeatures {
                     sf.beta_leaving_group = pats
                         .beta
                         .iter()
-                        .find(|(_, p)| p.matches_at_in(&target, t).is_some())
+                        .find(|(_, p)| p.matches_at_in(target, t).is_some())
                         .map(|(n, _)| n.to_string());
                 }
                 if pats
                     .dicarbonyl
                     .as_ref()
-                    .map(|p| p.matches_at_in(&target, t).is_some())
+                    .map(|p| p.matches_at_in(target, t).is_some())
                     .unwrap_or(false)
                 {
                     sf.dicarbonyl = true;

@@ -32,9 +32,11 @@ pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
     EquilibriumOptions, Microsite, SiteFraction,
 };
-pub use features::{detect_features, patterns_all_parse, MoleculeFeatures, SiteFeatures};
+pub use features::{
+    detect_features, detect_features_in, patterns_all_parse, MoleculeFeatures, SiteFeatures,
+};
 pub use recommend::{
-    advise, advise_with_features, commonness_penalty, Advice, AdviceError, AdviceOptions,
-    Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection,
-    Target, Temperature, Warning, WarningKind,
+    advise, advise_in, advise_with_features, commonness_penalty, Advice, AdviceError,
+    AdviceOptions, Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind,
+    Rejection, Target, Temperature, Warning, WarningKind,
 };

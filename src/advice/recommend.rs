@@ -361,6 +361,19 @@ pub fn advise(
     advise_with_features(&features, sites, opts)
 }
 
+/// [`advise`] on a pattern-matching view of `mol` that the caller already
+/// built (see [`crate::sites::find_sites_in`]); `target` must come from
+/// `smarts::Target::new(mol)`.
+pub fn advise_in(
+    mol: &Molecule,
+    target: &crate::smarts::Target,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    let features = super::features::detect_features_in(mol, target, sites);
+    advise_with_features(&features, sites, opts)
+}
+
 fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
     match scale {
         Scale::Water => site.pka_water,

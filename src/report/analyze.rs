@@ -6,10 +6,10 @@ use super::record::{
     round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
     Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
 };
-use crate::advice::{advise, AdviceOptions, RegioConditions, Temperature};
+use crate::advice::{advise_in, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
 use crate::sites::{self, Regio, SiteReport};
-use crate::smarts::{Pattern, PatternError};
+use crate::smarts::{Pattern, PatternError, Target};
 
 /// Inputs longer than this many bytes are refused before parsing (a clear
 /// `too_large` error instead of a slowdown).
@@ -138,8 +138,12 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
             )
         }
     };
-    let report = sites::find_sites_with(
+    // One pattern-matching view of the molecule serves the sites and the
+    // advice's functional groups.
+    let target = Target::new(&mol);
+    let report = sites::find_sites_in(
         &mol,
+        &target,
         &sites::Options {
             scale: match opts.scale {
                 Scale::Dmso => sites::Scale::Dmso,
@@ -150,7 +154,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
     let (advice, advice_note) = if opts.sites_only {
         (None, Some("not requested (sites only)".to_string()))
     } else {
-        advice_record(&mol, &report, opts)
+        advice_record(&mol, &target, &report, opts)
     };
     // The report is not needed after the advice: its strings move into the
     // record.
@@ -162,7 +166,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         Some(Pairs(
             opts.flags
                 .iter()
-                .map(|f| (f.name.clone(), f.pattern.count_unique(&mol) as u64))
+                .map(|f| (f.name.clone(), f.pattern.count_unique_in(&target) as u64))
                 .collect(),
         ))
     };
@@ -328,6 +332,7 @@ fn dot_pieces(smiles: &str) -> Vec<(std::ops::Range<usize>, &str)> {
 /// nothing to target.
 fn advice_record(
     mol: &Molecule,
+    target: &Target,
     report: &SiteReport,
     opts: &Options,
 ) -> (Option<AdviceOut>, Option<String>) {
@@ -338,7 +343,7 @@ fn advice_record(
         ..AdviceOptions::default()
     };
     // The advice is consumed: its strings move into the record.
-    let a = match advise(mol, report, &aopts) {
+    let a = match advise_in(mol, target, report, &aopts) {
         Ok(a) => a,
         Err(e) => return (None, Some(e.to_string())),
     };

@@ -596,22 +596,31 @@ fn protonated_salt(mol: &Molecule, main: &[usize]) -> Option<Molecule> {
 
 /// Run the rule set over the molecule's main component. A salt written as
 /// amine plus neutral acid is read as the ammonium salt.
-pub(crate) fn run(mol: &Molecule, set: &RuleSet, sigma: &SigmaTable, opts: &Options) -> SiteReport {
+pub(crate) fn run(
+    mol: &Molecule,
+    target: Option<&Target>,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    opts: &Options,
+) -> SiteReport {
     let atoms = mol.main_component_atoms();
     if let Some(salt) = protonated_salt(mol, &atoms) {
-        return run_on(&salt, atoms, set, sigma, opts);
+        return run_on(&salt, &Target::new(&salt), atoms, set, sigma, opts);
     }
-    run_on(mol, atoms, set, sigma, opts)
+    match target {
+        Some(t) => run_on(mol, t, atoms, set, sigma, opts),
+        None => run_on(mol, &Target::new(mol), atoms, set, sigma, opts),
+    }
 }
 
 fn run_on(
     mol: &Molecule,
+    target: &Target,
     atoms: Vec<usize>,
     set: &RuleSet,
     sigma: &SigmaTable,
     opts: &Options,
 ) -> SiteReport {
-    let target = Target::new(mol);
     let mask = elem_mask(mol, &atoms);
     let mut raws: Vec<Raw> = Vec::new();
     // Per rule: 0 screen not run yet, 1 passed, 2 failed.

@@ -238,7 +238,18 @@ pub fn find_sites(mol: &Molecule) -> SiteReport {
 /// [`find_sites`] with options (ranking scale).
 pub fn find_sites_with(mol: &Molecule, opts: &Options) -> SiteReport {
     match loaded() {
-        Ok(l) => estimate::run(mol, &l.rules, &l.sigma, opts),
+        Ok(l) => estimate::run(mol, None, &l.rules, &l.sigma, opts),
+        Err(_) => SiteReport::default(),
+    }
+}
+
+/// [`find_sites_with`] on a pattern-matching view of `mol` that the caller
+/// already built (and can reuse, for example for
+/// [`crate::advice::advise_in`]); `target` must come from
+/// `smarts::Target::new(mol)`.
+pub fn find_sites_in(mol: &Molecule, target: &crate::smarts::Target, opts: &Options) -> SiteReport {
+    match loaded() {
+        Ok(l) => estimate::run(mol, Some(target), &l.rules, &l.sigma, opts),
         Err(_) => SiteReport::default(),
     }
 }
