@@ -652,19 +652,19 @@ fn run_on(
             // The molecule-wide screen once per rule and molecule.
             let passes = match screened.get(r).copied() {
                 Some(0) => {
-                    let ok = rule.pattern.passes_screen(&target);
+                    let ok = rule.pattern.passes_screen(target);
                     if let Some(x) = screened.get_mut(r) {
                         *x = if ok { 1 } else { 2 };
                     }
                     ok
                 }
                 Some(x) => x == 1,
-                None => rule.pattern.passes_screen(&target),
+                None => rule.pattern.passes_screen(target),
             };
             if !passes {
                 continue;
             }
-            if let Some(m) = rule.pattern.matches_at_screened(&target, i) {
+            if let Some(m) = rule.pattern.matches_at_screened(target, i) {
                 let site = estimate_atom(mol, set, sigma, i, rule, &m);
                 raws.push(Raw {
                     atom: i,
