@@ -483,6 +483,9 @@ pub(crate) struct ScaleChoice {
     pub site_scale: Scale,
     /// Conjugate-acid pKa used (possibly from another scale).
     pub base_pka: f64,
+    /// `base_pka` as the reasons write it (one decimal), set by
+    /// [`choose_scale`].
+    pub base_pka_text: String,
     pub note: String,
     /// Extra uncertainty from comparing values of different scales.
     pub mismatch: f64,
@@ -543,7 +546,10 @@ pub(crate) fn choose_scale(
         Scale::Water => has_water,
         Scale::Thf => site_has(Scale::Thf),
     })
-    .map(Rc::new);
+    .map(|mut c| {
+        c.base_pka_text = super::numfmt::fixed1(c.base_pka);
+        Rc::new(c)
+    });
     if let Some((k, n)) = slot {
         CACHE.with(|c| {
             let mut c = c.borrow_mut();
@@ -568,6 +574,7 @@ fn choose_scale_uncached(
     let same = |sc: Scale, p: f64, why: &str| ScaleChoice {
         site_scale: sc,
         base_pka: p,
+        base_pka_text: String::new(),
         note: format!(
             "{} scale{why} ({} conjugate acid pKa {p}, {})",
             sc.name(),
@@ -607,6 +614,7 @@ fn choose_scale_uncached(
         return Some(ScaleChoice {
             site_scale: Scale::Dmso,
             base_pka: p,
+            base_pka_text: String::new(),
             note: format!(
                 "no DMSO value for {}: its THF value {p} ({}) is compared with DMSO values of the sites (approximate)",
                 base.name,
@@ -620,6 +628,7 @@ fn choose_scale_uncached(
             return Some(ScaleChoice {
                 site_scale: Scale::Water,
                 base_pka: p,
+                base_pka_text: String::new(),
                 note: format!(
                     "no common scale: the {} value {p} of {} ({}) is compared with water values of the sites (rough; carbon acids differ by several units between the scales)",
                     sc.name(),

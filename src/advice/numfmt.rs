@@ -56,7 +56,6 @@ pub(crate) fn push_fixed1(out: &mut String, x: f64) {
 }
 
 /// `x` as `format!("{x:.1}")` would.
-#[cfg(test)]
 pub(crate) fn fixed1(x: f64) -> String {
     let mut s = String::with_capacity(8);
     push_fixed1(&mut s, x);

@@ -493,34 +493,70 @@ struct Ctx<'a> {
     counted_memo: std::cell::RefCell<Vec<(CountedKey, CountedSet)>>,
     /// The empty counted set, shared by bases rejected before counting.
     none_counted: CountedSet,
+    /// The target's pKa text on the DMSO and water scales.
+    target_text_dmso: std::cell::OnceCell<String>,
+    target_text_water: std::cell::OnceCell<String>,
 }
 
-/// (scale, metal base, protic solvent, counter-ion).
-type CountedKey = (Scale, bool, bool, Option<String>);
+/// (scale, metal base, protic solvent, counter-ion) packed into one word:
+/// the counter-ion as its catalogue-wide number ([`counter_ion_id`]).
+type CountedKey = u32;
 
-/// [`count_protons`], memoised per molecule.
 /// Counted protons and their sites (shared by the bases that count alike).
 type CountedSet = (Rc<Vec<CountedProton>>, Rc<[usize]>);
+
+/// A small number for a catalogue base's counter-ion (0: none), the same
+/// for every base with the same ion; None for a base outside the catalogue.
+fn counter_ion_id(base: &Base) -> Option<u32> {
+    static TABLE: std::sync::OnceLock<Vec<u32>> = std::sync::OnceLock::new();
+    let cat = catalogue().ok()?;
+    let table = TABLE.get_or_init(|| {
+        let mut seen: Vec<&str> = Vec::new();
+        cat.bases
+            .iter()
+            .map(|b| match b.counter_ion.as_deref() {
+                None => 0,
+                Some(ion) => match seen.iter().position(|s| *s == ion) {
+                    Some(p) => p as u32 + 1,
+                    None => {
+                        seen.push(ion);
+                        seen.len() as u32
+                    }
+                },
+            })
+            .collect()
+    });
+    table.get(catalogue_slot(cat, base)?).copied()
+}
 
 fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> CountedSet {
     let metal = base.family.is_metal_base();
     // The counter-ion is named only by the fast-transfer rule of a metal
     // base outside a protic solvent; elsewhere it does not split the memo.
-    let ion = base.counter_ion.as_deref().filter(|_| metal && !protic);
-    if let Some((_, v)) = ctx
-        .counted_memo
-        .borrow()
-        .iter()
-        .find(|(k, _)| k.0 == scale && k.1 == metal && k.2 == protic && k.3.as_deref() == ion)
-    {
+    let ion = if metal && !protic {
+        counter_ion_id(base)
+    } else {
+        Some(0)
+    };
+    let Some(ion) = ion else {
+        // Not a catalogue base: no memo.
+        let protons = count_protons(ctx, base, scale, protic);
+        let sites: Rc<[usize]> = protons.iter().map(|c| c.site).collect();
+        return (Rc::new(protons), sites);
+    };
+    let sc = match scale {
+        Scale::Dmso => 0,
+        Scale::Water => 1,
+        Scale::Thf => 2,
+    };
+    let key: CountedKey = sc | u32::from(metal) << 2 | u32::from(protic) << 3 | ion << 4;
+    if let Some((_, v)) = ctx.counted_memo.borrow().iter().find(|(k, _)| *k == key) {
         return v.clone();
     }
     let protons = count_protons(ctx, base, scale, protic);
     let sites: Rc<[usize]> = protons.iter().map(|c| c.site).collect();
     let v = (Rc::new(protons), sites);
-    ctx.counted_memo
-        .borrow_mut()
-        .push(((scale, metal, protic, ion.map(str::to_string)), v.clone()));
+    ctx.counted_memo.borrow_mut().push((key, v.clone()));
     v
 }
 
@@ -850,6 +886,16 @@ fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
     Some(e)
 }
 
+/// The target's pKa on `scale` as the reasons write it, worked out once per
+/// molecule and scale.
+fn target_pka_text<'c>(ctx: &'c Ctx, scale: Scale, t_pka: f64) -> &'c str {
+    let cell = match scale {
+        Scale::Water => &ctx.target_text_water,
+        _ => &ctx.target_text_dmso,
+    };
+    cell.get_or_init(|| numfmt::fixed1(t_pka))
+}
+
 /// All reasons in words, separated by "; ".
 fn join_reasons(reasons: &[(RejectKind, String)]) -> String {
     let mut out = String::with_capacity(reasons.iter().map(|r| r.1.len() + 2).sum());
@@ -1128,9 +1174,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     _ => {
                         let conv = if weak_solvent { acc_solvent } else { crit_conv };
                         reason.push_str("too weak: pKa ");
-                        numfmt::push_fixed1(&mut reason, base_pka);
+                        reason.push_str(&choice.base_pka_text);
                         reason.push_str(" vs target ");
-                        numfmt::push_fixed1(&mut reason, t_pka);
+                        reason.push_str(target_pka_text(ctx, scale, t_pka));
                         reason.push_str(", ");
                         push_conv_text(&mut reason, conv);
                         reason.push_str(" at equilibrium ");
@@ -1172,9 +1218,9 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 reason.push_str("too weak even for catalytic use: ");
                 push_conv_text(&mut reason, acc);
                 reason.push_str(" of the target as anion at equilibrium (pKa ");
-                numfmt::push_fixed1(&mut reason, base_pka);
+                reason.push_str(&choice.base_pka_text);
                 reason.push_str(" against ");
-                numfmt::push_fixed1(&mut reason, t_pka);
+                reason.push_str(target_pka_text(ctx, scale, t_pka));
                 reason.push_str(", ");
                 reason.push_str(scale.name());
                 reason.push_str(" scale)");
@@ -1636,6 +1682,8 @@ pub fn advise_with_features(
         requested,
         counted_memo: std::cell::RefCell::new(Vec::new()),
         none_counted: (Rc::new(Vec::new()), Rc::from([])),
+        target_text_dmso: std::cell::OnceCell::new(),
+        target_text_water: std::cell::OnceCell::new(),
     };
     let mut evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
     // Acceptable bases as indices into `evals`, best score first (a stable
