@@ -447,7 +447,7 @@ struct Eval<'a> {
     no_solvent_check: bool,
     /// What the notes of a reported base are worded from ([`word_notes`]);
     /// None once worded or for a base that is not reported.
-    words: Option<Words<'a>>,
+    words: Option<Box<Words<'a>>>,
 }
 
 /// The ingredients of a reported base's notes, kept so that only the bases
@@ -1232,7 +1232,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     side_reaction_checks(ctx.f, base, &mut ev.reasons);
     let accepted = ev.reasons.is_empty();
     if accepted || requested {
-        ev.words = Some(Words {
+        ev.words = Some(Box::new(Words {
             choice,
             scale,
             crit_conv,
@@ -1242,7 +1242,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             in_solvent: in_solvent_eq,
             marginal: marginal_note,
             drained: drained_note,
-        });
+        }));
     }
     // The score only ranks acceptable bases.
     if accepted {
