@@ -1347,12 +1347,41 @@ fn unusual_solvent_note(base: &Base, sv: &str) -> String {
     )
 }
 
+/// The functional groups a base attacks, in order.
+#[derive(Default)]
+struct GroupList {
+    names: [&'static str; 8],
+    len: usize,
+}
+
+impl GroupList {
+    fn push(&mut self, name: &'static str) {
+        if let Some(slot) = self.names.get_mut(self.len) {
+            *slot = name;
+            self.len += 1;
+        }
+    }
+    fn is_empty(&self) -> bool {
+        self.len == 0
+    }
+    /// Appends the names separated by ", ".
+    fn push_joined(&self, out: &mut String) {
+        for (i, n) in self.names.iter().take(self.len).enumerate() {
+            if i > 0 {
+                out.push_str(", ");
+            }
+            out.push_str(n);
+        }
+    }
+}
+
 fn side_reaction_checks(
     f: &MoleculeFeatures,
     base: &Base,
     reasons: &mut Vec<(RejectKind, String)>,
 ) {
-    let mut groups: Vec<&str> = Vec::new();
+    // At most eight groups: a fixed list, no allocation.
+    let mut groups = GroupList::default();
     let fam = base.family;
     let attacks_all = matches!(fam, BaseFamily::Alkyllithium | BaseFamily::MetalAmide);
     match base.nucleophilic {
@@ -1395,13 +1424,13 @@ fn side_reaction_checks(
                     BaseFamily::Pyridine => "is acylated by",
                     _ => "attacks",
                 };
-                reasons.push((
-                    RejectKind::Nucleophile,
-                    format!(
-                        "nucleophilic base: {how} the {} (addition or substitution)",
-                        groups.join(", ")
-                    ),
-                ));
+                let mut r = String::with_capacity(96);
+                r.push_str("nucleophilic base: ");
+                r.push_str(how);
+                r.push_str(" the ");
+                groups.push_joined(&mut r);
+                r.push_str(" (addition or substitution)");
+                reasons.push((RejectKind::Nucleophile, r));
             }
         }
         Nucleophilicity::Weak => {
@@ -1412,10 +1441,11 @@ fn side_reaction_checks(
                 groups.push("anhydride");
             }
             if !groups.is_empty() {
-                reasons.push((
-                    RejectKind::Nucleophile,
-                    format!("reacts with the {} (acyl substitution)", groups.join(", ")),
-                ));
+                let mut r = String::with_capacity(64);
+                r.push_str("reacts with the ");
+                groups.push_joined(&mut r);
+                r.push_str(" (acyl substitution)");
+                reasons.push((RejectKind::Nucleophile, r));
             }
         }
         Nucleophilicity::No => {}
