@@ -580,12 +580,14 @@ fn lean_key(base_pka: f64, scale: Scale, equivalents: f64, a0: f64) -> LeanKey {
     (base_pka.to_bits(), sc, equivalents.to_bits(), a0.to_bits())
 }
 
-/// Position of the memo entry for these inputs (no allocation).
+/// Position of the memo entry for these inputs (no allocation; keys are
+/// unique, and the newest entries, searched first, are the likeliest hits:
+/// neighbouring catalogue bases often share a pKa).
 fn memo_position(ctx: &Ctx, key: LeanKey, exclude: &[usize]) -> Option<usize> {
     ctx.lean_memo
         .borrow()
         .iter()
-        .position(|e| e.key == key && *e.exclude == *exclude)
+        .rposition(|e| e.key == key && *e.exclude == *exclude)
 }
 
 fn count_protons(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> Vec<CountedProton> {
