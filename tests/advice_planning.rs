@@ -575,3 +575,23 @@ fn advise_given_alternatives_limit_lists_the_best_and_counts_the_rest_issue_6() 
         assert_eq!(few.cautions.iter().collect::<Vec<_>>(), kept, "{smi}");
     }
 }
+
+/// Leaving out the full equilibrium changes nothing else (issue 6: bulk
+/// records do not report it). A consistency check; no reference values.
+#[test]
+fn advise_given_no_full_equilibrium_leaves_only_it_out_issue_6() {
+    for smi in ["CC(=O)CC(=O)OCC", "CC1CCCCC1=O", "OCCC(=O)c1ccccc1"] {
+        let all = plan(smi);
+        let mut lean = plan_with(
+            smi,
+            AdviceOptions {
+                full_equilibrium: false,
+                ..AdviceOptions::default()
+            },
+        );
+        assert!(all.equilibrium.is_some(), "{smi}");
+        assert!(lean.equilibrium.is_none(), "{smi}");
+        lean.equilibrium = all.equilibrium.clone();
+        assert_eq!(lean, all, "{smi}");
+    }
+}

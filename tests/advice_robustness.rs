@@ -174,6 +174,7 @@ proptest! {
             scale: None,
             purpose: if catalytic { Purpose::Catalytic } else { Purpose::Stoichiometric },
             alternatives: None,
+            full_equilibrium: true,
         };
         let f = detect_features(&mol, &report);
         let _ = advise_with_features(&f, &report, &opts);

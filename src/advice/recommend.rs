@@ -72,6 +72,10 @@ pub struct AdviceOptions {
     /// their notes and cautions; the rest are counted in
     /// [`Advice::alternatives_omitted`]. None lists every acceptable base.
     pub alternatives: Option<usize>,
+    /// Solve the full equilibrium of the recommended base
+    /// ([`Advice::equilibrium`]: every site, anion populations); false
+    /// leaves it None (bulk records do not report it).
+    pub full_equilibrium: bool,
 }
 
 impl Default for AdviceOptions {
@@ -85,6 +89,7 @@ impl Default for AdviceOptions {
             scale: None,
             purpose: Purpose::Stoichiometric,
             alternatives: None,
+            full_equilibrium: true,
         }
     }
 }
@@ -278,6 +283,8 @@ pub struct Advice {
     /// Fraction of the target deprotonated at equilibrium with the
     /// recommended base in its solvent.
     pub conversion: Option<f64>,
+    /// The full equilibrium with the recommended base (None when
+    /// [`AdviceOptions::full_equilibrium`] is false).
     pub equilibrium: Option<Equilibrium>,
     pub solvent: Option<String>,
     pub temperature: Option<Temperature>,
@@ -1926,7 +1933,9 @@ pub fn advise_with_features(
         equivalents,
         equivalents_note,
         conversion: chosen.map(|e| e.conversion),
-        equilibrium: chosen.and_then(|e| full_equilibrium(&ctx, e)),
+        equilibrium: chosen
+            .filter(|_| opts.full_equilibrium)
+            .and_then(|e| full_equilibrium(&ctx, e)),
         solvent: chosen.map(|e| e.solvent.to_string()),
         temperature: chosen.map(|e| temperature(e.base)),
         scale: chosen.and_then(|e| e.scale),

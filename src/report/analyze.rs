@@ -340,6 +340,8 @@ fn advice_record(
         base: opts.base.clone(),
         site: opts.site,
         alternatives: Some(MAX_ALTERNATIVES),
+        // Records report the conversion, not the full composition.
+        full_equilibrium: false,
         ..AdviceOptions::default()
     };
     // The advice is consumed: its strings move into the record.
