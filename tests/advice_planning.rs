@@ -595,3 +595,22 @@ fn advise_given_no_full_equilibrium_leaves_only_it_out_issue_6() {
         assert_eq!(lean, all, "{smi}");
     }
 }
+
+/// A molecule whose only acidic proton is an O–H: an alkoxide is made with
+/// sodium hydride (or an alkoxide base), not with LDA or an organolithium,
+/// which are kept for C–H acids (common practice). Noted as a problem after
+/// issue 5, where ethanol got LDA.
+#[test]
+fn advise_given_alcohol_without_acidic_c_h_prefers_sodium_hydride_to_lithium_amides() {
+    for smi in ["CCO", "CC(C)(C)O", "CC(C)O"] {
+        let a = plan(smi);
+        assert_base_in(&a, &["NaH", "KH", "KOtBu", "NaOtBu"]);
+        // LDA stays acceptable (it does the job), only ranked lower.
+        assert!(!a.is_rejected("LDA"), "{smi}");
+        let lda = a.alternatives.iter().position(|x| x.base == "LDA");
+        let nah = a.alternatives.iter().position(|x| x.base == "NaH");
+        if let (Some(l), Some(n)) = (lda, nah) {
+            assert!(n < l, "{smi}: NaH should rank before LDA");
+        }
+    }
+}

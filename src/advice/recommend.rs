@@ -1522,7 +1522,8 @@ pub fn commonness_penalty(base: &Base) -> f64 {
 /// check in the base's own solvent 1, weakly nucleophilic base beside a
 /// carbonyl or nitrile 0.7, a base that enolises a simple carbonyl compound
 /// slowly or reversibly 2 (LDA -0.5 there), the alkoxide matching an ester
-/// -0.8, carbonates and hydrides (heterogeneous) 0.3.
+/// -0.8, carbonates and hydrides (heterogeneous) 0.3, a lithium amide,
+/// organolithium or metal amide for an O–H, N–H or S–H target 1.5.
 /// [`commonness_penalty`], worked out once per catalogue base.
 fn base_penalty(b: &Base) -> f64 {
     static TABLE: std::sync::OnceLock<Vec<f64>> = std::sync::OnceLock::new();
@@ -1590,6 +1591,24 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
     }
     if monocarbonyl && b.family == BaseFamily::LithiumAmide && b.name == "LDA" {
         s -= 0.5;
+    }
+    // An O–H, N–H or S–H target gives up its proton fast to any base strong
+    // enough: the cryogenic lithium amides and the organolithiums, kept for
+    // C–H acids, buy nothing there over sodium hydride or an alkoxide
+    // (common practice).
+    let hetero_target = ctx
+        .sites
+        .sites
+        .get(ctx.target)
+        .map(|t| !t.is_carbon())
+        .unwrap_or(false);
+    if hetero_target
+        && matches!(
+            b.family,
+            BaseFamily::LithiumAmide | BaseFamily::Alkyllithium | BaseFamily::MetalAmide
+        )
+    {
+        s += 1.5;
     }
     if matches!(b.family, BaseFamily::Carbonate | BaseFamily::Hydride) {
         s += 0.3;
