@@ -55,6 +55,7 @@ pub(crate) struct RawBond {
 }
 
 /// The parse result: atoms and bonds in written order.
+#[derive(Debug)]
 pub(crate) struct Raw {
     pub atoms: Vec<RawAtom>,
     pub bonds: Vec<RawBond>,
@@ -113,8 +114,9 @@ fn bracket_aromatic_number(a: BracketAromatic) -> u8 {
     }
 }
 
-fn convert(kind: AtomKind) -> RawAtom {
-    let plain = |element, aromatic| RawAtom {
+/// An atom written without brackets.
+fn plain(element: u8, aromatic: bool) -> RawAtom {
+    RawAtom {
         element,
         aromatic,
         charge: 0,
@@ -122,7 +124,10 @@ fn convert(kind: AtomKind) -> RawAtom {
         hcount: None,
         map: None,
         bracket: false,
-    };
+    }
+}
+
+fn convert(kind: AtomKind) -> RawAtom {
     match kind {
         AtomKind::Star => plain(0, false),
         AtomKind::Aliphatic(a) => plain(aliphatic_number(a), false),
@@ -191,31 +196,31 @@ impl Builder {
         }
     }
 
-    fn push_atom(&mut self, kind: AtomKind) -> Option<usize> {
+    fn push_atom(&mut self, atom: RawAtom) -> Option<usize> {
         if self.atoms.len() >= MAX_ATOMS {
             self.trouble.get_or_insert(Trouble::TooLarge);
             return None;
         }
-        self.atoms.push(convert(kind));
+        self.atoms.push(atom);
         Some(self.atoms.len() - 1)
     }
-}
 
-impl Follower for Builder {
-    fn root(&mut self, root: AtomKind) {
-        if let Some(id) = self.push_atom(root) {
+    /// First atom of a component.
+    fn root_atom(&mut self, atom: RawAtom) {
+        if let Some(id) = self.push_atom(atom) {
             self.stack.push(id);
         }
     }
 
-    fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
+    /// A bond from the head atom to a new atom.
+    fn extend_atom(&mut self, order: RawOrder, atom: RawAtom) {
         let head = self.stack.last().copied();
-        if let Some(id) = self.push_atom(atom_kind) {
+        if let Some(id) = self.push_atom(atom) {
             if let Some(head) = head {
                 self.bonds.push(RawBond {
                     a: head,
                     b: id,
-                    order: order_of(&bond_kind),
+                    order,
                     join: None,
                 });
             }
@@ -223,7 +228,9 @@ impl Follower for Builder {
         }
     }
 
-    fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
+    /// A ring-closure digit at the head atom; `fallback` is the ring number
+    /// used if the lexer's digits ran out (never for accepted text).
+    fn join_digit(&mut self, order: RawOrder, fallback: u8) {
         let join = self.joins;
         self.joins += 1;
         let Some(&head) = self.stack.last() else {
@@ -231,8 +238,7 @@ impl Follower for Builder {
         };
         // purr 0.9 reads `%73` as ring 74; the digits come from our own lexer
         // of the same text (valid whenever purr accepts the string).
-        let digit = self.digits.get(join).copied().unwrap_or(rnum as u8);
-        let order = order_of(&bond_kind);
+        let digit = self.digits.get(join).copied().unwrap_or(fallback);
         match self.opens.iter().position(|o| o.0 == digit) {
             None => self.opens.push((digit, head, order, join)),
             Some(k) => {
@@ -257,6 +263,20 @@ impl Follower for Builder {
                 });
             }
         }
+    }
+}
+
+impl Follower for Builder {
+    fn root(&mut self, root: AtomKind) {
+        self.root_atom(convert(root));
+    }
+
+    fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
+        self.extend_atom(order_of(&bond_kind), convert(atom_kind));
+    }
+
+    fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
+        self.join_digit(order_of(&bond_kind), rnum as u8);
     }
 
     fn pop(&mut self, depth: usize) {
@@ -317,6 +337,12 @@ const DIRECT_READ_LIMIT: usize = 1_500;
 
 /// Read the syntax of `smiles` into atoms and bonds in written order.
 pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
+    read_raw_with(smiles, true)
+}
+
+/// [`read_raw`], optionally without the direct reader of the common subset
+/// (every text through purr), so tests can compare the two.
+pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError> {
     if smiles.trim().is_empty() {
         return Err(MolError::new(
             ErrorKind::Empty,
@@ -381,7 +407,22 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             None => 0,
         })
         .collect();
-    let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
+    // The common subset is read directly; anything else (and every
+    // error) goes through purr.
+    let mut digits = digits;
+    let mut fast_builder = None;
+    if direct && rough_atoms <= DIRECT_READ_LIMIT && to_read.is_ascii() {
+        let mut b = Builder::new(rough_atoms, digits);
+        if fast_read(to_read.as_bytes(), &mut b) {
+            fast_builder = Some(b);
+            digits = Vec::new();
+        } else {
+            digits = std::mem::take(&mut b.digits);
+        }
+    }
+    let (result, builder) = if let Some(b) = fast_builder {
+        (Ok(()), Some(b))
+    } else if rough_atoms <= DIRECT_READ_LIMIT {
         guarded_read(to_read, rough_atoms, digits)
     } else {
         // One stack frame chain per atom: give the reader room for it.
@@ -496,6 +537,170 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
         bonds: builder.bonds,
         spans,
     })
+}
+
+/// Reads the common subset of SMILES (organic-subset and bracket atoms,
+/// bonds, branches, dots and ring-closure digits) into `b` with the same
+/// calls purr's reader makes, without purr's recursion. Returns false when
+/// the text uses anything else or is not valid SMILES; `b` is then to be
+/// discarded and the text read by purr, which also words the error. Only
+/// text purr accepts is accepted here. Iterative: no input makes it
+/// recurse.
+// <smiles> ::= <atom> ( <branch> | "." <atom> | <bond>? ( <atom> | <rnum> ) )*
+// <branch> ::= "(" <bond>? <atom> ... ")"
+fn fast_read(s: &[u8], b: &mut Builder) -> bool {
+    // Stack depth at each open branch.
+    let mut branches: Vec<usize> = Vec::new();
+    let Some((atom, mut i)) = fast_atom(s, 0) else {
+        return false;
+    };
+    b.root_atom(atom);
+    while let Some(&c) = s.get(i) {
+        match c {
+            b'(' => {
+                let (order, j) = fast_bond(s, i + 1);
+                let Some((atom, next)) = fast_atom(s, j) else {
+                    return false;
+                };
+                branches.push(b.stack.len());
+                b.extend_atom(order, atom);
+                i = next;
+            }
+            b')' => {
+                let Some(depth) = branches.pop() else {
+                    return false;
+                };
+                b.stack.truncate(depth);
+                i += 1;
+            }
+            b'.' => {
+                let Some((atom, next)) = fast_atom(s, i + 1) else {
+                    return false;
+                };
+                b.root_atom(atom);
+                i = next;
+            }
+            _ => {
+                let (order, j) = fast_bond(s, i);
+                match s.get(j) {
+                    Some(&d @ b'0'..=b'9') => {
+                        b.join_digit(order, d - b'0');
+                        i = j + 1;
+                    }
+                    Some(b'%') => match (s.get(j + 1), s.get(j + 2)) {
+                        (Some(&d1 @ b'0'..=b'9'), Some(&d2 @ b'0'..=b'9')) => {
+                            b.join_digit(order, (d1 - b'0') * 10 + (d2 - b'0'));
+                            i = j + 3;
+                        }
+                        _ => return false,
+                    },
+                    _ => {
+                        let Some((atom, next)) = fast_atom(s, j) else {
+                            return false;
+                        };
+                        b.extend_atom(order, atom);
+                        i = next;
+                    }
+                }
+            }
+        }
+    }
+    branches.is_empty()
+}
+
+// <bond> ::= "-" | "=" | "#" | "$" | ":" | "/" | "\\"
+/// The bond symbol at `i` (elided if none) and the position after it.
+fn fast_bond(s: &[u8], i: usize) -> (RawOrder, usize) {
+    let order = match s.get(i) {
+        Some(b'-' | b'/' | b'\\') => RawOrder::Single,
+        Some(b'=') => RawOrder::Double,
+        Some(b'#') => RawOrder::Triple,
+        Some(b'$') => RawOrder::Quadruple,
+        Some(b':') => RawOrder::Aromatic,
+        _ => return (RawOrder::Elided, i),
+    };
+    (order, i + 1)
+}
+
+// <atom> ::= <organic> | <bracket> | "*"
+/// The atom at `i` and the position after it; None for anything else
+/// (including `At` and `Ts`, left to purr).
+fn fast_atom(s: &[u8], i: usize) -> Option<(RawAtom, usize)> {
+    let c = *s.get(i)?;
+    let next = s.get(i + 1).copied();
+    let (atom, len) = match c {
+        b'C' if next == Some(b'l') => (plain(17, false), 2),
+        b'B' if next == Some(b'r') => (plain(35, false), 2),
+        b'C' => (plain(6, false), 1),
+        b'N' => (plain(7, false), 1),
+        b'O' => (plain(8, false), 1),
+        b'S' => (plain(16, false), 1),
+        b'F' => (plain(9, false), 1),
+        b'P' => (plain(15, false), 1),
+        b'I' => (plain(53, false), 1),
+        b'B' => (plain(5, false), 1),
+        b'c' => (plain(6, true), 1),
+        b'n' => (plain(7, true), 1),
+        b'o' => (plain(8, true), 1),
+        b's' => (plain(16, true), 1),
+        b'p' => (plain(15, true), 1),
+        b'b' => (plain(5, true), 1),
+        b'*' => (plain(0, false), 1),
+        b'[' => {
+            let close = s.get(i..)?.iter().position(|&x| x == b']')?;
+            let text = std::str::from_utf8(s.get(i..=i + close)?).ok()?;
+            (bracket_atom(text)?, close + 1)
+        }
+        _ => return None,
+    };
+    Some((atom, i + len))
+}
+
+/// Takes the one atom of a bracket-atom text read alone by purr.
+#[derive(Default)]
+struct OneAtom {
+    atom: Option<AtomKind>,
+    other: bool,
+}
+
+impl Follower for OneAtom {
+    fn root(&mut self, root: AtomKind) {
+        if self.atom.is_some() {
+            self.other = true;
+        }
+        self.atom = Some(root);
+    }
+
+    fn extend(&mut self, _: BondKind, _: AtomKind) {
+        self.other = true;
+    }
+
+    fn join(&mut self, _: BondKind, _: Rnum) {
+        self.other = true;
+    }
+
+    fn pop(&mut self, _: usize) {
+        self.other = true;
+    }
+}
+
+/// A bracket atom (`[13CH3+:4]`) read by purr's bracket grammar.
+fn bracket_atom(text: &str) -> Option<RawAtom> {
+    let run = std::panic::catch_unwind(|| {
+        let mut one = OneAtom::default();
+        let r = purr::read::read(text, &mut one, None);
+        (r, one)
+    });
+    match run {
+        Ok((
+            Ok(()),
+            OneAtom {
+                atom: Some(a),
+                other: false,
+            },
+        )) => Some(convert(a)),
+        _ => None,
+    }
 }
 
 /// Bracket atoms written `[te...]` (optionally with an isotope): (bracket
