@@ -507,13 +507,25 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
             smiles,
         ));
     }
-    // Two ring closures (or a closure and a chain bond) joining the same pair.
-    let mut pairs: Vec<(usize, usize, usize)> = builder
-        .bonds
-        .iter()
-        .enumerate()
-        .map(|(k, b)| (b.a.min(b.b), b.a.max(b.b), k))
-        .collect();
+    // Two ring closures (or a closure and a chain bond) joining the same
+    // pair. Chain bonds each bring a new atom, so only a closure can repeat
+    // a pair: look for one first, then find the one to report.
+    let repeated = builder.bonds.iter().enumerate().any(|(k, b)| {
+        b.join.is_some()
+            && builder.bonds[..k]
+                .iter()
+                .any(|o| (o.a == b.a && o.b == b.b) || (o.a == b.b && o.b == b.a))
+    });
+    let mut pairs: Vec<(usize, usize, usize)> = if repeated {
+        builder
+            .bonds
+            .iter()
+            .enumerate()
+            .map(|(k, b)| (b.a.min(b.b), b.a.max(b.b), k))
+            .collect()
+    } else {
+        Vec::new()
+    };
     pairs.sort_unstable();
     for w in pairs.windows(2) {
         if w[0].0 == w[1].0 && w[0].1 == w[1].1 {

@@ -91,6 +91,18 @@ impl RingList {
         self.bonds.reserve(atoms);
     }
 
+    /// Push a ring whose bonds are known (bond k joins atoms k and k+1).
+    fn push_known(&mut self, atoms: &[usize], bonds: &[usize]) {
+        if self.start.is_empty() {
+            self.start.push(0);
+        }
+        self.atoms.extend_from_slice(atoms);
+        self.bonds.extend_from_slice(bonds);
+        let to = self.atoms.len();
+        self.bonds.resize(to, usize::MAX);
+        self.start.push(to as u32);
+    }
+
     fn push(&mut self, atoms: impl IntoIterator<Item = usize>, nb: &Adj) {
         if self.start.is_empty() {
             self.start.push(0);
@@ -264,6 +276,7 @@ pub(crate) fn perceive(
     };
     let mut atoms: Vec<usize> = Vec::with_capacity(n);
     let mut ring: Vec<usize> = Vec::with_capacity(n);
+    let mut ring_bonds: Vec<usize> = Vec::with_capacity(n);
     info.list.reserve(n_blocks * 2, blocks.edges.len() * 2);
     for k in 0..n_blocks {
         let edges = &blocks.edges[blocks.start[k]..blocks.start[k + 1]];
@@ -283,7 +296,9 @@ pub(crate) fn perceive(
             // A single ring: walk it from its first atom.
             let start = atoms[0];
             ring.clear();
+            ring_bonds.clear();
             let (mut cur, mut via) = (start, usize::MAX);
+            let mut closed = false;
             while ring.len() < atoms.len() {
                 ring.push(cur);
                 match nb
@@ -291,14 +306,23 @@ pub(crate) fn perceive(
                     .iter()
                     .find(|x| in_block(x.bond) && x.bond != via)
                 {
-                    Some(x) if x.atom != start => {
+                    Some(x) => {
+                        ring_bonds.push(x.bond);
+                        if x.atom == start {
+                            closed = true;
+                            break;
+                        }
                         via = x.bond;
                         cur = x.atom;
                     }
-                    _ => break,
+                    None => break,
                 }
             }
-            info.list.push(ring.iter().copied(), nb);
+            if closed && ring_bonds.len() == ring.len() {
+                info.list.push_known(&ring, &ring_bonds);
+            } else {
+                info.list.push(ring.iter().copied(), nb);
+            }
         } else if rank == 2 && theta(&atoms, &scratch.degree, &in_block, nb, &mut info.list) {
             // bicyclic block handled directly
         } else {
