@@ -375,10 +375,6 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
             smiles,
         ));
     }
-    let rough_atoms = bytes
-        .iter()
-        .filter(|c| c.is_ascii_alphabetic() || **c == b'*')
-        .count();
     // purr does not know the aromatic tellurium symbol `[te]` (RDKit and
     // common practice accept it): read it as `[se]`, which has the same
     // length, and correct the element afterwards.
@@ -393,81 +389,91 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
         String::from_utf8(c2).ok()
     };
     let to_read: &str = rewritten.as_deref().unwrap_or(smiles);
-    // Lex first: atom spans, ring-closure positions and their numbers
-    // (meaningful only if purr accepts the text).
-    let (spans, rnums) = lex(bytes);
-    let digits: Vec<u8> = rnums
-        .iter()
-        .map(|&p| match bytes.get(p) {
-            Some(b'%') => {
-                let d = |k: usize| bytes.get(p + k).map_or(0, |c| c.wrapping_sub(b'0') % 10);
-                d(1) * 10 + d(2)
-            }
-            Some(c) => c.wrapping_sub(b'0') % 10,
-            None => 0,
-        })
-        .collect();
-    // The common subset is read directly; anything else (and every
-    // error) goes through purr.
-    let mut digits = digits;
-    let mut fast_builder = None;
-    if direct && rough_atoms <= DIRECT_READ_LIMIT && to_read.is_ascii() {
-        let mut b = Builder::new(rough_atoms, digits);
-        if fast_read(to_read.as_bytes(), &mut b) {
-            fast_builder = Some(b);
-            digits = Vec::new();
-        } else {
-            digits = std::mem::take(&mut b.digits);
+    // The common subset is read directly, recording atom spans and
+    // ring-closure positions as it goes; anything else (and every error)
+    // is lexed and read by purr.
+    let mut fast = None;
+    if direct && smiles.is_ascii() {
+        let mut b = Builder::new(bytes.len().min(DIRECT_READ_LIMIT), Vec::new());
+        let mut spans = Vec::with_capacity(bytes.len().min(DIRECT_READ_LIMIT));
+        let mut rnums = Vec::new();
+        if fast_read(to_read.as_bytes(), &mut b, &mut spans, &mut rnums)
+            && b.atoms.len() <= DIRECT_READ_LIMIT
+        {
+            fast = Some((b, spans, rnums));
         }
     }
-    let (result, builder) = if let Some(b) = fast_builder {
-        (Ok(()), Some(b))
-    } else if rough_atoms <= DIRECT_READ_LIMIT {
-        guarded_read(to_read, rough_atoms, digits)
-    } else {
-        // One stack frame chain per atom: give the reader room for it.
-        let owned = to_read.to_string();
-        let stack = (1 << 20) + rough_atoms * 2048;
-        let handle = std::thread::Builder::new()
-            .stack_size(stack)
-            .spawn(move || guarded_read(&owned, rough_atoms, digits));
-        match handle.map(|h| h.join()) {
-            Ok(Ok(pair)) => pair,
-            _ => {
+    let (builder, spans, rnums) = match fast {
+        Some(read) => read,
+        None => {
+            let rough_atoms = bytes
+                .iter()
+                .filter(|c| c.is_ascii_alphabetic() || **c == b'*')
+                .count();
+            // Lex first: atom spans, ring-closure positions and their numbers
+            // (meaningful only if purr accepts the text).
+            let (spans, rnums) = lex(bytes);
+            let digits: Vec<u8> = rnums
+                .iter()
+                .map(|&p| match bytes.get(p) {
+                    Some(b'%') => {
+                        let d =
+                            |k: usize| bytes.get(p + k).map_or(0, |c| c.wrapping_sub(b'0') % 10);
+                        d(1) * 10 + d(2)
+                    }
+                    Some(c) => c.wrapping_sub(b'0') % 10,
+                    None => 0,
+                })
+                .collect();
+            let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
+                guarded_read(to_read, rough_atoms, digits)
+            } else {
+                // One stack frame chain per atom: give the reader room for it.
+                let owned = to_read.to_string();
+                let stack = (1 << 20) + rough_atoms * 2048;
+                let handle = std::thread::Builder::new()
+                    .stack_size(stack)
+                    .spawn(move || guarded_read(&owned, rough_atoms, digits));
+                match handle.map(|h| h.join()) {
+                    Ok(Ok(pair)) => pair,
+                    _ => {
+                        return Err(MolError::new(
+                            ErrorKind::TooLarge,
+                            "input too large to read",
+                            None,
+                            smiles,
+                        ))
+                    }
+                }
+            };
+            let builder = match (result, builder) {
+                (Ok(()), Some(b)) => b,
+                (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
+                    return Err(syntax_error(smiles, p))
+                }
+                (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
+                    return Err(syntax_error(smiles, n_chars))
+                }
+                (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
+                    return Err(MolError::new(
+                        ErrorKind::Unsupported,
+                        "the SMILES reader could not handle this input",
+                        None,
+                        smiles,
+                    ))
+                }
+            };
+            if !smiles.is_ascii() {
                 return Err(MolError::new(
-                    ErrorKind::TooLarge,
-                    "input too large to read",
-                    None,
+                    ErrorKind::Syntax,
+                    "non-ASCII character in SMILES",
+                    chars.iter().position(|c| !c.is_ascii()),
                     smiles,
-                ))
+                ));
             }
+            (builder, spans, rnums)
         }
     };
-    let builder = match (result, builder) {
-        (Ok(()), Some(b)) => b,
-        (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
-            return Err(syntax_error(smiles, p))
-        }
-        (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
-            return Err(syntax_error(smiles, n_chars))
-        }
-        (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
-            return Err(MolError::new(
-                ErrorKind::Unsupported,
-                "the SMILES reader could not handle this input",
-                None,
-                smiles,
-            ))
-        }
-    };
-    if !smiles.is_ascii() {
-        return Err(MolError::new(
-            ErrorKind::Syntax,
-            "non-ASCII character in SMILES",
-            chars.iter().position(|c| !c.is_ascii()),
-            smiles,
-        ));
-    }
     let rnum_pos = |j: usize| rnums.get(j).copied();
     if let Some(t) = builder.trouble {
         return Err(match t {
@@ -560,12 +566,18 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
 /// recurse.
 // <smiles> ::= <atom> ( <branch> | "." <atom> | <bond>? ( <atom> | <rnum> ) )*
 // <branch> ::= "(" <bond>? <atom> ... ")"
-fn fast_read(s: &[u8], b: &mut Builder) -> bool {
+fn fast_read(
+    s: &[u8],
+    b: &mut Builder,
+    spans: &mut Vec<Range<usize>>,
+    rnums: &mut Vec<usize>,
+) -> bool {
     // Stack depth at each open branch.
     let mut branches: Vec<usize> = Vec::new();
     let Some((atom, mut i)) = fast_atom(s, 0) else {
         return false;
     };
+    spans.push(0..i);
     b.root_atom(atom);
     while let Some(&c) = s.get(i) {
         match c {
@@ -574,6 +586,7 @@ fn fast_read(s: &[u8], b: &mut Builder) -> bool {
                 let Some((atom, next)) = fast_atom(s, j) else {
                     return false;
                 };
+                spans.push(j..next);
                 branches.push(b.stack.len());
                 b.extend_atom(order, atom);
                 i = next;
@@ -589,6 +602,7 @@ fn fast_read(s: &[u8], b: &mut Builder) -> bool {
                 let Some((atom, next)) = fast_atom(s, i + 1) else {
                     return false;
                 };
+                spans.push(i + 1..next);
                 b.root_atom(atom);
                 i = next;
             }
@@ -596,11 +610,13 @@ fn fast_read(s: &[u8], b: &mut Builder) -> bool {
                 let (order, j) = fast_bond(s, i);
                 match s.get(j) {
                     Some(&d @ b'0'..=b'9') => {
+                        rnums.push(j);
                         b.join_digit(order, d - b'0');
                         i = j + 1;
                     }
                     Some(b'%') => match (s.get(j + 1), s.get(j + 2)) {
                         (Some(&d1 @ b'0'..=b'9'), Some(&d2 @ b'0'..=b'9')) => {
+                            rnums.push(j);
                             b.join_digit(order, (d1 - b'0') * 10 + (d2 - b'0'));
                             i = j + 3;
                         }
@@ -610,6 +626,7 @@ fn fast_read(s: &[u8], b: &mut Builder) -> bool {
                         let Some((atom, next)) = fast_atom(s, j) else {
                             return false;
                         };
+                        spans.push(j..next);
                         b.extend_atom(order, atom);
                         i = next;
                     }
