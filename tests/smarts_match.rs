@@ -393,3 +393,18 @@ fn target_given_ring_queries_is_shareable_between_threads() {
     assert_eq!(t.ring_count(), 6);
     assert!((0..m.atom_count()).all(|a| t.atom_ring_count(a) == 3 && t.smallest_ring(a) == 4));
 }
+
+#[test]
+fn matches_at_given_ring_pattern_on_chain_and_ring_needs_the_ring() {
+    // Common practice: a pattern written as a ring matches only atoms of a
+    // ring of the molecule (the ring screen must not change this).
+    let p = Pattern::parse("[CH2:1]1CCCCC1").expect("parses");
+    assert!(p.matches_at(&mol("C1CCCCC1"), 0).is_some());
+    assert!(p.matches_at(&mol("CCCCCCC"), 1).is_none());
+    // A six-membered pattern ring does not fit a five-membered ring.
+    assert!(p.matches_at(&mol("C1CCCC1"), 0).is_none());
+    // Alternatives allowing several elements: the molecule needs one.
+    let q = Pattern::parse("[CX4:1][Cl,Br,I]").expect("parses");
+    assert!(q.matches_at(&mol("CCBr"), 1).is_some());
+    assert!(q.matches_at(&mol("CCF"), 1).is_none());
+}

@@ -460,3 +460,59 @@ pub(crate) fn site_units(
     }
     units.into_iter().map(|(_, u)| u).collect()
 }
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    /// The decision by signatures alone, as made before the hash shortcut.
+    fn by_signatures(g: &Graph, t: usize) -> bool {
+        let mut sigs: Vec<String> = g
+            .nbrs(t)
+            .iter()
+            .map(|nb| g.signature(nb.atom, t, 4))
+            .collect();
+        sigs.sort();
+        sigs.dedup();
+        sigs.len() == 3
+    }
+
+    #[test]
+    fn three_distinct_branches_given_molecules_agrees_with_signatures() {
+        // Common practice: C2 of butan-2-ol and of 2-methylcyclohexanone are
+        // stereocentres; the CH of isobutane, of pentan-3-ol and C4 of
+        // 4-methylcyclohexanone are not (two equal branches).
+        let cases = [
+            ("CC(O)CC", 1, true),
+            ("CC1CCCCC1=O", 1, true),
+            ("CC(C)C", 1, false),
+            ("CCC(O)CC", 2, false),
+            ("CC1CCC(=O)CC1", 1, false),
+        ];
+        for (smiles, atom, expected) in cases {
+            let mol = Molecule::from_smiles(smiles).expect("parses");
+            let g = Graph::new(&mol);
+            assert_eq!(three_distinct_branches(&g, atom), expected, "{smiles}");
+        }
+        // Every atom with three neighbours in a few larger molecules: the
+        // shortcut gives the signature answer.
+        for smiles in [
+            "CC(C)(C)OC(=O)N[C@@H](Cc1ccccc1)C(=O)N1CCC[C@H]1C(=O)O",
+            "OC1C(O)C(O)C(O)C(O)C1O",
+            "CC12CCC3c4ccc(O)cc4CCC3C1CCC2O",
+            "C1C2CC3CC1CC(C2)C3",
+        ] {
+            let mol = Molecule::from_smiles(smiles).expect("parses");
+            let g = Graph::new(&mol);
+            for t in 0..mol.atoms.len() {
+                if g.nbrs(t).len() == 3 {
+                    assert_eq!(
+                        three_distinct_branches(&g, t),
+                        by_signatures(&g, t),
+                        "{smiles} atom {t}"
+                    );
+                }
+            }
+        }
+    }
+}

@@ -219,6 +219,15 @@ fn reach_within(reach: &[Reach], a: usize, from: usize, t: &Target, budget: &mut
 /// Can every condition (bit mask of the neighbours it accepts) have a
 /// neighbour of its own?
 fn has_matching(masks: &[u64]) -> bool {
+    // Usually each condition can simply take its lowest free neighbour.
+    let mut used = 0u64;
+    if masks.iter().all(|&m| {
+        let free = m & !used;
+        used |= free & free.wrapping_neg();
+        free != 0
+    }) {
+        return true;
+    }
     let mut owner = [u8::MAX; 64];
     (0..masks.len()).all(|i| {
         let mut seen = 0u64;
