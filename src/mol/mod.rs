@@ -1064,14 +1064,27 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     }
 
     // Aromaticity perception from scratch on the Kekulé structure.
+    // Only ring atoms are looked at; the others get empty facts.
+    let any_dative = dative_donor.iter().any(|&d| d != u32::MAX);
     let facts: Vec<aromatic::AtomFacts> = (0..n)
         .map(|i| {
             let a = &atoms[i];
-            let degree = nb
-                .get(i)
-                .iter()
-                .filter(|x| dative_donor[x.bond] != i as u32)
-                .count() as i32;
+            if ring_info.atom_rings[i] == 0 {
+                return aromatic::AtomFacts {
+                    degree: 0,
+                    bond_order_sum: 0,
+                    explicit_h: 0,
+                    radicals: 0,
+                };
+            }
+            let row = nb.get(i);
+            let degree = if any_dative {
+                row.iter()
+                    .filter(|x| dative_donor[x.bond] != i as u32)
+                    .count() as i32
+            } else {
+                row.len() as i32
+            };
             let v = bond_sum[i] as i32 + a.hydrogens as i32;
             let radicals = if a.bracket && a.element != 0 {
                 elements::charged_valences(a.element, a.charge)

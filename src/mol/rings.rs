@@ -152,22 +152,70 @@ struct Blocks {
     start: Vec<usize>,
 }
 
+/// Buffers of the ring perception, kept from one molecule to the next on
+/// the same thread (every use clears or refills them first), so that an
+/// ordinary molecule allocates only the ring information it returns.
+#[derive(Default)]
+struct Work {
+    block: Vec<u32>,
+    edges: Vec<usize>,
+    start: Vec<usize>,
+    disc: Vec<u32>,
+    low: Vec<u32>,
+    edge_stack: Vec<usize>,
+    stack: Vec<(u32, u32, u32, u32)>,
+    local: Vec<u32>,
+    degree: Vec<u32>,
+    local_bond: Vec<u32>,
+    atoms: Vec<usize>,
+    ring: Vec<usize>,
+    ring_bonds: Vec<usize>,
+}
+
+thread_local! {
+    static WORK: std::cell::Cell<Option<Box<Work>>> = const { std::cell::Cell::new(None) };
+}
+
+/// This thread's buffers (fresh ones if they are in use or gone).
+fn take_work() -> Box<Work> {
+    WORK.try_with(|c| c.take())
+        .ok()
+        .flatten()
+        .unwrap_or_default()
+}
+
+/// Hand the buffers back for the next molecule.
+fn give_work(w: Box<Work>) {
+    let _ = WORK.try_with(|c| c.set(Some(w)));
+}
+
+/// `v` emptied and refilled with `len` copies of `value`.
+fn refill<T: Copy>(mut v: Vec<T>, len: usize, value: T) -> Vec<T> {
+    v.clear();
+    v.resize(len, value);
+    v
+}
+
 /// Iterative Tarjan search with an edge stack.
-fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
+fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool], w: &mut Work) -> Blocks {
     let mut out = Blocks {
-        block: vec![NONE; n_bonds],
-        edges: Vec::with_capacity(n_bonds),
-        start: Vec::with_capacity(8),
+        block: refill(std::mem::take(&mut w.block), n_bonds, NONE),
+        edges: std::mem::take(&mut w.edges),
+        start: std::mem::take(&mut w.start),
     };
+    out.edges.clear();
+    out.start.clear();
     out.start.push(0);
     let skipped = |b: usize| skip.get(b).copied().unwrap_or(false);
     // disc 0 = not visited; times start at 1.
-    let mut disc = vec![0u32; n];
-    let mut low = vec![0u32; n];
+    let mut disc = refill(std::mem::take(&mut w.disc), n, 0u32);
+    let mut low = refill(std::mem::take(&mut w.low), n, 0u32);
     let mut time = 0u32;
-    let mut edge_stack: Vec<usize> = Vec::with_capacity(n_bonds);
+    let mut edge_stack: Vec<usize> = std::mem::take(&mut w.edge_stack);
+    edge_stack.clear();
     // (atom, bond used to enter, next adjacency position, end position)
-    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
+    let mut stack: Vec<(u32, u32, u32, u32)> = std::mem::take(&mut w.stack);
+    stack.clear();
     for root in 0..n {
         if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
@@ -228,6 +276,10 @@ fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
             }
         }
     }
+    w.disc = disc;
+    w.low = low;
+    w.edge_stack = edge_stack;
+    w.stack = stack;
     out
 }
 
@@ -251,7 +303,8 @@ pub(crate) fn perceive(
     skip: &[bool],
     smiles: &str,
 ) -> Result<RingInfo, MolError> {
-    let blocks = blocks(n, bonds.len(), nb, skip);
+    let mut w = take_work();
+    let blocks = blocks(n, bonds.len(), nb, skip, &mut w);
     let mut info = RingInfo {
         atom_rings: vec![0; n],
         atom_smallest: vec![0; n],
@@ -262,6 +315,8 @@ pub(crate) fn perceive(
     };
     let n_blocks = blocks.start.len() - 1;
     if n_blocks == 0 {
+        (w.block, w.edges, w.start) = (blocks.block, blocks.edges, blocks.start);
+        give_work(w);
         return Ok(info);
     }
     for &b in &blocks.edges {
@@ -269,14 +324,17 @@ pub(crate) fn perceive(
         info.atom_ring_bonds[x] = info.atom_ring_bonds[x].saturating_add(1);
         info.atom_ring_bonds[y] = info.atom_ring_bonds[y].saturating_add(1);
     }
+    let mut local_bond = std::mem::take(&mut w.local_bond);
+    local_bond.clear();
     let mut scratch = Scratch {
-        local: vec![NONE; n],
-        degree: vec![0; n],
-        local_bond: Vec::new(),
+        local: refill(std::mem::take(&mut w.local), n, NONE),
+        degree: refill(std::mem::take(&mut w.degree), n, 0),
+        local_bond,
     };
-    let mut atoms: Vec<usize> = Vec::with_capacity(n);
-    let mut ring: Vec<usize> = Vec::with_capacity(n);
-    let mut ring_bonds: Vec<usize> = Vec::with_capacity(n);
+    let mut atoms: Vec<usize> = std::mem::take(&mut w.atoms);
+    let mut ring: Vec<usize> = std::mem::take(&mut w.ring);
+    let mut ring_bonds: Vec<usize> = std::mem::take(&mut w.ring_bonds);
+    atoms.clear();
     info.list.reserve(n_blocks * 2, blocks.edges.len() * 2);
     for k in 0..n_blocks {
         let edges = &blocks.edges[blocks.start[k]..blocks.start[k + 1]];
@@ -340,7 +398,7 @@ pub(crate) fn perceive(
             }
             atoms.sort_unstable();
             if scratch.local_bond.is_empty() {
-                scratch.local_bond = vec![NONE; bonds.len()];
+                scratch.local_bond.resize(bonds.len(), NONE);
             }
             for (i, &a) in atoms.iter().enumerate() {
                 scratch.local[a] = i as u32;
@@ -375,6 +433,10 @@ pub(crate) fn perceive(
             }
         }
     }
+    (w.block, w.edges, w.start) = (blocks.block, blocks.edges, blocks.start);
+    (w.local, w.degree, w.local_bond) = (scratch.local, scratch.degree, scratch.local_bond);
+    (w.atoms, w.ring, w.ring_bonds) = (atoms, ring, ring_bonds);
+    give_work(w);
     Ok(info)
 }
 
