@@ -120,9 +120,6 @@ pub(crate) fn perceive(
     }
     let mut budget = MAX_RING_SETS;
     let mut times = vec![0u8; n];
-    // Per bond, reset after each fused system: in the system, marked done.
-    let mut system_bond: Vec<bool> = Vec::new();
-    let mut done_bonds: Vec<bool> = Vec::new();
     // Fused systems: connected components of the neighbour map.
     let mut done = vec![false; nc];
     for start in 0..nc {
@@ -151,19 +148,14 @@ pub(crate) fn perceive(
         }
         system.sort_unstable();
         // Stop once every ring bond of the system is aromatic.
-        if system_bond.is_empty() {
-            system_bond = vec![false; bonds.len()];
-            done_bonds = vec![false; bonds.len()];
-        }
-        let mut n_system_bonds = 0;
+        let mut system_bond = vec![false; bonds.len()];
         for &k in &system {
             for &b in rings.list.bonds(cand_rings[k]) {
-                if !system_bond[b] {
-                    system_bond[b] = true;
-                    n_system_bonds += 1;
-                }
+                system_bond[b] = true;
             }
         }
+        let n_system_bonds = system_bond.iter().filter(|x| **x).count();
+        let mut done_bonds = vec![false; bonds.len()];
         let mut n_done_bonds = 0;
         // Level by level: connected sets of 1..=6 rings of this system.
         let mut level: Vec<Vec<usize>> = system.iter().map(|&r| vec![r]).collect();
@@ -213,12 +205,6 @@ pub(crate) fn perceive(
             next.sort_unstable();
             next.dedup();
             level = next;
-        }
-        for &k in &system {
-            for &b in rings.list.bonds(cand_rings[k]) {
-                system_bond[b] = false;
-                done_bonds[b] = false;
-            }
         }
     }
     (atom_arom, bond_arom)
