@@ -331,3 +331,29 @@ fn read_raw_given_unusual_syntax_matches_purr() {
         same_reading(s);
     }
 }
+
+#[test]
+fn neighbors_given_corpus_molecules_list_each_atoms_bonds_in_bond_order() {
+    // Rows must equal a plain scan of the bond list (bond order, other atom).
+    let mut checked = 0;
+    for s in corpus_smiles() {
+        let Ok(m) = Molecule::from_smiles(&s) else {
+            continue;
+        };
+        for i in 0..m.atom_count() {
+            let expected: Vec<Neighbor> = m
+                .bonds
+                .iter()
+                .enumerate()
+                .filter(|(_, b)| b.atoms.contains(&i))
+                .map(|(k, b)| Neighbor {
+                    atom: b.other(i),
+                    bond: k,
+                })
+                .collect();
+            assert_eq!(m.neighbors(i), expected.as_slice(), "{s} atom {i}");
+        }
+        checked += 1;
+    }
+    assert!(checked > 1000);
+}
