@@ -676,8 +676,9 @@ fn symmetrised_sssr(
     let mut par = vec![NONE; v * v];
     let mut pbond = vec![NONE; v * v];
     let mut branch = vec![NONE; v * v];
-    // Candidates in generation order: (length, root, bond).
-    let mut cands: Vec<(u32, u32, u32)> = Vec::new();
+    // Candidates in generation order: (length, root, bond); each root's
+    // tree leaves `rank` non-tree bonds, so at most `rank` per root.
+    let mut cands: Vec<(u32, u32, u32)> = Vec::with_capacity(v.saturating_mul(rank));
     let mut queue = Vec::with_capacity(v);
     for r in 0..v {
         let base = r * v;
@@ -740,7 +741,7 @@ fn symmetrised_sssr(
             continue;
         }
         // The ring in cycle order: r .. x, then y .. (child of r).
-        let mut ring = Vec::new();
+        let mut ring = Vec::with_capacity((dist[base + x] + dist[base + y] + 1) as usize);
         let mut c = x;
         while c != r {
             ring.push(c);
@@ -896,8 +897,10 @@ impl CycleSearch<'_> {
         }
         self.budget = self.budget.saturating_sub(self.queue.len());
         // Paths from b to a of len - 1 bonds.
-        let mut path = vec![b];
-        let mut cursor = vec![0usize];
+        let mut path = Vec::with_capacity(len);
+        path.push(b);
+        let mut cursor = Vec::with_capacity(len);
+        cursor.push(0usize);
         let mut path_bonds: Vec<usize> = Vec::with_capacity(len);
         self.on_path[b] = true;
         let mut bits: Bits = vec![0; self.words];
