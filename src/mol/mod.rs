@@ -731,8 +731,8 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     if has_h {
         let mut raw_degree = vec![0u32; n_raw];
         for b in &raw_bonds {
-            raw_degree[b.a] += 1;
-            raw_degree[b.b] += 1;
+            raw_degree[b.a as usize] += 1;
+            raw_degree[b.b as usize] += 1;
         }
         let foldable = |i: usize| {
             let a = &raw_atoms[i];
@@ -743,7 +743,8 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
             if !matches!(b.order, RawOrder::Elided | RawOrder::Single) {
                 continue;
             }
-            for (h, heavy) in [(b.a, b.b), (b.b, b.a)] {
+            let (ba, bb) = (b.a as usize, b.b as usize);
+            for (h, heavy) in [(ba, bb), (bb, ba)] {
                 if foldable(h) && raw_atoms[heavy].element != 1 {
                     fold[h] = true;
                 }
@@ -782,9 +783,10 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
     let mut bonds: Vec<Bond> = Vec::with_capacity(raw_bonds.len());
     let mut star_links: Vec<usize> = Vec::new();
     for b in &raw_bonds {
-        let (fa, fb) = (folded(b.a), folded(b.b));
+        let (ba, bb) = (b.a as usize, b.b as usize);
+        let (fa, fb) = (folded(ba), folded(bb));
         if fa || fb {
-            let (h, heavy) = if fa { (b.a, b.b) } else { (b.b, b.a) };
+            let (h, heavy) = if fa { (ba, bb) } else { (bb, ba) };
             let atom = &mut atoms[if has_h { new_index[heavy] } else { heavy }];
             atom.hydrogens = atom.hydrogens.saturating_add(1);
             if matches!(raw_atoms[h].isotope, Some(2) | Some(3)) {
@@ -793,16 +795,16 @@ fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> {
             continue;
         }
         let (x, y) = if has_h {
-            (new_index[b.a], new_index[b.b])
+            (new_index[ba], new_index[bb])
         } else {
-            (b.a, b.b)
+            (ba, bb)
         };
-        let both_aromatic = raw_atoms[b.a].aromatic && raw_atoms[b.b].aromatic;
+        let both_aromatic = raw_atoms[ba].aromatic && raw_atoms[bb].aromatic;
         // A wildcard bonded to an aromatic atom may be part of its ring:
         // decided once rings are known.
         let star_link = b.order == RawOrder::Elided
-            && ((raw_atoms[b.a].element == 0 && raw_atoms[b.b].aromatic)
-                || (raw_atoms[b.b].element == 0 && raw_atoms[b.a].aromatic));
+            && ((raw_atoms[ba].element == 0 && raw_atoms[bb].aromatic)
+                || (raw_atoms[bb].element == 0 && raw_atoms[ba].aromatic));
         if star_link {
             star_links.push(bonds.len());
         }

@@ -45,13 +45,14 @@ pub(crate) enum RawOrder {
     Aromatic,
 }
 
+/// A bond as written (atom indices fit in u32: at most [`MAX_ATOMS`]).
 #[derive(Debug, Clone)]
 pub(crate) struct RawBond {
-    pub a: usize,
-    pub b: usize,
+    pub a: u32,
+    pub b: u32,
     pub order: RawOrder,
     /// Index of the ring-closure digit that closed this bond, if any.
-    pub join: Option<usize>,
+    pub join: Option<u32>,
 }
 
 /// The parse result: atoms and bonds in written order.
@@ -218,8 +219,8 @@ impl Builder {
         if let Some(id) = self.push_atom(atom) {
             if let Some(head) = head {
                 self.bonds.push(RawBond {
-                    a: head,
-                    b: id,
+                    a: head as u32,
+                    b: id as u32,
                     order,
                     join: None,
                 });
@@ -256,10 +257,10 @@ impl Builder {
                     }
                 };
                 self.bonds.push(RawBond {
-                    a: other,
-                    b: head,
+                    a: other as u32,
+                    b: head as u32,
                     order,
-                    join: Some(join),
+                    join: Some(join as u32),
                 });
             }
         }
@@ -394,8 +395,11 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
     // is lexed and read by purr.
     let mut fast = None;
     if direct && smiles.is_ascii() {
-        let mut b = Builder::new(bytes.len().min(DIRECT_READ_LIMIT), Vec::new());
-        let mut spans = Vec::with_capacity(bytes.len().min(DIRECT_READ_LIMIT));
+        // Room for the atoms of typical text (about one per two
+        // characters) without growing.
+        let room = (bytes.len() * 2 / 3 + 2).min(DIRECT_READ_LIMIT);
+        let mut b = Builder::new(room, Vec::new());
+        let mut spans = Vec::with_capacity(room);
         let mut rnums = Vec::new();
         if fast_read(to_read.as_bytes(), &mut b, &mut spans, &mut rnums)
             && b.atoms.len() <= DIRECT_READ_LIMIT
@@ -522,7 +526,7 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
                 .iter()
                 .any(|o| (o.a == b.a && o.b == b.b) || (o.a == b.b && o.b == b.a))
     });
-    let mut pairs: Vec<(usize, usize, usize)> = if repeated {
+    let mut pairs: Vec<(u32, u32, usize)> = if repeated {
         builder
             .bonds
             .iter()
@@ -535,7 +539,7 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
     pairs.sort_unstable();
     for w in pairs.windows(2) {
         if w[0].0 == w[1].0 && w[0].1 == w[1].1 {
-            let later = builder.bonds[w[0].2.max(w[1].2)].join;
+            let later = builder.bonds[w[0].2.max(w[1].2)].join.map(|j| j as usize);
             return Err(MolError::new(
                 ErrorKind::RingClosure,
                 "this ring closure duplicates a bond between the same two atoms",
