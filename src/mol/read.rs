@@ -1,8 +1,11 @@
-//! SMILES reading: purr checks the syntax and walks the string; a
-//! [`Follower`] of our own collects atoms and bonds directly (no
-//! intermediate graph), and a small lexer over the already-validated text
-//! recovers each atom's character span and each ring-closure digit's
-//! position, so errors found after parsing still point into the input.
+//! SMILES reading. The common subset is read by [`fast_read`], which
+//! makes the calls purr's reader would make on a [`Builder`] and records
+//! spans and ring-closure positions itself. Other text goes through purr:
+//! it checks the syntax and walks the string; a [`Follower`] of our own
+//! collects atoms and bonds directly (no intermediate graph), and a small
+//! lexer over the already-validated text recovers each atom's character
+//! span and each ring-closure digit's position, so errors found after
+//! parsing still point into the input.
 
 use std::ops::Range;
 
