@@ -273,6 +273,13 @@ fn mark(
             atom_arom[a] = true;
         }
     }
+    if let [k] = set {
+        // One ring: each of its bonds is in exactly one ring of the set.
+        for &b in rings.list.bonds(cand_rings[*k]) {
+            bond_arom[b] = true;
+        }
+        return;
+    }
     for &k in set {
         for &b in rings.list.bonds(cand_rings[k]) {
             let count = set

@@ -1,8 +1,11 @@
-//! SMILES reading: purr checks the syntax and walks the string; a
-//! [`Follower`] of our own collects atoms and bonds directly (no
-//! intermediate graph), and a small lexer over the already-validated text
-//! recovers each atom's character span and each ring-closure digit's
-//! position, so errors found after parsing still point into the input.
+//! SMILES reading. The common subset is read by [`fast_read`], which
+//! makes the calls purr's reader would make on a [`Builder`] and records
+//! spans and ring-closure positions itself. Other text goes through purr:
+//! it checks the syntax and walks the string; a [`Follower`] of our own
+//! collects atoms and bonds directly (no intermediate graph), and a small
+//! lexer over the already-validated text recovers each atom's character
+//! span and each ring-closure digit's position, so errors found after
+//! parsing still point into the input.
 
 use std::ops::Range;
 
@@ -45,16 +48,18 @@ pub(crate) enum RawOrder {
     Aromatic,
 }
 
+/// A bond as written (atom indices fit in u32: at most [`MAX_ATOMS`]).
 #[derive(Debug, Clone)]
 pub(crate) struct RawBond {
-    pub a: usize,
-    pub b: usize,
+    pub a: u32,
+    pub b: u32,
     pub order: RawOrder,
     /// Index of the ring-closure digit that closed this bond, if any.
-    pub join: Option<usize>,
+    pub join: Option<u32>,
 }
 
 /// The parse result: atoms and bonds in written order.
+#[derive(Debug)]
 pub(crate) struct Raw {
     pub atoms: Vec<RawAtom>,
     pub bonds: Vec<RawBond>,
@@ -113,8 +118,9 @@ fn bracket_aromatic_number(a: BracketAromatic) -> u8 {
     }
 }
 
-fn convert(kind: AtomKind) -> RawAtom {
-    let plain = |element, aromatic| RawAtom {
+/// An atom written without brackets.
+fn plain(element: u8, aromatic: bool) -> RawAtom {
+    RawAtom {
         element,
         aromatic,
         charge: 0,
@@ -122,7 +128,10 @@ fn convert(kind: AtomKind) -> RawAtom {
         hcount: None,
         map: None,
         bracket: false,
-    };
+    }
+}
+
+fn convert(kind: AtomKind) -> RawAtom {
     match kind {
         AtomKind::Star => plain(0, false),
         AtomKind::Aliphatic(a) => plain(aliphatic_number(a), false),
@@ -191,31 +200,31 @@ impl Builder {
         }
     }
 
-    fn push_atom(&mut self, kind: AtomKind) -> Option<usize> {
+    fn push_atom(&mut self, atom: RawAtom) -> Option<usize> {
         if self.atoms.len() >= MAX_ATOMS {
             self.trouble.get_or_insert(Trouble::TooLarge);
             return None;
         }
-        self.atoms.push(convert(kind));
+        self.atoms.push(atom);
         Some(self.atoms.len() - 1)
     }
-}
 
-impl Follower for Builder {
-    fn root(&mut self, root: AtomKind) {
-        if let Some(id) = self.push_atom(root) {
+    /// First atom of a component.
+    fn root_atom(&mut self, atom: RawAtom) {
+        if let Some(id) = self.push_atom(atom) {
             self.stack.push(id);
         }
     }
 
-    fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
+    /// A bond from the head atom to a new atom.
+    fn extend_atom(&mut self, order: RawOrder, atom: RawAtom) {
         let head = self.stack.last().copied();
-        if let Some(id) = self.push_atom(atom_kind) {
+        if let Some(id) = self.push_atom(atom) {
             if let Some(head) = head {
                 self.bonds.push(RawBond {
-                    a: head,
-                    b: id,
-                    order: order_of(&bond_kind),
+                    a: head as u32,
+                    b: id as u32,
+                    order,
                     join: None,
                 });
             }
@@ -223,7 +232,9 @@ impl Follower for Builder {
         }
     }
 
-    fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
+    /// A ring-closure digit at the head atom; `fallback` is the ring number
+    /// used if the lexer's digits ran out (never for accepted text).
+    fn join_digit(&mut self, order: RawOrder, fallback: u8) {
         let join = self.joins;
         self.joins += 1;
         let Some(&head) = self.stack.last() else {
@@ -231,8 +242,7 @@ impl Follower for Builder {
         };
         // purr 0.9 reads `%73` as ring 74; the digits come from our own lexer
         // of the same text (valid whenever purr accepts the string).
-        let digit = self.digits.get(join).copied().unwrap_or(rnum as u8);
-        let order = order_of(&bond_kind);
+        let digit = self.digits.get(join).copied().unwrap_or(fallback);
         match self.opens.iter().position(|o| o.0 == digit) {
             None => self.opens.push((digit, head, order, join)),
             Some(k) => {
@@ -250,13 +260,27 @@ impl Follower for Builder {
                     }
                 };
                 self.bonds.push(RawBond {
-                    a: other,
-                    b: head,
+                    a: other as u32,
+                    b: head as u32,
                     order,
-                    join: Some(join),
+                    join: Some(join as u32),
                 });
             }
         }
+    }
+}
+
+impl Follower for Builder {
+    fn root(&mut self, root: AtomKind) {
+        self.root_atom(convert(root));
+    }
+
+    fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
+        self.extend_atom(order_of(&bond_kind), convert(atom_kind));
+    }
+
+    fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
+        self.join_digit(order_of(&bond_kind), rnum as u8);
     }
 
     fn pop(&mut self, depth: usize) {
@@ -317,6 +341,12 @@ const DIRECT_READ_LIMIT: usize = 1_500;
 
 /// Read the syntax of `smiles` into atoms and bonds in written order.
 pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
+    read_raw_with(smiles, true)
+}
+
+/// [`read_raw`], optionally without the direct reader of the common subset
+/// (every text through purr), so tests can compare the two.
+pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError> {
     if smiles.trim().is_empty() {
         return Err(MolError::new(
             ErrorKind::Empty,
@@ -349,10 +379,6 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             smiles,
         ));
     }
-    let rough_atoms = bytes
-        .iter()
-        .filter(|c| c.is_ascii_alphabetic() || **c == b'*')
-        .count();
     // purr does not know the aromatic tellurium symbol `[te]` (RDKit and
     // common practice accept it): read it as `[se]`, which has the same
     // length, and correct the element afterwards.
@@ -367,66 +393,94 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
         String::from_utf8(c2).ok()
     };
     let to_read: &str = rewritten.as_deref().unwrap_or(smiles);
-    // Lex first: atom spans, ring-closure positions and their numbers
-    // (meaningful only if purr accepts the text).
-    let (spans, rnums) = lex(bytes);
-    let digits: Vec<u8> = rnums
-        .iter()
-        .map(|&p| match bytes.get(p) {
-            Some(b'%') => {
-                let d = |k: usize| bytes.get(p + k).map_or(0, |c| c.wrapping_sub(b'0') % 10);
-                d(1) * 10 + d(2)
-            }
-            Some(c) => c.wrapping_sub(b'0') % 10,
-            None => 0,
-        })
-        .collect();
-    let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
-        guarded_read(to_read, rough_atoms, digits)
-    } else {
-        // One stack frame chain per atom: give the reader room for it.
-        let owned = to_read.to_string();
-        let stack = (1 << 20) + rough_atoms * 2048;
-        let handle = std::thread::Builder::new()
-            .stack_size(stack)
-            .spawn(move || guarded_read(&owned, rough_atoms, digits));
-        match handle.map(|h| h.join()) {
-            Ok(Ok(pair)) => pair,
-            _ => {
-                return Err(MolError::new(
-                    ErrorKind::TooLarge,
-                    "input too large to read",
-                    None,
-                    smiles,
-                ))
-            }
+    // The common subset is read directly, recording atom spans and
+    // ring-closure positions as it goes; anything else (and every error)
+    // is lexed and read by purr.
+    let mut fast = None;
+    if direct && smiles.is_ascii() {
+        // Room for the atoms of typical text (about one per two
+        // characters) without growing.
+        let room = (bytes.len() * 2 / 3 + 2).min(DIRECT_READ_LIMIT);
+        let mut b = Builder::new(room, Vec::new());
+        let mut spans = Vec::with_capacity(room);
+        let mut rnums = Vec::new();
+        if fast_read(to_read.as_bytes(), &mut b, &mut spans, &mut rnums)
+            && b.atoms.len() <= DIRECT_READ_LIMIT
+        {
+            fast = Some((b, spans, rnums));
         }
-    };
-    let builder = match (result, builder) {
-        (Ok(()), Some(b)) => b,
-        (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
-            return Err(syntax_error(smiles, p))
-        }
-        (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
-            return Err(syntax_error(smiles, n_chars))
-        }
-        (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
-            return Err(MolError::new(
-                ErrorKind::Unsupported,
-                "the SMILES reader could not handle this input",
-                None,
-                smiles,
-            ))
-        }
-    };
-    if !smiles.is_ascii() {
-        return Err(MolError::new(
-            ErrorKind::Syntax,
-            "non-ASCII character in SMILES",
-            chars.iter().position(|c| !c.is_ascii()),
-            smiles,
-        ));
     }
+    let (builder, spans, rnums) = match fast {
+        Some(read) => read,
+        None => {
+            let rough_atoms = bytes
+                .iter()
+                .filter(|c| c.is_ascii_alphabetic() || **c == b'*')
+                .count();
+            // Lex first: atom spans, ring-closure positions and their numbers
+            // (meaningful only if purr accepts the text).
+            let (spans, rnums) = lex(bytes);
+            let digits: Vec<u8> = rnums
+                .iter()
+                .map(|&p| match bytes.get(p) {
+                    Some(b'%') => {
+                        let d =
+                            |k: usize| bytes.get(p + k).map_or(0, |c| c.wrapping_sub(b'0') % 10);
+                        d(1) * 10 + d(2)
+                    }
+                    Some(c) => c.wrapping_sub(b'0') % 10,
+                    None => 0,
+                })
+                .collect();
+            let (result, builder) = if rough_atoms <= DIRECT_READ_LIMIT {
+                guarded_read(to_read, rough_atoms, digits)
+            } else {
+                // One stack frame chain per atom: give the reader room for it.
+                let owned = to_read.to_string();
+                let stack = (1 << 20) + rough_atoms * 2048;
+                let handle = std::thread::Builder::new()
+                    .stack_size(stack)
+                    .spawn(move || guarded_read(&owned, rough_atoms, digits));
+                match handle.map(|h| h.join()) {
+                    Ok(Ok(pair)) => pair,
+                    _ => {
+                        return Err(MolError::new(
+                            ErrorKind::TooLarge,
+                            "input too large to read",
+                            None,
+                            smiles,
+                        ))
+                    }
+                }
+            };
+            let builder = match (result, builder) {
+                (Ok(()), Some(b)) => b,
+                (Err(ReadFailure::Syntax(purr::read::Error::Character(p))), _) => {
+                    return Err(syntax_error(smiles, p))
+                }
+                (Err(ReadFailure::Syntax(purr::read::Error::EndOfLine)), _) => {
+                    return Err(syntax_error(smiles, n_chars))
+                }
+                (Err(ReadFailure::Panic), _) | (Ok(()), None) => {
+                    return Err(MolError::new(
+                        ErrorKind::Unsupported,
+                        "the SMILES reader could not handle this input",
+                        None,
+                        smiles,
+                    ))
+                }
+            };
+            if !smiles.is_ascii() {
+                return Err(MolError::new(
+                    ErrorKind::Syntax,
+                    "non-ASCII character in SMILES",
+                    chars.iter().position(|c| !c.is_ascii()),
+                    smiles,
+                ));
+            }
+            (builder, spans, rnums)
+        }
+    };
     let rnum_pos = |j: usize| rnums.get(j).copied();
     if let Some(t) = builder.trouble {
         return Err(match t {
@@ -466,17 +520,29 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
             smiles,
         ));
     }
-    // Two ring closures (or a closure and a chain bond) joining the same pair.
-    let mut pairs: Vec<(usize, usize, usize)> = builder
-        .bonds
-        .iter()
-        .enumerate()
-        .map(|(k, b)| (b.a.min(b.b), b.a.max(b.b), k))
-        .collect();
+    // Two ring closures (or a closure and a chain bond) joining the same
+    // pair. Chain bonds each bring a new atom, so only a closure can repeat
+    // a pair: look for one first, then find the one to report.
+    let repeated = builder.bonds.iter().enumerate().any(|(k, b)| {
+        b.join.is_some()
+            && builder.bonds[..k]
+                .iter()
+                .any(|o| (o.a == b.a && o.b == b.b) || (o.a == b.b && o.b == b.a))
+    });
+    let mut pairs: Vec<(u32, u32, usize)> = if repeated {
+        builder
+            .bonds
+            .iter()
+            .enumerate()
+            .map(|(k, b)| (b.a.min(b.b), b.a.max(b.b), k))
+            .collect()
+    } else {
+        Vec::new()
+    };
     pairs.sort_unstable();
     for w in pairs.windows(2) {
         if w[0].0 == w[1].0 && w[0].1 == w[1].1 {
-            let later = builder.bonds[w[0].2.max(w[1].2)].join;
+            let later = builder.bonds[w[0].2.max(w[1].2)].join.map(|j| j as usize);
             return Err(MolError::new(
                 ErrorKind::RingClosure,
                 "this ring closure duplicates a bond between the same two atoms",
@@ -496,6 +562,181 @@ pub(crate) fn read_raw(smiles: &str) -> Result<Raw, MolError> {
         bonds: builder.bonds,
         spans,
     })
+}
+
+/// Reads the common subset of SMILES (organic-subset and bracket atoms,
+/// bonds, branches, dots and ring-closure digits) into `b` with the same
+/// calls purr's reader makes, without purr's recursion. Returns false when
+/// the text uses anything else or is not valid SMILES; `b` is then to be
+/// discarded and the text read by purr, which also words the error. Only
+/// text purr accepts is accepted here. Iterative: no input makes it
+/// recurse.
+// <smiles> ::= <atom> ( <branch> | "." <atom> | <bond>? ( <atom> | <rnum> ) )*
+// <branch> ::= "(" <bond>? <atom> ... ")"
+fn fast_read(
+    s: &[u8],
+    b: &mut Builder,
+    spans: &mut Vec<Range<usize>>,
+    rnums: &mut Vec<usize>,
+) -> bool {
+    // Stack depth at each open branch.
+    let mut branches: Vec<usize> = Vec::new();
+    let Some((atom, mut i)) = fast_atom(s, 0) else {
+        return false;
+    };
+    spans.push(0..i);
+    b.root_atom(atom);
+    while let Some(&c) = s.get(i) {
+        match c {
+            b'(' => {
+                let (order, j) = fast_bond(s, i + 1);
+                let Some((atom, next)) = fast_atom(s, j) else {
+                    return false;
+                };
+                spans.push(j..next);
+                branches.push(b.stack.len());
+                b.extend_atom(order, atom);
+                i = next;
+            }
+            b')' => {
+                let Some(depth) = branches.pop() else {
+                    return false;
+                };
+                b.stack.truncate(depth);
+                i += 1;
+            }
+            b'.' => {
+                let Some((atom, next)) = fast_atom(s, i + 1) else {
+                    return false;
+                };
+                spans.push(i + 1..next);
+                b.root_atom(atom);
+                i = next;
+            }
+            _ => {
+                let (order, j) = fast_bond(s, i);
+                match s.get(j) {
+                    Some(&d @ b'0'..=b'9') => {
+                        rnums.push(j);
+                        b.join_digit(order, d - b'0');
+                        i = j + 1;
+                    }
+                    Some(b'%') => match (s.get(j + 1), s.get(j + 2)) {
+                        (Some(&d1 @ b'0'..=b'9'), Some(&d2 @ b'0'..=b'9')) => {
+                            rnums.push(j);
+                            b.join_digit(order, (d1 - b'0') * 10 + (d2 - b'0'));
+                            i = j + 3;
+                        }
+                        _ => return false,
+                    },
+                    _ => {
+                        let Some((atom, next)) = fast_atom(s, j) else {
+                            return false;
+                        };
+                        spans.push(j..next);
+                        b.extend_atom(order, atom);
+                        i = next;
+                    }
+                }
+            }
+        }
+    }
+    branches.is_empty()
+}
+
+// <bond> ::= "-" | "=" | "#" | "$" | ":" | "/" | "\\"
+/// The bond symbol at `i` (elided if none) and the position after it.
+fn fast_bond(s: &[u8], i: usize) -> (RawOrder, usize) {
+    let order = match s.get(i) {
+        Some(b'-' | b'/' | b'\\') => RawOrder::Single,
+        Some(b'=') => RawOrder::Double,
+        Some(b'#') => RawOrder::Triple,
+        Some(b'$') => RawOrder::Quadruple,
+        Some(b':') => RawOrder::Aromatic,
+        _ => return (RawOrder::Elided, i),
+    };
+    (order, i + 1)
+}
+
+// <atom> ::= <organic> | <bracket> | "*"
+/// The atom at `i` and the position after it; None for anything else
+/// (including `At` and `Ts`, left to purr).
+fn fast_atom(s: &[u8], i: usize) -> Option<(RawAtom, usize)> {
+    let c = *s.get(i)?;
+    let next = s.get(i + 1).copied();
+    let (atom, len) = match c {
+        b'C' if next == Some(b'l') => (plain(17, false), 2),
+        b'B' if next == Some(b'r') => (plain(35, false), 2),
+        b'C' => (plain(6, false), 1),
+        b'N' => (plain(7, false), 1),
+        b'O' => (plain(8, false), 1),
+        b'S' => (plain(16, false), 1),
+        b'F' => (plain(9, false), 1),
+        b'P' => (plain(15, false), 1),
+        b'I' => (plain(53, false), 1),
+        b'B' => (plain(5, false), 1),
+        b'c' => (plain(6, true), 1),
+        b'n' => (plain(7, true), 1),
+        b'o' => (plain(8, true), 1),
+        b's' => (plain(16, true), 1),
+        b'p' => (plain(15, true), 1),
+        b'b' => (plain(5, true), 1),
+        b'*' => (plain(0, false), 1),
+        b'[' => {
+            let close = s.get(i..)?.iter().position(|&x| x == b']')?;
+            let text = std::str::from_utf8(s.get(i..=i + close)?).ok()?;
+            (bracket_atom(text)?, close + 1)
+        }
+        _ => return None,
+    };
+    Some((atom, i + len))
+}
+
+/// Takes the one atom of a bracket-atom text read alone by purr.
+#[derive(Default)]
+struct OneAtom {
+    atom: Option<AtomKind>,
+    other: bool,
+}
+
+impl Follower for OneAtom {
+    fn root(&mut self, root: AtomKind) {
+        if self.atom.is_some() {
+            self.other = true;
+        }
+        self.atom = Some(root);
+    }
+
+    fn extend(&mut self, _: BondKind, _: AtomKind) {
+        self.other = true;
+    }
+
+    fn join(&mut self, _: BondKind, _: Rnum) {
+        self.other = true;
+    }
+
+    fn pop(&mut self, _: usize) {
+        self.other = true;
+    }
+}
+
+/// A bracket atom (`[13CH3+:4]`) read by purr's bracket grammar.
+fn bracket_atom(text: &str) -> Option<RawAtom> {
+    let run = std::panic::catch_unwind(|| {
+        let mut one = OneAtom::default();
+        let r = purr::read::read(text, &mut one, None);
+        (r, one)
+    });
+    match run {
+        Ok((
+            Ok(()),
+            OneAtom {
+                atom: Some(a),
+                other: false,
+            },
+        )) => Some(convert(a)),
+        _ => None,
+    }
 }
 
 /// Bracket atoms written `[te...]` (optionally with an isotope): (bracket

@@ -91,6 +91,18 @@ impl RingList {
         self.bonds.reserve(atoms);
     }
 
+    /// Push a ring whose bonds are known (bond k joins atoms k and k+1).
+    fn push_known(&mut self, atoms: &[usize], bonds: &[usize]) {
+        if self.start.is_empty() {
+            self.start.push(0);
+        }
+        self.atoms.extend_from_slice(atoms);
+        self.bonds.extend_from_slice(bonds);
+        let to = self.atoms.len();
+        self.bonds.resize(to, usize::MAX);
+        self.start.push(to as u32);
+    }
+
     fn push(&mut self, atoms: impl IntoIterator<Item = usize>, nb: &Adj) {
         if self.start.is_empty() {
             self.start.push(0);
@@ -140,22 +152,70 @@ struct Blocks {
     start: Vec<usize>,
 }
 
+/// Buffers of the ring perception, kept from one molecule to the next on
+/// the same thread (every use clears or refills them first), so that an
+/// ordinary molecule allocates only the ring information it returns.
+#[derive(Default)]
+struct Work {
+    block: Vec<u32>,
+    edges: Vec<usize>,
+    start: Vec<usize>,
+    disc: Vec<u32>,
+    low: Vec<u32>,
+    edge_stack: Vec<usize>,
+    stack: Vec<(u32, u32, u32, u32)>,
+    local: Vec<u32>,
+    degree: Vec<u32>,
+    local_bond: Vec<u32>,
+    atoms: Vec<usize>,
+    ring: Vec<usize>,
+    ring_bonds: Vec<usize>,
+}
+
+thread_local! {
+    static WORK: std::cell::Cell<Option<Box<Work>>> = const { std::cell::Cell::new(None) };
+}
+
+/// This thread's buffers (fresh ones if they are in use or gone).
+fn take_work() -> Box<Work> {
+    WORK.try_with(|c| c.take())
+        .ok()
+        .flatten()
+        .unwrap_or_default()
+}
+
+/// Hand the buffers back for the next molecule.
+fn give_work(w: Box<Work>) {
+    let _ = WORK.try_with(|c| c.set(Some(w)));
+}
+
+/// `v` emptied and refilled with `len` copies of `value`.
+fn refill<T: Copy>(mut v: Vec<T>, len: usize, value: T) -> Vec<T> {
+    v.clear();
+    v.resize(len, value);
+    v
+}
+
 /// Iterative Tarjan search with an edge stack.
-fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
+fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool], w: &mut Work) -> Blocks {
     let mut out = Blocks {
-        block: vec![NONE; n_bonds],
-        edges: Vec::with_capacity(n_bonds),
-        start: Vec::with_capacity(8),
+        block: refill(std::mem::take(&mut w.block), n_bonds, NONE),
+        edges: std::mem::take(&mut w.edges),
+        start: std::mem::take(&mut w.start),
     };
+    out.edges.clear();
+    out.start.clear();
     out.start.push(0);
     let skipped = |b: usize| skip.get(b).copied().unwrap_or(false);
     // disc 0 = not visited; times start at 1.
-    let mut disc = vec![0u32; n];
-    let mut low = vec![0u32; n];
+    let mut disc = refill(std::mem::take(&mut w.disc), n, 0u32);
+    let mut low = refill(std::mem::take(&mut w.low), n, 0u32);
     let mut time = 0u32;
-    let mut edge_stack: Vec<usize> = Vec::with_capacity(n_bonds);
+    let mut edge_stack: Vec<usize> = std::mem::take(&mut w.edge_stack);
+    edge_stack.clear();
     // (atom, bond used to enter, next adjacency position, end position)
-    let mut stack: Vec<(u32, u32, u32, u32)> = Vec::with_capacity(n);
+    let mut stack: Vec<(u32, u32, u32, u32)> = std::mem::take(&mut w.stack);
+    stack.clear();
     for root in 0..n {
         if disc[root] != 0 || nb.start[root] == nb.start[root + 1] {
             continue;
@@ -216,6 +276,10 @@ fn blocks(n: usize, n_bonds: usize, nb: &Adj, skip: &[bool]) -> Blocks {
             }
         }
     }
+    w.disc = disc;
+    w.low = low;
+    w.edge_stack = edge_stack;
+    w.stack = stack;
     out
 }
 
@@ -239,7 +303,8 @@ pub(crate) fn perceive(
     skip: &[bool],
     smiles: &str,
 ) -> Result<RingInfo, MolError> {
-    let blocks = blocks(n, bonds.len(), nb, skip);
+    let mut w = take_work();
+    let blocks = blocks(n, bonds.len(), nb, skip, &mut w);
     let mut info = RingInfo {
         atom_rings: vec![0; n],
         atom_smallest: vec![0; n],
@@ -250,6 +315,8 @@ pub(crate) fn perceive(
     };
     let n_blocks = blocks.start.len() - 1;
     if n_blocks == 0 {
+        (w.block, w.edges, w.start) = (blocks.block, blocks.edges, blocks.start);
+        give_work(w);
         return Ok(info);
     }
     for &b in &blocks.edges {
@@ -257,13 +324,17 @@ pub(crate) fn perceive(
         info.atom_ring_bonds[x] = info.atom_ring_bonds[x].saturating_add(1);
         info.atom_ring_bonds[y] = info.atom_ring_bonds[y].saturating_add(1);
     }
+    let mut local_bond = std::mem::take(&mut w.local_bond);
+    local_bond.clear();
     let mut scratch = Scratch {
-        local: vec![NONE; n],
-        degree: vec![0; n],
-        local_bond: Vec::new(),
+        local: refill(std::mem::take(&mut w.local), n, NONE),
+        degree: refill(std::mem::take(&mut w.degree), n, 0),
+        local_bond,
     };
-    let mut atoms: Vec<usize> = Vec::with_capacity(n);
-    let mut ring: Vec<usize> = Vec::with_capacity(n);
+    let mut atoms: Vec<usize> = std::mem::take(&mut w.atoms);
+    let mut ring: Vec<usize> = std::mem::take(&mut w.ring);
+    let mut ring_bonds: Vec<usize> = std::mem::take(&mut w.ring_bonds);
+    atoms.clear();
     info.list.reserve(n_blocks * 2, blocks.edges.len() * 2);
     for k in 0..n_blocks {
         let edges = &blocks.edges[blocks.start[k]..blocks.start[k + 1]];
@@ -283,7 +354,9 @@ pub(crate) fn perceive(
             // A single ring: walk it from its first atom.
             let start = atoms[0];
             ring.clear();
+            ring_bonds.clear();
             let (mut cur, mut via) = (start, usize::MAX);
+            let mut closed = false;
             while ring.len() < atoms.len() {
                 ring.push(cur);
                 match nb
@@ -291,14 +364,23 @@ pub(crate) fn perceive(
                     .iter()
                     .find(|x| in_block(x.bond) && x.bond != via)
                 {
-                    Some(x) if x.atom != start => {
+                    Some(x) => {
+                        ring_bonds.push(x.bond);
+                        if x.atom == start {
+                            closed = true;
+                            break;
+                        }
                         via = x.bond;
                         cur = x.atom;
                     }
-                    _ => break,
+                    None => break,
                 }
             }
-            info.list.push(ring.iter().copied(), nb);
+            if closed && ring_bonds.len() == ring.len() {
+                info.list.push_known(&ring, &ring_bonds);
+            } else {
+                info.list.push(ring.iter().copied(), nb);
+            }
         } else if rank == 2 && theta(&atoms, &scratch.degree, &in_block, nb, &mut info.list) {
             // bicyclic block handled directly
         } else {
@@ -316,7 +398,7 @@ pub(crate) fn perceive(
             }
             atoms.sort_unstable();
             if scratch.local_bond.is_empty() {
-                scratch.local_bond = vec![NONE; bonds.len()];
+                scratch.local_bond.resize(bonds.len(), NONE);
             }
             for (i, &a) in atoms.iter().enumerate() {
                 scratch.local[a] = i as u32;
@@ -351,6 +433,10 @@ pub(crate) fn perceive(
             }
         }
     }
+    (w.block, w.edges, w.start) = (blocks.block, blocks.edges, blocks.start);
+    (w.local, w.degree, w.local_bond) = (scratch.local, scratch.degree, scratch.local_bond);
+    (w.atoms, w.ring, w.ring_bonds) = (atoms, ring, ring_bonds);
+    give_work(w);
     Ok(info)
 }
 
@@ -590,8 +676,9 @@ fn symmetrised_sssr(
     let mut par = vec![NONE; v * v];
     let mut pbond = vec![NONE; v * v];
     let mut branch = vec![NONE; v * v];
-    // Candidates in generation order: (length, root, bond).
-    let mut cands: Vec<(u32, u32, u32)> = Vec::new();
+    // Candidates in generation order: (length, root, bond); each root's
+    // tree leaves `rank` non-tree bonds, so at most `rank` per root.
+    let mut cands: Vec<(u32, u32, u32)> = Vec::with_capacity(v.saturating_mul(rank));
     let mut queue = Vec::with_capacity(v);
     for r in 0..v {
         let base = r * v;
@@ -654,7 +741,7 @@ fn symmetrised_sssr(
             continue;
         }
         // The ring in cycle order: r .. x, then y .. (child of r).
-        let mut ring = Vec::new();
+        let mut ring = Vec::with_capacity((dist[base + x] + dist[base + y] + 1) as usize);
         let mut c = x;
         while c != r {
             ring.push(c);
@@ -810,8 +897,10 @@ impl CycleSearch<'_> {
         }
         self.budget = self.budget.saturating_sub(self.queue.len());
         // Paths from b to a of len - 1 bonds.
-        let mut path = vec![b];
-        let mut cursor = vec![0usize];
+        let mut path = Vec::with_capacity(len);
+        path.push(b);
+        let mut cursor = Vec::with_capacity(len);
+        cursor.push(0usize);
         let mut path_bonds: Vec<usize> = Vec::with_capacity(len);
         self.on_path[b] = true;
         let mut bits: Bits = vec![0; self.words];

@@ -83,6 +83,19 @@ pub(crate) fn classes(m: &Molecule) -> Vec<u32> {
     let mut seen = Distinct::new(n);
     let mut count = seen.count(&label);
     let mut next = vec![0u64; n];
+    // Bond-order term of each bond, computed once.
+    let order_term: Vec<u64> = m
+        .bonds
+        .iter()
+        .map(|b| {
+            let order = if b.order == BondOrder::Aromatic {
+                5
+            } else {
+                b.kekule as u64
+            };
+            order.wrapping_mul(0xD6E8_FEB8_6659_FD93)
+        })
+        .collect();
     // Each round can only split classes, so at most n rounds.
     for _ in 0..n {
         if count == n {
@@ -90,17 +103,13 @@ pub(crate) fn classes(m: &Molecule) -> Vec<u32> {
         }
         for (i, out) in next.iter_mut().enumerate() {
             // Commutative sum over neighbours: order of neighbours is irrelevant.
-            let around = m.neighbors(i).iter().fold(0u64, |acc, x| {
-                let b = &m.bonds[x.bond];
-                let order = if b.order == BondOrder::Aromatic {
-                    5
-                } else {
-                    b.kekule as u64
+            let mut around = 0u64;
+            for x in m.neighbors(i) {
+                let (Some(&l), Some(&o)) = (label.get(x.atom), order_term.get(x.bond)) else {
+                    continue;
                 };
-                acc.wrapping_add(mix(
-                    label[x.atom] ^ order.wrapping_mul(0xD6E8_FEB8_6659_FD93)
-                ))
-            });
+                around = around.wrapping_add(mix(l ^ o));
+            }
             *out = mix(label[i].wrapping_mul(31) ^ mix(around));
         }
         let c = seen.count(&next);

@@ -189,3 +189,171 @@ fn neighbors_given_out_of_range_index_is_empty() {
     let m = mol("CC");
     assert!(m.neighbors(7).is_empty());
 }
+
+/// Reference SMILES of `corpus/mol` (first column of the data files).
+fn corpus_smiles() -> Vec<String> {
+    let dir = std::path::Path::new(env!("CARGO_MANIFEST_DIR")).join("corpus/mol");
+    let mut out = Vec::new();
+    for name in [
+        "chembl",
+        "hiv",
+        "tox21",
+        "clintox",
+        "freesolv",
+        "rdkit_rejects",
+    ] {
+        if let Ok(text) = std::fs::read_to_string(dir.join(format!("{name}.tsv"))) {
+            for line in text.lines().skip(1) {
+                if let Some(s) = line.split('\t').next() {
+                    out.push(s.to_string());
+                }
+            }
+        }
+    }
+    out
+}
+
+fn same_reading(s: &str) {
+    let direct = format!("{:?}", read::read_raw_with(s, true));
+    let purr = format!("{:?}", read::read_raw_with(s, false));
+    assert_eq!(direct, purr, "input {s:?}");
+}
+
+#[test]
+fn read_raw_given_direct_reader_matches_purr_on_corpus_and_mutations() {
+    // The direct reader of the common subset must give exactly what purr's
+    // reader gives (atoms, bonds, spans, errors) on real SMILES and on
+    // single-character mutations of them (deterministic choice).
+    let real = corpus_smiles();
+    assert!(real.len() > 1000, "corpus/mol is missing");
+    let alphabet: Vec<char> = "CcNnOo()[]=#$:/\\.%0123456789@+-HBrClSsPpFI*te:"
+        .chars()
+        .collect();
+    let mut seed = 0x2545_F491_4F6C_DD1Du64;
+    let mut next = |m: usize| {
+        seed ^= seed << 13;
+        seed ^= seed >> 7;
+        seed ^= seed << 17;
+        (seed % m.max(1) as u64) as usize
+    };
+    for s in &real {
+        same_reading(s);
+        let chars: Vec<char> = s.chars().collect();
+        for _ in 0..12 {
+            let mut c = chars.clone();
+            let k = next(c.len() + 1);
+            match next(3) {
+                0 if k < c.len() => {
+                    c.remove(k);
+                }
+                1 => c.insert(k, alphabet[next(alphabet.len())]),
+                _ if k < c.len() => c[k] = alphabet[next(alphabet.len())],
+                _ => c.push(')'),
+            }
+            same_reading(&c.into_iter().collect::<String>());
+        }
+    }
+}
+
+#[test]
+fn read_raw_given_unusual_syntax_matches_purr() {
+    // Branches, dots, ring-closure bond orders and bracket forms the direct
+    // reader handles or hands to purr (common practice of SMILES writing).
+    for s in [
+        "C(C.C)C",
+        "C(.C)C",
+        "C.(C)",
+        "C=1CC1",
+        "C1CC=1",
+        "C-1CC=1",
+        "C=1CC-1",
+        "[nH]1cccc1",
+        "C(C)(C)C",
+        "C()C",
+        "C(",
+        "C)",
+        "C((C))",
+        "C1.C1",
+        "C%1",
+        "C%",
+        "C%12CC%12",
+        "C%00CC%00",
+        "[C@@H](F)(Cl)Br",
+        "At",
+        "[At]",
+        "Ts",
+        "CAt",
+        "C[te]1cccc1",
+        "C$C",
+        "C:C",
+        "C/C=C\\C",
+        "C1CC1(",
+        "C(C)1CC1",
+        "C=(C)",
+        "C.",
+        ".C",
+        "C..C",
+        "1C",
+        "C1CC11",
+        "C11",
+        "CC(=O)O.[Na+]",
+        "[13CH3:7][2H]",
+        "[C]]",
+        "[[C]",
+        "[C",
+        "C]",
+        "[CH5+3:99]",
+        "[Xx]",
+        "Bb",
+        "Clc1ccccc1Br",
+        "B",
+        "BrBr",
+        "C(Cl)(Br)I",
+        "*1***1",
+        "[*:1]C",
+        "c1ccc2c(c1)cccc2",
+        "C12CC1C2",
+        "C(=C)",
+        "C(#N)",
+        "C(C)C)",
+        "CC((C)",
+        "C\\\\C",
+        "C//C",
+        "C=-C",
+        "C 1",
+        "C\t",
+        "C1CC1 ",
+        "",
+        " ",
+        "é",
+        "Cé",
+    ] {
+        same_reading(s);
+    }
+}
+
+#[test]
+fn neighbors_given_corpus_molecules_list_each_atoms_bonds_in_bond_order() {
+    // Rows must equal a plain scan of the bond list (bond order, other atom).
+    let mut checked = 0;
+    for s in corpus_smiles() {
+        let Ok(m) = Molecule::from_smiles(&s) else {
+            continue;
+        };
+        for i in 0..m.atom_count() {
+            let expected: Vec<Neighbor> = m
+                .bonds
+                .iter()
+                .enumerate()
+                .filter(|(_, b)| b.atoms.contains(&i))
+                .map(|(k, b)| Neighbor {
+                    atom: b.other(i),
+                    bond: k,
+                })
+                .collect();
+            assert_eq!(m.neighbors(i), expected.as_slice(), "{s} atom {i}");
+        }
+        checked += 1;
+    }
+    assert!(checked > 1000);
+}
