@@ -972,12 +972,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         .unwrap_or(false);
     // Notes are worded only for a base that is reported (accepted or
     // requested); rejected bases report their reasons only.
-    let unusual_solvent = opts.solvent.as_ref().filter(|sv| {
-        !base
-            .solvents
-            .iter()
-            .any(|x| x.eq_ignore_ascii_case(sv.trim()))
-    });
     let target_has = |sc: Scale| match sc {
         Scale::Dmso => t.pka_dmso.is_some(),
         Scale::Water => t.pka_water.is_some(),
@@ -997,8 +991,8 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             ),
         ));
         side_reaction_checks(ctx.f, base, &mut ev.reasons);
-        if let Some(sv) = unusual_solvent.filter(|_| requested) {
-            ev.notes.push(unusual_solvent_note(base, sv));
+        if requested {
+            ev.notes.extend(unusual_solvent_note(opts, base));
         }
         return ev;
     }
@@ -1007,8 +1001,8 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             RejectKind::NoComparablePka,
             "no pKa scale shared with the target".into(),
         ));
-        if let Some(sv) = unusual_solvent.filter(|_| requested) {
-            ev.notes.push(unusual_solvent_note(base, sv));
+        if requested {
+            ev.notes.extend(unusual_solvent_note(opts, base));
         }
         return ev;
     };
@@ -1020,9 +1014,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             "the target has no value on this scale".into(),
         ));
         if requested {
-            if let Some(sv) = unusual_solvent {
-                ev.notes.push(unusual_solvent_note(base, sv));
-            }
+            ev.notes.extend(unusual_solvent_note(opts, base));
             ev.scale_note = choice.note.clone();
         }
         return ev;
@@ -1268,15 +1260,7 @@ fn word_notes(ctx: &Ctx, ev: &mut Eval) {
     let Some(w) = ev.words.take() else {
         return;
     };
-    let base = ev.base;
-    if let Some(sv) = ctx.opts.solvent.as_ref().filter(|sv| {
-        !base
-            .solvents
-            .iter()
-            .any(|x| x.eq_ignore_ascii_case(sv.trim()))
-    }) {
-        ev.notes.push(unusual_solvent_note(base, sv));
-    }
+    ev.notes.extend(unusual_solvent_note(ctx.opts, ev.base));
     ev.scale_note = w.choice.note.clone();
     if let Some(p) = w.no_water_in {
         ev.notes.push(format!(
@@ -1346,14 +1330,22 @@ fn word_notes(ctx: &Ctx, ev: &mut Eval) {
     }
 }
 
-/// The note on a solvent that is not among a base's usual ones.
-fn unusual_solvent_note(base: &Base, sv: &str) -> String {
-    format!(
-        "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
-        sv,
-        base.name,
-        base.solvents.join(", ")
-    )
+/// The note on a requested solvent that is not among the base's usual ones
+/// (None when no solvent was requested or it is a usual one).
+fn unusual_solvent_note(opts: &AdviceOptions, base: &Base) -> Option<String> {
+    let sv = opts.solvent.as_ref()?;
+    let usual = base
+        .solvents
+        .iter()
+        .any(|x| x.eq_ignore_ascii_case(sv.trim()));
+    (!usual).then(|| {
+        format!(
+            "{} is not among the usual solvents for {} ({}); solubility and aggregation may differ from what the pKa comparison assumes",
+            sv,
+            base.name,
+            base.solvents.join(", ")
+        )
+    })
 }
 
 /// The functional groups a base attacks, in order.
