@@ -440,7 +440,6 @@ struct Eval<'a> {
     counted: Rc<Vec<CountedProton>>,
     equivalents: f64,
     conversion: f64,
-    criterion_conversion: f64,
     /// The reported equilibrium, solved lean; built in full for the chosen base.
     lean: Option<Lean>,
     /// Notes of the reported equilibrium (set in the base's own solvent).
@@ -955,7 +954,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         counted: ctx.none_counted.0.clone(),
         equivalents: 0.0,
         conversion: 0.0,
-        criterion_conversion: 0.0,
         lean: None,
         eq_notes: Vec::new(),
         exclude: ctx.none_counted.1.clone(),
@@ -1034,7 +1032,6 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     // composition uses the requested equivalents when given.
     let crit = solve_lean(ctx, base_pka, scale, left(needed), 0.0, &counted_sites);
     let crit_conv = crit.map(|e| e.1).unwrap_or(0.0);
-    ev.criterion_conversion = crit_conv;
     let reported = if opts.equivalents.is_some() {
         solve_lean(
             ctx,
