@@ -103,7 +103,7 @@ pub struct Equilibrium {
     pub free_base_fraction: f64,
     /// Conjugate acid at equilibrium, mol/L (solvent included).
     pub conjugate_acid_molar: f64,
-    /// log10([B-]/[BH]) at equilibrium.
+    /// log10(\[B-\]/\[BH\]) at equilibrium.
     pub log_ratio: f64,
     /// |free base + protons removed - base added| / max(base, substrate).
     pub mass_balance_residual: f64,
@@ -453,7 +453,9 @@ pub struct EquilibriumOptions {
     /// the solvent enters the mass balance at its neat molarity.
     /// None: the base's usual solvent.
     pub solvent: Option<String>,
-    /// Force a pKa scale; None chooses as documented in [`choose_scale`].
+    /// Force a pKa scale; None: the water scale in the base's own protic
+    /// solvent, else DMSO, else water, else the base's THF value against the
+    /// sites' DMSO values.
     pub scale: Option<Scale>,
 }
 

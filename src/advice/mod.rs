@@ -7,7 +7,7 @@
 //! Public entry points:
 //! - [`catalogue`]: the embedded base catalogue, validated on first use.
 //! - [`solve`]: equilibrium composition for a set of acidic units and one base.
-//! - [`equilibrium_for`]: the same, set up from a [`SiteReport`] and a catalogue base.
+//! - [`equilibrium_for`]: the same, set up from a [`SiteReport`](crate::sites::SiteReport) and a catalogue base.
 //! - [`advise`]: base, equivalents, solvent, temperature, alternatives,
 //!   rejections, warnings and cautions for one molecule.
 //!
