@@ -211,6 +211,20 @@ fn solve_given_hard_multi_unit_cases_converges_in_few_steps_issue_6() {
     }
 }
 
+/// A unit with no microsite left can lose no proton: all base stays free
+/// and the mass balance holds (the solver's bracket runs to its upper end).
+/// A model check, no data.
+#[test]
+fn solve_given_only_empty_units_leaves_the_base_free() {
+    let empty = AcidUnit {
+        alternatives: Vec::new(),
+    };
+    let e = solve(&input(vec![empty.clone(), empty], 40.0, 1.1, 0.5, 0.0)).unwrap();
+    assert!(e.units.iter().all(|&f| f == 0.0));
+    assert!((e.free_base_fraction - 1.0).abs() < 1e-12);
+    assert!(e.mass_balance_residual <= 1e-9);
+}
+
 fn units_strategy() -> impl Strategy<Value = Vec<AcidUnit>> {
     prop::collection::vec(prop::collection::vec(0.0f64..50.0, 1..3), 1..6).prop_map(|v| {
         v.into_iter()

@@ -198,8 +198,9 @@ fn unit_fractions(units: &[AcidUnit], base_pka: f64, s: f64) -> Vec<f64> {
 /// B0 - D and conjugate acid A0 + D (D: protons removed). The root is kept in
 /// a bracket (initially [-400, 400], which always holds it); a Newton step
 /// that leaves the bracket, or is more than half the step before the last,
-/// is replaced by bisection, so the method converges for any pKa difference. The Newton step comes from whichever form of the
-/// condition is nearly linear in s where the iterate is:
+/// is replaced by bisection, so the method converges for any pKa
+/// difference. The Newton step comes from whichever form of the condition
+/// is nearly linear in s where the iterate is:
 /// - most base free (a weak base): h(s) = log10(B0 - D) - log10(A0 + D) - s;
 /// - most base consumed, near the root: g(s) = (B0 - D) - r (A0 + D), smooth
 ///   where the free base runs to zero (h has a pole there, and Newton on h
@@ -266,7 +267,10 @@ pub(crate) fn solve_log_ratio(unit_logk: &[f64], c: f64, b0: f64, a0: f64) -> (f
         if sign == 0.0 {
             break x;
         }
-        if sign > 0.0 {
+        // NaN only from 10^x overflowing against no conjugate acid at all
+        // (no unit can lose a proton): all base stays free, the root lies
+        // above.
+        if sign > 0.0 || sign.is_nan() {
             lo = x;
         } else {
             hi = x;
