@@ -16,6 +16,7 @@
 //! index; see [`mol`]).
 
 pub mod advice;
+pub mod depict;
 pub mod mol;
 pub mod report;
 pub mod sites;

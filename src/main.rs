@@ -29,6 +29,8 @@ enum Command {
     Scan(cli::scan::Args),
     /// Annotate a compound list (.smi, .csv, .tsv, optionally gzipped, or stdin).
     Annotate(cli::annotate::Args),
+    /// Draw a molecule as SVG with its acidic sites marked.
+    Draw(cli::draw::Args),
     /// List the base catalogue with pKa values and sources.
     Bases(cli::bases::Args),
     /// List the fragment rule set with values and sources.
@@ -42,6 +44,7 @@ fn main() -> ExitCode {
     let result = match cli.command {
         Command::Scan(a) => cli::scan::run(a),
         Command::Annotate(a) => cli::annotate::run(a),
+        Command::Draw(a) => cli::draw::run(a),
         Command::Bases(a) => cli::bases::run(a),
         Command::Rules(a) => cli::rules::run(a),
         Command::Equilibrium(a) => cli::equilibrium::run(a),

@@ -2,6 +2,7 @@
 
 pub mod annotate;
 pub mod bases;
+pub mod draw;
 pub mod equilibrium;
 pub mod input;
 pub mod rules;

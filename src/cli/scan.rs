@@ -26,6 +26,10 @@ pub struct Args {
     /// Count the unique matches of a SMARTS pattern (repeatable).
     #[arg(long = "flag", value_name = "NAME=SMARTS", value_parser = parse_flag)]
     pub flags: Vec<Flag>,
+    /// Also write the structure drawing with the sites marked to this SVG file
+    /// (with several SMILES: FILE-1.svg, FILE-2.svg, ...).
+    #[arg(long, value_name = "FILE")]
+    pub svg: Option<std::path::PathBuf>,
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -45,6 +49,16 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         if !rec.ok {
             failed += 1;
         }
+        if let Some(path) = &args.svg {
+            if let Some(svg) = super::draw::drawing(&rec, 36.0) {
+                let path = if args.smiles.len() > 1 {
+                    numbered(path, i + 1)
+                } else {
+                    path.clone()
+                };
+                super::draw::write_svg(Some(&path), &svg)?;
+            }
+        }
         if args.json {
             writeln!(out, "{}", rec.to_json_line())?;
         } else {
@@ -60,4 +74,17 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     } else {
         Outcome::SomeFailed
     })
+}
+
+/// `out.svg` -> `out-3.svg`.
+fn numbered(path: &std::path::Path, k: usize) -> std::path::PathBuf {
+    let stem = path
+        .file_stem()
+        .map(|s| s.to_string_lossy().into_owned())
+        .unwrap_or_default();
+    let ext = path
+        .extension()
+        .map(|e| format!(".{}", e.to_string_lossy()))
+        .unwrap_or_default();
+    path.with_file_name(format!("{stem}-{k}{ext}"))
 }

@@ -1,0 +1,90 @@
+//! `acidsite draw SMILES`: the structure drawing (SVG) with the acidic sites
+//! marked by rank and the advice target ringed.
+
+use super::{Outcome, ScaleArg};
+use acidsite::depict::{self, Marks, SvgOptions};
+use acidsite::mol::Molecule;
+use acidsite::report::{analyze, Options, Record};
+use anyhow::Context;
+use std::io::Write;
+use std::path::{Path, PathBuf};
+
+#[derive(clap::Args, Debug)]
+pub struct Args {
+    /// The molecule (quote it in the shell).
+    #[arg(value_name = "SMILES")]
+    pub smiles: String,
+    /// Write the SVG to this file instead of stdout.
+    #[arg(short, long, value_name = "FILE")]
+    pub output: Option<PathBuf>,
+    /// Target the site containing this atom (0-based index in the SMILES) instead of
+    /// the most acidic C–H site.
+    #[arg(long, value_name = "ATOM")]
+    pub site: Option<usize>,
+    /// Evaluate this base (short name from `acidsite bases`) instead of the recommended one.
+    #[arg(long, value_name = "NAME")]
+    pub base: Option<String>,
+    /// pKa scale used to rank the sites.
+    #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
+    pub scale: ScaleArg,
+    /// Pixels per bond length.
+    #[arg(long, default_value_t = 36.0, value_name = "PX")]
+    pub bond_px: f64,
+}
+
+pub fn run(args: Args) -> anyhow::Result<Outcome> {
+    super::check_base(args.base.as_deref())?;
+    let opts = Options {
+        site: args.site,
+        base: args.base.clone(),
+        scale: args.scale.into(),
+        flags: Vec::new(),
+        sites_only: false,
+    };
+    let rec = analyze(args.smiles.trim(), 1, None, &opts);
+    let Some(svg) = drawing(&rec, args.bond_px) else {
+        let e = rec.error.as_ref();
+        let _ = writeln!(
+            std::io::stderr(),
+            "acidsite draw: {}: {}{}",
+            e.map(|e| e.kind.as_str()).unwrap_or("error"),
+            e.map(|e| e.message.as_str())
+                .unwrap_or("cannot draw this input"),
+            e.and_then(|e| e.position)
+                .map(|p| format!(" (at character {p})"))
+                .unwrap_or_default()
+        );
+        return Ok(Outcome::SomeFailed);
+    };
+    write_svg(args.output.as_deref(), &svg)?;
+    Ok(Outcome::AllFine)
+}
+
+/// The drawing of an analysed record (None for a failed record).
+pub fn drawing(rec: &Record, bond_px: f64) -> Option<String> {
+    if !rec.ok {
+        return None;
+    }
+    let mol = Molecule::from_smiles(&rec.input).ok()?;
+    let lay = depict::layout(&mol);
+    let opts = SvgOptions {
+        bond_px,
+        font_px: bond_px * 0.39,
+        ..SvgOptions::default()
+    };
+    Some(depict::svg(&mol, &lay, &Marks::from_record(rec), &opts))
+}
+
+/// Write an SVG to a file, or to stdout when no file is given.
+pub fn write_svg(path: Option<&Path>, svg: &str) -> anyhow::Result<()> {
+    match path {
+        Some(p) => std::fs::write(p, format!("{svg}\n"))
+            .with_context(|| format!("cannot write {}", p.display())),
+        None => {
+            let mut out = std::io::stdout().lock();
+            writeln!(out, "{svg}")?;
+            out.flush()?;
+            Ok(())
+        }
+    }
+}
