@@ -84,6 +84,10 @@ pub struct Args {
     /// No progress bar and no summary line.
     #[arg(short, long)]
     pub quiet: bool,
+    /// Also write one self-contained HTML page with a card per record
+    /// (drawing with the sites marked, top site, base, warnings, errors).
+    #[arg(long, value_name = "FILE")]
+    pub html: Option<PathBuf>,
 }
 
 /// What every worker needs to turn a raw line into output text.
@@ -95,6 +99,8 @@ struct Context_ {
     header: Vec<String>,
     opts: Options,
     rows: Option<RowWriter>,
+    /// Render an HTML card per record (`--html`).
+    html: bool,
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -188,6 +194,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             sites_only: args.sites_only,
         },
         rows,
+        html: args.html.is_some(),
     };
 
     let mut out: Box<dyn Write + Send> = match &args.output {
@@ -200,6 +207,18 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     if let Some(w) = &ctx.rows {
         out.write_all(w.header().as_bytes())?;
     }
+    let mut html_out = match &args.html {
+        Some(p) => {
+            let mut w = io::BufWriter::with_capacity(
+                1 << 16,
+                std::fs::File::create(p)
+                    .with_context(|| format!("cannot write {}", p.display()))?,
+            );
+            w.write_all(super::html::head(&format!("acidsite: {shown}")).as_bytes())?;
+            Some(w)
+        }
+        None => None,
+    };
 
     let bar = progress_bar(&args, source.total);
     let pool = rayon::ThreadPoolBuilder::new()
@@ -218,7 +237,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(Box<[u8]>, bool)> = Vec::new();
+        let mut pending: Vec<(Box<[u8]>, bool, Option<Box<[u8]>>)> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -231,8 +250,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                         .collect::<Vec<_>>()
                 },
                 || -> anyhow::Result<Vec<RawLine>> {
-                    for (text, ok) in &to_write {
+                    for (text, ok, card) in &to_write {
                         out.write_all(text)?;
+                        if let (Some(h), Some(c)) = (html_out.as_mut(), card) {
+                            h.write_all(c)?;
+                        }
                         records += 1;
                         if !ok {
                             failed += 1;
@@ -266,6 +288,10 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     })?;
     out.flush()?;
     drop(out);
+    if let Some(mut h) = html_out {
+        h.write_all(super::html::tail(records, failed).as_bytes())?;
+        h.flush()?;
+    }
     if let Some(b) = bar {
         b.finish_and_clear();
     }
@@ -336,26 +362,35 @@ thread_local! {
 const SCRATCH_KEEP: usize = 1 << 20;
 
 /// One raw line to its output text, rendered in the worker's reused buffer
-/// and copied out at its exact size, and whether it was analysed.
-fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool) {
+/// and copied out at its exact size, whether it was analysed, and its HTML
+/// card when asked for.
+fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
     buf.clear();
-    let ok = process_guarded(raw, ctx, &mut buf);
+    let mut card = None;
+    let ok = process_guarded(raw, ctx, &mut buf, &mut card);
     let text: Box<[u8]> = buf.as_slice().into();
     if buf.capacity() <= SCRATCH_KEEP {
         SCRATCH.set(buf);
     }
-    (text, ok)
+    (text, ok, card)
 }
 
 /// [`process`], turning a panic in the library into an error record so the
 /// run keeps one output record per input record. Appends to `out` and
 /// returns whether the record was analysed.
-fn process_guarded(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>) -> bool {
+fn process_guarded(
+    raw: &RawLine,
+    ctx: &Context_,
+    out: &mut Vec<u8>,
+    card: &mut Option<Box<[u8]>>,
+) -> bool {
     let start = out.len();
-    match std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| process(raw, ctx, out))) {
+    match std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+        process(raw, ctx, out, card)
+    })) {
         Ok(ok) => ok,
         Err(p) => {
             // Drop whatever the failed record had written.
@@ -378,6 +413,9 @@ fn process_guarded(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>) -> bool {
                 },
             );
             render(&rec, ctx, out);
+            if ctx.html {
+                *card = Some(super::html::card(&rec, None).into_bytes().into());
+            }
             false
         }
     }
@@ -396,9 +434,13 @@ fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
 
 /// One raw line to its output text (appended to `out`); returns whether it
 /// was analysed.
-fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>) -> bool {
+fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
+    if ctx.html {
+        let svg = super::draw::drawing(&rec, 30.0);
+        *card = Some(super::html::card(&rec, svg.as_deref()).into_bytes().into());
+    }
     rec.ok
 }
 

@@ -66,13 +66,18 @@ pub fn drawing(rec: &Record, bond_px: f64) -> Option<String> {
         return None;
     }
     let mol = Molecule::from_smiles(&rec.input).ok()?;
-    let lay = depict::layout(&mol);
     let opts = SvgOptions {
         bond_px,
         font_px: bond_px * 0.39,
         ..SvgOptions::default()
     };
-    Some(depict::svg(&mol, &lay, &Marks::from_record(rec), &opts))
+    // The library is tested never to panic; should it, the record keeps its
+    // text output and only the drawing is missing.
+    std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
+        let lay = depict::layout(&mol);
+        depict::svg(&mol, &lay, &Marks::from_record(rec), &opts)
+    }))
+    .ok()
 }
 
 /// Write an SVG to a file, or to stdout when no file is given.

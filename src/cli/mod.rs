@@ -4,6 +4,7 @@ pub mod annotate;
 pub mod bases;
 pub mod draw;
 pub mod equilibrium;
+pub mod html;
 pub mod input;
 pub mod rules;
 pub mod scan;

@@ -143,14 +143,14 @@ pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) ->
             lines.push("target".to_string());
             target_labelled = true;
         }
-        let (c, b) = place_text(mol, &pts, &labels, a, &lines, mfs, bond, &boxes);
+        let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes);
         boxes.push(b);
         texts.push((c, lines));
     }
     if !target_labelled {
         if let Some(&a) = target.iter().find(|&&a| a < n) {
             let lines = vec!["target".to_string()];
-            let (c, b) = place_text(mol, &pts, &labels, a, &lines, mfs, bond, &boxes);
+            let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes);
             boxes.push(b);
             texts.push((c, lines));
         }
@@ -489,6 +489,7 @@ fn place_text(
     labels: &[Option<Label>],
     a: usize,
     lines: &[String],
+    fs: f64,
     mfs: f64,
     bond: f64,
     boxes: &[(Point, Point)],
@@ -496,16 +497,15 @@ fn place_text(
     let w = lines.iter().map(|l| text_width(l)).fold(0.0, f64::max) * mfs;
     let h = lines.len() as f64 * mfs * 1.15;
     let mut best: Option<(f64, Point)> = None;
-    // Nearby atoms and bond sample points.
+    // Nearby atoms, bond sample points and atom label boxes.
+    let mut label_boxes: Vec<(Point, Point)> = Vec::new();
     let near: Vec<Point> = {
         let mut v = Vec::new();
         for (i, p) in pts.iter().enumerate() {
             if p.dist(pts[a]) < bond * 4.0 {
                 v.push(*p);
-                // A labelled atom's text is wider than a vertex.
-                if labels[i].is_some() {
-                    v.push(*p + Point::new(0.3 * bond, 0.0));
-                    v.push(*p - Point::new(0.3 * bond, 0.0));
+                if let Some(l) = &labels[i] {
+                    label_boxes.push(label_box(l, *p, fs));
                 }
             }
         }
@@ -523,7 +523,7 @@ fn place_text(
         // Start up and to the right, then go round.
         let ang = -std::f64::consts::FRAC_PI_4 + step as f64 * std::f64::consts::PI / 12.0;
         let d = Point::polar(ang);
-        let reach = bond * 0.42 + (d.x.abs() * w / 2.0).max(d.y.abs() * h / 2.0);
+        let reach = bond * 0.56 + (d.x.abs() * w / 2.0).max(d.y.abs() * h / 2.0);
         let c = pts[a] + d * reach;
         let (lo, hi) = (
             Point::new(c.x - w / 2.0, c.y - h / 2.0),
@@ -538,6 +538,11 @@ fn place_text(
             if dd < clear {
                 score += clear - dd;
             }
+        }
+        for (blo, bhi) in label_boxes.iter() {
+            let ox = (hi.x.min(bhi.x) - lo.x.max(blo.x)).max(0.0);
+            let oy = (hi.y.min(bhi.y) - lo.y.max(blo.y)).max(0.0);
+            score += ox * oy * 0.5;
         }
         for (blo, bhi) in boxes {
             let ox = (hi.x.min(bhi.x) - lo.x.max(blo.x)).max(0.0);
@@ -557,4 +562,29 @@ fn place_text(
             Point::new(c.x + w / 2.0, c.y + h / 2.0),
         ),
     )
+}
+
+/// The box an atom label covers (top-left, bottom-right), hydrogens included.
+fn label_box(l: &Label, p: Point, fs: f64) -> (Point, Point) {
+    let ew = text_width(l.element) * fs / 2.0 + fs * 0.1;
+    let hw = if l.hydrogens > 0 {
+        fs * (0.68 + if l.hydrogens > 1 { 0.4 } else { 0.0 })
+    } else {
+        0.0
+    };
+    let (mut lo, mut hi) = (
+        Point::new(p.x - ew, p.y - fs * 0.6),
+        Point::new(p.x + ew, p.y + fs * 0.6),
+    );
+    match l.h_side {
+        HSide::Right => hi.x += hw,
+        HSide::Left => lo.x -= hw,
+        HSide::Above if l.hydrogens > 0 => lo.y -= fs,
+        HSide::Below if l.hydrogens > 0 => hi.y += fs,
+        _ => {}
+    }
+    if l.charge != 0 {
+        hi.x += fs * 0.6;
+    }
+    (lo, hi)
 }
