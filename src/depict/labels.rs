@@ -70,16 +70,14 @@ pub(crate) fn label(mol: &Molecule, i: usize, pts: &[Point]) -> Option<Label> {
 /// Approximate width of `text` in ems of a sans-serif font.
 pub(crate) fn text_width(text: &str) -> f64 {
     text.chars()
-        .map(|c| {
-            if c.is_ascii_uppercase() {
-                0.68
-            } else if c.is_ascii_digit() {
-                0.56
-            } else if c == ' ' || c == '.' {
-                0.3
-            } else {
-                0.54
-            }
+        .map(|c| match c {
+            'i' | 'l' | 'j' | '.' | ' ' => 0.3,
+            'I' => 0.32,
+            'W' | 'M' => 0.9,
+            c if c.is_ascii_uppercase() => 0.72,
+            c if c.is_ascii_digit() => 0.64,
+            '#' => 0.84,
+            _ => 0.6,
         })
         .sum()
 }

@@ -143,14 +143,14 @@ pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) ->
             lines.push("target".to_string());
             target_labelled = true;
         }
-        let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes);
+        let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes, target);
         boxes.push(b);
         texts.push((c, lines));
     }
     if !target_labelled {
         if let Some(&a) = target.iter().find(|&&a| a < n) {
             let lines = vec!["target".to_string()];
-            let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes);
+            let (c, b) = place_text(mol, &pts, &labels, a, &lines, fs, mfs, bond, &boxes, target);
             boxes.push(b);
             texts.push((c, lines));
         }
@@ -493,6 +493,7 @@ fn place_text(
     mfs: f64,
     bond: f64,
     boxes: &[(Point, Point)],
+    target: &[usize],
 ) -> (Point, (Point, Point)) {
     let w = lines.iter().map(|l| text_width(l)).fold(0.0, f64::max) * mfs;
     let h = lines.len() as f64 * mfs * 1.15;
@@ -519,11 +520,20 @@ fn place_text(
         }
         v
     };
+    let ring_centres: Vec<(Point, f64)> = mol
+        .rings()
+        .filter(|r| r.len() <= 8 && r.iter().any(|&x| pts[x].dist(pts[a]) < bond * 3.0))
+        .map(|r| {
+            let c = super::geom::centroid(r.iter().map(|&x| pts[x]));
+            (c, pts[r[0]].dist(c))
+        })
+        .collect();
     for step in 0..24 {
         // Start up and to the right, then go round.
         let ang = -std::f64::consts::FRAC_PI_4 + step as f64 * std::f64::consts::PI / 12.0;
         let d = Point::polar(ang);
-        let reach = bond * 0.56 + (d.x.abs() * w / 2.0).max(d.y.abs() * h / 2.0);
+        let ringed = if target.contains(&a) { 0.66 } else { 0.5 };
+        let reach = bond * ringed + (d.x.abs() * w / 2.0).max(d.y.abs() * h / 2.0);
         let c = pts[a] + d * reach;
         let (lo, hi) = (
             Point::new(c.x - w / 2.0, c.y - h / 2.0),
@@ -540,14 +550,22 @@ fn place_text(
             }
         }
         for (blo, bhi) in label_boxes.iter() {
-            let ox = (hi.x.min(bhi.x) - lo.x.max(blo.x)).max(0.0);
-            let oy = (hi.y.min(bhi.y) - lo.y.max(blo.y)).max(0.0);
+            // Atom labels keep a small gap around them.
+            let pad = mfs * 0.35;
+            let ox = (hi.x.min(bhi.x + pad) - lo.x.max(blo.x - pad)).max(0.0);
+            let oy = (hi.y.min(bhi.y + pad) - lo.y.max(blo.y - pad)).max(0.0);
             score += ox * oy * 0.5;
         }
         for (blo, bhi) in boxes {
             let ox = (hi.x.min(bhi.x) - lo.x.max(blo.x)).max(0.0);
             let oy = (hi.y.min(bhi.y) - lo.y.max(blo.y)).max(0.0);
             score += ox * oy * 0.5;
+        }
+        // Outside small rings rather than in their middle.
+        for (rc, rr) in &ring_centres {
+            if c.dist(*rc) < *rr {
+                score += bond * 0.3;
+            }
         }
         score += step as f64 * 1e-3;
         if best.is_none_or(|(s, _)| score < s) {
