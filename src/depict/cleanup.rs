@@ -18,7 +18,7 @@ use crate::mol::Molecule;
 use std::collections::VecDeque;
 
 /// Atom pairs closer than this (bond lengths) count as crowded.
-pub(crate) const CROWDED: f64 = 0.65;
+pub(crate) const CROWDED: f64 = 0.85;
 
 /// Score of a drawing: crowded pairs and crossings (lower is better).
 fn score(mol: &Molecule, atoms: &[usize], pos: &[Point]) -> f64 {

@@ -47,7 +47,11 @@ pub(crate) fn label(mol: &Molecule, i: usize, pts: &[Point]) -> Option<Label> {
     } else {
         sum
     };
-    let h_side = if deg == 0 || mean.x < -0.3 {
+    // A lone hydride is written the usual way round: HCl, H2O, H2S, but NH3.
+    let h_first = matches!(a.element, 8 | 9 | 16 | 17 | 34 | 35 | 53);
+    let h_side = if deg == 0 && h_first {
+        HSide::Left
+    } else if deg == 0 || mean.x < -0.3 {
         HSide::Right
     } else if mean.x > 0.3 {
         HSide::Left

@@ -69,7 +69,7 @@ pub struct SvgOptions {
     pub bond_px: f64,
     /// Atom label font size in pixels.
     pub font_px: f64,
-    /// Show at most this many ranked sites (the target is always shown).
+    /// Show the sites ranked up to this (the target's site is always shown).
     pub max_sites: usize,
 }
 
@@ -121,15 +121,17 @@ pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) ->
     let labels: Vec<Option<Label>> = (0..n).map(|i| label(mol, i, &pts)).collect();
 
     // Mark labels first: their boxes widen the picture.
+    let target = marks.target.as_deref().unwrap_or(&[]);
     let shown: Vec<&SiteMark> = marks
         .sites
         .iter()
-        .filter(|s| (s.rank as usize) <= opts.max_sites)
+        .filter(|s| {
+            (s.rank as usize) <= opts.max_sites || s.atoms.iter().any(|a| target.contains(a))
+        })
         .collect();
     let mfs = (fs * 0.8).max(8.0);
     let mut boxes: Vec<(Point, Point)> = Vec::new();
     let mut texts: Vec<(Point, Vec<String>)> = Vec::new();
-    let target = marks.target.as_deref().unwrap_or(&[]);
     let mut target_labelled = false;
     for s in &shown {
         let Some(&a) = s.atoms.iter().find(|&&a| a < n) else {
