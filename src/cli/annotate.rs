@@ -237,7 +237,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(Box<[u8]>, bool, Option<Box<[u8]>>)> = Vec::new();
+        let mut pending: Vec<Rendered> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -361,10 +361,14 @@ thread_local! {
 /// A worker's buffer larger than this is freed rather than kept.
 const SCRATCH_KEEP: usize = 1 << 20;
 
+/// A rendered record: its output text, whether it was analysed, and its
+/// HTML card when asked for.
+type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+
 /// One raw line to its output text, rendered in the worker's reused buffer
 /// and copied out at its exact size, whether it was analysed, and its HTML
 /// card when asked for.
-fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
+fn render_record(raw: &RawLine, ctx: &Context_) -> Rendered {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
