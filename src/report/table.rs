@@ -16,7 +16,12 @@ pub fn render(rec: &Record, scale: Scale) -> String {
     };
     let _ = writeln!(o, "== {title}");
     if let Some(e) = &rec.error {
-        let _ = writeln!(o, "   not analysed: {} error: {}", e.kind, e.message);
+        let _ = writeln!(
+            o,
+            "   not analysed: {} error: {}",
+            e.kind.replace('_', " "),
+            e.message
+        );
         if let Some(p) = e.position {
             // Caret under the offending character (inputs are shown as given).
             let _ = writeln!(o, "   {}", rec.input);
