@@ -2,8 +2,6 @@
 //! deprotonation equilibrium solver, and the recommender with warnings and
 //! cautions.
 //!
-//! OWNER: base-advice work (issue 5).
-//!
 //! Public entry points:
 //! - [`catalogue`]: the embedded base catalogue, validated on first use.
 //! - [`solve`]: equilibrium composition for a set of acidic units and one base.
