@@ -878,6 +878,11 @@ fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
 
 /// The full equilibrium (every microsite, anion populations) of a base's
 /// reported lean solution.
+///
+/// Every site takes part (counted protons are not set aside) and the base
+/// is the whole of the equivalents advised, so that the conversion reported
+/// is the one `acidsite equilibrium` gives for the same base, equivalents
+/// and concentration (issue 10).
 fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
     let l = ev.lean?;
     let mut scratch = Vec::new();
@@ -885,9 +890,9 @@ fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
         ctx,
         l.base_pka,
         l.scale,
-        l.equivalents,
+        ev.equivalents,
         l.a0,
-        &ev.exclude,
+        &[],
         &mut scratch,
     )?;
     e.notes = ev.eq_notes.clone();
@@ -1694,7 +1699,7 @@ pub fn advise_with_features(
         .collect();
     let cache = |sc: Scale| {
         let mut notes = Vec::new();
-        let units = site_units(sites, &f.site_unit, sc, &mut notes);
+        let units = site_units(sites, &f.site_unit, &f.second_stage_shift, sc, &mut notes);
         (units, notes)
     };
     let units_dmso = cache(Scale::Dmso);
@@ -1923,6 +1928,7 @@ pub fn advise_with_features(
     }
     push(Some(general_caution()));
 
+    let exact = chosen.and_then(|e| full_equilibrium(&ctx, e));
     let t = Target {
         site: target,
         atoms: tsite.atoms.clone(),
@@ -1940,10 +1946,17 @@ pub fn advise_with_features(
         base: chosen.map(|e| e.base.name.clone()),
         equivalents,
         equivalents_note,
-        conversion: chosen.map(|e| e.conversion),
-        equilibrium: chosen
-            .filter(|_| opts.full_equilibrium)
-            .and_then(|e| full_equilibrium(&ctx, e)),
+        conversion: exact
+            .as_ref()
+            .map(|q| {
+                ctx.target_unit
+                    .iter()
+                    .map(|&i| q.site_fraction(i))
+                    .sum::<f64>()
+                    .clamp(0.0, 1.0)
+            })
+            .or(chosen.map(|e| e.conversion)),
+        equilibrium: exact.filter(|_| opts.full_equilibrium),
         solvent: chosen.map(|e| e.solvent.to_string()),
         temperature: chosen.map(|e| temperature(e.base)),
         scale: chosen.and_then(|e| e.scale),
