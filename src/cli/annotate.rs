@@ -69,6 +69,18 @@ pub struct Args {
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
     /// pKa scale used to rank the sites.
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
+    /// CSV/TSV input: take the planned reaction of each row from this column
+    /// (an empty cell: `--reaction`, else alkylation; an unknown name: an error record).
+    #[arg(long, value_name = "NAME")]
+    pub reaction_column: Option<String>,
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
     /// Worker threads (0: one per core).
@@ -98,6 +110,8 @@ struct Context_ {
     id_col: Option<usize>,
     header: Vec<String>,
     opts: Options,
+    /// CSV/TSV: the column holding each row's planned reaction.
+    reaction_col: Option<usize>,
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
@@ -159,6 +173,20 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             (header, smiles_col, id_col)
         }
     };
+    let reaction_col = match args.reaction_column.as_deref() {
+        None => None,
+        Some(name) => {
+            if format == InputFormat::Smi {
+                anyhow::bail!("--reaction-column needs CSV or TSV input (--input-format csv|tsv)");
+            }
+            Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                format!(
+                    "{shown}: no column named {name:?} for --reaction-column; header has: {}",
+                    header.join(", ")
+                )
+            })?)
+        }
+    };
     let carried: Vec<String> = header
         .iter()
         .enumerate()
@@ -192,7 +220,10 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             scale: args.scale.into(),
             flags: args.flags.clone(),
             sites_only: args.sites_only,
+            reaction: args.reaction,
+            control: args.control,
         },
+        reaction_col,
         rows,
         html: args.html.is_some(),
     };
@@ -524,8 +555,40 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
                     .map(|(i, h)| (h.clone(), fields.get(i).cloned().unwrap_or_default()))
                     .collect(),
             );
+            let row_reaction = ctx
+                .reaction_col
+                .and_then(|i| fields.get(i))
+                .map(|s| s.trim())
+                .filter(|s| !s.is_empty());
+            let row_opts;
+            let opts = match row_reaction {
+                None => &ctx.opts,
+                Some(name) => match acidsite::advice::practice::Reaction::parse(name) {
+                    Ok(r) => {
+                        row_opts = Options {
+                            reaction: Some(r),
+                            ..ctx.opts.clone()
+                        };
+                        &row_opts
+                    }
+                    Err(e) => {
+                        let mut rec = fail(
+                            fields.get(ctx.smiles_col).cloned().unwrap_or_default(),
+                            id,
+                            "reaction",
+                            format!(
+                                "column {:?}: {e}",
+                                ctx.header[ctx.reaction_col.unwrap_or(0)]
+                            ),
+                            None,
+                        );
+                        rec.columns = Some(columns);
+                        return rec;
+                    }
+                },
+            };
             let mut rec = match fields.get(ctx.smiles_col) {
-                Some(smiles) => analyze(smiles.trim(), raw.line, id, &ctx.opts),
+                Some(smiles) => analyze(smiles.trim(), raw.line, id, opts),
                 None => fail(
                     String::new(),
                     id,
