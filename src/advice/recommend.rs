@@ -460,15 +460,6 @@ fn alkoxy_of(base: &Base) -> Option<&'static str> {
     }
 }
 
-fn carbonyl_class(class: &str) -> bool {
-    let c = class.to_ascii_lowercase();
-    [
-        "ketone", "ester", "aldehyde", "amide", "lactone", "lactam", "acid", "carboxyl",
-    ]
-    .iter()
-    .any(|k| c.contains(k))
-}
-
 /// Per-base evaluation.
 struct Eval<'a> {
     base: &'a Base,
@@ -531,7 +522,8 @@ struct Ctx<'a> {
     units_water: (Vec<AcidUnit>, Vec<String>),
     /// Reused buffer of unit constants for the lean solver.
     logk_buf: std::cell::RefCell<Vec<f64>>,
-    /// `carbonyl_class` of the target's class, computed once.
+    /// The target carbon is next to a C=O (from the molecule's features,
+    /// not from the class name).
     target_carbonyl: bool,
     /// Lean solutions and target conversions already computed for this
     /// molecule, keyed by the exact inputs (several catalogue bases share a
@@ -1825,7 +1817,9 @@ fn advise_core(
         _ => Purpose::Catalytic,
     };
     let plan = Plan {
-        min_fraction: mode_row.min_fraction,
+        min_fraction: row
+            .and_then(|r| r.min_fraction)
+            .unwrap_or(mode_row.min_fraction),
         per_target: row
             .and_then(|r| r.equivalents)
             .unwrap_or(mode_row.equivalents),
@@ -1875,10 +1869,10 @@ fn advise_core(
         target_units_dmso,
         target_units_water,
         logk_buf: std::cell::RefCell::new(Vec::new()),
-        target_carbonyl: sites
+        target_carbonyl: f
             .sites
             .get(target)
-            .map(|t| carbonyl_class(&t.class))
+            .map(|x| x.alpha_carbonyl)
             .unwrap_or(false),
         lean_memo: std::cell::RefCell::new(Vec::new()),
         requested,
@@ -2052,6 +2046,18 @@ fn advise_core(
         }
     }
     let chosen: Option<&Eval> = chosen_at.map(|i| &evals[i]);
+    if let (Some(r), Some(e), None, None) = (row, chosen, system, requested) {
+        if pref_rank(&e.base.name) == usize::MAX && !r.prefer.is_empty() {
+            warnings.push(Warning {
+                kind: WarningKind::NoBase,
+                message: format!(
+                    "none of the bases practice names for this site and reaction ({}) passes the checks here; {} is the best the catalogue offers: check the reasons under ruled out",
+                    r.prefer.join(", "),
+                    e.base.name
+                ),
+            });
+        }
+    }
     let listed: Vec<&Eval> = others[..shown].iter().map(|&i| &evals[i]).collect();
     if chosen.is_none() && system.is_none() {
         let competing = rejected
@@ -2145,7 +2151,15 @@ fn advise_core(
                     });
                 }
             }
-            (e.counted.to_vec(), e.equivalents, note, cn)
+            // A requested base that could not be judged (no comparable
+            // pKa) was never given equivalents: the plan's own.
+            let eqv = if e.equivalents > 0.0 {
+                e.equivalents
+            } else {
+                opts.equivalents
+                    .unwrap_or(ctx.plan.per_target + ctx.plan.extra + PRACTICAL_EXCESS)
+            };
+            (e.counted.to_vec(), eqv, note, cn)
         }
         None => match system {
             Some(_) => {
@@ -2171,7 +2185,12 @@ fn advise_core(
     }
     molecule_warnings(&ctx, chosen, &mut warnings);
 
-    let regio = regio_advice(&ctx, cat);
+    let regio_rows = [Control::Kinetic, Control::Thermodynamic].map(|c| {
+        smarts_target
+            .and_then(|t| data.find(t, &tsite.atoms, reaction, Some(c)))
+            .filter(|r| r.control == Some(c))
+    });
+    let regio = regio_advice(&ctx, cat, regio_rows);
     // Cautions: chosen, alternatives, regio reagents, then a general one.
     let mut cautions: Vec<Caution> = Vec::new();
     let mut push = |c: Option<Caution>| {
@@ -2189,20 +2208,15 @@ fn advise_core(
     }
     // Full cautions for the reagents of the kinetic and thermodynamic
     // conditions, one line for each other acceptable base.
-    if let Some(r) = &regio {
-        for name in ["LDA", "LiHMDS", "NaH", "KOtBu", "Et3N"] {
-            if r.kinetic.base.contains(name) || r.thermodynamic.base.contains(name) {
-                if let Some(b) = cat.get(name) {
-                    push(caution_for(b, None));
+    if regio.is_some() {
+        for row in regio_rows.iter().flatten() {
+            for name in row.prefer.iter().take(2) {
+                match (cat.get(name), data.system(name)) {
+                    (Some(b), _) => push(caution_for(b, None)),
+                    (None, Some(sy)) => push(caution_for_reagent(&sy.name, &sy.hazards, &[])),
+                    _ => {}
                 }
             }
-        }
-        if r.thermodynamic.procedure.contains("TMSCl") {
-            push(caution_for_reagent(
-                "TMSCl",
-                &[Hazard::Flammable, Hazard::Corrosive, Hazard::WaterReactive],
-                &["releases hydrogen chloride with moisture"],
-            ));
         }
     }
     for e in &listed {
@@ -2284,7 +2298,9 @@ fn advise_core(
                     .sum::<f64>()
                     .clamp(0.0, 1.0)
             })
-            .or(chosen.filter(|_| system.is_none()).map(|e| e.conversion)),
+            .or(chosen
+                .filter(|e| system.is_none() && e.lean.is_some())
+                .map(|e| e.conversion)),
         equilibrium: exact.filter(|_| opts.full_equilibrium),
         solvent,
         temperature: temperature_out,
@@ -2350,7 +2366,7 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
     if let Some(e) = chosen {
         let dicarbonyl = sf.dicarbonyl;
         if t.is_carbon()
-            && carbonyl_class(&t.class)
+            && ctx.target_carbonyl
             && !dicarbonyl
             && ctx.opts.purpose == Purpose::Stoichiometric
             && !matches!(
@@ -2399,9 +2415,14 @@ fn molecule_warnings(ctx: &Ctx, chosen: Option<&Eval>, w: &mut Vec<Warning>) {
     }
 }
 
-fn regio_advice(ctx: &Ctx, cat: &super::catalogue::Catalogue) -> Option<RegioAdvice> {
-    let t = &ctx.sites.sites[ctx.target];
-    if !t.class.to_ascii_lowercase().contains("ketone") {
+/// Kinetic and thermodynamic conditions for a target with two enolate
+/// sides, from the practice rows for each control (fragments/practice.tsv).
+fn regio_advice(
+    ctx: &Ctx,
+    cat: &super::catalogue::Catalogue,
+    rows: [Option<&'static PracticeRow>; 2],
+) -> Option<RegioAdvice> {
+    if !ctx.target_carbonyl {
         return None;
     }
     let find = |r: Regio| {
@@ -2414,36 +2435,49 @@ fn regio_advice(ctx: &Ctx, cat: &super::catalogue::Catalogue) -> Option<RegioAdv
     if k.is_none() && th.is_none() {
         return None;
     }
+    let data = practice().ok()?;
     let atoms = |i: Option<usize>| {
         i.and_then(|i| ctx.sites.sites.get(i))
             .map(|s| s.atoms.clone())
             .unwrap_or_default()
     };
-    let lda = cat.get("LDA");
+    let side = |row: &PracticeRow, fav: Option<usize>| -> RegioConditions {
+        let first = row.prefer.first().map(String::as_str).unwrap_or("");
+        let (solvent, temperature) = match (cat.get(first), data.system(first)) {
+            (Some(b), _) => (b.usual_solvent().to_string(), temperature(b)),
+            (None, Some(sy)) => (
+                sy.solvent.clone(),
+                Temperature {
+                    low_c: sy.temp_min_c,
+                    high_c: sy.temp_max_c,
+                },
+            ),
+            _ => (
+                String::new(),
+                Temperature {
+                    low_c: 0.0,
+                    high_c: 0.0,
+                },
+            ),
+        };
+        RegioConditions {
+            base: row
+                .prefer
+                .iter()
+                .take(2)
+                .cloned()
+                .collect::<Vec<_>>()
+                .join(" or "),
+            equivalents: row.equivalents.unwrap_or(1.0) + PRACTICAL_EXCESS,
+            solvent,
+            temperature,
+            procedure: format!("{} [{}]", row.note, row.id),
+            favours_site: fav,
+            favours_atoms: atoms(fav),
+        }
+    };
     Some(RegioAdvice {
-        kinetic: RegioConditions {
-            base: "LDA (or LiHMDS)".into(),
-            equivalents: 1.0 + PRACTICAL_EXCESS,
-            solvent: "THF".into(),
-            temperature: Temperature {
-                low_c: lda.map(|b| b.temp_min_c).unwrap_or(-78.0),
-                high_c: -78.0,
-            },
-            procedure: "add the ketone slowly to a slight excess of the hindered amide base at -78 C so base is always in excess and no free ketone equilibrates the enolate; react with the electrophile cold".into(),
-            favours_site: k,
-            favours_atoms: atoms(k),
-        },
-        thermodynamic: RegioConditions {
-            base: "NaH or KOtBu (or Et3N with TMSCl in DMF for the silyl enol ether)".into(),
-            equivalents: 0.95,
-            solvent: "THF, tBuOH or DMF".into(),
-            temperature: Temperature {
-                low_c: 20.0,
-                high_c: 80.0,
-            },
-            procedure: "use a slight excess of ketone (about 0.95 equiv base) with a weaker or equilibrating base at room temperature or above and allow time to equilibrate: proton exchange with free ketone converts the enolates to the more substituted one (Et3N/TMSCl traps it as the silyl enol ether)".into(),
-            favours_site: th,
-            favours_atoms: atoms(th),
-        },
+        kinetic: side(rows[0]?, k),
+        thermodynamic: side(rows[1]?, th),
     })
 }
