@@ -255,6 +255,12 @@ pub struct PracticeRow {
     pub prefer: Vec<String>,
     /// Bases practice rules out here.
     pub exclude: Vec<String>,
+    /// Per catalogue slot: position in `prefer` (usize::MAX: not preferred).
+    pub rank_by_slot: Vec<usize>,
+    /// Per catalogue slot: in `exclude`.
+    pub excluded_by_slot: Vec<bool>,
+    /// The exclusion reason with the row id, as the advice words it.
+    pub exclude_text: String,
     /// Kind of that rejection.
     pub exclude_kind: Option<String>,
     /// Why.
@@ -551,7 +557,26 @@ impl Practice {
                     Some(v)
                 }
             };
+            let rank_by_slot: Vec<usize> = cat
+                .bases
+                .iter()
+                .map(|b| {
+                    prefer
+                        .iter()
+                        .position(|p| *p == b.name)
+                        .unwrap_or(usize::MAX)
+                })
+                .collect();
+            let excluded_by_slot: Vec<bool> = cat
+                .bases
+                .iter()
+                .map(|b| exclude.contains(&b.name))
+                .collect();
+            let exclude_text = format!("{} [{}]", exclude_reason.as_deref().unwrap_or(""), c[0]);
             out.push(PracticeRow {
+                rank_by_slot,
+                excluded_by_slot,
+                exclude_text,
                 id: c[0].to_string(),
                 reactions,
                 control,

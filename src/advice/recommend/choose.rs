@@ -175,8 +175,12 @@ pub(super) fn advise_core(
     // preferred base that the equilibrium finds only just short of complete
     // conversion for a preformed anion (lithium and sodium silylamides with
     // esters and amides at -78 °C) accepted with a note.
-    let pref_rank = |name: &str| -> usize {
-        row.and_then(|r| r.prefer.iter().position(|p| p == name))
+    // Rank of each catalogue base in the row's preference (by catalogue
+    // slot, worked out once per row at load time).
+    // Rank of each catalogue base (by its slot, the index into `evals`) in
+    // the row's preference, worked out once per row at load time.
+    let pref_rank = |slot: usize| -> usize {
+        row.and_then(|r| r.rank_by_slot.get(slot).copied())
             .unwrap_or(usize::MAX)
     };
     if let Some(r) = row {
@@ -185,16 +189,15 @@ pub(super) fn advise_core(
             Some("mode") => RejectKind::Mode,
             _ => RejectKind::SideReaction,
         };
-        for ev in evals.iter_mut() {
-            if r.exclude.iter().any(|x| x == &ev.base.name) {
-                let why = r.exclude_reason.clone().unwrap_or_default();
-                ev.reasons.insert(0, (kind, format!("{why} [{}]", r.id)));
+        for (slot, ev) in evals.iter_mut().enumerate() {
+            if r.excluded_by_slot.get(slot).copied().unwrap_or(false) {
+                ev.reasons.insert(0, (kind, r.exclude_text.clone()));
             }
             // The practice row names this base for this kind of site and
             // reaction: the generic concern about a nucleophilic base (an
             // amine with an ester in a Knoevenagel reaction) is one practice
             // has weighed.
-            if pref_rank(&ev.base.name) != usize::MAX
+            if pref_rank(slot) != usize::MAX
                 && ev
                     .reasons
                     .iter()
@@ -212,7 +215,7 @@ pub(super) fn advise_core(
                 }
             }
             if mode == Mode::Preformed
-                && pref_rank(&ev.base.name) != usize::MAX
+                && pref_rank(slot) != usize::MAX
                 && !ev.reasons.is_empty()
                 && ev.reasons.iter().all(|(k, _)| *k == RejectKind::TooWeak)
                 && ev.conversion >= MIN_MARGINAL_CONVERSION
@@ -235,21 +238,19 @@ pub(super) fn advise_core(
         .filter(|&i| evals[i].reasons.is_empty())
         .collect();
     accepted.sort_by(|&a, &b| {
-        pref_rank(&evals[a].base.name)
-            .cmp(&pref_rank(&evals[b].base.name))
-            .then(
-                evals[a]
-                    .score
-                    .partial_cmp(&evals[b].score)
-                    .unwrap_or(std::cmp::Ordering::Equal),
-            )
+        pref_rank(a).cmp(&pref_rank(b)).then(
+            evals[a]
+                .score
+                .partial_cmp(&evals[b].score)
+                .unwrap_or(std::cmp::Ordering::Equal),
+        )
     });
     // A reagent system or route preferred ahead of every acceptable base.
     let system: Option<&'static System> = if requested.is_some() {
         None
     } else {
         row.and_then(|r| {
-            let best_base = accepted.first().map(|&i| pref_rank(&evals[i].base.name));
+            let best_base = accepted.first().map(|&i| pref_rank(i));
             r.prefer
                 .iter()
                 .enumerate()
@@ -325,7 +326,7 @@ pub(super) fn advise_core(
         .iter()
         .copied()
         .filter(|&i| Some(i) != chosen_at)
-        .filter(|&i| !practice_listed || pref_rank(&evals[i].base.name) != usize::MAX)
+        .filter(|&i| !practice_listed || pref_rank(i) != usize::MAX)
         .collect();
     let shown = others.len().min(opts.alternatives.unwrap_or(usize::MAX));
     let alternatives_omitted = others.len() - shown;
@@ -336,7 +337,7 @@ pub(super) fn advise_core(
     }
     let chosen: Option<&Eval> = chosen_at.map(|i| &evals[i]);
     if let (Some(r), Some(e), None, None) = (row, chosen, system, requested) {
-        if pref_rank(&e.base.name) == usize::MAX && !r.prefer.is_empty() {
+        if chosen_at.map(pref_rank) == Some(usize::MAX) && !r.prefer.is_empty() {
             warnings.push(Warning {
                 kind: WarningKind::NoBase,
                 message: format!(
@@ -474,8 +475,13 @@ pub(super) fn advise_core(
     }
     molecule_warnings(&ctx, chosen, &mut warnings);
 
+    let two_sides = ctx
+        .target_unit
+        .iter()
+        .any(|&i| sites.sites.get(i).and_then(|s| s.regio).is_some());
     let regio_rows = [Control::Kinetic, Control::Thermodynamic].map(|c| {
         smarts_target
+            .filter(|_| two_sides)
             .and_then(|t| data.find(t, &tsite.atoms, reaction, Some(c)))
             .filter(|r| r.control == Some(c))
     });
@@ -513,7 +519,26 @@ pub(super) fn advise_core(
     }
     push(Some(general_caution()));
 
-    let exact = chosen.and_then(|e| full_equilibrium(&ctx, e));
+    // The reported conversion: the whole equilibrium at the advised
+    // equivalents, nothing set aside (as `acidsite equilibrium` solves it),
+    // through the allocation-free lean solver; the per-site breakdown only
+    // when asked for.
+    let no_exclusion: Rc<[usize]> = Rc::from([]);
+    let exact_conversion: Option<f64> = chosen.and_then(|e| {
+        let l = e.lean?;
+        solve_lean(
+            &ctx,
+            l.base_pka,
+            l.scale,
+            e.equivalents,
+            l.a0,
+            &no_exclusion,
+        )
+        .map(|x| x.1)
+    });
+    let exact = chosen
+        .filter(|_| opts.full_equilibrium)
+        .and_then(|e| full_equilibrium(&ctx, e));
     let t = Target {
         site: target,
         atoms: tsite.atoms.clone(),
@@ -532,11 +557,13 @@ pub(super) fn advise_core(
         mode_note.push_str(&r.id);
         mode_note.push_str(", ");
         mode_note.push_str(&r.source);
-        mode_note.push_str("]; ");
+        mode_note.push(']');
+    } else {
+        // No practice row: the mode's own rule says why.
+        mode_note.push_str(mode.name());
+        mode_note.push_str(": ");
+        mode_note.push_str(&mode_row.note);
     }
-    mode_note.push_str(mode.name());
-    mode_note.push_str(": ");
-    mode_note.push_str(&mode_row.note);
     if let Some(sy) = system {
         mode_note.push_str("; ");
         mode_note.push_str(&sy.name);
@@ -578,19 +605,10 @@ pub(super) fn advise_core(
             .or(chosen.map(|e| e.base.name.clone())),
         equivalents,
         equivalents_note,
-        conversion: exact
-            .as_ref()
-            .map(|q| {
-                ctx.target_unit
-                    .iter()
-                    .map(|&i| q.site_fraction(i))
-                    .sum::<f64>()
-                    .clamp(0.0, 1.0)
-            })
-            .or(chosen
-                .filter(|e| system.is_none() && e.lean.is_some())
-                .map(|e| e.conversion)),
-        equilibrium: exact.filter(|_| opts.full_equilibrium),
+        conversion: exact_conversion.or(chosen
+            .filter(|e| system.is_none() && e.lean.is_some())
+            .map(|e| e.conversion)),
+        equilibrium: exact,
         solvent,
         temperature: temperature_out,
         scale: chosen.and_then(|e| e.scale),
