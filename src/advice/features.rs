@@ -73,6 +73,8 @@ pub struct SiteFeatures {
     pub dicarbonyl: bool,
     /// Next to a C=O: an enolate (self-condensation, Claisen) can form.
     pub alpha_carbonyl: bool,
+    /// A deuterium or tritium sits on the site's atoms.
+    pub labelled: bool,
 }
 
 const C: u8 = 6;
@@ -362,6 +364,12 @@ pub fn detect_features_in(
 
     for site in &sites.sites {
         let mut sf = SiteFeatures::default();
+        sf.labelled = site.atoms.iter().any(|&a| {
+            mol.atoms
+                .get(a)
+                .map(|x| x.heavy_hydrogens > 0)
+                .unwrap_or(false)
+        });
         if site.is_carbon() {
             for &t in &site.atoms {
                 if sf.beta_leaving_group.is_none() {
