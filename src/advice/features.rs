@@ -363,13 +363,15 @@ pub fn detect_features_in(
     f.ester_alkoxy.dedup();
 
     for site in &sites.sites {
-        let mut sf = SiteFeatures::default();
-        sf.labelled = site.atoms.iter().any(|&a| {
-            mol.atoms
-                .get(a)
-                .map(|x| x.heavy_hydrogens > 0)
-                .unwrap_or(false)
-        });
+        let mut sf = SiteFeatures {
+            labelled: site.atoms.iter().any(|&a| {
+                mol.atoms
+                    .get(a)
+                    .map(|x| x.heavy_hydrogens > 0)
+                    .unwrap_or(false)
+            }),
+            ..SiteFeatures::default()
+        };
         if site.is_carbon() {
             for &t in &site.atoms {
                 if sf.beta_leaving_group.is_none() {
