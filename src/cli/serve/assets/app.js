@@ -1,0 +1,821 @@
+// acidsite page. Every piece of text that comes from the input or a record is
+// put into the page with textContent (never as HTML); the only markup taken
+// from the server is the structure drawing, which is parsed as SVG, checked
+// and imported element by element.
+"use strict";
+
+(function () {
+  var $ = function (id) { return document.getElementById(id); };
+  var state = {
+    options: null,
+    rules: null,        // rule id -> rule (from /api/rules, fetched on demand)
+    record: null,       // last record shown
+    seq: 0,             // request counter: late answers to old requests are dropped
+    list: null,         // list mode: { records, text, body, query }
+  };
+
+  // ---------- small helpers ----------
+  function el(tag, attrs) {
+    var e = document.createElement(tag);
+    if (attrs) {
+      Object.keys(attrs).forEach(function (k) {
+        if (k === "text") e.textContent = attrs[k];
+        else if (k === "cls") e.className = attrs[k];
+        else e.setAttribute(k, attrs[k]);
+      });
+    }
+    for (var i = 2; i < arguments.length; i++) {
+      var c = arguments[i];
+      if (c === null || c === undefined) continue;
+      e.appendChild(typeof c === "string" ? document.createTextNode(c) : c);
+    }
+    return e;
+  }
+  function clear(node) { while (node.firstChild) node.removeChild(node.firstChild); }
+  function fmt(x, digits) {
+    if (x === null || x === undefined || !isFinite(x)) return "–";
+    return Number(x).toFixed(digits === undefined ? 1 : digits);
+  }
+  function pct(x) {
+    if (x === null || x === undefined) return "–";
+    if (x >= 0.9999) return "> 99.99 %";
+    if (x < 0.0001) return "< 0.01 %";
+    return (100 * x).toFixed(x > 0.99 ? 2 : 1) + " %";
+  }
+  function temp(range, start) {
+    if (!range) return start === null || start === undefined ? "–" : fmt(start, 0) + " °C";
+    if (range[0] === range[1]) return fmt(range[0], 0) + " °C";
+    return fmt(range[0], 0) + " to " + fmt(range[1], 0) + " °C";
+  }
+  function atomsText(atoms) {
+    return (atoms || []).join(", ");
+  }
+  function errorMessage(resp, body) {
+    try {
+      var j = JSON.parse(body);
+      if (j && j.error) return j.error.message;
+    } catch (e) { /* not JSON */ }
+    return "the server answered " + resp.status + " " + resp.statusText;
+  }
+  function postJSON(path, obj) {
+    return fetch(path, {
+      method: "POST",
+      headers: { "Content-Type": "application/json" },
+      body: JSON.stringify(obj),
+    }).then(function (r) {
+      return r.text().then(function (t) { return { resp: r, text: t }; });
+    });
+  }
+
+  // Parse SVG text from the server and import it; anything that could run
+  // script (script, foreignObject, event attributes, javascript: links) is
+  // dropped first.
+  function importSvg(text) {
+    var doc = new DOMParser().parseFromString(text, "image/svg+xml");
+    var root = doc.documentElement;
+    if (!root || root.nodeName !== "svg" || doc.getElementsByTagName("parsererror").length) return null;
+    Array.prototype.slice.call(root.querySelectorAll("script, foreignObject, iframe, a")).forEach(function (n) {
+      n.parentNode.removeChild(n);
+    });
+    Array.prototype.slice.call(root.querySelectorAll("*")).concat([root]).forEach(function (n) {
+      Array.prototype.slice.call(n.attributes).forEach(function (a) {
+        if (/^on/i.test(a.name) || /javascript:/i.test(a.value) || a.name === "href" || a.name === "xlink:href") {
+          n.removeAttribute(a.name);
+        }
+      });
+    });
+    return document.importNode(root, true);
+  }
+
+  function copyText(text, note) {
+    function done(ok) {
+      note.textContent = ok ? "Copied." : "Copy failed: select and copy by hand.";
+      setTimeout(function () { note.textContent = ""; }, 2500);
+    }
+    if (navigator.clipboard && window.isSecureContext) {
+      navigator.clipboard.writeText(text).then(function () { done(true); }, function () { fallback(); });
+    } else {
+      fallback();
+    }
+    function fallback() {
+      var t = el("textarea", { "aria-hidden": "true" });
+      t.value = text;
+      t.style.position = "fixed";
+      t.style.left = "-9999px";
+      document.body.appendChild(t);
+      t.select();
+      var ok = false;
+      try { ok = document.execCommand("copy"); } catch (e) { ok = false; }
+      document.body.removeChild(t);
+      done(ok);
+    }
+  }
+
+  function download(blob, name) {
+    var url = URL.createObjectURL(blob);
+    var a = el("a", { href: url, download: name });
+    document.body.appendChild(a);
+    a.click();
+    document.body.removeChild(a);
+    setTimeout(function () { URL.revokeObjectURL(url); }, 10000);
+  }
+
+  // ---------- tabs ----------
+  function showTab(which) {
+    var one = which === "one";
+    $("tab-one").setAttribute("aria-selected", String(one));
+    $("tab-list").setAttribute("aria-selected", String(!one));
+    $("tab-one").tabIndex = one ? 0 : -1;
+    $("tab-list").tabIndex = one ? -1 : 0;
+    $("panel-one").hidden = !one;
+    $("panel-list").hidden = one;
+  }
+  $("tab-one").addEventListener("click", function () { showTab("one"); });
+  $("tab-list").addEventListener("click", function () { showTab("list"); });
+  document.querySelector(".modes").addEventListener("keydown", function (ev) {
+    if (ev.key === "ArrowRight" || ev.key === "ArrowLeft") {
+      var toList = $("tab-one").getAttribute("aria-selected") === "true";
+      showTab(toList ? "list" : "one");
+      (toList ? $("tab-list") : $("tab-one")).focus();
+    }
+  });
+
+  // ---------- options from the build ----------
+  function fillSelect(sel, items, label) {
+    items.forEach(function (it) {
+      var name = typeof it === "string" ? it : it.name;
+      sel.appendChild(el("option", { value: name, text: label ? label(it) : name }));
+    });
+  }
+  function loadOptions() {
+    return fetch("/api/options").then(function (r) { return r.json(); }).then(function (o) {
+      state.options = o;
+      var reactions = o.reactions || [];
+      var controls = o.controls || [];
+      if (reactions.length) {
+        fillSelect($("reaction"), reactions, function (r) { return r.label || r.name; });
+        $("reaction-field").hidden = false;
+      }
+      if (controls.length) {
+        fillSelect($("control"), controls, function (c) { return c.label || c.name; });
+        $("control-field").hidden = false;
+      }
+      fillSelect($("base"), o.bases || [], function (b) {
+        return b.name + " (" + b.full_name + ")";
+      });
+      var mb = Math.round(o.limits.annotate_body_bytes / 1048576);
+      $("limit-note").textContent = "";
+      $("limit-note").appendChild(document.createTextNode(
+        "Up to " + mb + " MB per upload (a gzip file counts at its compressed size and may unpack to at most " +
+        Math.round(o.limits.annotate_unpacked_bytes / 1048576) + " MB). For larger files run "));
+      $("limit-note").appendChild(el("code", { text: "acidsite annotate FILE" }));
+      $("limit-note").appendChild(document.createTextNode(" on the command line: the same records, no size limit."));
+      $("build").textContent = "acidsite " + o.version + " · rule set " + o.rule_set + " · records " + o.schema;
+    });
+  }
+
+  function loadRules() {
+    if (state.rules) return Promise.resolve(state.rules);
+    return fetch("/api/rules").then(function (r) { return r.json(); }).then(function (j) {
+      var m = {};
+      (j.rules || []).forEach(function (r) { m[r.id] = { kind: "class rule", r: r }; });
+      (j.increments || []).forEach(function (i) { m[i.id] = { kind: "increment", r: i }; });
+      state.rules = m;
+      state.sources = {};
+      (j.sources || []).forEach(function (s) { state.sources[s.key] = s.reference; });
+      return m;
+    });
+  }
+
+  // ---------- one molecule: form and URL ----------
+  function formValues() {
+    var scale = document.querySelector('input[name="scale"]:checked');
+    return {
+      smiles: $("smiles").value.trim(),
+      name: $("name").value.trim(),
+      reaction: $("reaction").value,
+      control: $("control").value,
+      site: $("site").value,
+      base: $("base").value,
+      scale: scale ? scale.value : "dmso",
+    };
+  }
+  function updateUrl() {
+    var v = formValues();
+    var p = new URLSearchParams();
+    ["smiles", "name", "reaction", "control", "site", "base"].forEach(function (k) {
+      if (v[k]) p.set(k, v[k]);
+    });
+    if (v.scale !== "dmso") p.set("scale", v.scale);
+    var q = p.toString();
+    history.replaceState(null, "", q ? "?" + q : location.pathname);
+  }
+  function setSelect(sel, value) {
+    if (!value) { sel.value = ""; return; }
+    var found = Array.prototype.some.call(sel.options, function (o) { return o.value === value; });
+    if (!found) sel.appendChild(el("option", { value: value, text: value }));
+    sel.value = value;
+  }
+  function fillFromUrl() {
+    var p = new URLSearchParams(location.search);
+    $("smiles").value = p.get("smiles") || "";
+    $("name").value = p.get("name") || "";
+    // A reaction or control this build does not know (an older build, or a
+    // link from a newer one) is left out with a note rather than refused.
+    var unknown = [];
+    [["reaction", "reaction"], ["control", "control"]].forEach(function (k) {
+      var v = p.get(k[0]);
+      var known = v && Array.prototype.some.call($(k[0]).options, function (o) { return o.value === v; });
+      if (v && !known) unknown.push(k[1] + " “" + v + "”");
+      $(k[0]).value = known ? v : "";
+    });
+    state.linkNote = unknown.length
+      ? "The link asks for " + unknown.join(" and ") + ", which this build of acidsite does not know; the advice below does not take it into account."
+      : "";
+    setSelect($("base"), p.get("base"));
+    var site = p.get("site");
+    setSelect($("site"), site && /^\d+$/.test(site) ? site : "");
+    var scale = p.get("scale") === "water" ? "water" : "dmso";
+    document.querySelector('input[name="scale"][value="' + scale + '"]').checked = true;
+    if (p.get("list") !== null) showTab("list");
+    return !!$("smiles").value.trim();
+  }
+
+  // ---------- one molecule: run ----------
+  function run() {
+    var v = formValues();
+    updateUrl();
+    if (!v.smiles) {
+      $("one-status").textContent = "Type or paste a SMILES first.";
+      return;
+    }
+    var body = { smiles: v.smiles, scale: v.scale };
+    if (v.name) body.name = v.name;
+    if (v.site !== "") body.site = parseInt(v.site, 10);
+    if (v.base) body.base = v.base;
+    if (v.reaction) body.reaction = v.reaction;
+    if (v.control) body.control = v.control;
+    var my = ++state.seq;
+    $("one-status").textContent = "Analysing…";
+    var scan = postJSON("/api/scan", body);
+    var drawing = postJSON("/api/draw", body);
+    Promise.all([scan, drawing]).then(function (res) {
+      if (my !== state.seq) return;
+      var s = res[0], d = res[1];
+      $("one-status").textContent = state.linkNote || "";
+      if (!s.resp.ok) {
+        showRequestError(errorMessage(s.resp, s.text));
+        return;
+      }
+      var rec;
+      try { rec = JSON.parse(s.text); } catch (e) { showRequestError("the answer was not JSON"); return; }
+      state.record = rec;
+      state.recordText = s.text.trim();
+      if (!rec.ok) { showRecordError(rec); return; }
+      showRecord(rec, d.resp.ok ? d.text : null);
+    }).catch(function (e) {
+      if (my !== state.seq) return;
+      $("one-status").textContent = "";
+      showRequestError("the server could not be reached (" + e.message + "); is acidsite serve still running?");
+    });
+  }
+
+  function showRequestError(msg) {
+    var box = $("one-error");
+    clear(box);
+    box.appendChild(el("p", { cls: "what", text: "Error: " + msg }));
+    box.hidden = false;
+    $("one-result").hidden = true;
+  }
+
+  // A record that failed: the message and, when the position is known, the
+  // input with a caret under the character.
+  function showRecordError(rec) {
+    var box = $("one-error");
+    clear(box);
+    var e = rec.error || { kind: "error", message: "the SMILES could not be analysed" };
+    box.appendChild(el("p", { cls: "what", text: "This SMILES could not be read (" + e.kind + "): " + e.message }));
+    if (e.position !== null && e.position !== undefined) {
+      var chars = Array.from(rec.input || "");
+      var pos = Math.min(e.position, chars.length);
+      var from = Math.max(0, pos - 60);
+      var to = Math.min(chars.length, pos + 40);
+      var shown = (from > 0 ? "…" : "") + chars.slice(from, to).join("") + (to < chars.length ? "…" : "");
+      var pad = (from > 0 ? 1 : 0) + (pos - from);
+      var pre = el("pre", { "aria-label": "the SMILES with the position of the problem marked" });
+      pre.appendChild(document.createTextNode(shown + "\n" + " ".repeat(pad)));
+      pre.appendChild(el("span", { cls: "caret", text: "^ here (character " + e.position + ", counting from 0)" }));
+      box.appendChild(pre);
+    }
+    box.appendChild(el("p", { cls: "help", text: "Correct the SMILES above and press Enter; the page keeps working." }));
+    box.hidden = false;
+    $("one-result").hidden = true;
+  }
+
+  function showRecord(rec, svgText) {
+    $("one-error").hidden = true;
+    $("one-result").hidden = false;
+    var target = rec.advice ? rec.advice.target : [];
+    showDrawing(svgText);
+    showFacts(rec);
+    showSites(rec, target);
+    fillSiteChoices(rec);
+    showAdvice(rec);
+    showCautions(rec);
+  }
+
+  function showDrawing(svgText) {
+    var box = $("drawing");
+    clear(box);
+    var svg = svgText ? importSvg(svgText) : null;
+    if (!svg) {
+      box.appendChild(el("p", { cls: "help", text: "No drawing for this input." }));
+      return;
+    }
+    svg.setAttribute("role", "group");
+    svg.setAttribute("aria-label", "structure drawing with the acidic sites marked");
+    // Sized by the page (the viewBox keeps the proportions).
+    svg.removeAttribute("width");
+    svg.removeAttribute("height");
+    Array.prototype.forEach.call(svg.querySelectorAll("g[data-atom]"), function (g) {
+      var idx = g.getAttribute("data-atom");
+      var label = g.querySelector("text");
+      g.setAttribute("tabindex", "0");
+      g.setAttribute("role", "button");
+      g.setAttribute("aria-label", "atom " + idx + " (" + (label ? label.textContent : "C") + "): target its site");
+      var title = document.createElementNS("http://www.w3.org/2000/svg", "title");
+      title.textContent = "atom " + idx + ": click to target its site";
+      g.appendChild(title);
+      g.addEventListener("click", function () { chooseAtom(idx); });
+      g.addEventListener("keydown", function (ev) {
+        if (ev.key === "Enter" || ev.key === " ") { ev.preventDefault(); chooseAtom(idx); }
+      });
+    });
+    box.appendChild(svg);
+  }
+
+  function chooseAtom(idx) {
+    setSelect($("site"), String(idx));
+    run();
+  }
+
+  function showFacts(rec) {
+    var dl = $("facts");
+    clear(dl);
+    function add(k, v) { dl.appendChild(el("dt", { text: k })); dl.appendChild(el("dd", { text: v })); }
+    if (rec.id) add("name", rec.id);
+    add("formula", rec.formula || "–");
+    var main = (rec.components || []).filter(function (c) { return c.role === "main"; })[0];
+    var others = (rec.components || []).filter(function (c) { return c.role !== "main"; });
+    if (main) add("analysed part", main.smiles + (main.formula ? "  (" + main.formula + ")" : ""));
+    add("counter-ions", others.length ? others.map(function (c) { return c.smiles; }).join(", ") : "none");
+    add("rule set", rec.rule_set || "–");
+    if (rec.mapped_smiles) add("sites by rank", rec.mapped_smiles);
+  }
+
+  function showSites(rec, target) {
+    var tb = $("sites").querySelector("tbody");
+    clear(tb);
+    var sites = rec.sites || [];
+    if (!sites.length) {
+      tb.appendChild(el("tr", null, el("td", { colspan: "9", text: "No acidic hydrogen found by the rule set." })));
+      return;
+    }
+    sites.forEach(function (s) {
+      var isTarget = s.atoms.some(function (a) { return target.indexOf(a) >= 0; });
+      var btn = el("button", { type: "button", cls: "small", "aria-expanded": "false", text: "show" });
+      var tr = el("tr", isTarget ? { cls: "target-row" } : null,
+        el("td", { text: "#" + s.rank }),
+        el("td", { text: s.element + atomsText(s.atoms) }),
+        el("td", { text: s.hydrogens + "H" }),
+        el("td", { text: s.class }),
+        el("td", { cls: "num", text: fmt(s.pka_dmso) }),
+        el("td", { cls: "num", text: fmt(s.pka_water) }),
+        el("td", { cls: "num", text: "±" + fmt(s.uncertainty) }),
+        el("td", { text: s.regio ? s.regio + " side" : "" }),
+        el("td", null, btn));
+      tb.appendChild(tr);
+      var detail = null;
+      btn.addEventListener("click", function () {
+        if (detail) {
+          detail.parentNode.removeChild(detail);
+          detail = null;
+          btn.textContent = "show";
+          btn.setAttribute("aria-expanded", "false");
+          return;
+        }
+        detail = el("tr", { cls: "rules-row" }, el("td", { colspan: "9", text: "loading the rules…" }));
+        tr.parentNode.insertBefore(detail, tr.nextSibling);
+        btn.textContent = "hide";
+        btn.setAttribute("aria-expanded", "true");
+        var here = detail;
+        loadRules().then(function () {
+          if (here !== detail) return;
+          var td = here.firstChild;
+          clear(td);
+          td.appendChild(el("p", { cls: "note", text: "The estimate is the sum of these contributions (DMSO / water):" }));
+          var ul = el("ul", { cls: "rules-list" });
+          s.rules.forEach(function (r) {
+            var info = state.rules[r.id];
+            var li = el("li", null, el("strong", { text: r.id }),
+              " " + fmt(r.dmso, 2) + " / " + fmt(r.water, 2));
+            if (info) {
+              var x = info.r;
+              var what = info.kind === "class rule"
+                ? "class rule: " + x.class + ", SMARTS " + x.smarts + ", ±" + fmt(x.uncertainty)
+                : "increment: " + x.substituent + ", ±" + fmt(x.uncertainty);
+              li.appendChild(document.createTextNode(" — " + what + "; source " + x.source +
+                (state.sources[x.source] ? " (" + state.sources[x.source] + ")" : "") +
+                (x.note ? "; " + x.note : "")));
+            }
+            ul.appendChild(li);
+          });
+          td.appendChild(ul);
+        }, function () { here.firstChild.textContent = "The rules could not be loaded."; });
+      });
+    });
+  }
+
+  function fillSiteChoices(rec) {
+    var sel = $("site");
+    var keep = sel.value;
+    while (sel.options.length > 1) sel.remove(1);
+    (rec.sites || []).forEach(function (s) {
+      sel.appendChild(el("option", {
+        value: String(s.atoms[0]),
+        text: "#" + s.rank + " " + s.element + atomsText(s.atoms) + " " + s.class + " (" + fmt(s.pka_dmso) + ")",
+      }));
+    });
+    setSelect(sel, keep);
+  }
+
+  function showAdvice(rec) {
+    var box = $("advice");
+    clear(box);
+    var a = rec.advice;
+    if (!a) {
+      box.appendChild(el("p", { text: rec.advice_note || "No advice for this molecule." }));
+      return;
+    }
+    var head = el("p", { cls: "headline" });
+    if (a.base) {
+      head.appendChild(el("strong", { text: a.base }));
+      head.appendChild(document.createTextNode(" · " + fmt(a.equivalents, 2) + " equiv · " + (a.solvent || "–") +
+        " · " + temp(a.temperature_range_c, a.temperature_c)));
+    } else {
+      head.appendChild(el("strong", { text: "No catalogue base qualifies" }));
+    }
+    box.appendChild(head);
+    var dl = el("dl");
+    function add(k, v) {
+      dl.appendChild(el("dt", { text: k }));
+      dl.appendChild(typeof v === "string" ? el("dd", { text: v }) : el("dd", null, v));
+    }
+    add("target", "atom " + atomsText(a.target) + " — " + a.target_note);
+    if (a.base) add("base", a.base + "  " + fmt(a.equivalents, 2) + " equiv");
+    var how = el("div", null, el("span", { text: a.equivalents_note }));
+    if (a.counted && a.counted.length) {
+      var ul = el("ul");
+      a.counted.forEach(function (c) {
+        ul.appendChild(el("li", { text: c.protons + " H at atom " + atomsText(c.atoms) + " (" + c.class + "): " + c.reason }));
+      });
+      how.appendChild(ul);
+    }
+    add("equivalents counted", how);
+    add("solvent", a.solvent || "–");
+    add("temperature", a.temperature_c !== null && a.temperature_c !== undefined
+      ? temp(a.temperature_range_c, a.temperature_c) + ", start at " + fmt(a.temperature_c, 0) + " °C"
+      : temp(a.temperature_range_c, a.temperature_c));
+    add("at equilibrium", pct(a.conversion) + " of the target deprotonated");
+    add("pKa basis", a.scale_note || (a.scale ? a.scale + " scale" : "–"));
+    if (a.alternatives && a.alternatives.length) {
+      var t = el("table", { cls: "grid" },
+        el("thead", null, el("tr", null,
+          el("th", { scope: "col", text: "base" }), el("th", { scope: "col", cls: "num", text: "equiv" }),
+          el("th", { scope: "col", text: "solvent" }), el("th", { scope: "col", text: "temperature" }),
+          el("th", { scope: "col", cls: "num", text: "at equilibrium" }), el("th", { scope: "col", text: "note" }))));
+      var tb = el("tbody");
+      a.alternatives.forEach(function (x) {
+        tb.appendChild(el("tr", null, el("td", { text: x.base }), el("td", { cls: "num", text: fmt(x.equivalents, 2) }),
+          el("td", { text: x.solvent }), el("td", { text: temp(x.temperature_range_c) }),
+          el("td", { cls: "num", text: pct(x.conversion) }), el("td", { text: x.note })));
+      });
+      t.appendChild(tb);
+      var wrap = el("div", { cls: "table-wrap" }, t);
+      if (a.alternatives_omitted) wrap.appendChild(el("p", { cls: "note", text: a.alternatives_omitted + " more acceptable bases not listed (acidsite scan lists them)." }));
+      add("also suitable", wrap);
+    }
+    if (a.rejected && a.rejected.length) {
+      var ur = el("ul");
+      a.rejected.forEach(function (r) {
+        ur.appendChild(el("li", null, el("strong", { text: r.base }), " (" + r.kind + "): " + r.reason));
+      });
+      add("ruled out", ur);
+    }
+    if (a.warnings && a.warnings.length) {
+      var uw = el("ul", { cls: "warnings" });
+      a.warnings.forEach(function (w) { uw.appendChild(el("li", { text: w })); });
+      add("warnings", uw);
+    }
+    if (a.regio_conditions) {
+      var rc = el("div");
+      [["kinetic", a.regio_conditions.kinetic], ["thermodynamic", a.regio_conditions.thermodynamic]].forEach(function (p) {
+        var x = p[1];
+        rc.appendChild(el("p", null, el("strong", { text: p[0] + " enolate (atom " + atomsText(x.favours) + "): " }),
+          x.base + ", " + fmt(x.equivalents, 2) + " equiv, " + x.solvent + ", " + temp(x.temperature_range_c) + ". " + x.procedure));
+      });
+      add("enolate side", rc);
+    }
+    box.appendChild(dl);
+  }
+
+  function showCautions(rec) {
+    var box = $("cautions");
+    clear(box);
+    var list = rec.advice ? rec.advice.cautions || [] : [];
+    if (!list.length) {
+      box.appendChild(el("p", { text: "No reagent named, so no caution. Any reaction still needs its own risk assessment." }));
+      return;
+    }
+    list.forEach(function (c) {
+      box.appendChild(el("div", { cls: "caution" },
+        el("p", null, el("span", { cls: "reagent", text: c.reagent }), " ",
+          el("span", { cls: "hz", text: c.hazards.length ? "[" + c.hazards.join(", ") + "]" : "" })),
+        el("p", { text: c.text })));
+    });
+  }
+
+  $("one-form").addEventListener("submit", function (ev) { ev.preventDefault(); run(); });
+  ["reaction", "control", "site", "base"].forEach(function (id) {
+    $(id).addEventListener("change", function () { if ($("smiles").value.trim()) run(); else updateUrl(); });
+  });
+  Array.prototype.forEach.call(document.querySelectorAll('input[name="scale"]'), function (r) {
+    r.addEventListener("change", function () { if ($("smiles").value.trim()) run(); else updateUrl(); });
+  });
+  $("smiles").addEventListener("input", function () {
+    // A new molecule: a chosen atom of the old one means nothing any more.
+    $("site").value = "";
+    updateUrl();
+  });
+  $("name").addEventListener("input", updateUrl);
+  $("copy-json").addEventListener("click", function () {
+    if (state.recordText) copyText(state.recordText, $("copy-note"));
+  });
+  $("copy-mapped").addEventListener("click", function () {
+    if (state.record && state.record.mapped_smiles) copyText(state.record.mapped_smiles, $("copy-note"));
+  });
+  $("copy-link").addEventListener("click", function () { copyText(location.href, $("copy-note")); });
+
+  // ---------- a list ----------
+  function listQuery(format) {
+    var p = new URLSearchParams();
+    p.set("format", format);
+    var f = $("file").files[0];
+    var layout = $("list-layout").value;
+    if (layout) p.set("input", layout);
+    else if (f) p.set("input", f.name);
+    if (f) p.set("name", f.name);
+    var col = $("list-column").value.trim();
+    if (col) p.set("column", col);
+    if ($("list-sites-only").checked) p.set("sites_only", "true");
+    return p.toString();
+  }
+
+  var controller = null;
+  function runList() {
+    var f = $("file").files[0];
+    var text = $("paste").value;
+    if (!f && !text.trim()) {
+      $("list-status").hidden = false;
+      showListError("Choose a file or paste some lines first.");
+      return;
+    }
+    var body = f || new Blob([text], { type: "text/plain" });
+    var limit = state.options ? state.options.limits.annotate_body_bytes : 10485760;
+    $("list-status").hidden = false;
+    $("list-error").hidden = true;
+    if (body.size > limit) {
+      showListError("This file is " + (body.size / 1048576).toFixed(1) + " MB, larger than the page's limit of " +
+        Math.round(limit / 1048576) + " MB. Run acidsite annotate FILE on the command line instead (the same records, no size limit).");
+      return;
+    }
+    var query = listQuery("jsonl");
+    state.list = { records: [], text: "", body: body, name: f ? f.name : "pasted-list" };
+    $("list-result").hidden = true;
+    $("list-progress").value = 0;
+    $("list-progress").removeAttribute("value");
+    $("list-count").textContent = "Sending the list…";
+    $("list-cancel").hidden = false;
+    controller = new AbortController();
+    var started = Date.now();
+    fetch("/api/annotate?" + query, { method: "POST", body: body, signal: controller.signal }).then(function (resp) {
+      if (!resp.ok) {
+        return resp.text().then(function (t) { throw new Error(errorMessage(resp, t)); });
+      }
+      var lines = parseInt(resp.headers.get("x-acidsite-lines") || "0", 10);
+      var reader = resp.body.getReader();
+      var decoder = new TextDecoder();
+      var partial = "";
+      var chunks = [];
+      function pump() {
+        return reader.read().then(function (r) {
+          if (r.done) return;
+          var t = decoder.decode(r.value, { stream: true });
+          chunks.push(t);
+          var parts = (partial + t).split("\n");
+          partial = parts.pop();
+          parts.forEach(function (line) {
+            if (line) state.list.records.push(JSON.parse(line));
+          });
+          var n = state.list.records.length;
+          if (lines > 0) {
+            $("list-progress").max = lines;
+            $("list-progress").value = Math.min(n, lines);
+          }
+          $("list-count").textContent = n + " records analysed" + (lines ? " of at most " + lines + " lines" : "") + "…";
+          return pump();
+        });
+      }
+      return pump().then(function () {
+        if (partial.trim()) state.list.records.push(JSON.parse(partial));
+        state.list.text = chunks.join("");
+      });
+    }).then(function () {
+      var recs = state.list.records;
+      var failed = recs.filter(function (r) { return !r.ok; }).length;
+      $("list-progress").max = 1;
+      $("list-progress").value = 1;
+      $("list-count").textContent = recs.length + " records, " + (recs.length - failed) + " analysed, " + failed +
+        " failed (" + ((Date.now() - started) / 1000).toFixed(1) + " s).";
+      fillBaseFilter(recs);
+      state.list.limit = 200;
+      renderList();
+      $("list-result").hidden = false;
+    }).catch(function (e) {
+      if (e.name === "AbortError") {
+        $("list-count").textContent = "Stopped after " + state.list.records.length + " records.";
+      } else {
+        showListError(e.message);
+      }
+    }).then(function () {
+      $("list-cancel").hidden = true;
+      controller = null;
+    });
+  }
+
+  function showListError(msg) {
+    var box = $("list-error");
+    box.textContent = "Error: " + msg;
+    box.hidden = false;
+    $("list-count").textContent = "";
+    $("list-progress").value = 0;
+  }
+
+  function topSite(rec) {
+    var s = (rec.sites || []).filter(function (x) { return x.element === "C"; });
+    return s.length ? s[0] : null;
+  }
+  function baseOf(rec) { return rec.advice && rec.advice.base ? rec.advice.base : ""; }
+
+  function fillBaseFilter(recs) {
+    var sel = $("list-base");
+    while (sel.options.length > 1) sel.remove(1);
+    var seen = {};
+    recs.forEach(function (r) { var b = baseOf(r); if (b) seen[b] = (seen[b] || 0) + 1; });
+    Object.keys(seen).sort().forEach(function (b) {
+      sel.appendChild(el("option", { value: b, text: b + " (" + seen[b] + ")" }));
+    });
+  }
+
+  function listView() {
+    var recs = state.list.records.slice();
+    var show = $("list-show").value;
+    var base = $("list-base").value;
+    var maxPka = parseFloat($("list-pka").value);
+    recs = recs.filter(function (r) {
+      if (show === "ok" && !r.ok) return false;
+      if (show === "failed" && r.ok) return false;
+      if (base && baseOf(r) !== base) return false;
+      if (isFinite(maxPka)) {
+        var t = topSite(r);
+        if (!t || t.pka_dmso === null || t.pka_dmso > maxPka) return false;
+      }
+      return true;
+    });
+    var sort = $("list-sort").value;
+    function pk(r) { var t = topSite(r); return t && t.pka_dmso !== null ? t.pka_dmso : null; }
+    if (sort === "pka-asc" || sort === "pka-desc") {
+      var sign = sort === "pka-asc" ? 1 : -1;
+      recs.sort(function (a, b) {
+        var x = pk(a), y = pk(b);
+        if (x === null && y === null) return a.line - b.line;
+        if (x === null) return 1;
+        if (y === null) return -1;
+        return sign * (x - y) || a.line - b.line;
+      });
+    } else if (sort === "base") {
+      recs.sort(function (a, b) {
+        var x = baseOf(a), y = baseOf(b);
+        if (!x && y) return 1;
+        if (x && !y) return -1;
+        return x < y ? -1 : x > y ? 1 : a.line - b.line;
+      });
+    }
+    return recs;
+  }
+
+  var drawQueue = null;
+  function renderList() {
+    var tb = $("list-table").querySelector("tbody");
+    clear(tb);
+    var view = listView();
+    var limit = state.list.limit;
+    if (drawQueue) drawQueue.disconnect();
+    drawQueue = "IntersectionObserver" in window ? new IntersectionObserver(function (es) {
+      es.forEach(function (e) {
+        if (e.isIntersecting) { drawQueue.unobserve(e.target); drawSmall(e.target); }
+      });
+    }, { rootMargin: "400px 0px" }) : null;
+    view.slice(0, limit).forEach(function (r) {
+      var t = topSite(r);
+      var a = r.advice;
+      var notes = "";
+      if (!r.ok) notes = "Failed (" + r.error.kind + "): " + r.error.message +
+        (r.error.position !== null && r.error.position !== undefined ? " at character " + r.error.position : "");
+      else if (!a && r.advice_note) notes = r.advice_note;
+      else if (a && a.warnings.length) notes = a.warnings.length + " warning" + (a.warnings.length > 1 ? "s" : "") + ": " + a.warnings[0];
+      var pic = el("td", { cls: "pic" });
+      pic.dataset.smiles = r.input;
+      var open = el("a", { href: "?smiles=" + encodeURIComponent(r.input) + (r.id ? "&name=" + encodeURIComponent(r.id) : ""), text: r.input });
+      open.title = "open this molecule on its own";
+      var tr = el("tr", r.ok ? null : { cls: "failed" },
+        el("td", { text: String(r.line) }),
+        el("td", { text: r.id || "" }),
+        pic,
+        el("td", { cls: "smiles" }, open),
+        el("td", { text: t ? "#" + t.rank + " C" + atomsText(t.atoms) + " " + t.class : (r.ok ? "none found" : "") }),
+        el("td", { cls: "num", text: t ? fmt(t.pka_dmso) : "" }),
+        el("td", { text: a ? (a.base || "none qualifies") : "" }),
+        el("td", { cls: "num", text: a && a.equivalents !== null ? fmt(a.equivalents, 2) : "" }),
+        el("td", { text: a ? a.solvent || "" : "" }),
+        el("td", { cls: "notes", text: notes }));
+      tb.appendChild(tr);
+      if (r.ok) {
+        if (drawQueue) drawQueue.observe(pic); else drawSmall(pic);
+      }
+    });
+    $("list-shown").textContent = "Showing " + Math.min(limit, view.length) + " of " + view.length +
+      " records (of " + state.list.records.length + " in the list).";
+    $("list-more").hidden = view.length <= limit;
+  }
+
+  function drawSmall(td) {
+    if (td.dataset.drawn) return;
+    td.dataset.drawn = "1";
+    postJSON("/api/draw", { smiles: td.dataset.smiles, bond_px: 14 }).then(function (d) {
+      if (!d.resp.ok) return;
+      var svg = importSvg(d.text);
+      if (svg) {
+        svg.setAttribute("role", "img");
+        svg.setAttribute("aria-label", "structure");
+        td.appendChild(svg);
+      }
+    });
+  }
+
+  function downloadAs(format, ext, type) {
+    if (!state.list) return;
+    var name = state.list.name.replace(/\.(gz)$/i, "").replace(/\.[^.]*$/, "") || "list";
+    if (format === "jsonl") {
+      download(new Blob([state.list.text], { type: type }), name + "-acidsite." + ext);
+      return;
+    }
+    $("dl-note").textContent = "Preparing the " + ext.toUpperCase() + " file…";
+    fetch("/api/annotate?" + listQuery(format), { method: "POST", body: state.list.body }).then(function (resp) {
+      if (!resp.ok) return resp.text().then(function (t) { throw new Error(errorMessage(resp, t)); });
+      return resp.blob();
+    }).then(function (b) {
+      download(new Blob([b], { type: type }), name + "-acidsite." + ext);
+      $("dl-note").textContent = "";
+    }).catch(function (e) { $("dl-note").textContent = "Download failed: " + e.message; });
+  }
+
+  $("list-form").addEventListener("submit", function (ev) { ev.preventDefault(); runList(); });
+  $("list-cancel").addEventListener("click", function () { if (controller) controller.abort(); });
+  ["list-sort", "list-show", "list-base"].forEach(function (id) {
+    $(id).addEventListener("change", function () { if (state.list) { state.list.limit = 200; renderList(); } });
+  });
+  $("list-pka").addEventListener("input", function () { if (state.list) { state.list.limit = 200; renderList(); } });
+  $("list-more").addEventListener("click", function () { state.list.limit += 500; renderList(); });
+  $("dl-jsonl").addEventListener("click", function () { downloadAs("jsonl", "jsonl", "application/x-ndjson"); });
+  $("dl-csv").addEventListener("click", function () { downloadAs("csv", "csv", "text/csv"); });
+  $("dl-html").addEventListener("click", function () { downloadAs("html", "html", "text/html"); });
+
+  // ---------- start ----------
+  loadOptions().catch(function () {
+    $("build").textContent = "The build options could not be loaded; is acidsite serve still running?";
+  }).then(function () {
+    if (fillFromUrl()) run();
+    else $("smiles").focus();
+  });
+})();
