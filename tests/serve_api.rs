@@ -8,7 +8,10 @@ mod serve_common;
 use serve_common::{cli, request, Server};
 use std::io::Write;
 
-const DEMO: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/demo/route-intermediates.csv");
+const DEMO: &str = concat!(
+    env!("CARGO_MANIFEST_DIR"),
+    "/corpus/demo/route-intermediates.csv"
+);
 const REAL: &str = concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/bulk/real.smi");
 
 fn body(v: serde_json::Value) -> Vec<u8> {
@@ -23,8 +26,13 @@ fn health_given_running_server_issue13() {
     let j = r.json();
     assert_eq!(j["status"], "ok");
     assert_eq!(j["schema"], "acidsite-record/2");
-    let csp = r.header("content-security-policy").expect("CSP on every answer");
-    assert!(csp.contains("script-src 'self'") && !csp.contains("unsafe-inline"), "{csp}");
+    let csp = r
+        .header("content-security-policy")
+        .expect("CSP on every answer");
+    assert!(
+        csp.contains("script-src 'self'") && !csp.contains("unsafe-inline"),
+        "{csp}"
+    );
     assert_eq!(r.header("x-content-type-options"), Some("nosniff"));
 }
 
@@ -34,18 +42,30 @@ fn page_given_root_has_no_inline_script_issue13() {
     let r = s.get("/");
     assert_eq!(r.status, 200);
     assert!(r.header("content-type").unwrap().starts_with("text/html"));
-    assert!(r.header("content-security-policy").unwrap().contains("default-src 'none'"));
+    assert!(r
+        .header("content-security-policy")
+        .unwrap()
+        .contains("default-src 'none'"));
     let html = r.text();
     // Every <script> element loads a file (the CSP forbids inline script).
     for tag in html.split("<script").skip(1) {
         let open = &tag[..tag.find('>').unwrap()];
         assert!(open.contains("src=\"/"), "inline script: <script{open}>");
     }
-    assert!(!html.contains("http://") && !html.contains("https://"), "no outside resource");
+    assert!(
+        !html.contains("http://") && !html.contains("https://"),
+        "no outside resource"
+    );
     let js = s.get("/app.js");
     assert_eq!(js.status, 200);
-    assert!(js.header("content-type").unwrap().starts_with("text/javascript"));
-    assert!(!js.text().contains("innerHTML"), "the page builds its DOM with textContent");
+    assert!(js
+        .header("content-type")
+        .unwrap()
+        .starts_with("text/javascript"));
+    assert!(
+        !js.text().contains("innerHTML"),
+        "the page builds its DOM with textContent"
+    );
     assert_eq!(s.get("/style.css").status, 200);
     assert_eq!(s.get("/etc/passwd").status, 404);
     assert_eq!(s.get("/../Cargo.toml").status, 404);
@@ -60,9 +80,21 @@ fn scan_given_smiles_equals_scan_json_issue13() {
         ("CC1CCCCC1=O", &[], serde_json::json!({})),
         ("CCOC(=O)CC(C)=O", &[], serde_json::json!({})),
         ("OCCNC(=O)Cc1ccccc1", &[], serde_json::json!({})),
-        ("CC1CCCCC1=O", &["--site", "1"], serde_json::json!({"site": 1})),
-        ("CC1CCCCC1=O", &["--scale", "water"], serde_json::json!({"scale": "water"})),
-        ("CCOC(=O)CC(C)=O", &["--base", "NaH"], serde_json::json!({"base": "NaH"})),
+        (
+            "CC1CCCCC1=O",
+            &["--site", "1"],
+            serde_json::json!({"site": 1}),
+        ),
+        (
+            "CC1CCCCC1=O",
+            &["--scale", "water"],
+            serde_json::json!({"scale": "water"}),
+        ),
+        (
+            "CCOC(=O)CC(C)=O",
+            &["--base", "NaH"],
+            serde_json::json!({"base": "NaH"}),
+        ),
         ("[Na+].CC(=O)[O-]", &[], serde_json::json!({})),
         ("C", &[], serde_json::json!({})),
         ("CC(=O", &[], serde_json::json!({})),
@@ -74,7 +106,11 @@ fn scan_given_smiles_equals_scan_json_issue13() {
         assert_eq!(r.status, 200, "{smiles}: {}", r.text());
         let mut a = vec!["scan", "--json", smiles];
         a.extend_from_slice(args);
-        assert_eq!(r.text(), String::from_utf8(cli(&a)).unwrap(), "{smiles} {args:?}");
+        assert_eq!(
+            r.text(),
+            String::from_utf8(cli(&a)).unwrap(),
+            "{smiles} {args:?}"
+        );
     }
 }
 
@@ -88,7 +124,9 @@ fn scan_given_bad_smiles_returns_failed_record_with_position_issue13() {
     assert_eq!(j["error"]["kind"], "syntax");
     assert!(j["error"]["position"].is_u64());
     // A name becomes the record's id.
-    let j = s.post("/api/scan", br#"{"smiles":"CCO","name":"ethanol"}"#).json();
+    let j = s
+        .post("/api/scan", br#"{"smiles":"CCO","name":"ethanol"}"#)
+        .json();
     assert_eq!(j["id"], "ethanol");
 }
 
@@ -101,10 +139,26 @@ fn scan_given_bad_bodies_answers_400_issue13() {
         ("invalid UTF-8", &b"{\"smiles\": \"C\xff\"}"[..], "encoding"),
         ("not an object", &b"[1,2]"[..], "json"),
         ("missing smiles", &b"{}"[..], "json"),
-        ("unknown key", &b"{\"smiles\":\"C\",\"file\":\"/etc/passwd\"}"[..], "json"),
-        ("unknown scale", &b"{\"smiles\":\"C\",\"scale\":\"thf\"}"[..], "scale"),
-        ("unknown base", &b"{\"smiles\":\"C\",\"base\":\"NoSuchBase\"}"[..], "base"),
-        ("negative site", &b"{\"smiles\":\"C\",\"site\":-1}"[..], "json"),
+        (
+            "unknown key",
+            &b"{\"smiles\":\"C\",\"file\":\"/etc/passwd\"}"[..],
+            "json",
+        ),
+        (
+            "unknown scale",
+            &b"{\"smiles\":\"C\",\"scale\":\"thf\"}"[..],
+            "scale",
+        ),
+        (
+            "unknown base",
+            &b"{\"smiles\":\"C\",\"base\":\"NoSuchBase\"}"[..],
+            "base",
+        ),
+        (
+            "negative site",
+            &b"{\"smiles\":\"C\",\"site\":-1}"[..],
+            "json",
+        ),
     ] {
         let r = s.post("/api/scan", b);
         assert_eq!(r.status, 400, "{what}: {}", r.text());
@@ -113,9 +167,15 @@ fn scan_given_bad_bodies_answers_400_issue13() {
     }
     // A reaction this build does not know is refused by the API (the page
     // leaves it out instead).
-    let known = s.get("/api/options").json()["reactions"].as_array().unwrap().len();
+    let known = s.get("/api/options").json()["reactions"]
+        .as_array()
+        .unwrap()
+        .len();
     if known == 0 {
-        let r = s.post("/api/scan", br#"{"smiles":"CC(C)=O","reaction":"no-such-reaction"}"#);
+        let r = s.post(
+            "/api/scan",
+            br#"{"smiles":"CC(C)=O","reaction":"no-such-reaction"}"#,
+        );
         assert_eq!(r.status, 400);
         assert_eq!(r.json()["error"]["kind"], "reaction");
     }
@@ -131,7 +191,10 @@ fn scan_given_smiles_of_1_mb_gives_too_large_record_issue13() {
     assert_eq!(j["ok"], false);
     assert_eq!(j["error"]["kind"], "too_large");
     // A body past the JSON limit (2 MB) is refused before it is read.
-    let r = s.post("/api/scan", &body(serde_json::json!({ "smiles": "C".repeat(3 << 20) })));
+    let r = s.post(
+        "/api/scan",
+        &body(serde_json::json!({ "smiles": "C".repeat(3 << 20) })),
+    );
     assert_eq!(r.status, 413);
     assert_eq!(r.json()["error"]["kind"], "too_large");
 }
@@ -143,7 +206,10 @@ fn annotate_given_100_mb_body_refused_pointing_to_command_line_issue13() {
     let r = request(&s.addr, "POST", "/api/annotate", &[], &big);
     assert_eq!(r.status, 413);
     let msg = r.json()["error"]["message"].as_str().unwrap().to_string();
-    assert!(msg.contains("10 MB") && msg.contains("acidsite annotate"), "{msg}");
+    assert!(
+        msg.contains("10 MB") && msg.contains("acidsite annotate"),
+        "{msg}"
+    );
     // The server still answers afterwards.
     assert_eq!(s.get("/api/health").status, 200);
 }
@@ -171,12 +237,21 @@ fn annotate_given_demo_list_equals_cli_in_every_format_issue13() {
     let q = "input=csv&name=".to_string() + DEMO;
     let jsonl = request(&s.addr, "POST", &format!("/api/annotate?{q}"), &[], &data);
     assert_eq!(jsonl.status, 200);
-    assert_eq!(jsonl.text(), String::from_utf8(cli(&["annotate", DEMO, "--quiet"])).unwrap());
+    assert_eq!(
+        jsonl.text(),
+        String::from_utf8(cli(&["annotate", DEMO, "--quiet"])).unwrap()
+    );
     assert_eq!(jsonl.text().lines().count(), 32);
     let lines: usize = jsonl.header("x-acidsite-lines").unwrap().parse().unwrap();
     assert_eq!(lines, 34);
     for fmt in ["csv", "tsv"] {
-        let r = request(&s.addr, "POST", &format!("/api/annotate?{q}&format={fmt}"), &[], &data);
+        let r = request(
+            &s.addr,
+            "POST",
+            &format!("/api/annotate?{q}&format={fmt}"),
+            &[],
+            &data,
+        );
         assert_eq!(r.status, 200);
         assert_eq!(
             r.text(),
@@ -184,17 +259,45 @@ fn annotate_given_demo_list_equals_cli_in_every_format_issue13() {
             "{fmt}"
         );
     }
-    let r = request(&s.addr, "POST", &format!("/api/annotate?{q}&format=csv&per_site=true"), &[], &data);
+    let r = request(
+        &s.addr,
+        "POST",
+        &format!("/api/annotate?{q}&format=csv&per_site=true"),
+        &[],
+        &data,
+    );
     assert_eq!(
         r.text(),
-        String::from_utf8(cli(&["annotate", DEMO, "--quiet", "--format", "csv", "--per-site"])).unwrap()
+        String::from_utf8(cli(&[
+            "annotate",
+            DEMO,
+            "--quiet",
+            "--format",
+            "csv",
+            "--per-site"
+        ]))
+        .unwrap()
     );
     // The HTML report is the one `annotate --html` writes.
     let dir = std::env::temp_dir().join(format!("acidsite-serve-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let html_path = dir.join("report.html");
-    cli(&["annotate", DEMO, "--quiet", "-o", "/dev/null", "--html", html_path.to_str().unwrap()]);
-    let r = request(&s.addr, "POST", &format!("/api/annotate?{q}&format=html"), &[], &data);
+    cli(&[
+        "annotate",
+        DEMO,
+        "--quiet",
+        "-o",
+        "/dev/null",
+        "--html",
+        html_path.to_str().unwrap(),
+    ]);
+    let r = request(
+        &s.addr,
+        "POST",
+        &format!("/api/annotate?{q}&format=html"),
+        &[],
+        &data,
+    );
     assert_eq!(r.status, 200);
     assert_eq!(r.text(), std::fs::read_to_string(&html_path).unwrap());
     let _ = std::fs::remove_dir_all(&dir);
@@ -213,14 +316,23 @@ fn annotate_given_gzip_and_smi_equals_cli_issue13() {
     gz.write_all(text.as_bytes()).unwrap();
     let packed = gz.finish().unwrap();
     let plain = request(&s.addr, "POST", "/api/annotate", &[], text.as_bytes());
-    let zipped = request(&s.addr, "POST", "/api/annotate?input=list.smi.gz", &[], &packed);
+    let zipped = request(
+        &s.addr,
+        "POST",
+        "/api/annotate?input=list.smi.gz",
+        &[],
+        &packed,
+    );
     assert_eq!(plain.status, 200);
     assert_eq!(plain.body, zipped.body);
     let dir = std::env::temp_dir().join(format!("acidsite-serve-smi-{}", std::process::id()));
     std::fs::create_dir_all(&dir).unwrap();
     let f = dir.join("list.smi");
     std::fs::write(&f, &text).unwrap();
-    assert_eq!(plain.text(), String::from_utf8(cli(&["annotate", f.to_str().unwrap(), "--quiet"])).unwrap());
+    assert_eq!(
+        plain.text(),
+        String::from_utf8(cli(&["annotate", f.to_str().unwrap(), "--quiet"])).unwrap()
+    );
     let _ = std::fs::remove_dir_all(&dir);
 }
 
@@ -228,10 +340,19 @@ fn annotate_given_gzip_and_smi_equals_cli_issue13() {
 fn annotate_given_bad_input_issue13() {
     let s = Server::start(&[]);
     // Invalid UTF-8 and a broken line are records, not failures of the request.
-    let r = request(&s.addr, "POST", "/api/annotate", &[], b"CCO\nC\xffC\nCC(=O\n");
+    let r = request(
+        &s.addr,
+        "POST",
+        "/api/annotate",
+        &[],
+        b"CCO\nC\xffC\nCC(=O\n",
+    );
     assert_eq!(r.status, 200);
-    let recs: Vec<serde_json::Value> =
-        r.text().lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    let recs: Vec<serde_json::Value> = r
+        .text()
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
     assert_eq!(recs.len(), 3);
     assert_eq!(recs[1]["error"]["kind"], "encoding");
     assert_eq!(recs[2]["error"]["kind"], "syntax");
@@ -239,11 +360,23 @@ fn annotate_given_bad_input_issue13() {
     let r = request(&s.addr, "POST", "/api/annotate", &[], b"");
     assert_eq!((r.status, r.body.len()), (200, 0));
     // CSV without a SMILES column, an unknown format or parameter: 400.
-    let r = request(&s.addr, "POST", "/api/annotate?input=csv", &[], b"a,b\n1,2\n");
+    let r = request(
+        &s.addr,
+        "POST",
+        "/api/annotate?input=csv",
+        &[],
+        b"a,b\n1,2\n",
+    );
     assert_eq!(r.status, 400);
     assert!(r.text().contains("no SMILES column"), "{}", r.text());
-    assert_eq!(request(&s.addr, "POST", "/api/annotate?format=xml", &[], b"C").status, 400);
-    assert_eq!(request(&s.addr, "POST", "/api/annotate?path=/etc/passwd", &[], b"C").status, 400);
+    assert_eq!(
+        request(&s.addr, "POST", "/api/annotate?format=xml", &[], b"C").status,
+        400
+    );
+    assert_eq!(
+        request(&s.addr, "POST", "/api/annotate?path=/etc/passwd", &[], b"C").status,
+        400
+    );
     assert_eq!(s.get("/api/annotate").status, 405);
 }
 
@@ -255,11 +388,20 @@ fn draw_given_smiles_gives_svg_with_atoms_issue13() {
     assert_eq!(r.header("content-type"), Some("image/svg+xml"));
     let svg = r.text();
     assert_eq!(svg.matches("data-atom=").count(), 9);
-    assert_eq!(svg, String::from_utf8(cli(&["draw", "CC(=O)CC(=O)OCC", "--site", "0"])).unwrap().trim_end());
+    assert_eq!(
+        svg,
+        String::from_utf8(cli(&["draw", "CC(=O)CC(=O)OCC", "--site", "0"]))
+            .unwrap()
+            .trim_end()
+    );
     let r = s.post("/api/draw", br#"{"smiles":"CC(=O"}"#);
     assert_eq!(r.status, 422);
     assert_eq!(r.json()["error"]["kind"], "syntax");
-    assert_eq!(s.post("/api/draw", br#"{"smiles":"C","bond_px":1000}"#).status, 400);
+    assert_eq!(
+        s.post("/api/draw", br#"{"smiles":"C","bond_px":1000}"#)
+            .status,
+        400
+    );
 }
 
 #[test]
@@ -273,10 +415,16 @@ fn options_and_rules_given_build_match_listings_issue13() {
     assert_eq!(o["limits"]["annotate_body_bytes"], 10 << 20);
     let r = s.get("/api/rules").json();
     let listing = String::from_utf8(cli(&["rules", "--json"])).unwrap();
-    let kinds: Vec<serde_json::Value> = listing.lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    let kinds: Vec<serde_json::Value> = listing
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
     let rules = kinds.iter().filter(|k| k["kind"] == "rule").count();
     assert_eq!(r["rules"].as_array().unwrap().len(), rules);
-    assert_eq!(r["increments"].as_array().unwrap().len(), kinds.len() - rules);
+    assert_eq!(
+        r["increments"].as_array().unwrap().len(),
+        kinds.len() - rules
+    );
     assert_eq!(r["rule_set"], kinds[0]["rule_set"]);
 }
 
@@ -289,27 +437,67 @@ fn guard_given_foreign_host_or_origin_refuses_issue13() {
     assert_eq!(r.status, 403);
     assert_eq!(r.json()["error"]["kind"], "host");
     let local = format!("localhost:{port}");
-    assert_eq!(request(&s.addr, "GET", "/api/health", &[("Host", &local)], b"").status, 200);
+    assert_eq!(
+        request(&s.addr, "GET", "/api/health", &[("Host", &local)], b"").status,
+        200
+    );
     // Cross-origin API calls are refused; the page's own are not.
     let json = ("Content-Type", "application/json");
     let b = br#"{"smiles":"CCO"}"#;
-    let r = request(&s.addr, "POST", "/api/scan", &[json, ("Origin", "http://attacker.example")], b);
+    let r = request(
+        &s.addr,
+        "POST",
+        "/api/scan",
+        &[json, ("Origin", "http://attacker.example")],
+        b,
+    );
     assert_eq!(r.status, 403);
     assert_eq!(r.json()["error"]["kind"], "origin");
     let r = request(&s.addr, "POST", "/api/scan", &[json, ("Origin", "null")], b);
     assert_eq!(r.status, 403);
     let other_port = format!("http://127.0.0.1:{}", port.wrapping_add(1));
-    assert_eq!(request(&s.addr, "POST", "/api/scan", &[json, ("Origin", &other_port)], b).status, 403);
+    assert_eq!(
+        request(
+            &s.addr,
+            "POST",
+            "/api/scan",
+            &[json, ("Origin", &other_port)],
+            b
+        )
+        .status,
+        403
+    );
     let same = format!("http://{}", s.addr);
-    assert_eq!(request(&s.addr, "POST", "/api/scan", &[json, ("Origin", &same)], b).status, 200);
-    let r = request(&s.addr, "GET", "/api/options", &[("Sec-Fetch-Site", "cross-site")], b"");
+    assert_eq!(
+        request(&s.addr, "POST", "/api/scan", &[json, ("Origin", &same)], b).status,
+        200
+    );
+    let r = request(
+        &s.addr,
+        "GET",
+        "/api/options",
+        &[("Sec-Fetch-Site", "cross-site")],
+        b"",
+    );
     assert_eq!(r.status, 403);
     // A shared link opened from another site is a plain page load: allowed.
-    let r = request(&s.addr, "GET", "/?smiles=CCO", &[("Sec-Fetch-Site", "cross-site")], b"");
+    let r = request(
+        &s.addr,
+        "GET",
+        "/?smiles=CCO",
+        &[("Sec-Fetch-Site", "cross-site")],
+        b"",
+    );
     assert_eq!(r.status, 200);
     // With --bind the Host check is off (the user chose to serve a network).
     let open = Server::start(&["--bind", "127.0.0.1"]);
-    let r = request(&open.addr, "GET", "/api/health", &[("Host", "workstation.lab.example")], b"");
+    let r = request(
+        &open.addr,
+        "GET",
+        "/api/health",
+        &[("Host", "workstation.lab.example")],
+        b"",
+    );
     assert_eq!(r.status, 200);
 }
 

@@ -90,6 +90,9 @@ pub struct Args {
     pub html: Option<PathBuf>,
 }
 
+/// A record's output text, whether it was analysed, and its HTML card.
+pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+
 /// What every worker needs to turn a raw line into output text.
 pub struct Job {
     format: InputFormat,
@@ -135,22 +138,27 @@ impl Job {
                     .into_iter()
                     .map(|h| h.trim().to_string())
                     .collect();
-                let smiles_col = pick_column(&header, column, &["smiles"])
-                    .with_context(|| {
-                        format!(
-                            "{shown}: no SMILES column {}; header has: {}",
-                            column.map(|c| format!("named {c:?}")).unwrap_or_else(|| "named \"smiles\" (choose one with --column)".into()),
-                            header.join(", ")
-                        )
-                    })?;
+                let smiles_col = pick_column(&header, column, &["smiles"]).with_context(|| {
+                    format!(
+                        "{shown}: no SMILES column {}; header has: {}",
+                        column.map(|c| format!("named {c:?}")).unwrap_or_else(|| {
+                            "named \"smiles\" (choose one with --column)".into()
+                        }),
+                        header.join(", ")
+                    )
+                })?;
                 let id_col = match id_column {
-                    Some(name) => Some(pick_column(&header, Some(name), &[]).with_context(|| {
-                        format!(
-                            "{shown}: no column named {name:?}; header has: {}",
-                            header.join(", ")
-                        )
-                    })?),
-                    None => pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col),
+                    Some(name) => {
+                        Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                            format!(
+                                "{shown}: no column named {name:?}; header has: {}",
+                                header.join(", ")
+                            )
+                        })?)
+                    }
+                    None => {
+                        pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col)
+                    }
                 };
                 (header, smiles_col, id_col)
             }
@@ -196,7 +204,7 @@ impl Job {
     /// One raw line to its output text, whether it was analysed, and its
     /// HTML card when asked for (never panics: a library panic becomes an
     /// `internal` error record).
-    pub fn render(&self, raw: &RawLine) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
+    pub fn render(&self, raw: &RawLine) -> Rendered {
         render_record(raw, self)
     }
 }

@@ -31,7 +31,8 @@ impl Server {
             .expect("start acidsite serve");
         let mut out = BufReader::new(child.stdout.take().expect("stdout"));
         let mut line = String::new();
-        out.read_line(&mut line).expect("first line of acidsite serve");
+        out.read_line(&mut line)
+            .expect("first line of acidsite serve");
         let addr = line
             .split("http://")
             .nth(1)
@@ -44,7 +45,11 @@ impl Server {
             let _ = out.read_to_string(&mut sink);
         });
         let stderr = child.stderr.take();
-        Server { child, addr, stderr }
+        Server {
+            child,
+            addr,
+            stderr,
+        }
     }
 
     pub fn port(&self) -> u16 {
@@ -56,7 +61,13 @@ impl Server {
     }
 
     pub fn post(&self, path: &str, body: &[u8]) -> Resp {
-        request(&self.addr, "POST", path, &[("Content-Type", "application/json")], body)
+        request(
+            &self.addr,
+            "POST",
+            path,
+            &[("Content-Type", "application/json")],
+            body,
+        )
     }
 
     /// SIGTERM and wait: the exit status and what the server wrote to stderr.
@@ -106,7 +117,13 @@ impl Resp {
 /// `headers` replaces the default one. The body is written from a second
 /// thread, so a server that answers before reading it all (a refused upload)
 /// is seen as it answers.
-pub fn request(addr: &str, method: &str, path: &str, headers: &[(&str, &str)], body: &[u8]) -> Resp {
+pub fn request(
+    addr: &str,
+    method: &str,
+    path: &str,
+    headers: &[(&str, &str)],
+    body: &[u8],
+) -> Resp {
     let mut s = TcpStream::connect(addr).expect("connect");
     s.set_read_timeout(Some(Duration::from_secs(120))).unwrap();
     let mut head = format!("{method} {path} HTTP/1.1\r\n");
@@ -116,7 +133,10 @@ pub fn request(addr: &str, method: &str, path: &str, headers: &[(&str, &str)], b
     for (k, v) in headers {
         head.push_str(&format!("{k}: {v}\r\n"));
     }
-    head.push_str(&format!("Content-Length: {}\r\nConnection: close\r\n\r\n", body.len()));
+    head.push_str(&format!(
+        "Content-Length: {}\r\nConnection: close\r\n\r\n",
+        body.len()
+    ));
     s.write_all(head.as_bytes()).expect("write request head");
     let mut w = s.try_clone().unwrap();
     let data = body.to_vec();
@@ -126,6 +146,9 @@ pub fn request(addr: &str, method: &str, path: &str, headers: &[(&str, &str)], b
     let mut raw = Vec::new();
     let mut buf = [0u8; 65536];
     loop {
+        if complete(&raw) {
+            break;
+        }
         match s.read(&mut buf) {
             Ok(0) => break,
             Ok(n) => raw.extend_from_slice(&buf[..n]),
@@ -138,6 +161,27 @@ pub fn request(addr: &str, method: &str, path: &str, headers: &[(&str, &str)], b
     let _ = s.shutdown(std::net::Shutdown::Both);
     let _ = writer.join();
     parse(&raw)
+}
+
+/// A whole answer has arrived (some servers keep the connection open
+/// whatever `Connection: close` says).
+fn complete(raw: &[u8]) -> bool {
+    let Some(end) = raw.windows(4).position(|w| w == b"\r\n\r\n") else {
+        return false;
+    };
+    let head = String::from_utf8_lossy(&raw[..end]).to_ascii_lowercase();
+    let body = &raw[end + 4..];
+    if let Some(len) = head
+        .lines()
+        .find_map(|l| l.strip_prefix("content-length:"))
+        .and_then(|v| v.trim().parse::<usize>().ok())
+    {
+        return body.len() >= len;
+    }
+    if head.contains("transfer-encoding: chunked") {
+        return body.ends_with(b"0\r\n\r\n");
+    }
+    false
 }
 
 fn parse(raw: &[u8]) -> Resp {
@@ -163,13 +207,16 @@ fn parse(raw: &[u8]) -> Resp {
     if chunked {
         body = dechunk(&body);
     }
-    Resp { status, headers, body }
+    Resp {
+        status,
+        headers,
+        body,
+    }
 }
 
 fn dechunk(mut b: &[u8]) -> Vec<u8> {
     let mut out = Vec::new();
-    loop {
-        let Some(eol) = b.windows(2).position(|w| w == b"\r\n") else { break };
+    while let Some(eol) = b.windows(2).position(|w| w == b"\r\n") {
         let size_text = String::from_utf8_lossy(&b[..eol]);
         let size = usize::from_str_radix(size_text.split(';').next().unwrap().trim(), 16)
             .expect("chunk size");

@@ -47,6 +47,28 @@ pub fn routes() -> Router {
         )
 }
 
+/// An error answer on its way out (kept small for `Result`s; a response
+/// only at the end).
+pub struct ApiError {
+    status: StatusCode,
+    kind: &'static str,
+    message: String,
+}
+
+impl IntoResponse for ApiError {
+    fn into_response(self) -> Response {
+        error(self.status, self.kind, self.message)
+    }
+}
+
+fn fail(status: StatusCode, kind: &'static str, message: impl Into<String>) -> ApiError {
+    ApiError {
+        status,
+        kind,
+        message: message.into(),
+    }
+}
+
 /// An error answer.
 pub fn error(status: StatusCode, kind: &str, message: impl Into<String>) -> Response {
     let body = json!({ "error": { "kind": kind, "message": message.into() } });
@@ -104,7 +126,13 @@ async fn options() -> Response {
                 })
             })
             .collect(),
-        Err(e) => return error(StatusCode::INTERNAL_SERVER_ERROR, "catalogue", e.to_string()),
+        Err(e) => {
+            return error(
+                StatusCode::INTERNAL_SERVER_ERROR,
+                "catalogue",
+                e.to_string(),
+            )
+        }
     };
     json_text(
         json!({
@@ -198,10 +226,10 @@ struct ScanRequest {
 /// Read a JSON body with messages a person can act on.
 fn parse_json<T: serde::de::DeserializeOwned>(
     body: Result<Bytes, axum::extract::rejection::BytesRejection>,
-) -> Result<T, Response> {
+) -> Result<T, ApiError> {
     let bytes = body.map_err(|e| {
         if e.status() == StatusCode::PAYLOAD_TOO_LARGE {
-            error(
+            fail(
                 StatusCode::PAYLOAD_TOO_LARGE,
                 "too_large",
                 format!(
@@ -210,18 +238,18 @@ fn parse_json<T: serde::de::DeserializeOwned>(
                 ),
             )
         } else {
-            error(StatusCode::BAD_REQUEST, "body", e.body_text())
+            fail(StatusCode::BAD_REQUEST, "body", e.body_text())
         }
     })?;
     if bytes.iter().all(|b| b.is_ascii_whitespace()) {
-        return Err(error(
+        return Err(fail(
             StatusCode::BAD_REQUEST,
             "empty",
             "empty request body: send a JSON object such as {\"smiles\": \"CC(=O)C\"}",
         ));
     }
     if let Err(e) = std::str::from_utf8(&bytes) {
-        return Err(error(
+        return Err(fail(
             StatusCode::BAD_REQUEST,
             "encoding",
             format!(
@@ -231,7 +259,7 @@ fn parse_json<T: serde::de::DeserializeOwned>(
         ));
     }
     serde_json::from_slice(&bytes).map_err(|e| {
-        error(
+        fail(
             StatusCode::BAD_REQUEST,
             "json",
             format!("request body is not the expected JSON: {e}"),
@@ -240,12 +268,12 @@ fn parse_json<T: serde::de::DeserializeOwned>(
 }
 
 /// Options of a scan request, or why they are refused.
-fn scan_options(req: &ScanRequest) -> Result<Options, Response> {
+fn scan_options(req: &ScanRequest) -> Result<Options, ApiError> {
     let scale = match req.scale.as_deref().map(str::to_ascii_lowercase).as_deref() {
         None | Some("") | Some("dmso") => Scale::Dmso,
         Some("water") => Scale::Water,
         Some(other) => {
-            return Err(error(
+            return Err(fail(
                 StatusCode::BAD_REQUEST,
                 "scale",
                 format!("unknown scale {other:?}: use \"dmso\" or \"water\""),
@@ -258,7 +286,7 @@ fn scan_options(req: &ScanRequest) -> Result<Options, Response> {
             .map(|c| c.get(b).is_some())
             .unwrap_or(false);
         if !known {
-            return Err(error(
+            return Err(fail(
                 StatusCode::BAD_REQUEST,
                 "base",
                 format!("no base named {b:?} in the catalogue (GET /api/options lists them)"),
@@ -272,13 +300,19 @@ fn scan_options(req: &ScanRequest) -> Result<Options, Response> {
     ] {
         if let Some(r) = given.as_deref().filter(|r| !r.trim().is_empty()) {
             if !known.iter().any(|k| k["name"].as_str() == Some(r)) {
-                return Err(error(
+                return Err(fail(
                     StatusCode::BAD_REQUEST,
                     what,
                     format!(
                         "unknown {what} {r:?}: this build knows {} (GET /api/options lists them)",
-                        if known.is_empty() { "none".to_string() } else {
-                            known.iter().filter_map(|k| k["name"].as_str()).collect::<Vec<_>>().join(", ")
+                        if known.is_empty() {
+                            "none".to_string()
+                        } else {
+                            known
+                                .iter()
+                                .filter_map(|k| k["name"].as_str())
+                                .collect::<Vec<_>>()
+                                .join(", ")
                         }
                     ),
                 ));
@@ -295,13 +329,19 @@ fn scan_options(req: &ScanRequest) -> Result<Options, Response> {
 }
 
 /// Analyse off the async threads (the analysis is CPU work).
-async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, Response> {
+async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, ApiError> {
     tokio::task::spawn_blocking(move || {
         let id = req.name.filter(|n| !n.trim().is_empty());
         analyze(req.smiles.trim(), 1, id, &opts)
     })
     .await
-    .map_err(|_| error(StatusCode::INTERNAL_SERVER_ERROR, "internal", "internal error while analysing this SMILES (please report it)"))
+    .map_err(|_| {
+        fail(
+            StatusCode::INTERNAL_SERVER_ERROR,
+            "internal",
+            "internal error while analysing this SMILES (please report it)",
+        )
+    })
 }
 
 /// `POST /api/scan`: the record of `acidsite scan --json` (a failed
@@ -309,15 +349,15 @@ async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, Response> {
 async fn scan(body: Result<Bytes, axum::extract::rejection::BytesRejection>) -> Response {
     let req: ScanRequest = match parse_json(body) {
         Ok(r) => r,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     let opts = match scan_options(&req) {
         Ok(o) => o,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     match analyse(req, opts).await {
         Ok(rec) => json_text(rec.to_json_line() + "\n"),
-        Err(e) => e,
+        Err(e) => e.into_response(),
     }
 }
 
@@ -326,19 +366,23 @@ async fn scan(body: Result<Bytes, axum::extract::rejection::BytesRejection>) -> 
 async fn draw(body: Result<Bytes, axum::extract::rejection::BytesRejection>) -> Response {
     let req: ScanRequest = match parse_json(body) {
         Ok(r) => r,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     let opts = match scan_options(&req) {
         Ok(o) => o,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     let px = req.bond_px.unwrap_or(36.0);
     if !(10.0..=80.0).contains(&px) {
-        return error(StatusCode::BAD_REQUEST, "bond_px", "bond_px must lie between 10 and 80");
+        return error(
+            StatusCode::BAD_REQUEST,
+            "bond_px",
+            "bond_px must lie between 10 and 80",
+        );
     }
     let rec = match analyse(req, opts).await {
         Ok(r) => r,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     match tokio::task::spawn_blocking(move || (super::super::draw::drawing(&rec, px), rec)).await {
         Ok((Some(svg), _)) => (
@@ -356,7 +400,11 @@ async fn draw(body: Result<Bytes, axum::extract::rejection::BytesRejection>) -> 
                 .unwrap_or_else(|| ("draw".into(), "cannot draw this input".into()));
             error(StatusCode::UNPROCESSABLE_ENTITY, &kind, message)
         }
-        Err(_) => error(StatusCode::INTERNAL_SERVER_ERROR, "internal", "internal error while drawing"),
+        Err(_) => error(
+            StatusCode::INTERNAL_SERVER_ERROR,
+            "internal",
+            "internal error while drawing",
+        ),
     }
 }
 
@@ -418,7 +466,10 @@ async fn annotate(
     let (output, kind) = match q.format.as_deref().unwrap_or("jsonl") {
         "jsonl" => (OutputFormat::Jsonl, "application/x-ndjson; charset=utf-8"),
         "csv" => (OutputFormat::Csv, "text/csv; charset=utf-8"),
-        "tsv" => (OutputFormat::Tsv, "text/tab-separated-values; charset=utf-8"),
+        "tsv" => (
+            OutputFormat::Tsv,
+            "text/tab-separated-values; charset=utf-8",
+        ),
         "html" => (OutputFormat::Jsonl, "text/html; charset=utf-8"),
         other => {
             return error(
@@ -430,8 +481,12 @@ async fn annotate(
     };
     let html = q.format.as_deref() == Some("html");
     let per_site = q.per_site.unwrap_or(false);
-    if per_site && !matches!(output, OutputFormat::Csv | OutputFormat::Tsv) || per_site && html {
-        return error(StatusCode::BAD_REQUEST, "per_site", "per_site applies to format csv or tsv");
+    if per_site && (html || !matches!(output, OutputFormat::Csv | OutputFormat::Tsv)) {
+        return error(
+            StatusCode::BAD_REQUEST,
+            "per_site",
+            "per_site applies to format csv or tsv",
+        );
     }
     let input = match q.input.as_deref().map(str::to_ascii_lowercase).as_deref() {
         None | Some("") | Some("smi") => InputFormat::Smi,
@@ -451,11 +506,15 @@ async fn annotate(
     };
     let mut opts = match scan_options(&req) {
         Ok(o) => o,
-        Err(e) => return e,
+        Err(e) => return e.into_response(),
     };
     opts.sites_only = q.sites_only.unwrap_or(false);
     if opts.sites_only && opts.base.is_some() {
-        return error(StatusCode::BAD_REQUEST, "sites_only", "sites_only and base exclude each other");
+        return error(
+            StatusCode::BAD_REQUEST,
+            "sites_only",
+            "sites_only and base exclude each other",
+        );
     }
     let shown = q
         .name
@@ -464,31 +523,38 @@ async fn annotate(
         .unwrap_or_else(|| "uploaded list".into());
 
     // Unpack and read the header off the async threads.
-    let prepared = tokio::task::spawn_blocking(move || -> Result<(Job, LineSource, usize), Response> {
-        let plain = unpack(bytes)?;
-        let lines = plain.iter().filter(|&&b| b == b'\n').count()
-            + usize::from(plain.last().is_some_and(|&b| b != b'\n'));
-        let mut source = LineSource::from_bytes(plain)
-            .map_err(|e| error(StatusCode::BAD_REQUEST, "body", e.to_string()))?;
-        let job = Job::new(
-            &mut source,
-            &shown,
-            input,
-            q.column.as_deref(),
-            q.id_column.as_deref(),
-            opts,
-            output,
-            per_site,
-            html,
-        )
-        .map_err(|e| error(StatusCode::BAD_REQUEST, "columns", format!("{e:#}")))?;
-        Ok((job, source, lines))
-    })
-    .await;
+    let prepared =
+        tokio::task::spawn_blocking(move || -> Result<(Job, LineSource, usize), ApiError> {
+            let plain = unpack(bytes)?;
+            let lines = plain.iter().filter(|&&b| b == b'\n').count()
+                + usize::from(plain.last().is_some_and(|&b| b != b'\n'));
+            let mut source = LineSource::from_bytes(plain)
+                .map_err(|e| fail(StatusCode::BAD_REQUEST, "body", e.to_string()))?;
+            let job = Job::new(
+                &mut source,
+                &shown,
+                input,
+                q.column.as_deref(),
+                q.id_column.as_deref(),
+                opts,
+                output,
+                per_site,
+                html,
+            )
+            .map_err(|e| fail(StatusCode::BAD_REQUEST, "columns", format!("{e:#}")))?;
+            Ok((job, source, lines))
+        })
+        .await;
     let (job, mut source, lines) = match prepared {
         Ok(Ok(p)) => p,
-        Ok(Err(e)) => return e,
-        Err(_) => return error(StatusCode::INTERNAL_SERVER_ERROR, "internal", "internal error"),
+        Ok(Err(e)) => return e.into_response(),
+        Err(_) => {
+            return error(
+                StatusCode::INTERNAL_SERVER_ERROR,
+                "internal",
+                "internal error",
+            )
+        }
     };
     let title = format!("acidsite: {}", q.name.as_deref().unwrap_or("uploaded list"));
     let (tx, rx) = tokio::sync::mpsc::channel::<Result<Bytes, std::io::Error>>(4);
@@ -540,7 +606,10 @@ async fn annotate(
         [
             (header::CONTENT_TYPE, kind.to_string()),
             (header::CACHE_CONTROL, "no-store".to_string()),
-            (header::HeaderName::from_static("x-acidsite-lines"), lines.to_string()),
+            (
+                header::HeaderName::from_static("x-acidsite-lines"),
+                lines.to_string(),
+            ),
         ],
         Body::from_stream(stream),
     )
@@ -549,7 +618,7 @@ async fn annotate(
 
 /// Undo gzip (detected by its magic bytes), refusing lists that unpack past
 /// [`ANNOTATE_UNPACKED_LIMIT_BYTES`].
-fn unpack(bytes: Bytes) -> Result<Vec<u8>, Response> {
+fn unpack(bytes: Bytes) -> Result<Vec<u8>, ApiError> {
     if bytes.len() < 2 || bytes[0] != 0x1f || bytes[1] != 0x8b {
         return Ok(bytes.to_vec());
     }
@@ -557,14 +626,14 @@ fn unpack(bytes: Bytes) -> Result<Vec<u8>, Response> {
     let mut dec = flate2::read::MultiGzDecoder::new(&bytes[..])
         .take(ANNOTATE_UNPACKED_LIMIT_BYTES as u64 + 1);
     dec.read_to_end(&mut out).map_err(|e| {
-        error(
+        fail(
             StatusCode::BAD_REQUEST,
             "gzip",
             format!("the upload looks like gzip but cannot be unpacked: {e}"),
         )
     })?;
     if out.len() > ANNOTATE_UNPACKED_LIMIT_BYTES {
-        return Err(error(
+        return Err(fail(
             StatusCode::PAYLOAD_TOO_LARGE,
             "too_large",
             format!(

@@ -26,7 +26,6 @@ use axum::Router;
 use std::io::Write;
 use std::net::{IpAddr, Ipv4Addr, SocketAddr};
 
-
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// Port to listen on (0: any free port, printed at start).
@@ -46,7 +45,8 @@ struct Guard {
     any_host: bool,
 }
 
-const CSP: &str = "default-src 'none'; script-src 'self'; style-src 'self'; img-src 'self' data: blob:; \
+const CSP: &str =
+    "default-src 'none'; script-src 'self'; style-src 'self'; img-src 'self' data: blob:; \
 connect-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'";
 
 const INDEX_HTML: &str = include_str!("assets/index.html");
@@ -93,7 +93,10 @@ async fn serve(args: Args) -> anyhow::Result<()> {
                 addr.port()
             );
         } else {
-            writeln!(out, "acidsite serve: open that address in your browser; Ctrl-C stops the server")?;
+            writeln!(
+                out,
+                "acidsite serve: open that address in your browser; Ctrl-C stops the server"
+            )?;
         }
         out.flush()?;
     }
@@ -128,16 +131,38 @@ async fn shutdown_signal() {
 
 fn router(guard: Guard) -> Router {
     Router::new()
-        .route("/", get(|| async { asset(INDEX_HTML, "text/html; charset=utf-8") }))
-        .route("/app.js", get(|| async { asset(APP_JS, "text/javascript; charset=utf-8") }))
-        .route("/style.css", get(|| async { asset(STYLE_CSS, "text/css; charset=utf-8") }))
+        .route(
+            "/",
+            get(|| async { asset(INDEX_HTML, "text/html; charset=utf-8") }),
+        )
+        .route(
+            "/app.js",
+            get(|| async { asset(APP_JS, "text/javascript; charset=utf-8") }),
+        )
+        .route(
+            "/style.css",
+            get(|| async { asset(STYLE_CSS, "text/css; charset=utf-8") }),
+        )
         .merge(api::routes())
-        .fallback(|| async { api::error(StatusCode::NOT_FOUND, "not_found", "no such page or API route") })
+        .fallback(|| async {
+            api::error(
+                StatusCode::NOT_FOUND,
+                "not_found",
+                "no such page or API route",
+            )
+        })
         .layer(axum::middleware::from_fn_with_state(guard, guard_layer))
 }
 
 fn asset(text: &'static str, kind: &'static str) -> Response {
-    ([(header::CONTENT_TYPE, kind), (header::CACHE_CONTROL, "no-cache")], text).into_response()
+    (
+        [
+            (header::CONTENT_TYPE, kind),
+            (header::CACHE_CONTROL, "no-cache"),
+        ],
+        text,
+    )
+        .into_response()
 }
 
 /// Host and origin checks before every route; security headers after.
@@ -160,12 +185,27 @@ async fn guard_layer(State(g): State<Guard>, req: Request, next: Next) -> Respon
         next.run(req).await
     };
     let h = resp.headers_mut();
-    h.insert(header::CONTENT_SECURITY_POLICY, HeaderValue::from_static(CSP));
-    h.insert(header::X_CONTENT_TYPE_OPTIONS, HeaderValue::from_static("nosniff"));
-    h.insert(header::REFERRER_POLICY, HeaderValue::from_static("no-referrer"));
+    h.insert(
+        header::CONTENT_SECURITY_POLICY,
+        HeaderValue::from_static(CSP),
+    );
+    h.insert(
+        header::X_CONTENT_TYPE_OPTIONS,
+        HeaderValue::from_static("nosniff"),
+    );
+    h.insert(
+        header::REFERRER_POLICY,
+        HeaderValue::from_static("no-referrer"),
+    );
     h.insert(header::X_FRAME_OPTIONS, HeaderValue::from_static("DENY"));
-    h.insert("cross-origin-opener-policy", HeaderValue::from_static("same-origin"));
-    h.insert("cross-origin-resource-policy", HeaderValue::from_static("same-origin"));
+    h.insert(
+        "cross-origin-opener-policy",
+        HeaderValue::from_static("same-origin"),
+    );
+    h.insert(
+        "cross-origin-resource-policy",
+        HeaderValue::from_static("same-origin"),
+    );
     resp
 }
 
@@ -189,7 +229,12 @@ fn is_loopback_host(host: &str) -> bool {
 /// every method other than GET/HEAD must come from the page itself (same
 /// origin) or from a client that sends no Origin (curl, scripts); plain page
 /// loads (a shared link opened from mail or chat) are allowed from anywhere.
-fn cross_origin(method: &Method, path: &str, headers: &HeaderMap, host: &str) -> Option<&'static str> {
+fn cross_origin(
+    method: &Method,
+    path: &str,
+    headers: &HeaderMap,
+    host: &str,
+) -> Option<&'static str> {
     let page_load = (method == Method::GET || method == Method::HEAD) && !path.starts_with("/api/");
     if page_load {
         return None;
@@ -218,10 +263,26 @@ mod tests {
 
     #[test]
     fn is_loopback_host_given_names_ports_and_others() {
-        for ok in ["localhost", "localhost:8686", "127.0.0.1:1", "127.0.0.2", "[::1]:8686", "[::1]", "LOCALHOST"] {
+        for ok in [
+            "localhost",
+            "localhost:8686",
+            "127.0.0.1:1",
+            "127.0.0.2",
+            "[::1]:8686",
+            "[::1]",
+            "LOCALHOST",
+        ] {
             assert!(is_loopback_host(ok), "{ok}");
         }
-        for bad in ["", "example.com", "evil.localhost.example:8686", "10.0.0.1:8686", "[::2]:80", "localhost.:80", "[::1]x"] {
+        for bad in [
+            "",
+            "example.com",
+            "evil.localhost.example:8686",
+            "10.0.0.1:8686",
+            "[::2]:80",
+            "localhost.:80",
+            "[::1]x",
+        ] {
             assert!(!is_loopback_host(bad), "{bad}");
         }
     }
@@ -230,9 +291,15 @@ mod tests {
     fn cross_origin_given_origins_and_fetch_sites() {
         let mut h = HeaderMap::new();
         assert!(cross_origin(&Method::POST, "/api/scan", &h, "localhost:1").is_none());
-        h.insert(header::ORIGIN, HeaderValue::from_static("http://localhost:1"));
+        h.insert(
+            header::ORIGIN,
+            HeaderValue::from_static("http://localhost:1"),
+        );
         assert!(cross_origin(&Method::POST, "/api/scan", &h, "localhost:1").is_none());
-        h.insert(header::ORIGIN, HeaderValue::from_static("http://evil.example"));
+        h.insert(
+            header::ORIGIN,
+            HeaderValue::from_static("http://evil.example"),
+        );
         assert!(cross_origin(&Method::POST, "/api/scan", &h, "localhost:1").is_some());
         assert!(cross_origin(&Method::GET, "/", &h, "localhost:1").is_none());
         let mut h = HeaderMap::new();

@@ -334,9 +334,11 @@
     }
     svg.setAttribute("role", "group");
     svg.setAttribute("aria-label", "structure drawing with the acidic sites marked");
-    // Sized by the page (the viewBox keeps the proportions).
-    svg.removeAttribute("width");
-    svg.removeAttribute("height");
+    // Half as large again as drawn, never wider than the panel (CSS).
+    ["width", "height"].forEach(function (k) {
+      var v = parseFloat(svg.getAttribute(k));
+      if (isFinite(v)) svg.setAttribute(k, String(Math.round(v * 1.5)));
+    });
     Array.prototype.forEach.call(svg.querySelectorAll("g[data-atom]"), function (g) {
       var idx = g.getAttribute("data-atom");
       var label = g.querySelector("text");
@@ -552,6 +554,9 @@
   Array.prototype.forEach.call(document.querySelectorAll('input[name="scale"]'), function (r) {
     r.addEventListener("change", function () { if ($("smiles").value.trim()) run(); else updateUrl(); });
   });
+  // Once the form is changed by hand, a note about the opening link is stale.
+  $("one-form").addEventListener("input", function () { state.linkNote = ""; });
+  $("one-form").addEventListener("change", function () { state.linkNote = ""; });
   $("smiles").addEventListener("input", function () {
     // A new molecule: a chosen atom of the old one means nothing any more.
     $("site").value = "";
@@ -743,7 +748,9 @@
       if (!r.ok) notes = "Failed (" + r.error.kind + "): " + r.error.message +
         (r.error.position !== null && r.error.position !== undefined ? " at character " + r.error.position : "");
       else if (!a && r.advice_note) notes = r.advice_note;
-      else if (a && a.warnings.length) notes = a.warnings.length + " warning" + (a.warnings.length > 1 ? "s" : "") + ": " + a.warnings[0];
+      else if (a && a.warnings.length) notes = a.warnings.length + " warning" + (a.warnings.length > 1 ? "s" : "") + ": " + a.warnings.join(" · ");
+      var fullNotes = notes;
+      if (notes.length > 170) notes = notes.slice(0, 160) + "… (open the molecule for all)";
       var pic = el("td", { cls: "pic" });
       pic.dataset.smiles = r.input;
       var open = el("a", { href: "?smiles=" + encodeURIComponent(r.input) + (r.id ? "&name=" + encodeURIComponent(r.id) : ""), text: r.input });
@@ -758,7 +765,7 @@
         el("td", { text: a ? (a.base || "none qualifies") : "" }),
         el("td", { cls: "num", text: a && a.equivalents !== null ? fmt(a.equivalents, 2) : "" }),
         el("td", { text: a ? a.solvent || "" : "" }),
-        el("td", { cls: "notes", text: notes }));
+        el("td", { cls: "notes", text: notes, title: fullNotes }));
       tb.appendChild(tr);
       if (r.ok) {
         if (drawQueue) drawQueue.observe(pic); else drawSmall(pic);
@@ -772,7 +779,7 @@
   function drawSmall(td) {
     if (td.dataset.drawn) return;
     td.dataset.drawn = "1";
-    postJSON("/api/draw", { smiles: td.dataset.smiles, bond_px: 14 }).then(function (d) {
+    postJSON("/api/draw", { smiles: td.dataset.smiles, bond_px: 18 }).then(function (d) {
       if (!d.resp.ok) return;
       var svg = importSvg(d.text);
       if (svg) {
