@@ -101,3 +101,19 @@ fn equilibrium_given_bad_input_fails_with_right_code() {
     assert_eq!(code, Some(1));
     assert!(out.contains("not read"), "{out}");
 }
+
+#[test]
+fn rules_given_only_matching_no_increment_prints_no_empty_increments_table_issue14() {
+    let (code, out, _) = run(&["rules", "--only", "ketone"]);
+    assert_eq!(code, Some(0));
+    assert!(out.contains("class rules:"), "{out}");
+    assert!(!out.contains("increments: added"), "{out}");
+}
+
+#[test]
+fn rules_given_only_matching_nothing_says_so_and_exits_1_issue14() {
+    let (code, out, err) = run(&["rules", "--only", "no-such-class-xyz"]);
+    assert_eq!(code, Some(1));
+    assert!(out.is_empty(), "{out}");
+    assert!(err.contains("no-such-class-xyz"), "{err}");
+}

@@ -25,7 +25,7 @@ fn health_given_running_server_issue13() {
     assert_eq!(r.status, 200);
     let j = r.json();
     assert_eq!(j["status"], "ok");
-    assert_eq!(j["schema"], "acidsite-record/2");
+    assert_eq!(j["schema"], acidsite::report::SCHEMA);
     let csp = r
         .header("content-security-policy")
         .expect("CSP on every answer");
@@ -94,6 +94,16 @@ fn scan_given_smiles_equals_scan_json_issue13() {
             "CCOC(=O)CC(C)=O",
             &["--base", "NaH"],
             serde_json::json!({"base": "NaH"}),
+        ),
+        (
+            "CC1CCCCC1=O",
+            &["--reaction", "alkylation", "--control", "thermodynamic"],
+            serde_json::json!({"reaction": "alkylation", "control": "thermodynamic"}),
+        ),
+        (
+            "CCOC(=O)CC(=O)OCC",
+            &["--reaction", "condensation"],
+            serde_json::json!({"reaction": "condensation"}),
         ),
         ("[Na+].CC(=O)[O-]", &[], serde_json::json!({})),
         ("C", &[], serde_json::json!({})),
@@ -165,20 +175,17 @@ fn scan_given_bad_bodies_answers_400_issue13() {
         assert_eq!(r.json()["error"]["kind"], kind, "{what}");
         assert_eq!(s.post("/api/draw", b).status, 400, "draw, {what}");
     }
-    // A reaction this build does not know is refused by the API (the page
-    // leaves it out instead).
-    let known = s.get("/api/options").json()["reactions"]
-        .as_array()
-        .unwrap()
-        .len();
-    if known == 0 {
-        let r = s.post(
-            "/api/scan",
-            br#"{"smiles":"CC(C)=O","reaction":"no-such-reaction"}"#,
-        );
-        assert_eq!(r.status, 400);
-        assert_eq!(r.json()["error"]["kind"], "reaction");
-    }
+    // A reaction or control the build does not know is refused by the API
+    // (the page leaves it out instead, with a note).
+    let r = s.post(
+        "/api/scan",
+        br#"{"smiles":"CC(C)=O","reaction":"no-such-reaction"}"#,
+    );
+    assert_eq!(r.status, 400);
+    assert_eq!(r.json()["error"]["kind"], "reaction");
+    let r = s.post("/api/scan", br#"{"smiles":"CC(C)=O","control":"sideways"}"#);
+    assert_eq!(r.status, 400);
+    assert_eq!(r.json()["error"]["kind"], "control");
 }
 
 #[test]
@@ -275,6 +282,24 @@ fn annotate_given_demo_list_equals_cli_in_every_format_issue13() {
             "--format",
             "csv",
             "--per-site"
+        ]))
+        .unwrap()
+    );
+    let r = request(
+        &s.addr,
+        "POST",
+        &format!("/api/annotate?{q}&reaction=acylation"),
+        &[],
+        &data,
+    );
+    assert_eq!(
+        r.text(),
+        String::from_utf8(cli(&[
+            "annotate",
+            DEMO,
+            "--quiet",
+            "--reaction",
+            "acylation"
         ]))
         .unwrap()
     );
@@ -411,7 +436,27 @@ fn options_and_rules_given_build_match_listings_issue13() {
     let bases = String::from_utf8(cli(&["bases", "--json"])).unwrap();
     assert_eq!(o["bases"].as_array().unwrap().len(), bases.lines().count());
     assert_eq!(o["scales"], serde_json::json!(["dmso", "water"]));
-    assert!(o["reactions"].is_array() && o["controls"].is_array());
+    // The reactions and controls are the library's (the values of
+    // `scan --reaction` / `--control`).
+    let names = |k: &str| -> Vec<String> {
+        o[k].as_array()
+            .unwrap()
+            .iter()
+            .map(|r| r["name"].as_str().unwrap().to_string())
+            .collect()
+    };
+    let reactions = names("reactions");
+    assert!(
+        reactions.contains(&"alkylation".to_string()) && reactions.contains(&"aldol".to_string())
+    );
+    assert_eq!(names("controls"), ["kinetic", "thermodynamic"]);
+    for r in &reactions {
+        let out = std::process::Command::new(serve_common::BIN)
+            .args(["scan", "CC(C)=O", "--reaction", r])
+            .output()
+            .unwrap();
+        assert!(out.status.success(), "scan --reaction {r}");
+    }
     assert_eq!(o["limits"]["annotate_body_bytes"], 10 << 20);
     let r = s.get("/api/rules").json();
     let listing = String::from_utf8(cli(&["rules", "--json"])).unwrap();

@@ -258,28 +258,46 @@ fn page_given_real_browser_issue13() {
         "the drawing",
         "return document.querySelectorAll('#drawing g[data-atom]').length",
     );
-    let want = api_base(&server, json!({"smiles": "CC(=O)CC(=O)OCC"}));
+    let want = api_base(
+        &server,
+        json!({"smiles": "CC(=O)CC(=O)OCC", "reaction": "alkylation"}),
+    );
     let headline = s.wait("the advice", "return document.querySelector('#advice .headline strong') && document.querySelector('#advice .headline strong').textContent");
     assert_eq!(headline, want.as_str());
-    let reactions = server.get("/api/options").json()["reactions"]
-        .as_array()
-        .unwrap()
-        .len();
-    if reactions == 0 {
-        // No reaction-aware advice in this build: the choice is hidden and
-        // the page says the link's reaction was left out.
-        assert_eq!(
-            s.js("return document.getElementById('reaction-field').hidden"),
-            true
-        );
-        let status = s.js("return document.getElementById('one-status').textContent");
-        assert!(status.as_str().unwrap().contains("alkylation"), "{status}");
-    }
+    assert_eq!(
+        s.js("return document.getElementById('reaction').value"),
+        "alkylation"
+    );
+    assert_eq!(
+        s.js("return document.getElementById('reaction-field').hidden"),
+        false
+    );
     assert_eq!(
         s.js("return document.querySelectorAll('#sites tbody tr').length"),
         2
     );
     s.shot("1-shared-link");
+
+    // 1b. Choose another reaction: the advice follows, and the address.
+    s.click("#reaction option[value=condensation]");
+    let want = api_base(
+        &server,
+        json!({"smiles": "CC(=O)CC(=O)OCC", "reaction": "condensation"}),
+    );
+    s.wait("the condensation advice", &format!(
+        "var h = document.querySelector('#advice .headline strong'); return h && h.textContent === {} && location.search.indexOf('reaction=condensation') >= 0",
+        json!(want)));
+    s.shot("1b-reaction-chosen");
+
+    // 1c. A link with a reaction this build does not know: left out, with a
+    //     note, and the result still shown.
+    s.open(&format!("{base_url}/?smiles=CCC(%3DO)CC&reaction=banana"));
+    s.wait(
+        "the drawing",
+        "return document.querySelectorAll('#drawing g[data-atom]').length === 6",
+    );
+    let status = s.js("return document.getElementById('one-status').textContent");
+    assert!(status.as_str().unwrap().contains("banana"), "{status}");
 
     // 2. Type a SMILES and press Enter: the new molecule's base.
     s.type_into("#smiles", "CC1CCCCC1=O\n");

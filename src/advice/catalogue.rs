@@ -115,7 +115,7 @@ impl Hazard {
         }
     }
 
-    fn parse(s: &str) -> Option<Hazard> {
+    pub(crate) fn parse(s: &str) -> Option<Hazard> {
         Some(match s {
             "pyrophoric" => Hazard::Pyrophoric,
             "water-reactive" => Hazard::WaterReactive,
@@ -411,7 +411,7 @@ pub struct CatalogueError {
 }
 
 impl CatalogueError {
-    fn new(file: &str, line: usize, column: Option<&str>, message: String) -> Self {
+    pub(crate) fn new(file: &str, line: usize, column: Option<&str>, message: String) -> Self {
         CatalogueError {
             file: file.to_string(),
             line,
@@ -445,7 +445,7 @@ pub fn catalogue() -> Result<&'static Catalogue, CatalogueError> {
 }
 
 // sources := comment* header row*      (key TAB reference)
-fn parse_sources(text: &str) -> Result<Vec<(String, String)>, CatalogueError> {
+pub(crate) fn parse_sources(text: &str) -> Result<Vec<(String, String)>, CatalogueError> {
     let mut out: Vec<(String, String)> = Vec::new();
     let mut header = false;
     for (i, raw) in text.lines().enumerate() {

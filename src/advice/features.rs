@@ -39,7 +39,25 @@ pub struct MoleculeFeatures {
     /// anion (bonded or sharing a neighbour, e.g. both α-carbons of a
     /// ketone) share an id; every other site has its own.
     pub site_unit: Vec<usize>,
+    /// Per site: the pKa shift of a second deprotonation. A carbon site
+    /// next to a much more acidic carbon site (the γ-CH3 of a β-keto ester
+    /// beside its CH2) is not an alternative position of that anion but a
+    /// second proton, removed only after the first; it forms its own unit
+    /// and its pKa is raised by [`DIANION_SHIFT`]. 0 for every other site.
+    pub second_stage_shift: Vec<f64>,
 }
+
+/// Two neighbouring carbon sites whose pKa (DMSO, else water) differ by at
+/// least this much are a first and a second deprotonation, not alternative
+/// positions of one anion (from memory: a β-dicarbonyl CH2 at 11–14 against
+/// its γ-CH3 at about 25–27 in DMSO; both α-sides of a ketone lie within
+/// about 2 units).
+pub const DIANION_SPLIT: f64 = 5.0;
+/// pKa shift of the second deprotonation of a monoanion (electrostatic
+/// penalty; from memory: β-keto ester and β-diketone dianions form with
+/// n-BuLi or LDA but not with NaH or alkoxides, which fits a second pKa some
+/// 8–12 units above the neutral γ-C–H in DMSO). Uncertain by several units.
+pub const DIANION_SHIFT: f64 = 10.0;
 
 /// Facts about one site.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -365,11 +383,13 @@ pub fn detect_features_in(
         }
         f.sites.push(sf);
     }
-    f.site_unit = group_units(&g, sites);
+    let (units, shift) = group_units(&g, sites);
+    f.site_unit = units;
+    f.second_stage_shift = shift;
     f
 }
 
-fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
+fn group_units(g: &Graph, sites: &SiteReport) -> (Vec<usize>, Vec<f64>) {
     let n = sites.sites.len();
     let mut parent: Vec<usize> = (0..n).collect();
     fn find(p: &mut [usize], mut i: usize) -> usize {
@@ -391,6 +411,8 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
             .iter()
             .any(|x| na.iter().any(|y| y.atom == x.atom))
     };
+    let pk = |s: &crate::sites::Site| s.pka_dmso.or(s.pka_water);
+    let mut shift = vec![0.0; n];
     for i in 0..n {
         for j in (i + 1)..n {
             let (si, sj) = (&sites.sites[i], &sites.sites[j]);
@@ -402,6 +424,12 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
                 .iter()
                 .any(|&a| sj.atoms.iter().any(|&b| near(a, b)))
             {
+                if let (Some(a), Some(b)) = (pk(si), pk(sj)) {
+                    if (a - b).abs() >= DIANION_SPLIT {
+                        shift[if a > b { i } else { j }] = DIANION_SHIFT;
+                        continue;
+                    }
+                }
                 let (ri, rj) = (find(&mut parent, i), find(&mut parent, j));
                 if ri != rj {
                     parent[rj] = ri;
@@ -409,7 +437,8 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
             }
         }
     }
-    (0..n).map(|i| find(&mut parent, i)).collect()
+    let units = (0..n).map(|i| find(&mut parent, i)).collect();
+    (units, shift)
 }
 
 /// Acid units for the solver on one scale: carbon sites grouped by
@@ -418,6 +447,7 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
 pub(crate) fn site_units(
     sites: &SiteReport,
     site_unit: &[usize],
+    second_stage_shift: &[f64],
     scale: Scale,
     notes: &mut Vec<String>,
 ) -> Vec<AcidUnit> {
@@ -440,7 +470,7 @@ pub(crate) fn site_units(
             let m = Microsite {
                 site: i,
                 atoms: s.atoms.clone(),
-                pka,
+                pka: pka + second_stage_shift.get(i).copied().unwrap_or(0.0),
             };
             if let Some((_, u)) = units.iter_mut().find(|(k, _)| *k == Some(uid)) {
                 u.alternatives.push(m);

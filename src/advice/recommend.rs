@@ -13,6 +13,7 @@ use super::equilibrium::{
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use super::numfmt;
+use super::practice::{practice, Control, Mode, PracticeRow, Reaction, System};
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
 use std::borrow::Cow;
@@ -30,18 +31,6 @@ pub const MIN_IN_SOLVENT_CONVERSION: f64 = 0.5;
 /// A base that reaches [`MIN_CONVERSION`] only within the uncertainty of the
 /// estimates must still reach this at the central values (accepted as marginal).
 pub const MIN_MARGINAL_CONVERSION: f64 = 0.5;
-/// A base rejected as too weak for a preformed anion that still gives at
-/// least this fraction at equilibrium is named as usable in practice when the
-/// electrophile drains the equilibrium.
-pub const DRAIN_FRACTION: f64 = 1e-2;
-/// Appended to such a rejection (common practice).
-pub const DRAIN_NOTE: &str =
-    "; used in practice when the alkylating agent drains the equilibrium (common practice)";
-/// Catalytic use: the anion must reach this fraction of substrate at equilibrium.
-pub const MIN_CATALYTIC_FRACTION: f64 = 1e-7;
-/// Catalytic amount of base, equivalents (on top of counted protons).
-pub const CATALYTIC_EQUIVALENTS: f64 = 0.1;
-
 /// What the base is for.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Purpose {
@@ -50,6 +39,10 @@ pub enum Purpose {
     /// A catalytic amount suffices (Henry, Michael, Knoevenagel, aldol
     /// condensations where the anion is consumed as it forms).
     Catalytic,
+    /// The electrophile is present and traps the anion as it forms: a small
+    /// equilibrium fraction suffices (carbonate with a 1,3-dicarbonyl or a
+    /// phenol, hydroxide under phase transfer).
+    InSitu,
 }
 
 /// Options of [`advise`].
@@ -67,7 +60,16 @@ pub struct AdviceOptions {
     pub solvent: Option<String>,
     /// Force a pKa scale.
     pub scale: Option<Scale>,
+    /// What the base is for when no reaction is named (`reaction: None`);
+    /// with a reaction, the mode of the practice row or of the reaction
+    /// decides.
     pub purpose: Purpose,
+    /// The planned reaction (None: alkylation, unless `purpose` is
+    /// catalytic).
+    pub reaction: Option<Reaction>,
+    /// The enolate wanted where a ketone has two sides (None: the target
+    /// site's own side, if it has one).
+    pub control: Option<Control>,
     /// List at most this many alternatives (best first) and word only
     /// their notes and cautions; the rest are counted in
     /// [`Advice::alternatives_omitted`]. None lists every acceptable base.
@@ -88,6 +90,8 @@ impl Default for AdviceOptions {
             solvent: None,
             scale: None,
             purpose: Purpose::Stoichiometric,
+            reaction: None,
+            control: None,
             alternatives: None,
             full_equilibrium: true,
         }
@@ -176,9 +180,17 @@ pub enum RejectKind {
     /// Consumed irreversibly (organolithiums, metal amides, hydrides): a
     /// stoichiometric reagent, not a catalyst.
     NotCatalytic,
+    /// Practice gives the other enolate with this base (`--control`).
+    Regio,
+    /// A side reaction practice knows for this kind of site and reaction.
+    SideReaction,
+    /// Not how this reaction is run (a stoichiometric base where a
+    /// catalytic one serves, a base that stops at the monoanion).
+    Mode,
 }
 
 impl RejectKind {
+    /// Stable name used in records.
     pub fn name(self) -> &'static str {
         match self {
             RejectKind::TooWeak => "too-weak",
@@ -188,6 +200,9 @@ impl RejectKind {
             RejectKind::UncountedProton => "uncounted-proton",
             RejectKind::NoComparablePka => "no-comparable-pka",
             RejectKind::NotCatalytic => "not-catalytic",
+            RejectKind::Regio => "regio",
+            RejectKind::SideReaction => "side-reaction",
+            RejectKind::Mode => "mode",
         }
     }
 }
@@ -275,6 +290,18 @@ pub struct RegioAdvice {
 pub struct Advice {
     pub target: Target,
     pub purpose: Purpose,
+    /// The planned reaction the advice is for.
+    pub reaction: Reaction,
+    /// The control used (given, or read from the target's enolate side).
+    pub control: Option<Control>,
+    /// How the base is used.
+    pub mode: Mode,
+    /// Why that mode: the practice row's note and the mode's rule.
+    pub mode_note: String,
+    /// Id of the practice row that matched (fragments/practice.tsv).
+    pub practice_row: Option<String>,
+    /// Bases the data cannot judge for this target, with what is missing.
+    pub not_judged: Vec<NotJudged>,
     /// Recommended (or requested) base; None when no catalogue base qualifies.
     pub base: Option<String>,
     pub equivalents: f64,
@@ -330,6 +357,16 @@ impl Advice {
     }
 }
 
+/// A base the data cannot judge (no comparable pKa), kept apart from the
+/// chemical rejections.
+#[derive(Debug, Clone, PartialEq)]
+pub struct NotJudged {
+    /// Catalogue name.
+    pub base: &'static str,
+    /// The value that is missing.
+    pub missing: String,
+}
+
 /// What the recommender could not do.
 #[derive(Debug, Clone, PartialEq)]
 pub enum AdviceError {
@@ -365,7 +402,8 @@ pub fn advise(
     opts: &AdviceOptions,
 ) -> Result<Advice, AdviceError> {
     let features = detect_features(mol, sites);
-    advise_with_features(&features, sites, opts)
+    let t = crate::smarts::Target::new(mol);
+    advise_core(&features, sites, opts, Some(&t))
 }
 
 /// [`advise`] on a pattern-matching view of `mol` that the caller already
@@ -378,7 +416,7 @@ pub fn advise_in(
     opts: &AdviceOptions,
 ) -> Result<Advice, AdviceError> {
     let features = super::features::detect_features_in(mol, target, sites);
-    advise_with_features(&features, sites, opts)
+    advise_core(&features, sites, opts, Some(target))
 }
 
 fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
@@ -470,10 +508,22 @@ struct Words<'b> {
     drained: Option<f64>,
 }
 
+/// Acceptance threshold and equivalents of the mode in use.
+#[derive(Debug, Clone, Copy)]
+struct Plan {
+    /// Least fraction of the target as anion at equilibrium.
+    min_fraction: f64,
+    /// Base per target proton (mode or practice row).
+    per_target: f64,
+    /// Equivalents the reaction consumes beyond that.
+    extra: f64,
+}
+
 struct Ctx<'a> {
     f: &'a MoleculeFeatures,
     sites: &'a SiteReport,
     opts: &'a AdviceOptions,
+    plan: Plan,
     target: usize,
     target_unit: Vec<usize>,
     /// Acid units and their notes on the DMSO and water scales, built once.
@@ -878,6 +928,11 @@ fn lean_conversion_uncached(ctx: &Ctx, l: &Lean, exclude: &[usize]) -> f64 {
 
 /// The full equilibrium (every microsite, anion populations) of a base's
 /// reported lean solution.
+///
+/// Every site takes part (counted protons are not set aside) and the base
+/// is the whole of the equivalents advised, so that the conversion reported
+/// is the one `acidsite equilibrium` gives for the same base, equivalents
+/// and concentration (issue 10).
 fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
     let l = ev.lean?;
     let mut scratch = Vec::new();
@@ -885,9 +940,9 @@ fn full_equilibrium(ctx: &Ctx, ev: &Eval) -> Option<Equilibrium> {
         ctx,
         l.base_pka,
         l.scale,
-        l.equivalents,
+        ev.equivalents,
         l.a0,
-        &ev.exclude,
+        &[],
         &mut scratch,
     )?;
     e.notes = ev.eq_notes.clone();
@@ -1021,8 +1076,10 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     ev.counted = counted;
     let n_counted: usize = ev.counted.iter().map(|c| c.protons).sum();
     let needed = match opts.purpose {
-        Purpose::Stoichiometric => 1.0 + n_counted as f64 + PRACTICAL_EXCESS,
-        Purpose::Catalytic => n_counted as f64 + CATALYTIC_EQUIVALENTS,
+        Purpose::Stoichiometric | Purpose::InSitu => {
+            ctx.plan.per_target + ctx.plan.extra + n_counted as f64 + PRACTICAL_EXCESS
+        }
+        Purpose::Catalytic => n_counted as f64 + ctx.plan.per_target,
     };
     ev.equivalents = opts.equivalents.unwrap_or(needed);
     // Counted protons are removed first: their sites leave the equilibrium
@@ -1090,7 +1147,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             // the equilibrium with the solvent counted (below); elsewhere by
             // the 99 % rule on the water scale.
             let own_solvent_rule = levelled && solvent_conv.is_some();
-            let mut weak_crit = crit_conv < MIN_CONVERSION && !own_solvent_rule;
+            let mut weak_crit = crit_conv < ctx.plan.min_fraction && !own_solvent_rule;
             if weak_crit {
                 // Within the combined uncertainty of the target estimate and
                 // any scale mismatch? Solved only where it can matter: a base
@@ -1108,7 +1165,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                     )
                     .map(|e| e.1)
                     .unwrap_or(0.0);
-                    if optimistic >= MIN_CONVERSION {
+                    if optimistic >= ctx.plan.min_fraction {
                         weak_crit = false;
                         ev.marginal = true;
                         marginal_note = Some((crit_conv, optimistic, sigma, mismatch > 0.0));
@@ -1186,14 +1243,27 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                             reason.push_str(scale.name());
                             reason.push_str(" scale");
                         }
-                        if conv >= DRAIN_FRACTION && t.is_carbon() {
-                            reason.push_str(DRAIN_NOTE);
-                        }
                         ev.reasons.push((RejectKind::TooWeak, reason));
                     }
                 }
-            } else if solvent_conv.is_some() && acc_solvent < MIN_CONVERSION {
+            } else if solvent_conv.is_some() && acc_solvent < ctx.plan.min_fraction {
                 drained_note = Some(acc_solvent);
+            }
+        }
+        Purpose::InSitu => {
+            let acc = solvent_conv.unwrap_or(crit_conv);
+            if acc < ctx.plan.min_fraction {
+                let mut reason = String::with_capacity(112);
+                reason.push_str("too weak even with the electrophile present: ");
+                push_conv_text(&mut reason, acc);
+                reason.push_str(" of the target as anion at equilibrium (pKa ");
+                reason.push_str(&choice.base_pka_text);
+                reason.push_str(" against ");
+                reason.push_str(target_pka_text(ctx, scale, t_pka));
+                reason.push_str(", ");
+                reason.push_str(scale.name());
+                reason.push_str(" scale)");
+                ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
         Purpose::Catalytic => {
@@ -1211,7 +1281,7 @@ fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                 ));
             }
             let acc = solvent_conv.unwrap_or(crit_conv);
-            if acc < MIN_CATALYTIC_FRACTION {
+            if acc < ctx.plan.min_fraction {
                 let mut reason = String::with_capacity(112);
                 reason.push_str("too weak even for catalytic use: ");
                 push_conv_text(&mut reason, acc);
@@ -1550,6 +1620,9 @@ fn score(ctx: &Ctx, ev: &Eval, margin: f64) -> f64 {
         Purpose::Stoichiometric => s += 0.2 * (3.0 - margin).max(0.0),
         // A catalyst need not convert the substrate: prefer the mildest.
         Purpose::Catalytic => s += 0.2 * (margin + 2.0).max(0.0),
+        // The electrophile drains the equilibrium: the mildest base that
+        // still reacts is best.
+        Purpose::InSitu => s += 0.1 * margin.max(0.0),
     }
     if b.has_hazard(Hazard::Pyrophoric) {
         s += 3.0;
@@ -1629,13 +1702,34 @@ fn temperature(base: &Base) -> Temperature {
     }
 }
 
-/// Advice from precomputed features (tests can build these by hand).
+/// [`advise`] from features alone: without the molecule no practice row can
+/// be matched, so the reaction's default mode applies.
 pub fn advise_with_features(
     f: &MoleculeFeatures,
     sites: &SiteReport,
     opts: &AdviceOptions,
 ) -> Result<Advice, AdviceError> {
+    advise_core(f, sites, opts, None)
+}
+
+/// The enolate side a control asks for.
+fn side_of(c: Option<Control>) -> Option<Regio> {
+    match c {
+        Some(Control::Kinetic) => Some(Regio::Kinetic),
+        Some(Control::Thermodynamic) => Some(Regio::Thermodynamic),
+        None => None,
+    }
+}
+
+fn advise_core(
+    f: &MoleculeFeatures,
+    sites: &SiteReport,
+    opts_in: &AdviceOptions,
+    smarts_target: Option<&crate::smarts::Target>,
+) -> Result<Advice, AdviceError> {
     let cat = catalogue().map_err(AdviceError::Catalogue)?;
+    let data = practice().map_err(AdviceError::Catalogue)?;
+    let opts = opts_in;
     let c = opts.concentration;
     if !(c.is_finite() && c > 0.0 && c <= 20.0) {
         return Err(AdviceError::Invalid("concentration (mol/L)", c));
@@ -1666,6 +1760,29 @@ pub fn advise_with_features(
             .top_carbon
             .filter(|&i| sites.sites.get(i).map(has_pka).unwrap_or(false))
         {
+            // `--control` names the side: the site of that side in the same
+            // unit as the most acidic C–H (the other α-carbon of the ketone).
+            Some(i)
+                if opts.control.is_some()
+                    && sites.sites[i].regio.is_some()
+                    && side_of(opts.control) != sites.sites[i].regio =>
+            {
+                let unit = f.site_unit.get(i).copied();
+                match (0..sites.sites.len()).find(|&j| {
+                    f.site_unit.get(j).copied() == unit
+                        && sites.sites[j].regio == side_of(opts.control)
+                        && has_pka(&sites.sites[j])
+                }) {
+                    Some(j) => (
+                        j,
+                        format!(
+                            "the {} side of the most acidic C–H unit, as --control asks",
+                            opts.control.map(|c| c.name()).unwrap_or("")
+                        ),
+                    ),
+                    None => (i, "the most acidic C–H site".to_string()),
+                }
+            }
             Some(i) => (i, "the most acidic C–H site".to_string()),
             None => {
                 let i = sites
@@ -1682,6 +1799,43 @@ pub fn advise_with_features(
         },
     };
     let tsite = &sites.sites[target];
+    // The planned reaction, the control and the practice row.
+    let legacy_catalytic = opts.reaction.is_none() && opts.purpose == Purpose::Catalytic;
+    let reaction = opts.reaction.unwrap_or(Reaction::Alkylation);
+    let control = opts.control.or(match tsite.regio {
+        Some(Regio::Kinetic) => Some(Control::Kinetic),
+        Some(Regio::Thermodynamic) => Some(Control::Thermodynamic),
+        None => None,
+    });
+    let row: Option<&'static PracticeRow> = if legacy_catalytic {
+        None
+    } else {
+        smarts_target.and_then(|t| data.find(t, &tsite.atoms, reaction, control))
+    };
+    let mode = if legacy_catalytic {
+        Mode::Catalytic
+    } else {
+        row.map(|r| r.mode).unwrap_or(data.reaction(reaction).mode)
+    };
+    let mode_row = data.mode(mode);
+    let mut derived = opts_in.clone();
+    derived.purpose = match mode {
+        Mode::Preformed => Purpose::Stoichiometric,
+        Mode::InSitu => Purpose::InSitu,
+        _ => Purpose::Catalytic,
+    };
+    let plan = Plan {
+        min_fraction: mode_row.min_fraction,
+        per_target: row
+            .and_then(|r| r.equivalents)
+            .unwrap_or(mode_row.equivalents),
+        extra: if row.and_then(|r| r.equivalents).is_some() || mode == Mode::Catalytic {
+            0.0
+        } else {
+            data.reaction(reaction).extra_equivalents
+        },
+    };
+    let opts = &derived;
     let tunit = f.site_unit.get(target).copied();
     let target_unit: Vec<usize> = (0..sites.sites.len())
         .filter(|&i| {
@@ -1694,7 +1848,7 @@ pub fn advise_with_features(
         .collect();
     let cache = |sc: Scale| {
         let mut notes = Vec::new();
-        let units = site_units(sites, &f.site_unit, sc, &mut notes);
+        let units = site_units(sites, &f.site_unit, &f.second_stage_shift, sc, &mut notes);
         (units, notes)
     };
     let units_dmso = cache(Scale::Dmso);
@@ -1713,6 +1867,7 @@ pub fn advise_with_features(
         f,
         sites,
         opts,
+        plan,
         target,
         target_unit,
         units_dmso,
@@ -1733,17 +1888,97 @@ pub fn advise_with_features(
         target_text_water: std::cell::OnceCell::new(),
     };
     let mut evals: Vec<Eval> = cat.bases.iter().map(|b| evaluate(&ctx, b)).collect();
-    // Acceptable bases as indices into `evals`, best score first (a stable
-    // sort: ties keep catalogue order).
+    // Practice: bases ruled out for this kind of site and reaction, and a
+    // preferred base that the equilibrium finds only just short of complete
+    // conversion for a preformed anion (lithium and sodium silylamides with
+    // esters and amides at -78 °C) accepted with a note.
+    let pref_rank = |name: &str| -> usize {
+        row.and_then(|r| r.prefer.iter().position(|p| p == name))
+            .unwrap_or(usize::MAX)
+    };
+    if let Some(r) = row {
+        let kind = match r.exclude_kind.as_deref() {
+            Some("regio") => RejectKind::Regio,
+            Some("mode") => RejectKind::Mode,
+            _ => RejectKind::SideReaction,
+        };
+        for ev in evals.iter_mut() {
+            if r.exclude.iter().any(|x| x == &ev.base.name) {
+                let why = r.exclude_reason.clone().unwrap_or_default();
+                ev.reasons.insert(0, (kind, format!("{why} [{}]", r.id)));
+            }
+            // The practice row names this base for this kind of site and
+            // reaction: the generic concern about a nucleophilic base (an
+            // amine with an ester in a Knoevenagel reaction) is one practice
+            // has weighed.
+            if pref_rank(&ev.base.name) != usize::MAX
+                && ev
+                    .reasons
+                    .iter()
+                    .any(|(k, _)| *k == RejectKind::Nucleophile)
+            {
+                ev.reasons.retain(|(k, _)| *k != RejectKind::Nucleophile);
+                ev.notes.push(format!(
+                    "nucleophilic, but the usual base for this reaction and site in practice ({})",
+                    r.id
+                ));
+                if ev.reasons.is_empty() && ev.words.is_none() {
+                    // Its notes were not prepared (it looked rejected): the
+                    // record shows the practice note alone.
+                    ev.score = score(&ctx, ev, 0.0);
+                }
+            }
+            if mode == Mode::Preformed
+                && pref_rank(&ev.base.name) != usize::MAX
+                && !ev.reasons.is_empty()
+                && ev.reasons.iter().all(|(k, _)| *k == RejectKind::TooWeak)
+                && ev.conversion >= MIN_MARGINAL_CONVERSION
+            {
+                ev.reasons.clear();
+                ev.marginal = true;
+                ev.notes.push(format!(
+                    "accepted by practice ({}): the equilibrium estimate is only {:.0} %, within the uncertainty of the scales; use it as the practice row says, at low temperature with the substrate added to the base",
+                    r.id,
+                    100.0 * ev.conversion
+                ));
+                ev.score = score(&ctx, ev, 0.0);
+            }
+        }
+    }
+    // Acceptable bases as indices into `evals`: practice's preferred bases
+    // first in their order, then the rest best score first (a stable sort:
+    // ties keep catalogue order).
     let mut accepted: Vec<usize> = (0..evals.len())
         .filter(|&i| evals[i].reasons.is_empty())
         .collect();
     accepted.sort_by(|&a, &b| {
-        evals[a]
-            .score
-            .partial_cmp(&evals[b].score)
-            .unwrap_or(std::cmp::Ordering::Equal)
+        pref_rank(&evals[a].base.name)
+            .cmp(&pref_rank(&evals[b].base.name))
+            .then(
+                evals[a]
+                    .score
+                    .partial_cmp(&evals[b].score)
+                    .unwrap_or(std::cmp::Ordering::Equal),
+            )
     });
+    // A reagent system or route preferred ahead of every acceptable base.
+    let system: Option<&'static System> = if requested.is_some() {
+        None
+    } else {
+        row.and_then(|r| {
+            let best_base = accepted.first().map(|&i| pref_rank(&evals[i].base.name));
+            r.prefer
+                .iter()
+                .enumerate()
+                .find(|(k, p)| {
+                    data.system(p).is_some() && best_base.map(|b| *k < b).unwrap_or(true)
+                })
+                .and_then(|(_, p)| data.system(p))
+        })
+    };
+    let system_eval: Option<usize> = system
+        .and_then(|sy| sy.base.as_deref())
+        .and_then(|b| evals.iter().position(|e| e.base.name == b));
     let mut warnings: Vec<Warning> = Vec::new();
     let chosen_at: Option<usize> = match requested {
         Some(b) => {
@@ -1762,6 +1997,7 @@ pub fn advise_with_features(
             }
             i
         }
+        None if system.is_some() => system_eval,
         None => accepted.first().copied(),
     };
     // Rejections take their reasons over (nothing reads them after this).
@@ -1784,13 +2020,29 @@ pub fn advise_with_features(
             }
         })
         .collect();
+    // Bases the data cannot judge are not chemical rejections.
+    let (not_judged_r, rejected): (Vec<Rejection>, Vec<Rejection>) = rejected
+        .into_iter()
+        .partition(|r| r.kinds.iter().all(|k| *k == RejectKind::NoComparablePka));
+    let not_judged: Vec<NotJudged> = not_judged_r
+        .into_iter()
+        .map(|r| NotJudged {
+            base: r.base,
+            missing: r.reason,
+        })
+        .collect();
     // The alternatives listed: acceptable bases other than the chosen one,
     // best first, as many as asked for; only these and the chosen base get
     // their notes worded.
+    // Where practice names the bases for this site and reaction, only those
+    // are offered as alternatives (a base the equilibrium accepts but
+    // nobody uses for the reaction is not advice).
+    let practice_listed = row.map(|r| !r.prefer.is_empty()).unwrap_or(false);
     let others: Vec<usize> = accepted
         .iter()
         .copied()
         .filter(|&i| Some(i) != chosen_at)
+        .filter(|&i| !practice_listed || pref_rank(&evals[i].base.name) != usize::MAX)
         .collect();
     let shown = others.len().min(opts.alternatives.unwrap_or(usize::MAX));
     let alternatives_omitted = others.len() - shown;
@@ -1801,7 +2053,7 @@ pub fn advise_with_features(
     }
     let chosen: Option<&Eval> = chosen_at.map(|i| &evals[i]);
     let listed: Vec<&Eval> = others[..shown].iter().map(|&i| &evals[i]).collect();
-    if chosen.is_none() {
+    if chosen.is_none() && system.is_none() {
         let competing = rejected
             .iter()
             .filter(|r| r.kinds.contains(&RejectKind::UncountedProton))
@@ -1840,16 +2092,34 @@ pub fn advise_with_features(
         .collect();
 
     // Counted protons and equivalents of the chosen base.
-    let (counted, equivalents, equivalents_note, counted_note) = match chosen {
+    // A system's base may have no usable evaluation (no comparable pKa):
+    // the system's equivalents then follow from the plan alone.
+    let numbers_from = chosen.filter(|e| e.equivalents > 0.0 || system.is_none());
+    let (counted, equivalents, equivalents_note, counted_note) = match numbers_from {
         Some(e) => {
             let n: usize = e.counted.iter().map(|c| c.protons).sum();
             let note = match (opts.equivalents, opts.purpose) {
                 (Some(x), _) => format!("{x} equiv as requested"),
-                (None, Purpose::Stoichiometric) => format!(
-                    "1 for the target + {n} counted proton(s) + {PRACTICAL_EXCESS} practical excess (titre of the base solution, adventitious moisture)"
-                ),
+                (None, Purpose::Stoichiometric | Purpose::InSitu) => {
+                    let mut t = format!("{} for the target", ctx.plan.per_target);
+                    if ctx.plan.extra > 0.0 {
+                        t.push_str(&format!(
+                            " + {} consumed by the {} ({})",
+                            ctx.plan.extra,
+                            reaction.name(),
+                            if reaction == Reaction::Acylation {
+                                "the product is more acidic than the substrate and takes base"
+                            } else {
+                                "a second deprotonation for the second step"
+                            }
+                        ));
+                    }
+                    t.push_str(&format!(" + {n} counted proton(s) + {PRACTICAL_EXCESS} practical excess (titre of the base solution, adventitious moisture)"));
+                    t
+                }
                 (None, Purpose::Catalytic) => format!(
-                    "{CATALYTIC_EQUIVALENTS} equiv catalytic + {n} counted proton(s)"
+                    "{} equiv catalytic + {n} counted proton(s)",
+                    ctx.plan.per_target
                 ),
             };
             let cn = if n > 0 {
@@ -1877,7 +2147,21 @@ pub fn advise_with_features(
             }
             (e.counted.to_vec(), e.equivalents, note, cn)
         }
-        None => (Vec::new(), 0.0, "no base chosen".to_string(), None),
+        None => match system {
+            Some(_) => {
+                let e = ctx.plan.per_target + ctx.plan.extra + PRACTICAL_EXCESS;
+                (
+                    Vec::new(),
+                    e,
+                    format!(
+                        "{} for the target + {PRACTICAL_EXCESS} practical excess",
+                        ctx.plan.per_target + ctx.plan.extra
+                    ),
+                    None,
+                )
+            }
+            None => (Vec::new(), 0.0, "no base chosen".to_string(), None),
+        },
     };
     if let Some(n) = &counted_note {
         warnings.push(Warning {
@@ -1897,6 +2181,9 @@ pub fn advise_with_features(
             }
         }
     };
+    if let Some(sy) = system {
+        push(caution_for_reagent(&sy.name, &sy.hazards, &[]));
+    }
     if let Some(e) = chosen {
         push(caution_for(e.base, Some(&e.solvent)));
     }
@@ -1923,6 +2210,7 @@ pub fn advise_with_features(
     }
     push(Some(general_caution()));
 
+    let exact = chosen.and_then(|e| full_equilibrium(&ctx, e));
     let t = Target {
         site: target,
         atoms: tsite.atoms.clone(),
@@ -1934,18 +2222,72 @@ pub fn advise_with_features(
         regio: tsite.regio,
         chosen_by,
     };
+    let mut mode_note = String::new();
+    if let Some(r) = row {
+        mode_note.push_str(&r.note);
+        mode_note.push_str(" [");
+        mode_note.push_str(&r.id);
+        mode_note.push_str(", ");
+        mode_note.push_str(&r.source);
+        mode_note.push_str("]; ");
+    }
+    mode_note.push_str(mode.name());
+    mode_note.push_str(": ");
+    mode_note.push_str(&mode_row.note);
+    if let Some(sy) = system {
+        mode_note.push_str("; ");
+        mode_note.push_str(&sy.name);
+        mode_note.push_str(": ");
+        mode_note.push_str(&sy.procedure);
+        mode_note.push_str(" [");
+        mode_note.push_str(&sy.source);
+        mode_note.push(']');
+        if let Some(b) = &sy.base {
+            mode_note.push_str(&format!(
+                "; the conversion shown is the equilibrium with {b} alone"
+            ));
+        }
+    }
+    let (solvent, temperature_out) = match system {
+        Some(sy) => (
+            Some(sy.solvent.clone()),
+            Some(Temperature {
+                low_c: sy.temp_min_c,
+                high_c: sy.temp_max_c,
+            }),
+        ),
+        None => (
+            chosen.map(|e| e.solvent.to_string()),
+            chosen.map(|e| temperature(e.base)),
+        ),
+    };
     Ok(Advice {
         target: t,
         purpose: opts.purpose,
-        base: chosen.map(|e| e.base.name.clone()),
+        reaction,
+        control,
+        mode,
+        mode_note,
+        practice_row: row.map(|r| r.id.clone()),
+        not_judged,
+        base: system
+            .map(|sy| sy.name.clone())
+            .or(chosen.map(|e| e.base.name.clone())),
         equivalents,
         equivalents_note,
-        conversion: chosen.map(|e| e.conversion),
-        equilibrium: chosen
-            .filter(|_| opts.full_equilibrium)
-            .and_then(|e| full_equilibrium(&ctx, e)),
-        solvent: chosen.map(|e| e.solvent.to_string()),
-        temperature: chosen.map(|e| temperature(e.base)),
+        conversion: exact
+            .as_ref()
+            .map(|q| {
+                ctx.target_unit
+                    .iter()
+                    .map(|&i| q.site_fraction(i))
+                    .sum::<f64>()
+                    .clamp(0.0, 1.0)
+            })
+            .or(chosen.filter(|_| system.is_none()).map(|e| e.conversion)),
+        equilibrium: exact.filter(|_| opts.full_equilibrium),
+        solvent,
+        temperature: temperature_out,
         scale: chosen.and_then(|e| e.scale),
         scale_note: chosen.map(|e| e.scale_note.clone()).unwrap_or_default(),
         concentration: c,

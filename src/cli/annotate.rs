@@ -69,6 +69,18 @@ pub struct Args {
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
     /// pKa scale used to rank the sites.
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
+    /// CSV/TSV input: take the planned reaction of each row from this column
+    /// (an empty cell: `--reaction`, else alkylation; an unknown name: an error record).
+    #[arg(long, value_name = "NAME")]
+    pub reaction_column: Option<String>,
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
     /// Worker threads (0: one per core).
@@ -90,9 +102,6 @@ pub struct Args {
     pub html: Option<PathBuf>,
 }
 
-/// A record's output text, whether it was analysed, and its HTML card.
-pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
-
 /// What every worker needs to turn a raw line into output text.
 pub struct Job {
     format: InputFormat,
@@ -101,22 +110,30 @@ pub struct Job {
     id_col: Option<usize>,
     header: Vec<String>,
     opts: Options,
+    /// CSV/TSV: the column holding each row's planned reaction.
+    reaction_col: Option<usize>,
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
+}
+
+/// Names of the input columns chosen on the command line (or by the page).
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Columns<'a> {
+    pub smiles: Option<&'a str>,
+    pub id: Option<&'a str>,
+    pub reaction: Option<&'a str>,
 }
 
 impl Job {
     /// Read the header row of CSV/TSV input from `source` (named `shown` in
     /// messages) and set up the rendering of every record. Used by `annotate`
     /// and by the page's `/api/annotate` (`acidsite serve`).
-    #[allow(clippy::too_many_arguments)]
     pub fn new(
         source: &mut LineSource,
         shown: &str,
         format: InputFormat,
-        column: Option<&str>,
-        id_column: Option<&str>,
+        cols: Columns<'_>,
         opts: Options,
         output: OutputFormat,
         per_site: bool,
@@ -138,16 +155,19 @@ impl Job {
                     .into_iter()
                     .map(|h| h.trim().to_string())
                     .collect();
-                let smiles_col = pick_column(&header, column, &["smiles"]).with_context(|| {
-                    format!(
-                        "{shown}: no SMILES column {}; header has: {}",
-                        column.map(|c| format!("named {c:?}")).unwrap_or_else(|| {
-                            "named \"smiles\" (choose one with --column)".into()
-                        }),
-                        header.join(", ")
-                    )
-                })?;
-                let id_col = match id_column {
+                let smiles_col =
+                    pick_column(&header, cols.smiles, &["smiles"]).with_context(|| {
+                        format!(
+                            "{shown}: no SMILES column {}; header has: {}",
+                            cols.smiles
+                                .map(|c| format!("named {c:?}"))
+                                .unwrap_or_else(
+                                    || "named \"smiles\" (choose one with --column)".into()
+                                ),
+                            header.join(", ")
+                        )
+                    })?;
+                let id_col = match cols.id {
                     Some(name) => {
                         Some(pick_column(&header, Some(name), &[]).with_context(|| {
                             format!(
@@ -161,6 +181,22 @@ impl Job {
                     }
                 };
                 (header, smiles_col, id_col)
+            }
+        };
+        let reaction_col = match cols.reaction {
+            None => None,
+            Some(name) => {
+                if format == InputFormat::Smi {
+                    anyhow::bail!(
+                        "--reaction-column needs CSV or TSV input (--input-format csv|tsv)"
+                    );
+                }
+                Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                    format!(
+                        "{shown}: no column named {name:?} for --reaction-column; header has: {}",
+                        header.join(", ")
+                    )
+                })?)
             }
         };
         let carried: Vec<String> = header
@@ -191,6 +227,7 @@ impl Job {
             id_col,
             header,
             opts,
+            reaction_col,
             rows,
             html,
         })
@@ -233,14 +270,19 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         &mut source,
         &shown,
         format,
-        args.column.as_deref(),
-        args.id_column.as_deref(),
+        Columns {
+            smiles: args.column.as_deref(),
+            id: args.id_column.as_deref(),
+            reaction: args.reaction_column.as_deref(),
+        },
         Options {
             site: None,
             base: args.base.clone(),
             scale: args.scale.into(),
             flags: args.flags.clone(),
             sites_only: args.sites_only,
+            reaction: args.reaction,
+            control: args.control,
         },
         args.format,
         args.per_site,
@@ -287,7 +329,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(Box<[u8]>, bool, Option<Box<[u8]>>)> = Vec::new();
+        let mut pending: Vec<Rendered> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -411,10 +453,14 @@ thread_local! {
 /// A worker's buffer larger than this is freed rather than kept.
 const SCRATCH_KEEP: usize = 1 << 20;
 
+/// A rendered record: its output text, whether it was analysed, and its
+/// HTML card when asked for.
+pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+
 /// One raw line to its output text, rendered in the worker's reused buffer
 /// and copied out at its exact size, whether it was analysed, and its HTML
 /// card when asked for.
-fn render_record(raw: &RawLine, ctx: &Job) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
+fn render_record(raw: &RawLine, ctx: &Job) -> Rendered {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
@@ -570,8 +616,40 @@ fn record_for(raw: &RawLine, ctx: &Job) -> Record {
                     .map(|(i, h)| (h.clone(), fields.get(i).cloned().unwrap_or_default()))
                     .collect(),
             );
+            let row_reaction = ctx
+                .reaction_col
+                .and_then(|i| fields.get(i))
+                .map(|s| s.trim())
+                .filter(|s| !s.is_empty());
+            let row_opts;
+            let opts = match row_reaction {
+                None => &ctx.opts,
+                Some(name) => match acidsite::advice::practice::Reaction::parse(name) {
+                    Ok(r) => {
+                        row_opts = Options {
+                            reaction: Some(r),
+                            ..ctx.opts.clone()
+                        };
+                        &row_opts
+                    }
+                    Err(e) => {
+                        let mut rec = fail(
+                            fields.get(ctx.smiles_col).cloned().unwrap_or_default(),
+                            id,
+                            "reaction",
+                            format!(
+                                "column {:?}: {e}",
+                                ctx.header[ctx.reaction_col.unwrap_or(0)]
+                            ),
+                            None,
+                        );
+                        rec.columns = Some(columns);
+                        return rec;
+                    }
+                },
+            };
             let mut rec = match fields.get(ctx.smiles_col) {
-                Some(smiles) => analyze(smiles.trim(), raw.line, id, &ctx.opts),
+                Some(smiles) => analyze(smiles.trim(), raw.line, id, opts),
                 None => fail(
                     String::new(),
                     id,

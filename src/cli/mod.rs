@@ -53,6 +53,17 @@ pub fn parse_flag(spec: &str) -> Result<Flag, String> {
     Flag::parse(spec).map_err(|e| e.to_string())
 }
 
+/// clap value parser for `--reaction NAME` (an unknown name: exit 2 with the
+/// valid names).
+pub fn parse_reaction(s: &str) -> Result<acidsite::advice::practice::Reaction, String> {
+    acidsite::advice::practice::Reaction::parse(s).map_err(|e| e.to_string())
+}
+
+/// clap value parser for `--control kinetic|thermodynamic`.
+pub fn parse_control(s: &str) -> Result<acidsite::advice::practice::Control, String> {
+    acidsite::advice::practice::Control::parse(s).map_err(|e| e.to_string())
+}
+
 /// Refuse an unknown `--base` before any work (a bad option: exit 2).
 pub fn check_base(name: Option<&str>) -> anyhow::Result<()> {
     if let Some(n) = name {

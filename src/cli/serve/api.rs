@@ -3,8 +3,9 @@
 //! a 4xx status. Records are built by `report::analyze` exactly as `scan
 //! --json` and `annotate` build them (same schema version).
 
-use super::super::annotate::{Job, OutputFormat};
+use super::super::annotate::{Columns, Job, OutputFormat};
 use super::super::input::{InputFormat, LineSource};
+use acidsite::advice::practice::{Control, Reaction};
 use acidsite::report::{analyze, Options, Record, Scale};
 use axum::body::{Body, Bytes};
 use axum::extract::{DefaultBodyLimit, Query};
@@ -103,12 +104,23 @@ async fn health() -> Response {
     )
 }
 
-/// Reactions and controls the build's advice knows. Reaction-aware advice
-/// (`--reaction`, `--control`) has not landed in this build: the lists are
-/// empty and the page hides those choices. When `report::Options` gains the
-/// fields, this is the one place to read them from the library.
+/// The planned reactions and the enolate controls the advice knows, read
+/// from the library (names and the data's own summaries), for the page's
+/// choices.
 fn reactions() -> (Vec<Value>, Vec<Value>) {
-    (Vec::new(), Vec::new())
+    let data = acidsite::advice::practice::practice().ok();
+    let reactions = Reaction::ALL
+        .iter()
+        .map(|&r| {
+            let summary = data.map(|d| d.reaction(r).summary.clone());
+            json!({ "name": r.name(), "summary": summary })
+        })
+        .collect();
+    let controls = Control::ALL
+        .iter()
+        .map(|c| json!({ "name": c.name() }))
+        .collect();
+    (reactions, controls)
 }
 
 async fn options() -> Response {
@@ -293,38 +305,28 @@ fn scan_options(req: &ScanRequest) -> Result<Options, ApiError> {
             ));
         }
     }
-    let (reactions, controls) = reactions();
-    for (what, given, known) in [
-        ("reaction", &req.reaction, &reactions),
-        ("control", &req.control, &controls),
-    ] {
-        if let Some(r) = given.as_deref().filter(|r| !r.trim().is_empty()) {
-            if !known.iter().any(|k| k["name"].as_str() == Some(r)) {
-                return Err(fail(
-                    StatusCode::BAD_REQUEST,
-                    what,
-                    format!(
-                        "unknown {what} {r:?}: this build knows {} (GET /api/options lists them)",
-                        if known.is_empty() {
-                            "none".to_string()
-                        } else {
-                            known
-                                .iter()
-                                .filter_map(|k| k["name"].as_str())
-                                .collect::<Vec<_>>()
-                                .join(", ")
-                        }
-                    ),
-                ));
-            }
-        }
-    }
+    let reaction = match req.reaction.as_deref().filter(|r| !r.trim().is_empty()) {
+        None => None,
+        Some(r) => Some(
+            Reaction::parse(r)
+                .map_err(|e| fail(StatusCode::BAD_REQUEST, "reaction", e.to_string()))?,
+        ),
+    };
+    let control = match req.control.as_deref().filter(|c| !c.trim().is_empty()) {
+        None => None,
+        Some(c) => Some(
+            Control::parse(c)
+                .map_err(|e| fail(StatusCode::BAD_REQUEST, "control", e.to_string()))?,
+        ),
+    };
     Ok(Options {
         site: req.site,
         base,
         scale,
         flags: Vec::new(),
         sites_only: false,
+        reaction,
+        control,
     })
 }
 
@@ -432,6 +434,12 @@ struct AnnotateQuery {
     per_site: Option<bool>,
     #[serde(default)]
     sites_only: Option<bool>,
+    #[serde(default)]
+    reaction: Option<String>,
+    #[serde(default)]
+    control: Option<String>,
+    #[serde(default)]
+    reaction_column: Option<String>,
 }
 
 /// `POST /api/annotate`: the body is a compound list (.smi, .csv or .tsv
@@ -446,7 +454,7 @@ async fn annotate(
         return error(
             StatusCode::BAD_REQUEST,
             "query",
-            "unknown or malformed query parameter (format, input, name, column, id_column, scale, base, per_site, sites_only)",
+            "unknown or malformed query parameter (format, input, name, column, id_column, reaction_column, scale, base, reaction, control, per_site, sites_only)",
         );
     };
     let bytes = match body {
@@ -500,8 +508,8 @@ async fn annotate(
         site: None,
         base: q.base.clone(),
         scale: q.scale.clone(),
-        reaction: None,
-        control: None,
+        reaction: q.reaction.clone(),
+        control: q.control.clone(),
         bond_px: None,
     };
     let mut opts = match scan_options(&req) {
@@ -534,8 +542,11 @@ async fn annotate(
                 &mut source,
                 &shown,
                 input,
-                q.column.as_deref(),
-                q.id_column.as_deref(),
+                Columns {
+                    smiles: q.column.as_deref(),
+                    id: q.id_column.as_deref(),
+                    reaction: q.reaction_column.as_deref(),
+                },
                 opts,
                 output,
                 per_site,

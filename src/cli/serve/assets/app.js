@@ -152,12 +152,16 @@
       state.options = o;
       var reactions = o.reactions || [];
       var controls = o.controls || [];
+      state.reactionSummary = {};
+      reactions.forEach(function (r) { state.reactionSummary[r.name] = r.summary || ""; });
       if (reactions.length) {
-        fillSelect($("reaction"), reactions, function (r) { return r.label || r.name; });
+        fillSelect($("reaction"), reactions, function (r) { return r.name; });
+        fillSelect($("list-reaction"), reactions, function (r) { return r.name; });
         $("reaction-field").hidden = false;
+        $("list-reaction-field").hidden = false;
       }
       if (controls.length) {
-        fillSelect($("control"), controls, function (c) { return c.label || c.name; });
+        fillSelect($("control"), controls, function (c) { return c.name; });
         $("control-field").hidden = false;
       }
       fillSelect($("base"), o.bases || [], function (b) {
@@ -474,6 +478,12 @@
       dl.appendChild(typeof v === "string" ? el("dd", { text: v }) : el("dd", null, v));
     }
     add("target", "atom " + atomsText(a.target) + " — " + a.target_note);
+    if (a.reaction) {
+      var planned = el("div", null, el("span", { text: a.reaction + (a.control ? ", " + a.control + " control" : "") +
+        (a.mode ? "; base used " + a.mode : "") }));
+      if (a.mode_note) planned.appendChild(el("p", { cls: "note", text: a.mode_note }));
+      add("planned reaction", planned);
+    }
     if (a.base) add("base", a.base + "  " + fmt(a.equivalents, 2) + " equiv");
     var how = el("div", null, el("span", { text: a.equivalents_note }));
     if (a.counted && a.counted.length) {
@@ -514,6 +524,9 @@
       });
       add("ruled out", ur);
     }
+    if (a.not_judged && a.not_judged.length) {
+      add("not judged", a.not_judged.map(function (n) { return n.base + " (no " + n.missing + ")"; }).join("; "));
+    }
     if (a.warnings && a.warnings.length) {
       var uw = el("ul", { cls: "warnings" });
       a.warnings.forEach(function (w) { uw.appendChild(el("li", { text: w })); });
@@ -548,6 +561,11 @@
   }
 
   $("one-form").addEventListener("submit", function (ev) { ev.preventDefault(); run(); });
+  function showReactionSummary() {
+    var r = $("reaction").value;
+    $("reaction-help").textContent = r && state.reactionSummary ? state.reactionSummary[r] || "" : "";
+  }
+  $("reaction").addEventListener("change", showReactionSummary);
   ["reaction", "control", "site", "base"].forEach(function (id) {
     $(id).addEventListener("change", function () { if ($("smiles").value.trim()) run(); else updateUrl(); });
   });
@@ -583,6 +601,7 @@
     var col = $("list-column").value.trim();
     if (col) p.set("column", col);
     if ($("list-sites-only").checked) p.set("sites_only", "true");
+    else if ($("list-reaction").value) p.set("reaction", $("list-reaction").value);
     return p.toString();
   }
 
@@ -822,7 +841,9 @@
   loadOptions().catch(function () {
     $("build").textContent = "The build options could not be loaded; is acidsite serve still running?";
   }).then(function () {
-    if (fillFromUrl()) run();
+    var filled = fillFromUrl();
+    showReactionSummary();
+    if (filled) run();
     else $("smiles").focus();
   });
 })();
