@@ -601,6 +601,12 @@ fn serve_given_sigterm_stops_cleanly_issue13() {
     let (status, err) = s.stop();
     assert!(status.success(), "{status:?} {err}");
     assert!(err.contains("stopped"), "{err}");
+    // Ctrl-C (SIGINT) ends it the same way.
+    let s = Server::start(&[]);
+    assert_eq!(s.get("/api/health").status, 200);
+    let (status, err) = s.stop_with("-INT");
+    assert!(status.success(), "{status:?} {err}");
+    assert!(err.contains("stopped"), "{err}");
 }
 
 #[test]

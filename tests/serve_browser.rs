@@ -329,6 +329,22 @@ fn page_given_real_browser_issue13() {
     );
     s.shot("2-atom-clicked");
 
+    // 3b. The rules behind an estimate, on demand.
+    s.click("#sites tbody tr button");
+    let rules = s.wait(
+        "the rules",
+        "var r = document.querySelector('#sites tr.rules-row li'); return r && r.textContent",
+    );
+    let ketone = server
+        .post("/api/scan", br#"{"smiles":"CC1CCCCC1=O"}"#)
+        .json();
+    let first_rule = ketone["sites"][0]["rules"][0]["id"]
+        .as_str()
+        .unwrap()
+        .to_string();
+    assert!(rules.as_str().unwrap().starts_with(&first_rule), "{rules}");
+    assert!(rules.as_str().unwrap().contains("source"), "{rules}");
+
     // 4. A bad SMILES: the message with a caret; then a good one works again.
     s.type_into("#smiles", "CC(=O)C(C\n");
     s.wait(

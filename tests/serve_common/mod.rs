@@ -71,9 +71,14 @@ impl Server {
     }
 
     /// SIGTERM and wait: the exit status and what the server wrote to stderr.
-    pub fn stop(mut self) -> (std::process::ExitStatus, String) {
+    pub fn stop(self) -> (std::process::ExitStatus, String) {
+        self.stop_with("-TERM")
+    }
+
+    /// Send this signal (`-TERM`, `-INT`) and wait, as [`Server::stop`].
+    pub fn stop_with(mut self, signal: &str) -> (std::process::ExitStatus, String) {
         let pid = self.child.id().to_string();
-        let _ = Command::new("kill").args(["-TERM", &pid]).status();
+        let _ = Command::new("kill").args([signal, &pid]).status();
         let status = self.child.wait().expect("wait for server");
         let mut err = String::new();
         if let Some(mut e) = self.stderr.take() {

@@ -84,19 +84,14 @@ async fn serve(args: Args) -> anyhow::Result<()> {
             SocketAddr::V4(a) => a.to_string(),
         };
         writeln!(out, "acidsite serve: listening on http://{shown}/")?;
-        if !ip.is_loopback() {
-            let _ = writeln!(
-                std::io::stderr(),
-                "acidsite serve: warning: listening on {ip}, not on the loopback interface: \
-                 anyone who can reach this machine on port {} can use the page and the API \
-                 (there is no login); stop with Ctrl-C",
-                addr.port()
-            );
-        } else {
-            writeln!(
+        match bind_warning(ip, addr.port()) {
+            Some(w) => {
+                let _ = writeln!(std::io::stderr(), "acidsite serve: {w}");
+            }
+            None => writeln!(
                 out,
                 "acidsite serve: open that address in your browser; Ctrl-C stops the server"
-            )?;
+            )?,
         }
         out.flush()?;
     }
@@ -106,6 +101,18 @@ async fn serve(args: Args) -> anyhow::Result<()> {
         .context("the server stopped with an error")?;
     let _ = writeln!(std::io::stderr(), "acidsite serve: stopped");
     Ok(())
+}
+
+/// The warning printed when the server listens beyond the loopback
+/// interface (None on loopback).
+fn bind_warning(ip: IpAddr, port: u16) -> Option<String> {
+    (!ip.is_loopback()).then(|| {
+        format!(
+            "warning: listening on {ip}, not on the loopback interface: anyone who can reach \
+             this machine on port {port} can use the page and the API (there is no login); \
+             stop with Ctrl-C"
+        )
+    })
 }
 
 async fn shutdown_signal() {
@@ -285,6 +292,18 @@ mod tests {
         ] {
             assert!(!is_loopback_host(bad), "{bad}");
         }
+    }
+
+    #[test]
+    fn bind_warning_given_loopback_and_open_addresses() {
+        assert!(bind_warning(IpAddr::V4(Ipv4Addr::LOCALHOST), 8686).is_none());
+        assert!(bind_warning("::1".parse().unwrap(), 8686).is_none());
+        let w = bind_warning("0.0.0.0".parse().unwrap(), 8686).unwrap();
+        assert!(
+            w.contains("0.0.0.0") && w.contains("8686") && w.contains("no login"),
+            "{w}"
+        );
+        assert!(bind_warning("192.168.1.20".parse().unwrap(), 1).is_some());
     }
 
     #[test]
