@@ -378,6 +378,23 @@ fn page_given_real_browser_issue13() {
         true
     );
 
+    // 5b. A SMILES pasted into an address unencoded keeps its '+' and '#'.
+    s.open(&format!(
+        "{base_url}/?smiles=C[N+](C)(C)CC#N&reaction=alkylation"
+    ));
+    s.wait(
+        "the drawing",
+        "return document.querySelectorAll('#drawing g[data-atom]').length === 7",
+    );
+    assert_eq!(
+        s.js("return document.getElementById('smiles').value"),
+        "C[N+](C)(C)CC#N"
+    );
+    assert_eq!(
+        s.js("return document.getElementById('reaction').value"),
+        "alkylation"
+    );
+
     // 6. A list of 1,000 lines with bad lines: count, failed rows, download.
     let mut lines: Vec<String> = std::fs::read_to_string(REAL)
         .unwrap()

@@ -220,8 +220,28 @@
     if (!found) sel.appendChild(el("option", { value: value, text: value }));
     sel.value = value;
   }
+  // The query of a shared link, read by hand: a SMILES pasted into an
+  // address unencoded keeps its '+' (a charge, never a space in SMILES) and
+  // its '#' (a triple bond, which the browser takes for the start of a
+  // fragment; this page uses none, so the fragment is read as more query).
+  function linkParams() {
+    var raw = location.search.replace(/^\?/, "") + (location.hash || "");
+    var map = {};
+    raw.split("&").forEach(function (part) {
+      if (!part) return;
+      var eq = part.indexOf("=");
+      var key = eq < 0 ? part : part.slice(0, eq);
+      var val = eq < 0 ? "" : part.slice(eq + 1);
+      if (key !== "smiles") val = val.replace(/\+/g, " ");
+      try { val = decodeURIComponent(val); } catch (e) { /* keep it as written */ }
+      try { key = decodeURIComponent(key); } catch (e) { /* keep it as written */ }
+      if (!(key in map)) map[key] = val;
+    });
+    return { get: function (k) { return k in map ? map[k] : null; } };
+  }
+
   function fillFromUrl() {
-    var p = new URLSearchParams(location.search);
+    var p = linkParams();
     $("smiles").value = p.get("smiles") || "";
     $("name").value = p.get("name") || "";
     // A reaction or control this build does not know (an older build, or a
