@@ -277,6 +277,11 @@ fn page_given_real_browser_issue13() {
         2
     );
     s.shot("1-shared-link");
+    s.click("#copy-json");
+    s.wait(
+        "the copy note",
+        "return document.getElementById('copy-note').textContent === 'Copied.'",
+    );
 
     // 1b. Choose another reaction: the advice follows, and the address.
     s.click("#reaction option[value=condensation]");
@@ -298,6 +303,19 @@ fn page_given_real_browser_issue13() {
     );
     let status = s.js("return document.getElementById('one-status').textContent");
     assert!(status.as_str().unwrap().contains("banana"), "{status}");
+    assert_eq!(
+        s.js("return document.getElementById('one-error').hidden"),
+        true
+    );
+    // Many bases ruled out: the first few shown, the rest folded away.
+    let folded = s
+        .js("var d = document.querySelector('#advice details summary'); return d && d.textContent");
+    assert!(
+        folded
+            .as_str()
+            .is_some_and(|t| t.ends_with("more ruled out")),
+        "{folded}"
+    );
 
     // 2. Type a SMILES and press Enter: the new molecule's base.
     s.type_into("#smiles", "CC1CCCCC1=O\n");

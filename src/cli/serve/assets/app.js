@@ -296,8 +296,12 @@
       state.record = rec;
       state.recordText = s.text.trim();
       if (!rec.ok) { showRecordError(rec); return; }
-      showRecord(rec, d.resp.ok ? d.text : null);
-    }).catch(function (e) {
+      try {
+        showRecord(rec, d.resp.ok ? d.text : null);
+      } catch (e) {
+        showRequestError("the page could not show this result (" + e.message + "); please report it with the SMILES");
+      }
+    }, function (e) {
       if (my !== state.seq) return;
       $("one-status").textContent = "";
       showRequestError("the server could not be reached (" + e.message + "); is acidsite serve still running?");
@@ -538,11 +542,19 @@
       add("also suitable", wrap);
     }
     if (a.rejected && a.rejected.length) {
+      // The first few in view, the rest one click away.
+      var SHOWN = 6;
       var ur = el("ul");
-      a.rejected.forEach(function (r) {
-        ur.appendChild(el("li", null, el("strong", { text: r.base }), " (" + r.kind + "): " + r.reason));
+      var more = el("ul");
+      a.rejected.forEach(function (r, i) {
+        (i < SHOWN ? ur : more).appendChild(el("li", null, el("strong", { text: r.base }), " (" + r.kind + "): " + r.reason));
       });
-      add("ruled out", ur);
+      var out = el("div", null, ur);
+      if (a.rejected.length > SHOWN) {
+        out.appendChild(el("details", null,
+          el("summary", { text: (a.rejected.length - SHOWN) + " more ruled out" }), more));
+      }
+      add("ruled out", out);
     }
     if (a.not_judged && a.not_judged.length) {
       add("not judged", a.not_judged.map(function (n) { return n.base + " (no " + n.missing + ")"; }).join("; "));
