@@ -56,16 +56,30 @@ fn page_given_root_has_no_inline_script_issue13() {
         !html.contains("http://") && !html.contains("https://"),
         "no outside resource"
     );
-    let js = s.get("/app.js");
-    assert_eq!(js.status, 200);
-    assert!(js
-        .header("content-type")
-        .unwrap()
-        .starts_with("text/javascript"));
-    assert!(
-        !js.text().contains("innerHTML"),
-        "the page builds its DOM with textContent"
-    );
+    for file in ["/util.js", "/app.js", "/list.js"] {
+        assert!(
+            html.contains(&format!("<script src=\"{file}\" defer>")),
+            "{file}"
+        );
+        let js = s.get(file);
+        assert_eq!(js.status, 200);
+        assert!(js
+            .header("content-type")
+            .unwrap()
+            .starts_with("text/javascript"));
+        let text = js.text();
+        // The page builds its DOM with textContent; markup from strings
+        // would let a SMILES or an id inject HTML.
+        for sink in [
+            "innerHTML",
+            "outerHTML",
+            "insertAdjacentHTML",
+            "document.write",
+            "eval(",
+        ] {
+            assert!(!text.contains(sink), "{file} uses {sink}");
+        }
+    }
     assert_eq!(s.get("/style.css").status, 200);
     assert_eq!(s.get("/etc/passwd").status, 404);
     assert_eq!(s.get("/../Cargo.toml").status, 404);

@@ -50,7 +50,9 @@ const CSP: &str =
 connect-src 'self'; base-uri 'none'; form-action 'none'; frame-ancestors 'none'";
 
 const INDEX_HTML: &str = include_str!("assets/index.html");
+const UTIL_JS: &str = include_str!("assets/util.js");
 const APP_JS: &str = include_str!("assets/app.js");
+const LIST_JS: &str = include_str!("assets/list.js");
 const STYLE_CSS: &str = include_str!("assets/style.css");
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -143,8 +145,16 @@ fn router(guard: Guard) -> Router {
             get(|| async { asset(INDEX_HTML, "text/html; charset=utf-8") }),
         )
         .route(
+            "/util.js",
+            get(|| async { asset(UTIL_JS, "text/javascript; charset=utf-8") }),
+        )
+        .route(
             "/app.js",
             get(|| async { asset(APP_JS, "text/javascript; charset=utf-8") }),
+        )
+        .route(
+            "/list.js",
+            get(|| async { asset(LIST_JS, "text/javascript; charset=utf-8") }),
         )
         .route(
             "/style.css",
