@@ -316,6 +316,32 @@ impl Catalogue {
         self.bases.iter().find(|b| fold_name(&b.name) == key)
     }
 
+    /// Every solvent the catalogue names (usual solvents of the bases and
+    /// the protic solvents that are conjugate acids), sorted, each once.
+    pub fn solvents(&self) -> Vec<&str> {
+        let mut v: Vec<&str> = self
+            .bases
+            .iter()
+            .flat_map(|b| {
+                b.solvents
+                    .iter()
+                    .map(String::as_str)
+                    .chain(b.acid_solvent.as_ref().map(|p| p.name.as_str()))
+            })
+            .collect();
+        v.sort_unstable_by_key(|s| s.to_ascii_lowercase());
+        v.dedup_by(|a, b| a.eq_ignore_ascii_case(b));
+        v
+    }
+
+    /// The catalogue's spelling of a solvent name (case-insensitive), if
+    /// the catalogue knows it.
+    pub fn solvent(&self, name: &str) -> Option<&str> {
+        self.solvents()
+            .into_iter()
+            .find(|s| s.eq_ignore_ascii_case(name.trim()))
+    }
+
     /// The reference text of a citation key.
     pub fn reference(&self, key: &str) -> Option<&str> {
         self.sources

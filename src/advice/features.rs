@@ -71,6 +71,8 @@ pub struct SiteFeatures {
     /// Flanked by two C=O groups (1,3-dicarbonyl): the anion can be
     /// alkylated on O as well as C.
     pub dicarbonyl: bool,
+    /// Next to a C=O: an enolate (self-condensation, Claisen) can form.
+    pub alpha_carbonyl: bool,
 }
 
 const C: u8 = 6;
@@ -259,12 +261,16 @@ const BETA_LG_PATTERNS: [(&str, &str); 9] = [
 ];
 
 const DICARBONYL_PATTERN: &str = "[#6:1]([CX3]=O)[CX3]=O";
+/// A carbon next to a C=O (an enolisable position of a ketone, aldehyde,
+/// ester, amide, acid or lactone).
+const ALPHA_CARBONYL_PATTERN: &str = "[#6:1][CX3]=[OX1]";
 
 struct Compiled {
     groups: Vec<(&'static str, Pattern)>,
     alkoxy: Vec<(&'static str, Pattern)>,
     beta: Vec<(&'static str, Pattern)>,
     dicarbonyl: Option<Pattern>,
+    alpha_carbonyl: Option<Pattern>,
 }
 
 fn compiled() -> &'static Compiled {
@@ -280,6 +286,7 @@ fn compiled() -> &'static Compiled {
             alkoxy: list(&ALKOXY_PATTERNS),
             beta: list(&BETA_LG_PATTERNS),
             dicarbonyl: Pattern::parse(DICARBONYL_PATTERN).ok(),
+            alpha_carbonyl: Pattern::parse(ALPHA_CARBONYL_PATTERN).ok(),
         }
     })
 }
@@ -371,6 +378,14 @@ pub fn detect_features_in(
                     .unwrap_or(false)
                 {
                     sf.dicarbonyl = true;
+                }
+                if pats
+                    .alpha_carbonyl
+                    .as_ref()
+                    .map(|p| p.matches_at_in(target, t).is_some())
+                    .unwrap_or(false)
+                {
+                    sf.alpha_carbonyl = true;
                 }
                 if g.h(t) == 1
                     && g.is_sp3_carbon(t)

@@ -255,12 +255,20 @@ pub struct PracticeRow {
     pub prefer: Vec<String>,
     /// Bases practice rules out here.
     pub exclude: Vec<String>,
+    /// Per catalogue slot: position in `prefer` (usize::MAX: not preferred).
+    pub rank_by_slot: Vec<usize>,
+    /// Per catalogue slot: in `exclude`.
+    pub excluded_by_slot: Vec<bool>,
+    /// The exclusion reason with the row id, as the advice words it.
+    pub exclude_text: String,
     /// Kind of that rejection.
     pub exclude_kind: Option<String>,
     /// Why.
     pub exclude_reason: Option<String>,
     /// Equivalents per target proton fixed by practice.
     pub equivalents: Option<f64>,
+    /// Least equilibrium fraction for this practice (None: the mode's).
+    pub min_fraction: Option<f64>,
     /// The practice in words.
     pub note: String,
     /// Citation key.
@@ -462,7 +470,7 @@ impl Practice {
         // practice.tsv
         let f = "fragments/practice.tsv";
         let mut out: Vec<PracticeRow> = Vec::new();
-        for (line, c) in rows(practice, 12, f)? {
+        for (line, c) in rows(practice, 13, f)? {
             if out.iter().any(|r| r.id == c[0]) {
                 return Err(err(f, line, "id", format!("id {} used twice", c[0])));
             }
@@ -539,7 +547,36 @@ impl Practice {
                     Some(v)
                 }
             };
+            let min_fraction = match c[10] {
+                "-" => None,
+                s => {
+                    let v = num(f, line, "min_fraction", s)?;
+                    if !(0.0..=1.0).contains(&v) {
+                        return Err(err(f, line, "min_fraction", "must lie in 0..=1".into()));
+                    }
+                    Some(v)
+                }
+            };
+            let rank_by_slot: Vec<usize> = cat
+                .bases
+                .iter()
+                .map(|b| {
+                    prefer
+                        .iter()
+                        .position(|p| *p == b.name)
+                        .unwrap_or(usize::MAX)
+                })
+                .collect();
+            let excluded_by_slot: Vec<bool> = cat
+                .bases
+                .iter()
+                .map(|b| exclude.contains(&b.name))
+                .collect();
+            let exclude_text = format!("{} [{}]", exclude_reason.as_deref().unwrap_or(""), c[0]);
             out.push(PracticeRow {
+                rank_by_slot,
+                excluded_by_slot,
+                exclude_text,
                 id: c[0].to_string(),
                 reactions,
                 control,
@@ -551,8 +588,9 @@ impl Practice {
                 exclude_kind,
                 exclude_reason,
                 equivalents,
-                note: c[10].to_string(),
-                source: check_source(f, line, c[11])?,
+                min_fraction,
+                note: c[11].to_string(),
+                source: check_source(f, line, c[12])?,
             });
         }
         Ok(Practice {
@@ -666,7 +704,7 @@ mod tests {
     #[test]
     fn parse_given_unknown_base_in_prefer_names_file_line_and_column() {
         let text = format!(
-            "{}X-1\talkylation\t-\t[CX4;!H0:1]C=O\tpreformed\tbanana\t-\t-\t-\t-\tnote\tcommon-practice\n",
+            "{}X-1\talkylation\t-\t[CX4;!H0:1]C=O\tpreformed\tbanana\t-\t-\t-\t-\t-\tnote\tcommon-practice\n",
             header()
         );
         let e = parse_with(&text).unwrap_err();
@@ -678,7 +716,7 @@ mod tests {
     #[test]
     fn parse_given_unknown_reaction_or_source_is_rejected() {
         let bad_reaction = format!(
-            "{}X-1\tfrying\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\t-\t-\t-\t-\tnote\tcommon-practice\n",
+            "{}X-1\tfrying\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\t-\t-\t-\t-\t-\tnote\tcommon-practice\n",
             header()
         );
         assert!(parse_with(&bad_reaction)
@@ -686,7 +724,7 @@ mod tests {
             .message
             .contains("frying"));
         let bad_source = format!(
-            "{}X-1\taldol\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\t-\t-\t-\t-\tnote\tnobody2020\n",
+            "{}X-1\taldol\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\t-\t-\t-\t-\t-\tnote\tnobody2020\n",
             header()
         );
         assert!(parse_with(&bad_source)
@@ -694,19 +732,19 @@ mod tests {
             .message
             .contains("nobody2020"));
         let no_map = format!(
-            "{}X-1\taldol\t-\t[CX4;!H0]C=O\tpreformed\tLDA\t-\t-\t-\t-\tnote\tcommon-practice\n",
+            "{}X-1\taldol\t-\t[CX4;!H0]C=O\tpreformed\tLDA\t-\t-\t-\t-\t-\tnote\tcommon-practice\n",
             header()
         );
         assert!(parse_with(&no_map).unwrap_err().message.contains(":1"));
         let excluded_and_preferred = format!(
-            "{}X-1\taldol\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\tLDA\tregio\twhy\t-\tnote\tcommon-practice\n",
+            "{}X-1\taldol\t-\t[CX4;!H0:1]C=O\tpreformed\tLDA\tLDA\tregio\twhy\t-\t-\tnote\tcommon-practice\n",
             header()
         );
         assert!(parse_with(&excluded_and_preferred).is_err());
     }
 
     fn header() -> &'static str {
-        "id\treactions\tcontrol\tsmarts\tmode\tprefer\texclude\texclude_kind\texclude_reason\tequivalents\tnote\tsource\n"
+        "id\treactions\tcontrol\tsmarts\tmode\tprefer\texclude\texclude_kind\texclude_reason\tequivalents\tmin_fraction\tnote\tsource\n"
     }
 
     #[test]

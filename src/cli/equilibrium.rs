@@ -54,6 +54,14 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             args.base
         );
     }
+    if let Some(sol) = &args.solvent {
+        if cat.solvent(sol).is_none() {
+            anyhow::bail!(
+                "unknown solvent {sol:?}: the pKa scale and the solvent-as-acid correction are known only for the catalogue's solvents: {}",
+                cat.solvents().join(", ")
+            );
+        }
+    }
     if !(args.equiv.is_finite() && args.equiv >= 0.0) {
         anyhow::bail!("--equiv must be a number ≥ 0, not {}", args.equiv);
     }

@@ -54,6 +54,22 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let stdout = std::io::stdout();
     let mut out = std::io::BufWriter::new(stdout.lock());
     let mut failed = 0usize;
+    // `--site N` must name an atom of every molecule given (a bad option:
+    // exit 2 before any output).
+    if let Some(n) = args.site {
+        for smiles in &args.smiles {
+            if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles.trim()) {
+                if n >= m.atoms.len() {
+                    anyhow::bail!(
+                        "--site {n}: {} has {} atoms (indices 0 to {}, in the order written)",
+                        smiles.trim(),
+                        m.atoms.len(),
+                        m.atoms.len().saturating_sub(1)
+                    );
+                }
+            }
+        }
+    }
     for (i, smiles) in args.smiles.iter().enumerate() {
         let rec = analyze(smiles.trim(), i as u64 + 1, None, &opts);
         if !rec.ok {
