@@ -179,6 +179,11 @@ fn scan_given_bad_bodies_answers_400_issue13() {
             "base",
         ),
         (
+            "site past the last atom",
+            &b"{\"smiles\":\"CCO\",\"site\":3}"[..],
+            "site",
+        ),
+        (
             "negative site",
             &b"{\"smiles\":\"C\",\"site\":-1}"[..],
             "json",

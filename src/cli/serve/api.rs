@@ -331,18 +331,38 @@ fn scan_options(req: &ScanRequest) -> Result<Options, ApiError> {
 }
 
 /// Analyse off the async threads (the analysis is CPU work).
+/// A site past the molecule's last atom is refused as `scan --site` refuses
+/// it (there a bad option, here a 400).
 async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, ApiError> {
     tokio::task::spawn_blocking(move || {
+        let smiles = req.smiles.trim();
+        if let Some(n) = opts.site {
+            if smiles.len() <= acidsite::report::analyze::MAX_SMILES_BYTES {
+                if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles) {
+                    if n >= m.atoms.len() {
+                        return Err(fail(
+                            StatusCode::BAD_REQUEST,
+                            "site",
+                            format!(
+                                "site {n}: {smiles} has {} atoms (indices 0 to {}, in the order written)",
+                                m.atoms.len(),
+                                m.atoms.len().saturating_sub(1)
+                            ),
+                        ));
+                    }
+                }
+            }
+        }
         let id = req.name.filter(|n| !n.trim().is_empty());
-        analyze(req.smiles.trim(), 1, id, &opts)
+        Ok(analyze(smiles, 1, id, &opts))
     })
     .await
-    .map_err(|_| {
-        fail(
+    .unwrap_or_else(|_| {
+        Err(fail(
             StatusCode::INTERNAL_SERVER_ERROR,
             "internal",
             "internal error while analysing this SMILES (please report it)",
-        )
+        ))
     })
 }
 
