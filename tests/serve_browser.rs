@@ -481,6 +481,11 @@ fn page_given_real_browser_issue13() {
         "small drawings",
         "return document.querySelectorAll('#list-table td.pic svg').length >= 3",
     );
+    s.js("document.getElementById('list-status').scrollIntoView(); return 1");
+    s.wait(
+        "small drawings in view",
+        "return document.querySelectorAll('#list-table td.pic svg').length >= 3",
+    );
     s.shot("4-list");
     s.js("var s = document.getElementById('list-show'); s.value = 'failed'; s.dispatchEvent(new Event('change')); return 1");
     let rows = s.js("return document.querySelectorAll('#list-table tbody tr.failed').length");

@@ -190,7 +190,12 @@
       if (notes.length > 170) notes = notes.slice(0, 160) + "… (open the molecule for all)";
       var pic = el("td", { cls: "pic" });
       pic.dataset.smiles = r.input;
-      var open = el("a", { href: "?smiles=" + encodeURIComponent(r.input) + (r.id ? "&name=" + encodeURIComponent(r.id) : ""), text: r.input });
+      var reaction = r.advice && r.advice.reaction;
+      var open = el("a", {
+        href: "?smiles=" + encodeURIComponent(r.input) + (r.id ? "&name=" + encodeURIComponent(r.id) : "") +
+          (reaction ? "&reaction=" + encodeURIComponent(reaction) : ""),
+        text: r.input,
+      });
       open.title = "open this molecule on its own";
       var tr = el("tr", r.ok ? null : { cls: "failed" },
         el("td", { text: String(r.line) }),
