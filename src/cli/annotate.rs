@@ -117,6 +117,17 @@ pub struct Job {
     html: bool,
 }
 
+/// What to write for each record.
+#[derive(Debug, Clone, Copy)]
+pub struct Output {
+    /// JSON Lines, CSV or TSV.
+    pub format: OutputFormat,
+    /// CSV/TSV: one row per site.
+    pub per_site: bool,
+    /// Also render an HTML card per record.
+    pub html: bool,
+}
+
 /// Names of the input columns chosen on the command line (or by the page).
 #[derive(Debug, Clone, Copy, Default)]
 pub struct Columns<'a> {
@@ -135,10 +146,13 @@ impl Job {
         format: InputFormat,
         cols: Columns<'_>,
         opts: Options,
-        output: OutputFormat,
-        per_site: bool,
-        html: bool,
+        out: Output,
     ) -> anyhow::Result<Job> {
+        let Output {
+            format: output,
+            per_site,
+            html,
+        } = out;
         // Header of CSV/TSV input.
         let (header, smiles_col, id_col) = match format {
             InputFormat::Smi => (Vec::new(), 0, None),
@@ -284,9 +298,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             reaction: args.reaction,
             control: args.control,
         },
-        args.format,
-        args.per_site,
-        args.html.is_some(),
+        Output {
+            format: args.format,
+            per_site: args.per_site,
+            html: args.html.is_some(),
+        },
     )?;
 
     let mut out: Box<dyn Write + Send> = match &args.output {

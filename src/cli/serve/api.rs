@@ -3,7 +3,7 @@
 //! a 4xx status. Records are built by `report::analyze` exactly as `scan
 //! --json` and `annotate` build them (same schema version).
 
-use super::super::annotate::{Columns, Job, OutputFormat};
+use super::super::annotate::{Columns, Job, Output, OutputFormat};
 use super::super::input::{InputFormat, LineSource};
 use acidsite::advice::practice::{Control, Reaction};
 use acidsite::report::{analyze, Options, Record, Scale};
@@ -568,9 +568,11 @@ async fn annotate(
                     reaction: q.reaction_column.as_deref(),
                 },
                 opts,
-                output,
-                per_site,
-                html,
+                Output {
+                    format: output,
+                    per_site,
+                    html,
+                },
             )
             .map_err(|e| fail(StatusCode::BAD_REQUEST, "columns", format!("{e:#}")))?;
             Ok((job, source, lines))
