@@ -447,3 +447,32 @@ proptest! {
         }
     }
 }
+
+#[test]
+fn scan_given_free_amine_and_ester_warns_of_aminolysis_issue10() {
+    // Common practice: an amino ester with a free NH2 cyclises or
+    // oligomerises; the warning comes from fragments/side_reactions.tsv.
+    let (_, v, _) = scan_json(&["NCCCC(=O)OCC"]);
+    let w = v["advice"]["warnings"].to_string();
+    assert!(w.contains("SR-AMINE-ESTER"), "{w}");
+    let (_, plain, _) = scan_json(&["CCCCC(=O)OCC"]);
+    assert!(!plain["advice"]["warnings"]
+        .to_string()
+        .contains("SR-AMINE-ESTER"));
+}
+
+#[test]
+fn scan_given_nitroalkane_warns_that_dry_nitronates_are_shock_sensitive_issue10() {
+    let (_, v, _) = scan_json(&["CC[N+](=O)[O-]"]);
+    assert!(v["advice"]["warnings"]
+        .to_string()
+        .contains("shock-sensitive"));
+}
+
+#[test]
+fn scan_given_deuterium_on_the_target_warns_that_the_label_exchanges_issue10() {
+    let (_, v, _) = scan_json(&["[2H]C([2H])([2H])C(=O)c1ccccc1"]);
+    assert!(v["advice"]["warnings"].to_string().contains("deuterium"));
+    let (_, h, _) = scan_json(&["CC(=O)c1ccccc1"]);
+    assert!(!h["advice"]["warnings"].to_string().contains("deuterium"));
+}

@@ -73,6 +73,8 @@ pub struct SiteFeatures {
     pub dicarbonyl: bool,
     /// Next to a C=O: an enolate (self-condensation, Claisen) can form.
     pub alpha_carbonyl: bool,
+    /// A deuterium or tritium sits on the site's atoms.
+    pub labelled: bool,
 }
 
 const C: u8 = 6;
@@ -361,7 +363,15 @@ pub fn detect_features_in(
     f.ester_alkoxy.dedup();
 
     for site in &sites.sites {
-        let mut sf = SiteFeatures::default();
+        let mut sf = SiteFeatures {
+            labelled: site.atoms.iter().any(|&a| {
+                mol.atoms
+                    .get(a)
+                    .map(|x| x.heavy_hydrogens > 0)
+                    .unwrap_or(false)
+            }),
+            ..SiteFeatures::default()
+        };
         if site.is_carbon() {
             for &t in &site.atoms {
                 if sf.beta_leaving_group.is_none() {

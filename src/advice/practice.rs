@@ -20,6 +20,7 @@ const REACTIONS_TEXT: &str = include_str!("../../fragments/reactions.tsv");
 const MODES_TEXT: &str = include_str!("../../fragments/modes.tsv");
 const SYSTEMS_TEXT: &str = include_str!("../../fragments/systems.tsv");
 const PRACTICE_TEXT: &str = include_str!("../../fragments/practice.tsv");
+const SIDE_TEXT: &str = include_str!("../../fragments/side_reactions.tsv");
 const SOURCES_TEXT: &str = include_str!("../../fragments/sources.tsv");
 
 /// A planned reaction (`--reaction`).
@@ -275,6 +276,43 @@ pub struct PracticeRow {
     pub source: String,
 }
 
+/// One row of `fragments/side_reactions.tsv`: a side reaction to warn about.
+#[derive(Debug, Clone)]
+pub struct SideReaction {
+    /// Stable id.
+    pub id: String,
+    /// Reactions it concerns (empty: every one).
+    pub reactions: Vec<Reaction>,
+    /// Modes it concerns (empty: every one).
+    pub modes: Vec<Mode>,
+    /// Base families of the recommended base it concerns (empty: every one).
+    pub families: Vec<String>,
+    /// Patterns that must all be found in the molecule.
+    pub patterns: Vec<Pattern>,
+    /// The warning.
+    pub message: String,
+    /// Citation key.
+    pub source: String,
+}
+
+impl SideReaction {
+    /// Does the row apply to this reaction, mode and base family (None: no
+    /// catalogue base)?
+    pub fn applies(&self, reaction: Reaction, mode: Mode, family: Option<&str>) -> bool {
+        (self.reactions.is_empty() || self.reactions.contains(&reaction))
+            && (self.modes.is_empty() || self.modes.contains(&mode))
+            && (self.families.is_empty()
+                || family
+                    .map(|f| self.families.iter().any(|x| x == f))
+                    .unwrap_or(false))
+    }
+
+    /// Are all its patterns found in the molecule?
+    pub fn found_in(&self, target: &crate::smarts::Target) -> bool {
+        self.patterns.iter().all(|p| p.is_match_in(target))
+    }
+}
+
 /// The practice data, validated.
 #[derive(Debug, Clone)]
 pub struct Practice {
@@ -286,6 +324,8 @@ pub struct Practice {
     pub systems: Vec<System>,
     /// Practice rows in match order.
     pub rows: Vec<PracticeRow>,
+    /// Side reactions to warn about.
+    pub side_reactions: Vec<SideReaction>,
 }
 
 impl Practice {
@@ -334,6 +374,7 @@ impl Practice {
         modes_text: &str,
         systems: &str,
         practice: &str,
+        side_text: &str,
         sources_text: &str,
         cat: &Catalogue,
     ) -> Result<Practice, CatalogueError> {
@@ -593,11 +634,69 @@ impl Practice {
                 source: check_source(f, line, c[12])?,
             });
         }
+        // side_reactions.tsv
+        let f = "fragments/side_reactions.tsv";
+        let families: Vec<&str> = cat.bases.iter().map(|b| b.family.name()).collect();
+        let mut side = Vec::new();
+        for (line, c) in rows(side_text, 7, f)? {
+            let star = |s: &str| s.trim() == "*";
+            let reactions = if star(c[1]) {
+                Vec::new()
+            } else {
+                list(c[1])
+                    .iter()
+                    .map(|r| {
+                        Reaction::parse(r).map_err(|e| err(f, line, "reactions", e.to_string()))
+                    })
+                    .collect::<Result<Vec<_>, _>>()?
+            };
+            let modes = if star(c[2]) {
+                Vec::new()
+            } else {
+                list(c[2])
+                    .iter()
+                    .map(|m| {
+                        Mode::parse(m)
+                            .ok_or_else(|| err(f, line, "modes", format!("unknown mode {m:?}")))
+                    })
+                    .collect::<Result<Vec<_>, _>>()?
+            };
+            let fams = if star(c[3]) {
+                Vec::new()
+            } else {
+                let v: Vec<String> = list(c[3]).iter().map(|x| x.to_string()).collect();
+                if let Some(bad) = v.iter().find(|x| !families.contains(&x.as_str())) {
+                    return Err(err(
+                        f,
+                        line,
+                        "families",
+                        format!("unknown base family {bad:?}"),
+                    ));
+                }
+                v
+            };
+            let patterns = c[4]
+                .split(" & ")
+                .map(|p| {
+                    Pattern::parse(p.trim()).map_err(|e| err(f, line, "patterns", format!("{e}")))
+                })
+                .collect::<Result<Vec<_>, _>>()?;
+            side.push(SideReaction {
+                id: c[0].to_string(),
+                reactions,
+                modes,
+                families: fams,
+                patterns,
+                message: c[5].to_string(),
+                source: check_source(f, line, c[6])?,
+            });
+        }
         Ok(Practice {
             reactions,
             modes,
             systems: systems_out,
             rows: out,
+            side_reactions: side,
         })
     }
 }
@@ -663,6 +762,7 @@ pub fn practice() -> Result<&'static Practice, CatalogueError> {
             MODES_TEXT,
             SYSTEMS_TEXT,
             PRACTICE_TEXT,
+            SIDE_TEXT,
             SOURCES_TEXT,
             cat,
         )
@@ -681,6 +781,7 @@ mod tests {
             MODES_TEXT,
             SYSTEMS_TEXT,
             practice_text,
+            SIDE_TEXT,
             SOURCES_TEXT,
             catalogue().unwrap(),
         )
@@ -745,6 +846,23 @@ mod tests {
 
     fn header() -> &'static str {
         "id\treactions\tcontrol\tsmarts\tmode\tprefer\texclude\texclude_kind\texclude_reason\tequivalents\tmin_fraction\tnote\tsource\n"
+    }
+
+    #[test]
+    fn parse_given_side_reaction_with_unknown_family_is_rejected() {
+        let side = "id\treactions\tmodes\tfamilies\tpatterns\tmessage\tsource\nSR-X\t*\t*\tdragons\tC=O\twatch out\tcommon-practice\n";
+        let e = Practice::parse(
+            REACTIONS_TEXT,
+            MODES_TEXT,
+            SYSTEMS_TEXT,
+            PRACTICE_TEXT,
+            side,
+            SOURCES_TEXT,
+            catalogue().unwrap(),
+        )
+        .unwrap_err();
+        assert_eq!(e.file, "fragments/side_reactions.tsv");
+        assert!(e.message.contains("dragons"), "{e}");
     }
 
     #[test]

@@ -474,6 +474,24 @@ pub(super) fn advise_core(
         });
     }
     molecule_warnings(&ctx, chosen, &mut warnings);
+    // Side reactions from the data, for this reaction, mode and base.
+    if let Some(t) = smarts_target {
+        let family = chosen.map(|e| e.base.family.name());
+        for sr in &data.side_reactions {
+            if sr.applies(reaction, mode, family) && sr.found_in(t) {
+                warnings.push(Warning {
+                    kind: WarningKind::SideReaction,
+                    message: format!("{} [{}]", sr.message, sr.id),
+                });
+            }
+        }
+    }
+    if f.sites.get(target).map(|x| x.labelled).unwrap_or(false) {
+        warnings.push(Warning {
+            kind: WarningKind::LabelExchange,
+            message: "the target carries deuterium or tritium: deprotonation and any protic work-up exchange the label; quench with D2O (or the labelled acid) and keep protic solvents out if the label is to stay".into(),
+        });
+    }
 
     let two_sides = ctx
         .target_unit

@@ -217,6 +217,10 @@ pub enum WarningKind {
     RequestedBase,
     RequestedEquivalents,
     NoBase,
+    /// A side reaction from `fragments/side_reactions.tsv`.
+    SideReaction,
+    /// A deuterium or tritium label on the target exchanges.
+    LabelExchange,
 }
 
 impl WarningKind {
@@ -234,6 +238,8 @@ impl WarningKind {
             WarningKind::RequestedBase => "requested-base",
             WarningKind::RequestedEquivalents => "requested-equivalents",
             WarningKind::NoBase => "no-base",
+            WarningKind::SideReaction => "side-reaction",
+            WarningKind::LabelExchange => "label-exchange",
         }
     }
 }
