@@ -68,7 +68,8 @@ fn wd(addr: &str, method: &str, path: &str, body: Option<Value>) -> Value {
 
 impl<'a> Session<'a> {
     fn new(driver: &'a Driver, chromium: &Path, downloads: &Path) -> Session<'a> {
-        let profile = std::env::temp_dir().join(format!("acidsite-chr-{}", std::process::id()));
+        // The browser profile lives beside the downloads (removed at the end).
+        let profile = downloads.with_file_name("profile");
         let caps = json!({"capabilities": {"alwaysMatch": {
             "browserName": "chrome",
             "goog:chromeOptions": {
