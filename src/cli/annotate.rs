@@ -103,7 +103,7 @@ pub struct Args {
 }
 
 /// What every worker needs to turn a raw line into output text.
-struct Context_ {
+pub struct Job {
     format: InputFormat,
     /// CSV/TSV: index of the SMILES column, the id column, and the header.
     smiles_col: usize,
@@ -115,6 +115,149 @@ struct Context_ {
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
+}
+
+/// What to write for each record.
+#[derive(Debug, Clone, Copy)]
+pub struct Output {
+    /// JSON Lines, CSV or TSV.
+    pub format: OutputFormat,
+    /// CSV/TSV: one row per site.
+    pub per_site: bool,
+    /// Also render an HTML card per record.
+    pub html: bool,
+}
+
+/// Names of the input columns chosen on the command line (or by the page).
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Columns<'a> {
+    pub smiles: Option<&'a str>,
+    pub id: Option<&'a str>,
+    pub reaction: Option<&'a str>,
+}
+
+impl Job {
+    /// Read the header row of CSV/TSV input from `source` (named `shown` in
+    /// messages) and set up the rendering of every record. Used by `annotate`
+    /// and by the page's `/api/annotate` (`acidsite serve`).
+    pub fn new(
+        source: &mut LineSource,
+        shown: &str,
+        format: InputFormat,
+        cols: Columns<'_>,
+        opts: Options,
+        out: Output,
+    ) -> anyhow::Result<Job> {
+        let Output {
+            format: output,
+            per_site,
+            html,
+        } = out;
+        // Header of CSV/TSV input.
+        let (header, smiles_col, id_col) = match format {
+            InputFormat::Smi => (Vec::new(), 0, None),
+            InputFormat::Csv | InputFormat::Tsv => {
+                let first = source
+                    .next_record_line()
+                    .with_context(|| format!("cannot read {shown}"))?;
+                let Some(first) = first else {
+                    anyhow::bail!("{shown} has no header row");
+                };
+                let text = String::from_utf8_lossy(&first.bytes);
+                let header: Vec<String> = split_fields(format, &text)
+                    .with_context(|| format!("{shown}: header row has an unterminated quote"))?
+                    .into_iter()
+                    .map(|h| h.trim().to_string())
+                    .collect();
+                let smiles_col =
+                    pick_column(&header, cols.smiles, &["smiles"]).with_context(|| {
+                        format!(
+                            "{shown}: no SMILES column {}; header has: {}",
+                            cols.smiles
+                                .map(|c| format!("named {c:?}"))
+                                .unwrap_or_else(
+                                    || "named \"smiles\" (choose one with --column)".into()
+                                ),
+                            header.join(", ")
+                        )
+                    })?;
+                let id_col = match cols.id {
+                    Some(name) => {
+                        Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                            format!(
+                                "{shown}: no column named {name:?}; header has: {}",
+                                header.join(", ")
+                            )
+                        })?)
+                    }
+                    None => {
+                        pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col)
+                    }
+                };
+                (header, smiles_col, id_col)
+            }
+        };
+        let reaction_col = match cols.reaction {
+            None => None,
+            Some(name) => {
+                if format == InputFormat::Smi {
+                    anyhow::bail!(
+                        "--reaction-column needs CSV or TSV input (--input-format csv|tsv)"
+                    );
+                }
+                Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                    format!(
+                        "{shown}: no column named {name:?} for --reaction-column; header has: {}",
+                        header.join(", ")
+                    )
+                })?)
+            }
+        };
+        let carried: Vec<String> = header
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
+            .map(|(_, h)| h.clone())
+            .collect();
+        let rows = match output {
+            OutputFormat::Jsonl => None,
+            OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
+                delimiter: if output == OutputFormat::Csv {
+                    Delimiter::Comma
+                } else {
+                    Delimiter::Tab
+                },
+                layout: if per_site {
+                    Layout::Site
+                } else {
+                    Layout::Molecule
+                },
+                carried,
+            }),
+        };
+        Ok(Job {
+            format,
+            smiles_col,
+            id_col,
+            header,
+            opts,
+            reaction_col,
+            rows,
+            html,
+        })
+    }
+
+    /// The header line of CSV/TSV output (None for JSON Lines).
+    pub fn header_line(&self) -> Option<String> {
+        self.rows.as_ref().map(RowWriter::header)
+    }
+
+    /// One raw line to its output text, whether it was analysed, and its
+    /// HTML card when asked for (never panics: a library panic becomes an
+    /// `internal` error record).
+    pub fn render(&self, raw: &RawLine) -> Rendered {
+        render_record(raw, self)
+    }
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -137,84 +280,16 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let mut source =
         LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
 
-    // Header of CSV/TSV input.
-    let (header, smiles_col, id_col) = match format {
-        InputFormat::Smi => (Vec::new(), 0, None),
-        InputFormat::Csv | InputFormat::Tsv => {
-            let first = source
-                .next_record_line()
-                .with_context(|| format!("cannot read {shown}"))?;
-            let Some(first) = first else {
-                anyhow::bail!("{shown} has no header row");
-            };
-            let text = String::from_utf8_lossy(&first.bytes);
-            let header: Vec<String> = split_fields(format, &text)
-                .with_context(|| format!("{shown}: header row has an unterminated quote"))?
-                .into_iter()
-                .map(|h| h.trim().to_string())
-                .collect();
-            let smiles_col = pick_column(&header, args.column.as_deref(), &["smiles"])
-                .with_context(|| {
-                    format!(
-                        "{shown}: no SMILES column {}; header has: {}",
-                        args.column.as_deref().map(|c| format!("named {c:?}")).unwrap_or_else(|| "named \"smiles\" (choose one with --column)".into()),
-                        header.join(", ")
-                    )
-                })?;
-            let id_col = match args.id_column.as_deref() {
-                Some(name) => Some(pick_column(&header, Some(name), &[]).with_context(|| {
-                    format!(
-                        "{shown}: no column named {name:?}; header has: {}",
-                        header.join(", ")
-                    )
-                })?),
-                None => pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col),
-            };
-            (header, smiles_col, id_col)
-        }
-    };
-    let reaction_col = match args.reaction_column.as_deref() {
-        None => None,
-        Some(name) => {
-            if format == InputFormat::Smi {
-                anyhow::bail!("--reaction-column needs CSV or TSV input (--input-format csv|tsv)");
-            }
-            Some(pick_column(&header, Some(name), &[]).with_context(|| {
-                format!(
-                    "{shown}: no column named {name:?} for --reaction-column; header has: {}",
-                    header.join(", ")
-                )
-            })?)
-        }
-    };
-    let carried: Vec<String> = header
-        .iter()
-        .enumerate()
-        .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
-        .map(|(_, h)| h.clone())
-        .collect();
-    let rows = match args.format {
-        OutputFormat::Jsonl => None,
-        OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
-            delimiter: if args.format == OutputFormat::Csv {
-                Delimiter::Comma
-            } else {
-                Delimiter::Tab
-            },
-            layout: if args.per_site {
-                Layout::Site
-            } else {
-                Layout::Molecule
-            },
-            carried,
-        }),
-    };
-    let ctx = Context_ {
+    let ctx = Job::new(
+        &mut source,
+        &shown,
         format,
-        smiles_col,
-        id_col,
-        header,
-        opts: Options {
+        Columns {
+            smiles: args.column.as_deref(),
+            id: args.id_column.as_deref(),
+            reaction: args.reaction_column.as_deref(),
+        },
+        Options {
             site: None,
             base: args.base.clone(),
             scale: args.scale.into(),
@@ -223,10 +298,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             reaction: args.reaction,
             control: args.control,
         },
-        reaction_col,
-        rows,
-        html: args.html.is_some(),
-    };
+        Output {
+            format: args.format,
+            per_site: args.per_site,
+            html: args.html.is_some(),
+        },
+    )?;
 
     let mut out: Box<dyn Write + Send> = match &args.output {
         Some(p) => Box::new(io::BufWriter::with_capacity(
@@ -394,12 +471,12 @@ const SCRATCH_KEEP: usize = 1 << 20;
 
 /// A rendered record: its output text, whether it was analysed, and its
 /// HTML card when asked for.
-type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
 
 /// One raw line to its output text, rendered in the worker's reused buffer
 /// and copied out at its exact size, whether it was analysed, and its HTML
 /// card when asked for.
-fn render_record(raw: &RawLine, ctx: &Context_) -> Rendered {
+fn render_record(raw: &RawLine, ctx: &Job) -> Rendered {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
@@ -418,7 +495,7 @@ fn render_record(raw: &RawLine, ctx: &Context_) -> Rendered {
 /// returns whether the record was analysed.
 fn process_guarded(
     raw: &RawLine,
-    ctx: &Context_,
+    ctx: &Job,
     out: &mut Vec<u8>,
     card: &mut Option<Box<[u8]>>,
 ) -> bool {
@@ -457,7 +534,7 @@ fn process_guarded(
 }
 
 /// Append the record's output text (a JSON line, or CSV/TSV rows) to `out`.
-fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
+fn render(rec: &Record, ctx: &Job, out: &mut Vec<u8>) {
     match &ctx.rows {
         Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
         None => {
@@ -469,7 +546,7 @@ fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
 
 /// One raw line to its output text (appended to `out`); returns whether it
 /// was analysed.
-fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
+fn process(raw: &RawLine, ctx: &Job, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
     if ctx.html {
@@ -479,7 +556,7 @@ fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<B
     rec.ok
 }
 
-fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
+fn record_for(raw: &RawLine, ctx: &Job) -> Record {
     let fail = |input: String,
                 id: Option<String>,
                 kind: &str,
