@@ -43,7 +43,7 @@ pub struct MoleculeFeatures {
     /// next to a much more acidic carbon site (the γ-CH3 of a β-keto ester
     /// beside its CH2) is not an alternative position of that anion but a
     /// second proton, removed only after the first; it forms its own unit
-    /// and its pKa is raised by [`DIANION_SHIFT`]. 0 for every other site.
+    /// and its pKa is raised by `DIANION_SHIFT` (10 units). 0 for every other site.
     pub second_stage_shift: Vec<f64>,
 }
 
