@@ -374,12 +374,27 @@ pub(super) fn advise_core(
             message,
         });
     }
+    // Every conversion reported is the whole equilibrium at the advised
+    // equivalents, nothing set aside (as `acidsite equilibrium` solves it).
+    let no_exclusion: Rc<[usize]> = Rc::from([]);
+    let exact_of = |e: &Eval| -> Option<f64> {
+        let l = e.lean?;
+        solve_lean(
+            &ctx,
+            l.base_pka,
+            l.scale,
+            e.equivalents,
+            l.a0,
+            &no_exclusion,
+        )
+        .map(|x| x.1)
+    };
     let alternatives: Vec<Alternative> = listed
         .iter()
         .map(|e| Alternative {
             base: e.base.name.as_str(),
             equivalents: e.equivalents,
-            conversion: e.conversion,
+            conversion: exact_of(e).unwrap_or(e.conversion),
             scale: e.scale.unwrap_or(Scale::Dmso),
             solvent: e.solvent.to_string(),
             temperature: temperature(e.base),
@@ -541,19 +556,7 @@ pub(super) fn advise_core(
     // equivalents, nothing set aside (as `acidsite equilibrium` solves it),
     // through the allocation-free lean solver; the per-site breakdown only
     // when asked for.
-    let no_exclusion: Rc<[usize]> = Rc::from([]);
-    let exact_conversion: Option<f64> = chosen.and_then(|e| {
-        let l = e.lean?;
-        solve_lean(
-            &ctx,
-            l.base_pka,
-            l.scale,
-            e.equivalents,
-            l.a0,
-            &no_exclusion,
-        )
-        .map(|x| x.1)
-    });
+    let exact_conversion: Option<f64> = chosen.and_then(exact_of);
     let exact = chosen
         .filter(|_| opts.full_equilibrium)
         .and_then(|e| full_equilibrium(&ctx, e));

@@ -392,7 +392,7 @@ pub(super) fn word_notes(ctx: &Ctx, ev: &mut Eval) {
         let mut notes = Vec::with_capacity(unit_notes.len() + 1);
         if w.n_counted > 0 {
             let n = format!(
-                "the {} counted proton(s) are taken as removed first and leave the equilibrium with the base they consume",
+                "the {} counted proton(s) go first and consume base; the conversion is the whole equilibrium at these equivalents",
                 w.n_counted
             );
             if !ev.eq_notes.contains(&n) {
