@@ -26,6 +26,7 @@ struct RecordMirror {
     advice_note: Option<String>,
     mapped_smiles: Option<String>,
     flags: Option<BTreeMap<String, u64>>,
+    flag_warnings: Option<Vec<String>>,
     error: Option<ErrorMirror>,
 }
 

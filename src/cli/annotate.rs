@@ -213,6 +213,9 @@ impl Job {
                 })?)
             }
         };
+        // Column names carried into records must be unique (JSON keys):
+        // a repeated header becomes `name_2`, `name_3`, ... (issue 17).
+        let header = unique_names(header);
         let carried: Vec<String> = header
             .iter()
             .enumerate()
@@ -263,7 +266,21 @@ impl Job {
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let started = Instant::now();
     super::check_base(args.base.as_deref())?;
+    super::check_flags(&args.flags)?;
     let path = args.input.clone().filter(|p| p.as_os_str() != "-");
+    // Never write onto the input (issue 17): refused before anything is
+    // opened for writing.
+    if let Some(o) = &args.output {
+        super::output::refuse_onto_input(path.as_deref(), o, "-o")?;
+    }
+    if let Some(h) = &args.html {
+        super::output::refuse_onto_input(path.as_deref(), h, "--html")?;
+    }
+    if let (Some(o), Some(h)) = (&args.output, &args.html) {
+        if o == h {
+            anyhow::bail!("-o and --html name the same file {}", o.display());
+        }
+    }
     let format = args.input_format.unwrap_or_else(|| match &path {
         Some(p) => InputFormat::from_path(p),
         None => InputFormat::Smi,
@@ -305,23 +322,16 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         },
     )?;
 
-    let mut out: Box<dyn Write + Send> = match &args.output {
-        Some(p) => Box::new(io::BufWriter::with_capacity(
-            1 << 16,
-            std::fs::File::create(p).with_context(|| format!("cannot write {}", p.display()))?,
-        )),
-        None => Box::new(io::BufWriter::with_capacity(1 << 16, io::stdout())),
-    };
+    // Files are written under a temporary name and renamed into place when
+    // the run is complete, so an interrupted run never leaves a half file
+    // under the final name.
+    let mut out = super::output::Sink::open(args.output.as_deref())?;
     if let Some(w) = &ctx.rows {
         out.write_all(w.header().as_bytes())?;
     }
     let mut html_out = match &args.html {
         Some(p) => {
-            let mut w = io::BufWriter::with_capacity(
-                1 << 16,
-                std::fs::File::create(p)
-                    .with_context(|| format!("cannot write {}", p.display()))?,
-            );
+            let mut w = super::output::SafeFile::create(p)?;
             w.write_all(super::html::head(&format!("acidsite: {shown}")).as_bytes())?;
             Some(w)
         }
@@ -394,11 +404,10 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         }
         Ok((records, failed))
     })?;
-    out.flush()?;
-    drop(out);
+    out.finish()?;
     if let Some(mut h) = html_out {
         h.write_all(super::html::tail(records, failed).as_bytes())?;
-        h.flush()?;
+        h.commit()?;
     }
     if let Some(b) = bar {
         b.finish_and_clear();
@@ -440,6 +449,31 @@ fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
 
 /// Column index by explicit name (exact, then any case) or by the first of
 /// the default names (any case).
+/// Header names made unique: each name keeps its first occurrence; a
+/// repeat becomes `name_2`, `name_3`, ..., the first suffix that no column of
+/// the header already uses (so `note,note,note_2` gives `note, note_3,
+/// note_2`).
+fn unique_names(header: Vec<String>) -> Vec<String> {
+    let original: std::collections::HashSet<String> = header.iter().cloned().collect();
+    let mut out: Vec<String> = Vec::with_capacity(header.len());
+    for h in header {
+        if !out.contains(&h) {
+            out.push(h);
+            continue;
+        }
+        let mut k = 2;
+        let name = loop {
+            let c = format!("{h}_{k}");
+            if !original.contains(&c) && !out.contains(&c) {
+                break c;
+            }
+            k += 1;
+        };
+        out.push(name);
+    }
+    out
+}
+
 fn pick_column(header: &[String], name: Option<&str>, defaults: &[&str]) -> Option<usize> {
     if let Some(n) = name {
         return header

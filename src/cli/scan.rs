@@ -42,6 +42,7 @@ pub struct Args {
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     super::check_base(args.base.as_deref())?;
+    super::check_flags(&args.flags)?;
     let opts = Options {
         site: args.site,
         base: args.base.clone(),

@@ -33,6 +33,13 @@ impl Scale {
     }
 }
 
+/// At most this many unique matches of a `--flag` pattern are counted per
+/// molecule; a record that reaches it says so in `flag_warnings`.
+pub const FLAG_MAX_MATCHES: usize = 10_000;
+/// At most this many matcher steps per `--flag` pattern and molecule (well
+/// under a second).
+pub const FLAG_MAX_STEPS: u64 = 10_000_000;
+
 /// A named SMARTS pattern counted in every record (`--flag NAME=SMARTS`).
 #[derive(Debug, Clone)]
 pub struct Flag {
@@ -165,13 +172,32 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
     // record.
     let sites_out = site_records(report);
     let mapped = mapped_smiles(smiles, &mol, &sites_out);
+    // User patterns are counted with bounds (issue 17): a pattern such as a
+    // 20-atom chain on a large cage has astronomically many matches.
+    let mut flag_warnings: Vec<String> = Vec::new();
     let flags = if opts.flags.is_empty() {
         None
     } else {
         Some(Pairs(
             opts.flags
                 .iter()
-                .map(|f| (f.name.clone(), f.pattern.count_unique_in(&target) as u64))
+                .map(|f| {
+                    let (n, bound) =
+                        f.pattern
+                            .count_unique_bounded(&target, FLAG_MAX_MATCHES, FLAG_MAX_STEPS);
+                    match bound {
+                        Some(crate::smarts::CountBound::Matches) => flag_warnings.push(format!(
+                            "pattern {}: more than {FLAG_MAX_MATCHES} matches, count stopped",
+                            f.name
+                        )),
+                        Some(crate::smarts::CountBound::Steps) => flag_warnings.push(format!(
+                            "pattern {}: search stopped after {FLAG_MAX_STEPS} steps; at least {n} matches",
+                            f.name
+                        )),
+                        None => {}
+                    }
+                    (f.name.clone(), n as u64)
+                })
                 .collect(),
         ))
     };
@@ -191,6 +217,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         advice_note,
         mapped_smiles: mapped,
         flags,
+        flag_warnings: (!flag_warnings.is_empty()).then_some(flag_warnings),
         error: None,
     }
 }

@@ -130,7 +130,7 @@ impl RowWriter {
                 let sites: &[SiteOut] = rec.sites.as_deref().unwrap_or(&[]);
                 if sites.is_empty() {
                     let mut f = lead;
-                    f.extend(std::iter::repeat_n(String::new(), 8));
+                    f.extend(std::iter::repeat_n(String::new(), 9));
                     f.push(error);
                     return self.join(&f);
                 }

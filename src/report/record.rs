@@ -36,7 +36,8 @@
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
 //! | `advice_note` | string | only when `advice` is null: why |
 //! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number |
-//! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given |
+//! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given (at most 10,000 matches and 10^7 matcher steps per pattern and molecule) |
+//! | `flag_warnings` | array of string | only when a `--flag` count reached a bound: the pattern and the bound; its count is then a lower bound |
 //!
 //! On failure (`ok: false`): `error` with `kind` (`syntax`, `ring_closure`,
 //! `aromaticity`, `valence`, `unsupported`, `too_large`, `empty`, `encoding`,
@@ -91,6 +92,10 @@ pub struct Record {
     pub mapped_smiles: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub flags: Option<Pairs<u64>>,
+    /// Only when a `--flag` count reached a bound: which pattern and which
+    /// bound (the count in `flags` is then a lower bound).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub flag_warnings: Option<Vec<String>>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub error: Option<ErrorOut>,
 }
@@ -113,6 +118,7 @@ impl Record {
             advice_note: None,
             mapped_smiles: None,
             flags: None,
+            flag_warnings: None,
             error: Some(error),
         }
     }
@@ -180,6 +186,10 @@ impl Record {
         if let Some(f) = &self.flags {
             out.extend_from_slice(b",\"flags\":");
             f.write_json(out, |o, v| json::uint(o, *v));
+        }
+        if let Some(w) = &self.flag_warnings {
+            out.extend_from_slice(b",\"flag_warnings\":");
+            json::array(out, w, |o, x| json::string(o, x));
         }
         if let Some(e) = &self.error {
             out.extend_from_slice(b",\"error\":{\"kind\":");
