@@ -221,3 +221,50 @@ fn annotate_given_per_site_csv_keeps_the_header_width_on_every_row_issue17() {
         }
     }
 }
+
+fn records(out: &std::process::Output) -> Vec<serde_json::Value> {
+    String::from_utf8_lossy(&out.stdout)
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect()
+}
+
+#[test]
+fn annotate_given_lone_cr_line_ends_reads_one_record_per_line_issue17() {
+    let o = common::run_binary(&["annotate", "-", "-q"], b"CCO a\rCC(C)=O b\rCCN c\r");
+    let r = records(&o);
+    assert_eq!(r.len(), 3);
+    assert_eq!(r[2]["id"], "c");
+    assert_eq!(r[2]["line"], 3);
+    // CR LF stays one line end.
+    let o = common::run_binary(&["annotate", "-", "-q"], b"CCO a\r\nCCN b\r\n");
+    assert_eq!(records(&o).len(), 2);
+}
+
+#[test]
+fn annotate_given_vertical_tab_or_form_feed_lines_treats_both_as_blank_issue17() {
+    let o = common::run_binary(&["annotate", "-", "-q"], b"CCO a\n\x0b\n\x0c\nCCN b\n");
+    let r = records(&o);
+    assert_eq!(r.len(), 2, "{r:?}");
+    assert_eq!(o.status.code(), Some(0));
+}
+
+#[test]
+fn annotate_given_quoted_csv_field_with_line_breaks_keeps_one_record_issue17() {
+    let input =
+        b"smiles,id,comment\nCCO,e1,\"two\nlines\"\nCCN,e2,\"say \"\"hi\"\"\"\nCC(C)=O,e3,plain\n";
+    let o = common::run_binary(&["annotate", "-", "--input-format", "csv", "-q"], input);
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let r = records(&o);
+    assert_eq!(r.len(), 3);
+    assert_eq!(r[0]["columns"]["comment"], "two\nlines");
+    assert_eq!(r[0]["line"], 2, "the physical line where the record starts");
+    assert_eq!(r[1]["line"], 4);
+    assert_eq!(r[1]["columns"]["comment"], "say \"hi\"");
+    assert_eq!(r[2]["id"], "e3");
+}

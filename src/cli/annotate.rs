@@ -148,6 +148,7 @@ impl Job {
         opts: Options,
         out: Output,
     ) -> anyhow::Result<Job> {
+        source.csv_quotes = format == InputFormat::Csv;
         let Output {
             format: output,
             per_site,
