@@ -268,3 +268,51 @@ fn annotate_given_quoted_csv_field_with_line_breaks_keeps_one_record_issue17() {
     assert_eq!(r[1]["columns"]["comment"], "say \"hi\"");
     assert_eq!(r[2]["id"], "e3");
 }
+
+#[test]
+fn annotate_given_truncated_gzip_keeps_the_records_before_the_damage_issue17() {
+    use std::io::Write;
+    let d = dir("gzip");
+    let mut text = String::new();
+    for i in 0..20_000 {
+        text.push_str(&format!("CC(=O)C{} m{i}\n", "C".repeat(i % 7)));
+    }
+    let mut enc = flate2::write::GzEncoder::new(Vec::new(), flate2::Compression::default());
+    enc.write_all(text.as_bytes()).unwrap();
+    let gz = enc.finish().unwrap();
+    let path = d.join("list.smi.gz");
+    std::fs::write(&path, &gz[..gz.len() / 2]).unwrap();
+    let out = d.join("out.jsonl");
+    let o = common::run_binary(
+        &[
+            "annotate",
+            path.to_str().unwrap(),
+            "-o",
+            out.to_str().unwrap(),
+            "-q",
+            "--sites-only",
+        ],
+        b"",
+    );
+    assert_eq!(
+        o.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let recs: Vec<serde_json::Value> = std::fs::read_to_string(&out)
+        .unwrap()
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
+    assert!(recs.len() > 5_000, "{} records kept", recs.len());
+    let last = recs.last().unwrap();
+    assert_eq!(last["ok"], false);
+    assert_eq!(last["error"]["kind"], "input");
+    // Every record before the damage is whole and in order.
+    for (i, r) in recs[..recs.len() - 1].iter().enumerate() {
+        assert_eq!(r["id"], format!("m{i}"));
+        assert_eq!(r["input"], format!("CC(=O)C{}", "C".repeat(i % 7)));
+    }
+    let _ = std::fs::remove_dir_all(&d);
+}

@@ -403,6 +403,31 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             pending_upto = read_upto;
             read_upto = source.consumed.load(Ordering::Relaxed);
         }
+        // Damaged input after some records (a truncated gzip stream): the
+        // records before it are written; the damage is one error record.
+        if let Some((line, message)) = source.read_error.take() {
+            let rec = Record::failure(
+                line,
+                None,
+                String::new(),
+                ErrorOut {
+                    kind: "input".into(),
+                    message: format!(
+                        "the input could not be read past line {}: {message}; the records before it are complete",
+                        line.saturating_sub(1)
+                    ),
+                    position: None,
+                },
+            );
+            let mut buf = Vec::new();
+            render(&rec, &ctx, &mut buf);
+            out.write_all(&buf)?;
+            if let Some(h) = html_out.as_mut() {
+                h.write_all(super::html::card(&rec, None).as_bytes())?;
+            }
+            records += 1;
+            failed += 1;
+        }
         Ok((records, failed))
     })?;
     out.finish()?;

@@ -81,6 +81,11 @@ pub struct LineSource {
     /// physical line goes on over the next line (RFC 4180 quoted line
     /// breaks); the record keeps the line number where it starts.
     pub csv_quotes: bool,
+    /// A read error met after the start of the input (a damaged gzip
+    /// stream, a device error): the lines before it were returned, the line
+    /// it cut is dropped, and the caller reports it as the last record
+    /// (issue 17). (line number where reading stopped, message)
+    pub read_error: Option<(u64, String)>,
 }
 
 impl LineSource {
@@ -145,6 +150,7 @@ impl LineSource {
             total,
             done: false,
             csv_quotes: false,
+            read_error: None,
         })
     }
 
@@ -158,6 +164,7 @@ impl LineSource {
             total: None,
             done: false,
             csv_quotes: false,
+            read_error: None,
         }
     }
 
@@ -223,12 +230,19 @@ impl LineSource {
         let mut chunk = Vec::new();
         let mut bytes = 0usize;
         while chunk.len() < max_lines && bytes < max_bytes {
-            match self.next_record_line()? {
-                Some(l) => {
+            match self.next_record_line() {
+                Ok(Some(l)) => {
                     bytes += l.bytes.len();
                     chunk.push(l);
                 }
-                None => break,
+                Ok(None) => break,
+                Err(e) => {
+                    // Keep what was read; the damage is reported once, after
+                    // the records before it.
+                    self.done = true;
+                    self.read_error = Some((self.line_no + 1, e.to_string()));
+                    break;
+                }
             }
         }
         Ok(chunk)
