@@ -69,6 +69,18 @@ pub struct Args {
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
     /// pKa scale used to rank the sites.
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
+    /// CSV/TSV input: take the planned reaction of each row from this column
+    /// (an empty cell: `--reaction`, else alkylation; an unknown name: an error record).
+    #[arg(long, value_name = "NAME")]
+    pub reaction_column: Option<String>,
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
     /// Worker threads (0: one per core).
@@ -91,16 +103,161 @@ pub struct Args {
 }
 
 /// What every worker needs to turn a raw line into output text.
-struct Context_ {
+pub struct Job {
     format: InputFormat,
     /// CSV/TSV: index of the SMILES column, the id column, and the header.
     smiles_col: usize,
     id_col: Option<usize>,
     header: Vec<String>,
     opts: Options,
+    /// CSV/TSV: the column holding each row's planned reaction.
+    reaction_col: Option<usize>,
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
+}
+
+/// What to write for each record.
+#[derive(Debug, Clone, Copy)]
+pub struct Output {
+    /// JSON Lines, CSV or TSV.
+    pub format: OutputFormat,
+    /// CSV/TSV: one row per site.
+    pub per_site: bool,
+    /// Also render an HTML card per record.
+    pub html: bool,
+}
+
+/// Names of the input columns chosen on the command line (or by the page).
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Columns<'a> {
+    pub smiles: Option<&'a str>,
+    pub id: Option<&'a str>,
+    pub reaction: Option<&'a str>,
+}
+
+impl Job {
+    /// Read the header row of CSV/TSV input from `source` (named `shown` in
+    /// messages) and set up the rendering of every record. Used by `annotate`
+    /// and by the page's `/api/annotate` (`acidsite serve`).
+    pub fn new(
+        source: &mut LineSource,
+        shown: &str,
+        format: InputFormat,
+        cols: Columns<'_>,
+        opts: Options,
+        out: Output,
+    ) -> anyhow::Result<Job> {
+        let Output {
+            format: output,
+            per_site,
+            html,
+        } = out;
+        // Header of CSV/TSV input.
+        let (header, smiles_col, id_col) = match format {
+            InputFormat::Smi => (Vec::new(), 0, None),
+            InputFormat::Csv | InputFormat::Tsv => {
+                let first = source
+                    .next_record_line()
+                    .with_context(|| format!("cannot read {shown}"))?;
+                let Some(first) = first else {
+                    anyhow::bail!("{shown} has no header row");
+                };
+                let text = String::from_utf8_lossy(&first.bytes);
+                let header: Vec<String> = split_fields(format, &text)
+                    .with_context(|| format!("{shown}: header row has an unterminated quote"))?
+                    .into_iter()
+                    .map(|h| h.trim().to_string())
+                    .collect();
+                let smiles_col =
+                    pick_column(&header, cols.smiles, &["smiles"]).with_context(|| {
+                        format!(
+                            "{shown}: no SMILES column {}; header has: {}",
+                            cols.smiles
+                                .map(|c| format!("named {c:?}"))
+                                .unwrap_or_else(
+                                    || "named \"smiles\" (choose one with --column)".into()
+                                ),
+                            header.join(", ")
+                        )
+                    })?;
+                let id_col = match cols.id {
+                    Some(name) => {
+                        Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                            format!(
+                                "{shown}: no column named {name:?}; header has: {}",
+                                header.join(", ")
+                            )
+                        })?)
+                    }
+                    None => {
+                        pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col)
+                    }
+                };
+                (header, smiles_col, id_col)
+            }
+        };
+        let reaction_col = match cols.reaction {
+            None => None,
+            Some(name) => {
+                if format == InputFormat::Smi {
+                    anyhow::bail!(
+                        "--reaction-column needs CSV or TSV input (--input-format csv|tsv)"
+                    );
+                }
+                Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                    format!(
+                        "{shown}: no column named {name:?} for --reaction-column; header has: {}",
+                        header.join(", ")
+                    )
+                })?)
+            }
+        };
+        let carried: Vec<String> = header
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
+            .map(|(_, h)| h.clone())
+            .collect();
+        let rows = match output {
+            OutputFormat::Jsonl => None,
+            OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
+                delimiter: if output == OutputFormat::Csv {
+                    Delimiter::Comma
+                } else {
+                    Delimiter::Tab
+                },
+                layout: if per_site {
+                    Layout::Site
+                } else {
+                    Layout::Molecule
+                },
+                carried,
+            }),
+        };
+        Ok(Job {
+            format,
+            smiles_col,
+            id_col,
+            header,
+            opts,
+            reaction_col,
+            rows,
+            html,
+        })
+    }
+
+    /// The header line of CSV/TSV output (None for JSON Lines).
+    pub fn header_line(&self) -> Option<String> {
+        self.rows.as_ref().map(RowWriter::header)
+    }
+
+    /// One raw line to its output text, whether it was analysed, and its
+    /// HTML card when asked for (never panics: a library panic becomes an
+    /// `internal` error record).
+    pub fn render(&self, raw: &RawLine) -> Rendered {
+        render_record(raw, self)
+    }
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -123,79 +280,30 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let mut source =
         LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
 
-    // Header of CSV/TSV input.
-    let (header, smiles_col, id_col) = match format {
-        InputFormat::Smi => (Vec::new(), 0, None),
-        InputFormat::Csv | InputFormat::Tsv => {
-            let first = source
-                .next_record_line()
-                .with_context(|| format!("cannot read {shown}"))?;
-            let Some(first) = first else {
-                anyhow::bail!("{shown} has no header row");
-            };
-            let text = String::from_utf8_lossy(&first.bytes);
-            let header: Vec<String> = split_fields(format, &text)
-                .with_context(|| format!("{shown}: header row has an unterminated quote"))?
-                .into_iter()
-                .map(|h| h.trim().to_string())
-                .collect();
-            let smiles_col = pick_column(&header, args.column.as_deref(), &["smiles"])
-                .with_context(|| {
-                    format!(
-                        "{shown}: no SMILES column {}; header has: {}",
-                        args.column.as_deref().map(|c| format!("named {c:?}")).unwrap_or_else(|| "named \"smiles\" (choose one with --column)".into()),
-                        header.join(", ")
-                    )
-                })?;
-            let id_col = match args.id_column.as_deref() {
-                Some(name) => Some(pick_column(&header, Some(name), &[]).with_context(|| {
-                    format!(
-                        "{shown}: no column named {name:?}; header has: {}",
-                        header.join(", ")
-                    )
-                })?),
-                None => pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col),
-            };
-            (header, smiles_col, id_col)
-        }
-    };
-    let carried: Vec<String> = header
-        .iter()
-        .enumerate()
-        .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
-        .map(|(_, h)| h.clone())
-        .collect();
-    let rows = match args.format {
-        OutputFormat::Jsonl => None,
-        OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
-            delimiter: if args.format == OutputFormat::Csv {
-                Delimiter::Comma
-            } else {
-                Delimiter::Tab
-            },
-            layout: if args.per_site {
-                Layout::Site
-            } else {
-                Layout::Molecule
-            },
-            carried,
-        }),
-    };
-    let ctx = Context_ {
+    let ctx = Job::new(
+        &mut source,
+        &shown,
         format,
-        smiles_col,
-        id_col,
-        header,
-        opts: Options {
+        Columns {
+            smiles: args.column.as_deref(),
+            id: args.id_column.as_deref(),
+            reaction: args.reaction_column.as_deref(),
+        },
+        Options {
             site: None,
             base: args.base.clone(),
             scale: args.scale.into(),
             flags: args.flags.clone(),
             sites_only: args.sites_only,
+            reaction: args.reaction,
+            control: args.control,
         },
-        rows,
-        html: args.html.is_some(),
-    };
+        Output {
+            format: args.format,
+            per_site: args.per_site,
+            html: args.html.is_some(),
+        },
+    )?;
 
     let mut out: Box<dyn Write + Send> = match &args.output {
         Some(p) => Box::new(io::BufWriter::with_capacity(
@@ -237,7 +345,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(Box<[u8]>, bool, Option<Box<[u8]>>)> = Vec::new();
+        let mut pending: Vec<Rendered> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -361,10 +469,14 @@ thread_local! {
 /// A worker's buffer larger than this is freed rather than kept.
 const SCRATCH_KEEP: usize = 1 << 20;
 
+/// A rendered record: its output text, whether it was analysed, and its
+/// HTML card when asked for.
+pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+
 /// One raw line to its output text, rendered in the worker's reused buffer
 /// and copied out at its exact size, whether it was analysed, and its HTML
 /// card when asked for.
-fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
+fn render_record(raw: &RawLine, ctx: &Job) -> Rendered {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
@@ -383,7 +495,7 @@ fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<
 /// returns whether the record was analysed.
 fn process_guarded(
     raw: &RawLine,
-    ctx: &Context_,
+    ctx: &Job,
     out: &mut Vec<u8>,
     card: &mut Option<Box<[u8]>>,
 ) -> bool {
@@ -422,7 +534,7 @@ fn process_guarded(
 }
 
 /// Append the record's output text (a JSON line, or CSV/TSV rows) to `out`.
-fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
+fn render(rec: &Record, ctx: &Job, out: &mut Vec<u8>) {
     match &ctx.rows {
         Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
         None => {
@@ -434,7 +546,7 @@ fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
 
 /// One raw line to its output text (appended to `out`); returns whether it
 /// was analysed.
-fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
+fn process(raw: &RawLine, ctx: &Job, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
     if ctx.html {
@@ -444,7 +556,7 @@ fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<B
     rec.ok
 }
 
-fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
+fn record_for(raw: &RawLine, ctx: &Job) -> Record {
     let fail = |input: String,
                 id: Option<String>,
                 kind: &str,
@@ -520,8 +632,40 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
                     .map(|(i, h)| (h.clone(), fields.get(i).cloned().unwrap_or_default()))
                     .collect(),
             );
+            let row_reaction = ctx
+                .reaction_col
+                .and_then(|i| fields.get(i))
+                .map(|s| s.trim())
+                .filter(|s| !s.is_empty());
+            let row_opts;
+            let opts = match row_reaction {
+                None => &ctx.opts,
+                Some(name) => match acidsite::advice::practice::Reaction::parse(name) {
+                    Ok(r) => {
+                        row_opts = Options {
+                            reaction: Some(r),
+                            ..ctx.opts.clone()
+                        };
+                        &row_opts
+                    }
+                    Err(e) => {
+                        let mut rec = fail(
+                            fields.get(ctx.smiles_col).cloned().unwrap_or_default(),
+                            id,
+                            "reaction",
+                            format!(
+                                "column {:?}: {e}",
+                                ctx.header[ctx.reaction_col.unwrap_or(0)]
+                            ),
+                            None,
+                        );
+                        rec.columns = Some(columns);
+                        return rec;
+                    }
+                },
+            };
             let mut rec = match fields.get(ctx.smiles_col) {
-                Some(smiles) => analyze(smiles.trim(), raw.line, id, &ctx.opts),
+                Some(smiles) => analyze(smiles.trim(), raw.line, id, opts),
                 None => fail(
                     String::new(),
                     id,

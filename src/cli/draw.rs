@@ -24,6 +24,14 @@ pub struct Args {
     /// Evaluate this base (short name from `acidsite bases`) instead of the recommended one.
     #[arg(long, value_name = "NAME")]
     pub base: Option<String>,
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
     /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
@@ -40,6 +48,8 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         scale: args.scale.into(),
         flags: Vec::new(),
         sites_only: false,
+        reaction: args.reaction,
+        control: args.control,
     };
     let rec = analyze(args.smiles.trim(), 1, None, &opts);
     let Some(svg) = drawing(&rec, args.bond_px) else {

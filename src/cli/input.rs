@@ -98,6 +98,25 @@ impl LineSource {
                 (Box::new(f), Some(meta.len()))
             }
         };
+        LineSource::wrap(raw, total, consumed)
+    }
+
+    /// Read from bytes held in memory (an upload to `acidsite serve`); gzip
+    /// is detected by its magic bytes as for files.
+    pub fn from_bytes(bytes: Vec<u8>) -> io::Result<LineSource> {
+        let total = Some(bytes.len() as u64);
+        LineSource::wrap(
+            Box::new(io::Cursor::new(bytes)),
+            total,
+            Arc::new(AtomicU64::new(0)),
+        )
+    }
+
+    fn wrap(
+        raw: Box<dyn Read + Send>,
+        total: Option<u64>,
+        consumed: Arc<AtomicU64>,
+    ) -> io::Result<LineSource> {
         let mut buffered = BufReader::with_capacity(
             1 << 16,
             Counting {

@@ -8,6 +8,7 @@ pub mod html;
 pub mod input;
 pub mod rules;
 pub mod scan;
+pub mod serve;
 
 use acidsite::report::{Flag, Scale};
 
@@ -50,6 +51,17 @@ impl From<ScaleArg> for Scale {
 /// clap value parser for `--flag NAME=SMARTS`.
 pub fn parse_flag(spec: &str) -> Result<Flag, String> {
     Flag::parse(spec).map_err(|e| e.to_string())
+}
+
+/// clap value parser for `--reaction NAME` (an unknown name: exit 2 with the
+/// valid names).
+pub fn parse_reaction(s: &str) -> Result<acidsite::advice::practice::Reaction, String> {
+    acidsite::advice::practice::Reaction::parse(s).map_err(|e| e.to_string())
+}
+
+/// clap value parser for `--control kinetic|thermodynamic`.
+pub fn parse_control(s: &str) -> Result<acidsite::advice::practice::Control, String> {
+    acidsite::advice::practice::Control::parse(s).map_err(|e| e.to_string())
 }
 
 /// Refuse an unknown `--base` before any work (a bad option: exit 2).

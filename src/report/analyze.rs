@@ -3,9 +3,10 @@
 
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
-    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
-    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
+    Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
 };
+use crate::advice::practice::{Control, Reaction};
 use crate::advice::{advise_in, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
 use crate::sites::{self, Regio, SiteReport};
@@ -91,6 +92,10 @@ pub struct Options {
     pub flags: Vec<Flag>,
     /// Sites only: skip the base advice (`advice` is null, with a note).
     pub sites_only: bool,
+    /// The planned reaction (None: alkylation).
+    pub reaction: Option<Reaction>,
+    /// The enolate wanted where a ketone has two sides.
+    pub control: Option<Control>,
 }
 
 /// Analyse one SMILES. `line` and `id` are stamped into the record as given.
@@ -339,6 +344,8 @@ fn advice_record(
     let aopts = AdviceOptions {
         base: opts.base.clone(),
         site: opts.site,
+        reaction: opts.reaction,
+        control: opts.control,
         alternatives: Some(MAX_ALTERNATIVES),
         // Records report the conversion, not the full composition.
         full_equilibrium: false,
@@ -369,6 +376,19 @@ fn advice_record(
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
         target: a.target.atoms,
         target_note: a.target.chosen_by,
+        reaction: a.reaction.name(),
+        control: a.control.map(|c| c.name()),
+        mode: a.mode.name(),
+        mode_note: a.mode_note,
+        practice_row: a.practice_row,
+        not_judged: a
+            .not_judged
+            .into_iter()
+            .map(|n| NotJudgedOut {
+                base: n.base,
+                missing: n.missing,
+            })
+            .collect(),
         base: a.base,
         equivalents_note: a.equivalents_note,
         counted: a

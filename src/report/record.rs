@@ -18,7 +18,7 @@
 //!
 //! | key | type | meaning |
 //! |---|---|---|
-//! | `schema` | string | schema version, currently `"acidsite-record/2"` |
+//! | `schema` | string | schema version, currently `"acidsite-record/3"` |
 //! | `line` | integer | 1-based line number of the record in its input (for `scan`, the 1-based position of the argument) |
 //! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file) |
 //! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD) |
@@ -55,7 +55,7 @@ use serde::Serialize;
 pub const MAX_ALTERNATIVES: usize = 5;
 
 /// Version of the record schema, stamped into every record as `schema`.
-pub const SCHEMA: &str = "acidsite-record/2";
+pub const SCHEMA: &str = "acidsite-record/3";
 
 /// One output record (see the module documentation for the keys).
 ///
@@ -332,6 +332,18 @@ pub struct AdviceOut {
     pub target: Vec<usize>,
     /// How the target was chosen (default most acidic C–H, or `--site`).
     pub target_note: String,
+    /// The planned reaction the advice is for (`--reaction`, default
+    /// `alkylation`).
+    pub reaction: &'static str,
+    /// `kinetic` or `thermodynamic` (given, or the target's enolate side);
+    /// null where the target has no sides to choose between.
+    pub control: Option<&'static str>,
+    /// How the base is used: `preformed`, `in-situ` or `catalytic`.
+    pub mode: &'static str,
+    /// Why that mode, with the practice row and its source.
+    pub mode_note: String,
+    /// Id of the matching row of `fragments/practice.tsv`, if any.
+    pub practice_row: Option<String>,
     /// Recommended (or requested) base, short trade name; null when no
     /// catalogue base qualifies.
     pub base: Option<String>,
@@ -359,8 +371,10 @@ pub struct AdviceOut {
     /// How many further acceptable bases were left out of `alternatives`
     /// (see `acidsite scan` or the library for all of them).
     pub alternatives_omitted: usize,
-    /// Bases ruled out, each with its reason.
+    /// Bases ruled out, each with its chemical reason.
     pub rejected: Vec<RejectedOut>,
+    /// Bases the data cannot judge for this target, with the value missing.
+    pub not_judged: Vec<NotJudgedOut>,
     /// Chemistry warnings (side reactions, selectivity, proton counting).
     pub warnings: Vec<String>,
     /// Kinetic and thermodynamic conditions for an unsymmetrical ketone.
@@ -379,6 +393,16 @@ impl AdviceOut {
         json::indices(out, &self.target);
         out.extend_from_slice(b",\"target_note\":");
         json::string(out, &self.target_note);
+        out.extend_from_slice(b",\"reaction\":");
+        json::string(out, self.reaction);
+        out.extend_from_slice(b",\"control\":");
+        json::opt_string(out, self.control);
+        out.extend_from_slice(b",\"mode\":");
+        json::string(out, self.mode);
+        out.extend_from_slice(b",\"mode_note\":");
+        json::string(out, &self.mode_note);
+        out.extend_from_slice(b",\"practice_row\":");
+        json::opt_string(out, self.practice_row.as_deref());
         out.extend_from_slice(b",\"base\":");
         json::opt_string(out, self.base.as_deref());
         out.extend_from_slice(b",\"equivalents\":");
@@ -441,6 +465,14 @@ impl AdviceOut {
             json::string(o, r.kind);
             o.extend_from_slice(b",\"reason\":");
             json::string(o, &r.reason);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"not_judged\":");
+        json::array(out, &self.not_judged, |o, r| {
+            o.extend_from_slice(b"{\"base\":");
+            json::string(o, r.base);
+            o.extend_from_slice(b",\"missing\":");
+            json::string(o, &r.missing);
             o.push(b'}');
         });
         out.extend_from_slice(b",\"warnings\":");
@@ -554,9 +586,19 @@ impl RegioSideOut {
 pub struct RejectedOut {
     pub base: &'static str,
     /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
-    /// `hydrolysis`, `uncounted-proton`, `no-comparable-pka`.
+    /// `hydrolysis`, `uncounted-proton`, `not-catalytic`, `regio`,
+    /// `side-reaction`, `mode`.
     pub kind: &'static str,
     pub reason: String,
+}
+
+/// A base the data cannot judge for the target.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NotJudgedOut {
+    /// Catalogue name.
+    pub base: &'static str,
+    /// The value that is missing (a pKa on the scale the base needs).
+    pub missing: String,
 }
 
 /// Why a record failed.
