@@ -73,6 +73,15 @@ fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
     if sulfurs >= 2 {
         return true;
     }
+    // A haloform C–H (CHCl3, CHBr3) is activated by its three halogens.
+    let halogens = mol
+        .neighbors(i)
+        .iter()
+        .filter(|nb| matches!(mol.atoms[nb.atom].element, 17 | 35))
+        .count();
+    if halogens >= 3 {
+        return true;
+    }
     mol.neighbors(i).iter().any(|nb| {
         let b = &mol.atoms[nb.atom];
         b.charge > 0 || b.aromatic || has_multiple_bond(mol, nb.atom)
