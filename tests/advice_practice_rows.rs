@@ -217,3 +217,52 @@ fn advise_given_oxazolidinone_nh_acylation_uses_butyllithium_or_sodium_hydride_i
     );
     assert!(a.is_rejected("NaOEt"));
 }
+
+#[test]
+fn advise_given_phenol_or_alcohol_acylation_uses_an_amine_not_an_alkoxide_issue10() {
+    // Common practice: O-acylation with the acid chloride and Et3N or
+    // pyridine (DMAP catalyst), or aqueous NaOH for a phenol; NaOEt would be
+    // acylated itself. One equivalent: the ester is not more acidic.
+    for smiles in ["Oc1ccccc1", "OCc1ccccc1"] {
+        let a = plan(smiles, 0, Reaction::Acylation, None);
+        let base = a.base.clone().expect("a base");
+        assert!(
+            ["Et3N", "pyridine", "DIPEA", "NaOH", "DMAP"].contains(&base.as_str()),
+            "{smiles}: {base}"
+        );
+        assert!(a.equivalents < 2.0, "{smiles}: {}", a.equivalents);
+        assert!(a.is_rejected("NaOEt"), "{smiles}");
+    }
+}
+
+#[test]
+fn advise_given_aryl_ketone_michael_donor_uses_a_catalytic_hydroxide_issue10() {
+    // Common practice: acetophenone adds to a chalcone with catalytic NaOH
+    // or KOH in ethanol.
+    let a = plan("CC(=O)c1ccccc1", 0, Reaction::ConjugateAddition, None);
+    let base = a.base.clone().expect("a base");
+    assert!(
+        ["NaOH", "KOH", "NaOEt", "NaOMe", "KOtBu"].contains(&base.as_str()),
+        "{base}"
+    );
+    assert_eq!(a.mode, Mode::Catalytic);
+}
+
+#[test]
+fn advise_given_aldehyde_donor_aldol_goes_through_the_silyl_enol_ether_issue10() {
+    // Common practice: a preformed lithium enolate of an aldehyde adds to
+    // unreacted aldehyde; the directed aldol uses the silyl enol ether.
+    let a = plan("CCC=O", 1, Reaction::Aldol, None);
+    assert_eq!(a.base.as_deref(), Some("Et3N/TMSCl"));
+    assert!(a.is_rejected("LDA"));
+}
+
+#[test]
+fn advise_given_arylacetonitrile_condensation_avoids_tertiary_amines_issue10() {
+    // Common practice: phenylacetonitrile condenses with aldehydes under
+    // alkoxide or hydroxide catalysis; Et3N (DMSO pKa 9 against 21.9) is
+    // too weak.
+    let a = plan("N#CCc1ccccc1", 2, Reaction::Condensation, None);
+    assert!(a.is_rejected("Et3N"));
+    assert_ne!(a.base.as_deref(), Some("Et3N"));
+}
