@@ -316,3 +316,97 @@ fn annotate_given_truncated_gzip_keeps_the_records_before_the_damage_issue17() {
     }
     let _ = std::fs::remove_dir_all(&d);
 }
+
+#[test]
+fn annotate_given_absurd_thread_count_exits_2_instead_of_aborting_issue17() {
+    let o = common::run_binary(&["annotate", "-", "--threads", "100000"], b"CCO\n");
+    assert_eq!(o.status.code(), Some(2));
+    assert!(String::from_utf8_lossy(&o.stderr).contains("256"));
+    let ok = common::run_binary(&["annotate", "-", "--threads", "3", "-q"], b"CCO\n");
+    assert_eq!(ok.status.code(), Some(0));
+}
+
+mod lists {
+    use proptest::prelude::*;
+    use std::io::Write;
+
+    // Valid and invalid SMILES (common practice examples and broken text).
+    const SMILES: [&str; 8] = [
+        "CC(C)=O",
+        "CCOC(=O)CC(=O)OCC",
+        "Oc1ccccc1",
+        "C1CC",
+        "CC(=O",
+        "[Xx]",
+        "N#CCc1ccccc1",
+        "c1ccccc1C(=O)O",
+    ];
+
+    fn build(kind: u8, picks: &[(usize, bool)]) -> (Vec<u8>, Vec<String>, &'static str) {
+        let ids: Vec<String> = (0..picks.len()).map(|i| format!("r{i}")).collect();
+        let mut text = String::new();
+        let fmt = match kind % 4 {
+            0 | 3 => {
+                for ((s, _), id) in picks.iter().zip(&ids) {
+                    text.push_str(&format!("{} {id}\n", SMILES[*s]));
+                }
+                "smi"
+            }
+            1 => {
+                text.push_str("smiles,id,comment\n");
+                for ((s, multiline), id) in picks.iter().zip(&ids) {
+                    let c = if *multiline {
+                        "\"a, \"\"b\"\"\nc\""
+                    } else {
+                        "plain"
+                    };
+                    text.push_str(&format!("{},{id},{c}\n", SMILES[*s]));
+                }
+                "csv"
+            }
+            _ => {
+                text.push_str("smiles\tid\n");
+                for ((s, _), id) in picks.iter().zip(&ids) {
+                    text.push_str(&format!("{}\t{id}\n", SMILES[*s]));
+                }
+                "tsv"
+            }
+        };
+        let bytes = if kind % 4 == 3 {
+            let mut enc = flate2::write::GzEncoder::new(Vec::new(), flate2::Compression::fast());
+            enc.write_all(text.as_bytes()).unwrap();
+            enc.finish().unwrap()
+        } else {
+            text.into_bytes()
+        };
+        (bytes, ids, fmt)
+    }
+
+    proptest! {
+        #![proptest_config(ProptestConfig { cases: 24, ..ProptestConfig::default() })]
+
+        /// One output record per input record, in order, with the input's
+        /// ids, for smi, csv with quoted line breaks, tsv and gzip (issue 17).
+        #[test]
+        fn annotate_given_random_lists_writes_one_record_per_input_in_order_issue17(
+            kind in 0u8..4,
+            picks in prop::collection::vec((0usize..8, any::<bool>()), 1..40),
+        ) {
+            let (bytes, ids, fmt) = build(kind, &picks);
+            let out = super::common::run_binary(
+                &["annotate", "-", "--input-format", fmt, "--sites-only", "-q"],
+                &bytes,
+            );
+            let recs: Vec<serde_json::Value> = String::from_utf8_lossy(&out.stdout)
+                .lines()
+                .map(|l| serde_json::from_str(l).unwrap())
+                .collect();
+            prop_assert_eq!(recs.len(), ids.len());
+            for (r, id) in recs.iter().zip(&ids) {
+                prop_assert_eq!(r["id"].as_str(), Some(id.as_str()));
+            }
+            let failed = recs.iter().filter(|r| r["ok"] == false).count();
+            prop_assert_eq!(out.status.code(), Some(if failed > 0 { 1 } else { 0 }));
+        }
+    }
+}

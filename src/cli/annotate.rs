@@ -83,8 +83,8 @@ pub struct Args {
     pub reaction_column: Option<String>,
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
-    /// Worker threads (0: one per core).
-    #[arg(long, default_value_t = 0, value_name = "N")]
+    /// Worker threads (0: one per core; at most 256).
+    #[arg(long, default_value_t = 0, value_name = "N", value_parser = parse_threads)]
     pub threads: usize,
     /// Records per chunk (memory bound and parallel grain).
     #[arg(long, default_value_t = 1024, value_name = "N",
@@ -475,6 +475,18 @@ fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
 
 /// Column index by explicit name (exact, then any case) or by the first of
 /// the default names (any case).
+/// clap value parser for `--threads`: 0 (one per core) to 256; more would
+/// only exhaust memory for thread stacks (issue 17).
+fn parse_threads(s: &str) -> Result<usize, String> {
+    match s.trim().parse::<usize>() {
+        Ok(n) if n <= 256 => Ok(n),
+        Ok(n) => Err(format!(
+            "{n} threads is more than the 256 allowed (0 uses one per core)"
+        )),
+        Err(_) => Err(format!("{s:?} is not a number of threads")),
+    }
+}
+
 /// Header names made unique: each name keeps its first occurrence; a
 /// repeat becomes `name_2`, `name_3`, ..., the first suffix that no column of
 /// the header already uses (so `note,note,note_2` gives `note, note_3,

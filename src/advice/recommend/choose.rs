@@ -237,8 +237,7 @@ pub(super) fn advise_core(
     // (not asked for) binds only an enolate (the target next to a C=O
     // group) and not a catalytic reaction: there the enolates interconvert
     // anyway and the product decides.
-    let guarded =
-        opts_in.control.is_some() || (mode != Mode::Catalytic && ctx.target_carbonyl);
+    let guarded = opts_in.control.is_some() || (mode != Mode::Catalytic && ctx.target_carbonyl);
     if let (Some(c), true, true) = (control, tsite.is_carbon(), guarded) {
         if let Some(g) = data.regio(c) {
             let text = format!("not for the {} enolate: {}", c.name(), g.reason);
