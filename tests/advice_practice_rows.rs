@@ -266,3 +266,14 @@ fn advise_given_arylacetonitrile_condensation_avoids_tertiary_amines_issue10() {
     assert!(a.is_rejected("Et3N"));
     assert_ne!(a.base.as_deref(), Some("Et3N"));
 }
+
+#[test]
+fn advise_given_thiol_michael_donor_uses_a_catalytic_amine_issue10() {
+    // Common practice: thia-Michael additions run with 5-20 mol% Et3N or
+    // DBU; the thiolate adduct takes the proton back from the thiol.
+    let a = plan("Sc1ccccc1", 0, Reaction::ConjugateAddition, None);
+    assert_eq!(a.mode, Mode::Catalytic);
+    assert!(a.equivalents <= 0.5, "{}", a.equivalents);
+    let alk = plan("Sc1ccccc1", 0, Reaction::Alkylation, None);
+    assert!(alk.equivalents >= 1.0, "{}", alk.equivalents);
+}
