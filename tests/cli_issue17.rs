@@ -410,3 +410,49 @@ mod lists {
         }
     }
 }
+
+#[test]
+fn annotate_given_csv_header_starting_with_hash_reads_it_as_the_header_issue17() {
+    let o = common::run_binary(
+        &[
+            "annotate",
+            "-",
+            "--input-format",
+            "csv",
+            "--id-column",
+            "#id",
+            "-q",
+        ],
+        b"#id,smiles\nm1,CCO\n",
+    );
+    assert_eq!(
+        o.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&o.stderr)
+    );
+    let r = records(&o);
+    assert_eq!(r.len(), 1);
+    assert_eq!(r[0]["id"], "m1");
+}
+
+#[test]
+fn annotate_given_huge_junk_line_echoes_a_short_prefix_with_its_length_issue17() {
+    let mut junk = "C".repeat(3_000_000);
+    junk.push_str("(((( x\n");
+    let o = common::run_binary(&["annotate", "-", "-q"], junk.as_bytes());
+    assert_eq!(o.status.code(), Some(1));
+    assert!(o.stdout.len() < 4_000, "{} bytes of output", o.stdout.len());
+    let r = records(&o);
+    assert!(r[0]["error"]["message"].as_str().unwrap().contains("bytes"));
+}
+
+#[test]
+fn equilibrium_given_absurd_numbers_gives_a_range_error_issue17() {
+    for (opt, v) in [("--equiv", "1e308"), ("--conc", "1e308"), ("--equiv", "-1")] {
+        let o = common::run_binary(&["equilibrium", "CCO", "--base", "LDA", opt, v], b"");
+        assert_eq!(o.status.code(), Some(2), "{opt} {v}");
+        let err = String::from_utf8_lossy(&o.stderr);
+        assert!(err.len() < 300, "{err}");
+    }
+}

@@ -158,12 +158,36 @@ impl Job {
         let (header, smiles_col, id_col) = match format {
             InputFormat::Smi => (Vec::new(), 0, None),
             InputFormat::Csv | InputFormat::Tsv => {
-                let first = source
-                    .next_record_line()
-                    .with_context(|| format!("cannot read {shown}"))?;
-                let Some(first) = first else {
-                    anyhow::bail!("{shown} has no header row");
+                // The header is the first line that is not blank and not a
+                // comment; a line starting with `#` is the header when it
+                // names the SMILES column (`#id,smiles`), else a comment.
+                let wanted = cols.smiles.unwrap_or("smiles");
+                let first = loop {
+                    source.header_next = true;
+                    let line = source
+                        .next_record_line()
+                        .with_context(|| format!("cannot read {shown}"))?;
+                    let Some(line) = line else {
+                        anyhow::bail!("{shown} has no header row");
+                    };
+                    let text = String::from_utf8_lossy(&line.bytes);
+                    if !text.trim_start().starts_with('#') {
+                        break line;
+                    }
+                    let names_it =
+                        split_fields(format, &text)
+                            .unwrap_or_default()
+                            .iter()
+                            .any(|f| {
+                                f.trim()
+                                    .trim_start_matches('#')
+                                    .eq_ignore_ascii_case(wanted)
+                            });
+                    if names_it {
+                        break line;
+                    }
                 };
+                source.header_next = false;
                 let text = String::from_utf8_lossy(&first.bytes);
                 let header: Vec<String> = split_fields(format, &text)
                     .with_context(|| format!("{shown}: header row has an unterminated quote"))?

@@ -77,12 +77,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             );
         }
     }
-    if !(args.equiv.is_finite() && args.equiv >= 0.0) {
-        anyhow::bail!("--equiv must be a number ≥ 0, not {}", args.equiv);
+    if !(args.equiv.is_finite() && (0.0..=100.0).contains(&args.equiv)) {
+        anyhow::bail!("--equiv must lie between 0 and 100, not {:e}", args.equiv);
     }
-    if !(args.conc.is_finite() && args.conc > 0.0) {
+    if !(args.conc.is_finite() && args.conc > 0.0 && args.conc <= 20.0) {
         anyhow::bail!(
-            "--conc must be a concentration > 0 mol/L, not {}",
+            "--conc must be a concentration above 0 and at most 20 mol/L, not {:e}",
             args.conc
         );
     }

@@ -86,6 +86,9 @@ pub struct LineSource {
     /// it cut is dropped, and the caller reports it as the last record
     /// (issue 17). (line number where reading stopped, message)
     pub read_error: Option<(u64, String)>,
+    /// The next non-blank line is returned even if it starts with `#` (a
+    /// CSV/TSV header such as `#id,smiles`); reset once used.
+    pub header_next: bool,
 }
 
 impl LineSource {
@@ -151,6 +154,7 @@ impl LineSource {
             done: false,
             csv_quotes: false,
             read_error: None,
+            header_next: false,
         })
     }
 
@@ -165,6 +169,7 @@ impl LineSource {
             done: false,
             csv_quotes: false,
             read_error: None,
+            header_next: false,
         }
     }
 
@@ -214,9 +219,10 @@ impl LineSource {
                 .position(|&b| !(b.is_ascii_whitespace() || b == 0x0b));
             match first {
                 None => continue,
-                Some(i) if buf[i] == b'#' => continue,
+                Some(i) if buf[i] == b'#' && !self.header_next => continue,
                 Some(_) => {}
             }
+            self.header_next = false;
             return Ok(Some(RawLine {
                 line: start_line,
                 bytes: buf,

@@ -58,6 +58,9 @@ pub const MAX_ALTERNATIVES: usize = 5;
 /// Version of the record schema, stamped into every record as `schema`.
 pub const SCHEMA: &str = "acidsite-record/3";
 
+/// A failed record's `input` keeps at most this many characters.
+pub const FAILED_INPUT_ECHO: usize = 300;
+
 /// One output record (see the module documentation for the keys).
 ///
 /// The record owns its text: strings move in from the library's results
@@ -102,7 +105,24 @@ pub struct Record {
 
 impl Record {
     /// A failed record: the input could not be read or analysed.
-    pub fn failure(line: u64, id: Option<String>, input: String, error: ErrorOut) -> Record {
+    pub fn failure(line: u64, id: Option<String>, input: String, mut error: ErrorOut) -> Record {
+        // A failed record echoes at most FAILED_INPUT_ECHO characters of its
+        // input (an 8 MiB junk line must not become 48 MiB of JSON); the
+        // message then gives the full length (issue 17).
+        let input = if input.len() > FAILED_INPUT_ECHO {
+            let cut: String = input.chars().take(FAILED_INPUT_ECHO).collect();
+            if cut.len() < input.len() {
+                error.message.push_str(&format!(
+                    " (input of {} bytes; the first {FAILED_INPUT_ECHO} characters are shown)",
+                    input.len()
+                ));
+                cut + "…"
+            } else {
+                input
+            }
+        } else {
+            input
+        };
         Record {
             schema: SCHEMA,
             line,

@@ -76,6 +76,9 @@ async fn serve(args: Args) -> anyhow::Result<()> {
         .await
         .with_context(|| format!("cannot listen on {ip} port {}", args.port))?;
     let addr = listener.local_addr()?;
+    // Signal handlers are in place before the address is printed, so a
+    // stop request right after start-up is a clean stop.
+    let stop = Stop::install();
     let app = router(Guard {
         any_host: args.bind.is_some(),
     });
@@ -97,10 +100,22 @@ async fn serve(args: Args) -> anyhow::Result<()> {
         }
         out.flush()?;
     }
-    axum::serve(listener, app)
-        .with_graceful_shutdown(shutdown_signal())
-        .await
-        .context("the server stopped with an error")?;
+    let stopping = std::sync::Arc::new(tokio::sync::Notify::new());
+    let told = stopping.clone();
+    let server = axum::serve(listener, app).with_graceful_shutdown(async move {
+        stop.wait().await;
+        told.notify_one();
+    });
+    // Open connections get a few seconds to finish after a stop request;
+    // then the server stops regardless (an idle or stalled client cannot
+    // keep it alive).
+    tokio::select! {
+        r = server => r.context("the server stopped with an error")?,
+        _ = async {
+            stopping.notified().await;
+            tokio::time::sleep(std::time::Duration::from_secs(5)).await;
+        } => {}
+    }
     let _ = writeln!(std::io::stderr(), "acidsite serve: stopped");
     Ok(())
 }
@@ -117,24 +132,40 @@ fn bind_warning(ip: IpAddr, port: u16) -> Option<String> {
     })
 }
 
-async fn shutdown_signal() {
-    let ctrl_c = async {
-        let _ = tokio::signal::ctrl_c().await;
-    };
+/// Ctrl-C and (on Unix) SIGTERM, registered when created.
+struct Stop {
     #[cfg(unix)]
-    let term = async {
-        match tokio::signal::unix::signal(tokio::signal::unix::SignalKind::terminate()) {
-            Ok(mut s) => {
-                s.recv().await;
-            }
-            Err(_) => std::future::pending::<()>().await,
+    term: Option<tokio::signal::unix::Signal>,
+}
+
+impl Stop {
+    fn install() -> Stop {
+        Stop {
+            #[cfg(unix)]
+            term: tokio::signal::unix::signal(tokio::signal::unix::SignalKind::terminate()).ok(),
         }
-    };
-    #[cfg(not(unix))]
-    let term = std::future::pending::<()>();
-    tokio::select! {
-        _ = ctrl_c => {},
-        _ = term => {},
+    }
+
+    /// Resolves at the first Ctrl-C or SIGTERM.
+    async fn wait(self) {
+        let ctrl_c = async {
+            let _ = tokio::signal::ctrl_c().await;
+        };
+        #[cfg(unix)]
+        let term = async move {
+            match self.term {
+                Some(mut s) => {
+                    s.recv().await;
+                }
+                None => std::future::pending::<()>().await,
+            }
+        };
+        #[cfg(not(unix))]
+        let term = std::future::pending::<()>();
+        tokio::select! {
+            _ = ctrl_c => {},
+            _ = term => {},
+        }
     }
 }
 
