@@ -233,11 +233,13 @@ pub(super) fn advise_core(
     }
     // The regiochemistry guard (fragments/regio.tsv): under a control, a
     // C–H target is never offered a base of the other side's families,
-    // whatever practice row matched (or none). A side read from the target
+    // whatever practice row matched (or none). Not for a catalytic
+    // reaction: there the enolates interconvert anyway and the product
+    // decides (a catalytic hydroxide condenses 2-methylcyclohexanone with an
+    // aldehyde on the less substituted side). A side read from the target
     // (not asked for) binds only an enolate (the target next to a C=O
-    // group) and not a catalytic reaction: there the enolates interconvert
-    // anyway and the product decides.
-    let guarded = opts_in.control.is_some() || (mode != Mode::Catalytic && ctx.target_carbonyl);
+    // group).
+    let guarded = mode != Mode::Catalytic && (opts_in.control.is_some() || ctx.target_carbonyl);
     if let (Some(c), true, true) = (control, tsite.is_carbon(), guarded) {
         if let Some(g) = data.regio(c) {
             let text = format!("not for the {} enolate: {}", c.name(), g.reason);
