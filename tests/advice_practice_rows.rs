@@ -300,3 +300,19 @@ fn advise_given_kinetic_side_and_catalytic_condensation_still_gives_a_base_issue
     assert!(a.base.is_some(), "{:?}", a.warnings);
     assert_eq!(a.mode, Mode::Catalytic);
 }
+
+#[test]
+fn advise_given_catalytic_condensation_does_not_count_ch_of_similar_acidity_issue10() {
+    // Common practice: the intramolecular aldol condensation of the
+    // Robinson triketone runs with catalytic base; the other ketone α-C–H
+    // (about the target's acidity) exchange the catalyst reversibly and do
+    // not take an equivalent each.
+    let a = plan("CC(=O)CCC1(C)C(=O)CCCC1=O", 0, Reaction::Condensation, None);
+    assert_eq!(a.mode, Mode::Catalytic);
+    assert!(a.counted.is_empty(), "{:?}", a.counted);
+    assert!(a.equivalents <= 0.5, "{}", a.equivalents);
+    // A carboxylic acid O–H still takes its equivalent of the amine
+    // (malonic acid, Doebner conditions: common practice).
+    let m = plan("OC(=O)CC(=O)O", 3, Reaction::Condensation, None);
+    assert_eq!(m.counted.iter().map(|c| c.protons).sum::<usize>(), 2);
+}
