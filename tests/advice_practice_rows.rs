@@ -316,3 +316,23 @@ fn advise_given_catalytic_condensation_does_not_count_ch_of_similar_acidity_issu
     let m = plan("OC(=O)CC(=O)O", 3, Reaction::Condensation, None);
     assert_eq!(m.counted.iter().map(|c| c.protons).sum::<usize>(), 2);
 }
+
+#[test]
+fn advise_given_picoline_methyl_offers_no_hydride_or_alkoxide_issue10() {
+    // Common practice: 2- and 4-picoline are metalated with LDA or n-BuLi
+    // (NaNH2 in ammonia); NaH does not deprotonate them at a useful rate.
+    for smiles in ["Cc1ccccn1", "Cc1ccncc1"] {
+        let a = plan(smiles, 0, Reaction::Alkylation, None);
+        let base = a.base.clone().expect("a base");
+        assert!(
+            ["LDA", "n-BuLi", "LiTMP", "NaNH2"].contains(&base.as_str()),
+            "{base}"
+        );
+        for b in offered(&a) {
+            assert!(
+                !["NaH", "KH", "KOtBu"].contains(&b.as_str()),
+                "{smiles}: {b}"
+            );
+        }
+    }
+}
