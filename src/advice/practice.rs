@@ -21,6 +21,7 @@ const MODES_TEXT: &str = include_str!("../../fragments/modes.tsv");
 const SYSTEMS_TEXT: &str = include_str!("../../fragments/systems.tsv");
 const PRACTICE_TEXT: &str = include_str!("../../fragments/practice.tsv");
 const SIDE_TEXT: &str = include_str!("../../fragments/side_reactions.tsv");
+const REGIO_TEXT: &str = include_str!("../../fragments/regio.tsv");
 const SOURCES_TEXT: &str = include_str!("../../fragments/sources.tsv");
 
 /// A planned reaction (`--reaction`).
@@ -313,6 +314,50 @@ impl SideReaction {
     }
 }
 
+/// One row of `fragments/regio.tsv`: the base families never offered for
+/// one enolate side.
+#[derive(Debug, Clone)]
+pub struct RegioRule {
+    pub control: Control,
+    /// Base families ruled out under this control.
+    pub families: Vec<String>,
+    /// Why, in the words the advice uses.
+    pub reason: String,
+    /// Citation key.
+    pub source: String,
+}
+
+/// The texts of the practice files, parsed together by [`Practice::parse`]
+/// (the embedded files, or altered copies in tests).
+#[derive(Debug, Clone, Copy)]
+pub struct Texts<'t> {
+    /// `fragments/reactions.tsv`
+    pub reactions: &'t str,
+    /// `fragments/modes.tsv`
+    pub modes: &'t str,
+    /// `fragments/systems.tsv`
+    pub systems: &'t str,
+    /// `fragments/practice.tsv`
+    pub practice: &'t str,
+    /// `fragments/side_reactions.tsv`
+    pub side: &'t str,
+    /// `fragments/regio.tsv`
+    pub regio: &'t str,
+    /// `fragments/sources.tsv`
+    pub sources: &'t str,
+}
+
+/// The embedded texts.
+pub const EMBEDDED: Texts<'static> = Texts {
+    reactions: REACTIONS_TEXT,
+    modes: MODES_TEXT,
+    systems: SYSTEMS_TEXT,
+    practice: PRACTICE_TEXT,
+    side: SIDE_TEXT,
+    regio: REGIO_TEXT,
+    sources: SOURCES_TEXT,
+};
+
 /// The practice data, validated.
 #[derive(Debug, Clone)]
 pub struct Practice {
@@ -326,6 +371,8 @@ pub struct Practice {
     pub rows: Vec<PracticeRow>,
     /// Side reactions to warn about.
     pub side_reactions: Vec<SideReaction>,
+    /// The regiochemistry guard, one row per control.
+    pub regio: Vec<RegioRule>,
 }
 
 impl Practice {
@@ -339,6 +386,11 @@ impl Practice {
     pub fn mode(&self, m: Mode) -> &ModeRow {
         let i = Mode::ALL.iter().position(|x| *x == m).unwrap_or(0);
         &self.modes[i]
+    }
+
+    /// The regiochemistry guard for a control.
+    pub fn regio(&self, c: Control) -> Option<&RegioRule> {
+        self.regio.iter().find(|r| r.control == c)
     }
 
     /// A system by name (case-insensitive).
@@ -369,15 +421,16 @@ impl Practice {
 
     /// Parse and validate the four files against the base catalogue and the
     /// citation keys (`sources_text`: the text of `fragments/sources.tsv`).
-    pub fn parse(
-        reactions_text: &str,
-        modes_text: &str,
-        systems: &str,
-        practice: &str,
-        side_text: &str,
-        sources_text: &str,
-        cat: &Catalogue,
-    ) -> Result<Practice, CatalogueError> {
+    pub fn parse(texts: &Texts, cat: &Catalogue) -> Result<Practice, CatalogueError> {
+        let Texts {
+            reactions: reactions_text,
+            modes: modes_text,
+            systems,
+            practice,
+            side: side_text,
+            regio: regio_text,
+            sources: sources_text,
+        } = *texts;
         let sources = parse_sources(sources_text)?;
         let key_ok = |k: &str| sources.iter().any(|(s, _)| s == k);
         let err = |file: &str, line: usize, col: &str, msg: String| {
@@ -691,12 +744,38 @@ impl Practice {
                 source: check_source(f, line, c[6])?,
             });
         }
+        // regio.tsv
+        let f = "fragments/regio.tsv";
+        let mut regio: Vec<RegioRule> = Vec::new();
+        for (line, c) in rows(regio_text, 4, f)? {
+            let control =
+                Control::parse(c[0]).map_err(|e| err(f, line, "control", e.to_string()))?;
+            if regio.iter().any(|r| r.control == control) {
+                return Err(err(f, line, "control", format!("{} listed twice", c[0])));
+            }
+            let fams: Vec<String> = list(c[1]).iter().map(|x| x.to_string()).collect();
+            if let Some(bad) = fams.iter().find(|x| !families.contains(&x.as_str())) {
+                return Err(err(
+                    f,
+                    line,
+                    "families",
+                    format!("unknown base family {bad:?}"),
+                ));
+            }
+            regio.push(RegioRule {
+                control,
+                families: fams,
+                reason: c[2].to_string(),
+                source: check_source(f, line, c[3])?,
+            });
+        }
         Ok(Practice {
             reactions,
             modes,
             systems: systems_out,
             rows: out,
             side_reactions: side,
+            regio,
         })
     }
 }
@@ -757,15 +836,7 @@ pub fn practice() -> Result<&'static Practice, CatalogueError> {
     static CELL: OnceLock<Result<Practice, CatalogueError>> = OnceLock::new();
     CELL.get_or_init(|| {
         let cat = catalogue()?;
-        Practice::parse(
-            REACTIONS_TEXT,
-            MODES_TEXT,
-            SYSTEMS_TEXT,
-            PRACTICE_TEXT,
-            SIDE_TEXT,
-            SOURCES_TEXT,
-            cat,
-        )
+        Practice::parse(&EMBEDDED, cat)
     })
     .as_ref()
     .map_err(Clone::clone)
@@ -777,12 +848,10 @@ mod tests {
 
     fn parse_with(practice_text: &str) -> Result<Practice, CatalogueError> {
         Practice::parse(
-            REACTIONS_TEXT,
-            MODES_TEXT,
-            SYSTEMS_TEXT,
-            practice_text,
-            SIDE_TEXT,
-            SOURCES_TEXT,
+            &Texts {
+                practice: practice_text,
+                ..EMBEDDED
+            },
             catalogue().unwrap(),
         )
     }
@@ -851,18 +920,34 @@ mod tests {
     #[test]
     fn parse_given_side_reaction_with_unknown_family_is_rejected() {
         let side = "id\treactions\tmodes\tfamilies\tpatterns\tmessage\tsource\nSR-X\t*\t*\tdragons\tC=O\twatch out\tcommon-practice\n";
-        let e = Practice::parse(
-            REACTIONS_TEXT,
-            MODES_TEXT,
-            SYSTEMS_TEXT,
-            PRACTICE_TEXT,
-            side,
-            SOURCES_TEXT,
-            catalogue().unwrap(),
-        )
-        .unwrap_err();
+        let e = Practice::parse(&Texts { side, ..EMBEDDED }, catalogue().unwrap()).unwrap_err();
         assert_eq!(e.file, "fragments/side_reactions.tsv");
         assert!(e.message.contains("dragons"), "{e}");
+    }
+
+    #[test]
+    fn parse_given_regio_row_with_unknown_family_or_source_is_rejected_issue10() {
+        let parse_regio =
+            |regio: &str| Practice::parse(&Texts { regio, ..EMBEDDED }, catalogue().unwrap());
+        let head = "control\tfamilies\treason\tsource\n";
+        let e = parse_regio(&format!(
+            "{head}thermodynamic\tlithium-amide,wizards\tno\tcommon-practice\n"
+        ))
+        .unwrap_err();
+        assert_eq!(e.file, "fragments/regio.tsv");
+        assert!(e.message.contains("wizards"), "{e}");
+        let e = parse_regio(&format!("{head}kinetic\thydride\tno\tnobody2099\n")).unwrap_err();
+        assert!(e.message.contains("nobody2099"), "{e}");
+        let e =
+            parse_regio(&format!("{head}sideways\thydride\tno\tcommon-practice\n")).unwrap_err();
+        assert_eq!(e.column.as_deref(), Some("control"), "{e}");
+        // The embedded rows: each control rules out the other side's families.
+        let p = practice().unwrap();
+        let k = p.regio(Control::Kinetic).unwrap();
+        let t = p.regio(Control::Thermodynamic).unwrap();
+        assert!(k.families.iter().any(|f| f == "hydride"));
+        assert!(t.families.iter().any(|f| f == "lithium-amide"));
+        assert!(!k.families.iter().any(|f| t.families.contains(f)));
     }
 
     #[test]

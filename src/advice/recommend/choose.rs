@@ -231,6 +231,29 @@ pub(super) fn advise_core(
             }
         }
     }
+    // The regiochemistry guard (fragments/regio.tsv): under a control, a
+    // C–H target is never offered a base of the other side's families,
+    // whatever practice row matched (or none). Not for a catalytic
+    // reaction: there the enolates interconvert anyway and the product
+    // decides (a catalytic hydroxide condenses 2-methylcyclohexanone with an
+    // aldehyde on the less substituted side). A side read from the target
+    // (not asked for) binds only an enolate (the target next to a C=O
+    // group).
+    let guarded = mode != Mode::Catalytic && (opts_in.control.is_some() || ctx.target_carbonyl);
+    if let (Some(c), true, true) = (control, tsite.is_carbon(), guarded) {
+        if let Some(g) = data.regio(c) {
+            let text = format!("not for the {} enolate: {}", c.name(), g.reason);
+            for ev in evals.iter_mut() {
+                let fam = ev.base.family.name();
+                // Only a base that would otherwise be offered needs it: one
+                // already ruled out says its own reason.
+                if g.families.iter().any(|f| f == fam) && ev.reasons.is_empty() {
+                    ev.reasons.insert(0, (RejectKind::Regio, text.clone()));
+                    ev.words = None;
+                }
+            }
+        }
+    }
     // Acceptable bases as indices into `evals`: practice's preferred bases
     // first in their order, then the rest best score first (a stable sort:
     // ties keep catalogue order).
@@ -355,13 +378,17 @@ pub(super) fn advise_core(
             .filter(|r| r.kinds.contains(&RejectKind::UncountedProton))
             .count();
         // Among the bases strong enough to matter (not rejected only as too
-        // weak or without a comparable pKa), do most fail on a competitor?
+        // weak, without a comparable pKa or for the other enolate side), do
+        // most fail on a competitor?
         let strong = rejected
             .iter()
             .filter(|r| {
-                r.kinds
-                    .iter()
-                    .any(|k| !matches!(k, RejectKind::TooWeak | RejectKind::NoComparablePka))
+                r.kinds.iter().any(|k| {
+                    !matches!(
+                        k,
+                        RejectKind::TooWeak | RejectKind::NoComparablePka | RejectKind::Regio
+                    )
+                })
             })
             .count();
         let message = if competing > 0 && competing * 2 >= strong.max(1) {

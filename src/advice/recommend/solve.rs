@@ -117,6 +117,12 @@ pub(super) fn memo_position(ctx: &Ctx, key: LeanKey, exclude: &[usize]) -> Optio
         .rposition(|e| e.key == key && *e.exclude == *exclude)
 }
 
+/// In catalytic use a C–H site is counted (takes its own equivalent of
+/// base) only when it is at least this many pKa units more acidic than the
+/// target (common practice: sites of similar acidity exchange the catalyst
+/// reversibly).
+pub(super) const CATALYTIC_CH_GAP: f64 = 3.0;
+
 pub(super) fn count_protons(
     ctx: &Ctx,
     base: &Base,
@@ -140,7 +146,16 @@ pub(super) fn count_protons(
             },
         };
         let hetero = matches!(s.element.as_str(), "O" | "N" | "S");
-        let more_acidic = cmp.map(|(a, b)| a < b).unwrap_or(false);
+        // A catalytic amount of base is not titrated by a C–H of about the
+        // target's acidity: that anion forms and gives its proton back as
+        // reversibly as the target's. Only a C–H well below the target
+        // (a dianion's gap) takes its own equivalent.
+        let gap = if !hetero && ctx.opts.purpose == Purpose::Catalytic {
+            CATALYTIC_CH_GAP
+        } else {
+            0.0
+        };
+        let more_acidic = cmp.map(|(a, b)| a + gap < b).unwrap_or(false);
         let metal_rule = hetero
             && base.family.is_metal_base()
             && !protic
