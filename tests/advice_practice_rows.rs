@@ -336,3 +336,13 @@ fn advise_given_picoline_methyl_offers_no_hydride_or_alkoxide_issue10() {
         }
     }
 }
+
+#[test]
+fn advise_given_oxindole_knoevenagel_uses_catalytic_piperidine_issue10() {
+    // Common practice: oxindoles condense with aldehydes at C3 with
+    // catalytic piperidine in refluxing ethanol.
+    let a = plan("O=C1Cc2ccccc2N1", 2, Reaction::Condensation, None);
+    assert_eq!(a.base.as_deref(), Some("piperidine"));
+    assert_eq!(a.mode, Mode::Catalytic);
+    assert!(a.equivalents <= 0.5, "{}", a.equivalents);
+}
