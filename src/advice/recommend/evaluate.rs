@@ -265,16 +265,13 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         Purpose::InSitu => {
             let acc = solvent_conv.unwrap_or(crit_conv);
             if acc < ctx.plan.min_fraction {
-                let mut reason = String::with_capacity(112);
-                reason.push_str("too weak even with the electrophile present: ");
-                push_conv_text(&mut reason, acc);
-                reason.push_str(" of the target as anion at equilibrium (pKa ");
-                reason.push_str(&choice.base_pka_text);
-                reason.push_str(" against ");
-                reason.push_str(target_pka_text(ctx, scale, t_pka));
-                reason.push_str(", ");
-                reason.push_str(scale.name());
-                reason.push_str(" scale)");
+                let reason = small_fraction_reason(
+                    "too weak even with the electrophile present: ",
+                    acc,
+                    &choice.base_pka_text,
+                    target_pka_text(ctx, scale, t_pka),
+                    scale,
+                );
                 ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
@@ -294,16 +291,13 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             }
             let acc = solvent_conv.unwrap_or(crit_conv);
             if acc < ctx.plan.min_fraction {
-                let mut reason = String::with_capacity(112);
-                reason.push_str("too weak even for catalytic use: ");
-                push_conv_text(&mut reason, acc);
-                reason.push_str(" of the target as anion at equilibrium (pKa ");
-                reason.push_str(&choice.base_pka_text);
-                reason.push_str(" against ");
-                reason.push_str(target_pka_text(ctx, scale, t_pka));
-                reason.push_str(", ");
-                reason.push_str(scale.name());
-                reason.push_str(" scale)");
+                let reason = small_fraction_reason(
+                    "too weak even for catalytic use: ",
+                    acc,
+                    &choice.base_pka_text,
+                    target_pka_text(ctx, scale, t_pka),
+                    scale,
+                );
                 ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
@@ -425,4 +419,26 @@ pub(super) fn unusual_solvent_note(opts: &AdviceOptions, base: &Base) -> Option<
             base.solvents.join(", ")
         )
     })
+}
+
+/// "too weak …: X of the target as anion at equilibrium (pKa B against T,
+/// SCALE scale)", the reason of a base below the fraction its mode needs.
+fn small_fraction_reason(
+    lead: &str,
+    fraction: f64,
+    base_pka: &str,
+    target_pka: &str,
+    scale: Scale,
+) -> String {
+    let mut reason = String::with_capacity(112);
+    reason.push_str(lead);
+    push_conv_text(&mut reason, fraction);
+    reason.push_str(" of the target as anion at equilibrium (pKa ");
+    reason.push_str(base_pka);
+    reason.push_str(" against ");
+    reason.push_str(target_pka);
+    reason.push_str(", ");
+    reason.push_str(scale.name());
+    reason.push_str(" scale)");
+    reason
 }
