@@ -9,10 +9,12 @@
 //! as it is (no per-record strings).
 
 use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
+use super::sdf_input;
 use super::{parse_flag, Outcome, ScaleArg};
 use acidsite::report::delimited::{split_csv_line, Delimiter, Layout, RowWriter};
 use acidsite::report::record::{ErrorOut, Pairs};
-use acidsite::report::{analyze, Flag, Options, Record};
+use acidsite::mol::sdf::SdRecord;
+use acidsite::report::{analyze, analyze_molfile, Flag, Options, Record};
 use anyhow::Context;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use rayon::prelude::*;
@@ -38,7 +40,8 @@ pub enum OutputFormat {
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// Compound list: .smi (SMILES, whitespace, optional id), .csv or .tsv with a
-    /// header row, optionally gzip-compressed; `-` or nothing reads stdin.
+    /// header row, or an SD file (.sdf, .mol), optionally gzip-compressed; `-` or
+    /// nothing reads stdin (SD content is recognised).
     #[arg(value_name = "FILE")]
     pub input: Option<PathBuf>,
     /// Input layout, when the file name does not tell (stdin is read as smi).
@@ -52,6 +55,9 @@ pub struct Args {
     /// named "id" or "name", any case, if there is one).
     #[arg(long, value_name = "NAME")]
     pub id_column: Option<String>,
+    /// SD input: take the id from this data item instead of the title line.
+    #[arg(long, value_name = "NAME")]
+    pub id_field: Option<String>,
     /// Output format.
     #[arg(long, value_enum, default_value_t = OutputFormat::Jsonl)]
     pub format: OutputFormat,
@@ -101,16 +107,14 @@ struct Context_ {
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
+    /// SD input: data item holding the id (else the title line).
+    id_field: Option<String>,
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let started = Instant::now();
     super::check_base(args.base.as_deref())?;
     let path = args.input.clone().filter(|p| p.as_os_str() != "-");
-    let format = args.input_format.unwrap_or_else(|| match &path {
-        Some(p) => InputFormat::from_path(p),
-        None => InputFormat::Smi,
-    });
     if args.per_site && args.format == OutputFormat::Jsonl {
         anyhow::bail!(
             "--per-site applies to --format csv or tsv (JSON records list every site already)"
@@ -122,10 +126,33 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .unwrap_or_else(|| "standard input".into());
     let mut source =
         LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
+    let head = source.peek().with_context(|| format!("cannot read {shown}"))?;
+    let format = sdf_input::choose_format(args.input_format, path.as_deref(), head)
+        .map_err(|e| anyhow::anyhow!("{shown}: {e}"))?;
+    let chunk = args.chunk as usize;
+    let mut sd_number = 0u64;
+    // SD input: the first chunk is read now, so that CSV/TSV output can
+    // carry the data items it names.
+    let mut first_chunk = None;
 
     // Header of CSV/TSV input.
     let (header, smiles_col, id_col) = match format {
         InputFormat::Smi => (Vec::new(), 0, None),
+        InputFormat::Sdf => {
+            let lines = read_chunk(&mut source, format, &mut sd_number, chunk)
+                .with_context(|| format!("cannot read {shown}"))?;
+            let mut names: Vec<String> = Vec::new();
+            for l in &lines {
+                let text = String::from_utf8_lossy(&l.bytes);
+                for (n, _) in SdRecord::new(&text, l.record, l.line).fields() {
+                    if Some(n.as_str()) != args.id_field.as_deref() && !names.contains(&n) {
+                        names.push(n);
+                    }
+                }
+            }
+            first_chunk = Some(lines);
+            (names, usize::MAX, None)
+        }
         InputFormat::Csv | InputFormat::Tsv => {
             let first = source
                 .next_record_line()
@@ -195,6 +222,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         },
         rows,
         html: args.html.is_some(),
+        id_field: args.id_field.clone(),
     };
 
     let mut out: Box<dyn Write + Send> = match &args.output {
@@ -225,15 +253,16 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .num_threads(args.threads)
         .build()
         .context("cannot start worker threads")?;
-    let chunk = args.chunk as usize;
     // Three-stage pipeline: while the workers analyse chunk N, one task
     // writes chunk N-1 (in order) and reads chunk N+1.
     let (records, failed) = pool.install(|| -> anyhow::Result<(u64, u64)> {
         let mut records = 0u64;
         let mut failed = 0u64;
-        let mut lines = source
-            .next_chunk(chunk, CHUNK_BYTES)
-            .with_context(|| format!("cannot read {shown}"))?;
+        let mut lines = match first_chunk.take() {
+            Some(l) => l,
+            None => read_chunk(&mut source, format, &mut sd_number, chunk)
+                .with_context(|| format!("cannot read {shown}"))?,
+        };
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
@@ -274,8 +303,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                     if analysing.is_empty() {
                         return Ok(Vec::new());
                     }
-                    source
-                        .next_chunk(chunk, CHUNK_BYTES)
+                    read_chunk(&mut source, format, &mut sd_number, chunk)
                         .with_context(|| format!("cannot read {shown}"))
                 },
             );
@@ -309,6 +337,19 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     } else {
         Outcome::SomeFailed
     })
+}
+
+/// The next chunk of records: lines, or whole SD records.
+fn read_chunk(
+    source: &mut LineSource,
+    format: InputFormat,
+    sd_number: &mut u64,
+    chunk: usize,
+) -> io::Result<Vec<RawLine>> {
+    match format {
+        InputFormat::Sdf => sdf_input::next_sd_chunk(source, sd_number, chunk, CHUNK_BYTES),
+        _ => source.next_chunk(chunk, CHUNK_BYTES),
+    }
 }
 
 fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
@@ -348,7 +389,7 @@ fn split_fields(format: InputFormat, line: &str) -> Option<Vec<String>> {
     match format {
         InputFormat::Csv => split_csv_line(line),
         InputFormat::Tsv => Some(line.split('\t').map(str::to_string).collect()),
-        InputFormat::Smi => Some(vec![line.to_string()]),
+        InputFormat::Smi | InputFormat::Sdf => Some(vec![line.to_string()]),
     }
 }
 
@@ -438,7 +479,16 @@ fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<B
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
     if ctx.html {
-        let svg = super::draw::drawing(&rec, 30.0);
+        let svg = if ctx.format == InputFormat::Sdf {
+            // Atom indices are the molfile's: draw the molfile's molecule.
+            let text = String::from_utf8_lossy(&raw.bytes);
+            let sd = SdRecord::new(&text, raw.record, raw.line);
+            acidsite::mol::molfile::read(sd.molfile())
+                .ok()
+                .and_then(|m| super::draw::drawing_of(&rec, &m.molecule, 30.0))
+        } else {
+            super::draw::drawing(&rec, 30.0)
+        };
         *card = Some(super::html::card(&rec, svg.as_deref()).into_bytes().into());
     }
     rec.ok
@@ -461,6 +511,11 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
             },
         )
     };
+    if ctx.format == InputFormat::Sdf && !raw.truncated {
+        // Data items in other encodings (Latin-1 names) should not lose the
+        // molecule: bad bytes become U+FFFD.
+        return sd_record(raw, &String::from_utf8_lossy(&raw.bytes), ctx);
+    }
     let text = match std::str::from_utf8(&raw.bytes) {
         Ok(t) => t,
         Err(e) => {
@@ -476,18 +531,24 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
         }
     };
     if raw.truncated {
+        let what = if ctx.format == InputFormat::Sdf {
+            format!("SD record {}", raw.record)
+        } else {
+            "line".to_string()
+        };
         return fail(
-            text.to_string(),
+            if ctx.format == InputFormat::Sdf { String::new() } else { text.to_string() },
             None,
             "too_large",
             format!(
-                "line is longer than {} MiB; it was cut and not analysed",
+                "{what} is longer than {} MiB; it was cut and not analysed",
                 MAX_LINE_BYTES >> 20
             ),
             None,
         );
     }
     match ctx.format {
+        InputFormat::Sdf => sd_record(raw, text, ctx),
         InputFormat::Smi => {
             let t = text.trim_start();
             let (smiles, rest) = match t.find(char::is_whitespace) {
@@ -542,4 +603,31 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
             rec
         }
     }
+}
+
+/// One SD record to its record: id from the title line or `--id-field`,
+/// the other data items carried as columns, errors naming the record
+/// number and the file line.
+fn sd_record(raw: &RawLine, text: &str, ctx: &Context_) -> Record {
+    let sd = SdRecord::new(text, raw.record, raw.line);
+    let fields = sd.fields();
+    let id = match &ctx.id_field {
+        Some(name) => fields
+            .iter()
+            .find(|(n, _)| n == name)
+            .map(|(_, v)| v.trim().to_string()),
+        None => Some(sd.title().to_string()),
+    }
+    .filter(|s| !s.is_empty());
+    let mut rec = analyze_molfile(sd.molfile(), raw.line.saturating_sub(1), raw.line, id, &ctx.opts);
+    if let Some(e) = rec.error.as_mut() {
+        e.message = format!("SD record {}, {}", raw.record, e.message);
+    }
+    rec.columns = Some(Pairs(
+        fields
+            .into_iter()
+            .filter(|(n, _)| Some(n) != ctx.id_field.as_ref())
+            .collect(),
+    ));
+    rec
 }

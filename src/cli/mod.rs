@@ -8,6 +8,7 @@ pub mod html;
 pub mod input;
 pub mod rules;
 pub mod scan;
+pub mod sdf_input;
 
 use acidsite::report::{Flag, Scale};
 

@@ -138,11 +138,57 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
             )
         }
     };
+    analyze_molecule(smiles, &mol, line, id, opts)
+}
+
+/// Analyse one molfile (V2000 or V3000; see [`crate::mol::molfile`]). The
+/// record's `input` is a SMILES of the molecule written by the reader (atom
+/// indices stay in molfile order); a molfile that cannot be read gives a
+/// failure record whose message names the line (`line_offset` is added to
+/// the molfile's own line numbers, for a molfile inside a larger file).
+/// Never panics.
+pub fn analyze_molfile(
+    molfile: &str,
+    line_offset: u64,
+    line: u64,
+    id: Option<String>,
+    opts: &Options,
+) -> Record {
+    match crate::mol::molfile::read(molfile) {
+        Ok(r) => analyze_molecule(&r.smiles, &r.molecule, line, id, opts),
+        Err(e) => {
+            let e = e.shifted(line_offset as usize);
+            Record::failure(
+                line,
+                id,
+                String::new(),
+                ErrorOut {
+                    kind: e.kind.name().to_string(),
+                    message: e.to_string(),
+                    position: None,
+                },
+            )
+        }
+    }
+}
+
+/// Analyse a molecule already read. `input` is the SMILES text its atom
+/// spans point into (the input SMILES, or the SMILES a molfile reader
+/// wrote); it is stamped into the record and used for the atom-mapped
+/// SMILES and the component texts.
+pub fn analyze_molecule(
+    input: &str,
+    mol: &Molecule,
+    line: u64,
+    id: Option<String>,
+    opts: &Options,
+) -> Record {
+    let smiles = input;
     // One pattern-matching view of the molecule serves the sites and the
     // advice's functional groups.
-    let target = Target::new(&mol);
+    let target = Target::new(mol);
     let report = sites::find_sites_in(
-        &mol,
+        mol,
         &target,
         &sites::Options {
             scale: match opts.scale {
@@ -154,12 +200,12 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
     let (advice, advice_note) = if opts.sites_only {
         (None, Some("not requested (sites only)".to_string()))
     } else {
-        advice_record(&mol, &target, &report, opts)
+        advice_record(mol, &target, &report, opts)
     };
     // The report is not needed after the advice: its strings move into the
     // record.
     let sites_out = site_records(report);
-    let mapped = mapped_smiles(smiles, &mol, &sites_out);
+    let mapped = mapped_smiles(smiles, mol, &sites_out);
     let flags = if opts.flags.is_empty() {
         None
     } else {
@@ -170,7 +216,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
                 .collect(),
         ))
     };
-    let (formula, components) = molecule_facts(smiles, &mol);
+    let (formula, components) = molecule_facts(smiles, mol);
     Record {
         schema: SCHEMA,
         line,

@@ -12,5 +12,5 @@ pub mod mapped;
 pub mod record;
 pub mod table;
 
-pub use analyze::{analyze, Flag, FlagError, Options, Scale};
+pub use analyze::{analyze, analyze_molecule, analyze_molfile, Flag, FlagError, Options, Scale};
 pub use record::{Record, SCHEMA};
