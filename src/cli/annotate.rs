@@ -14,7 +14,7 @@ use super::{parse_flag, Outcome, ScaleArg};
 use acidsite::report::delimited::{split_csv_line, Delimiter, Layout, RowWriter};
 use acidsite::report::record::{ErrorOut, Pairs};
 use acidsite::mol::sdf::SdRecord;
-use acidsite::report::{analyze, analyze_molfile, Flag, Options, Record};
+use acidsite::report::{analyze, analyze_molfile, Detail, Flag, Options, Record};
 use anyhow::Context;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use rayon::prelude::*;
@@ -74,6 +74,11 @@ pub struct Args {
     /// smaller records; `advice` is null).
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
+    /// JSON records: full (every key, cautions and reasons worded) or brief
+    /// (the answer with ids for cautions and rejected bases, about a fifth
+    /// of the size; schema acidsite-brief/1).
+    #[arg(long, value_enum, default_value_t = DetailArg::Full)]
+    pub detail: DetailArg,
     /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
@@ -94,6 +99,16 @@ pub struct Args {
     /// (drawing with the sites marked, top site, base, warnings, errors).
     #[arg(long, value_name = "FILE")]
     pub html: Option<PathBuf>,
+}
+
+/// `--detail` values.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum DetailArg {
+    /// Every key of the acidsite-record schema.
+    Full,
+    /// The acidsite-brief schema: sites, base, equivalents, conversion,
+    /// solvent, temperature, warnings; ids for cautions and rejected bases.
+    Brief,
 }
 
 /// What every worker needs to turn a raw line into output text.
@@ -219,6 +234,10 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             scale: args.scale.into(),
             flags: args.flags.clone(),
             sites_only: args.sites_only,
+            detail: match args.detail {
+                DetailArg::Full => Detail::Full,
+                DetailArg::Brief => Detail::Brief,
+            },
         },
         rows,
         html: args.html.is_some(),
@@ -467,7 +486,11 @@ fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
     match &ctx.rows {
         Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
         None => {
-            rec.write_json(out);
+            if ctx.opts.detail == Detail::Brief {
+                rec.write_brief_json(out);
+            } else {
+                rec.write_json(out);
+            }
             out.push(b'\n');
         }
     }

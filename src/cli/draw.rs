@@ -44,6 +44,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         scale: args.scale.into(),
         flags: Vec::new(),
         sites_only: false,
+        detail: acidsite::report::Detail::Full,
     };
     let (rec, mol) = match &args.mol {
         Some(path) => {

@@ -44,6 +44,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         scale: args.scale.into(),
         flags: args.flags.clone(),
         sites_only: false,
+        detail: acidsite::report::Detail::Full,
     };
     let stdout = std::io::stdout();
     let mut out = std::io::BufWriter::new(stdout.lock());

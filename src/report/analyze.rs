@@ -1,6 +1,7 @@
 //! One SMILES in, one [`Record`] out: molecule → sites → advice, with the
 //! options of `scan` and `annotate`. No I/O.
 
+use super::brief::Detail;
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
     round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
@@ -91,6 +92,10 @@ pub struct Options {
     pub flags: Vec<Flag>,
     /// Sites only: skip the base advice (`advice` is null, with a note).
     pub sites_only: bool,
+    /// Full or brief records. Brief analysis words no alternatives and
+    /// builds neither the atom-mapped SMILES nor the component texts, which
+    /// the brief form does not carry.
+    pub detail: Detail,
 }
 
 /// Analyse one SMILES. `line` and `id` are stamped into the record as given.
@@ -205,7 +210,12 @@ pub fn analyze_molecule(
     // The report is not needed after the advice: its strings move into the
     // record.
     let sites_out = site_records(report);
-    let mapped = mapped_smiles(smiles, mol, &sites_out);
+    let brief = opts.detail == Detail::Brief;
+    let mapped = if brief {
+        None
+    } else {
+        mapped_smiles(smiles, mol, &sites_out)
+    };
     let flags = if opts.flags.is_empty() {
         None
     } else {
@@ -216,7 +226,11 @@ pub fn analyze_molecule(
                 .collect(),
         ))
     };
-    let (formula, components) = molecule_facts(smiles, mol);
+    let (formula, components) = if brief {
+        (mol.formula(), Vec::new())
+    } else {
+        molecule_facts(smiles, mol)
+    };
     Record {
         schema: SCHEMA,
         line,
@@ -225,7 +239,7 @@ pub fn analyze_molecule(
         ok: true,
         columns: None,
         formula: Some(formula),
-        components: Some(components),
+        components: (!brief).then_some(components),
         rule_set: Some(sites::rule_set_version()),
         sites: Some(sites_out),
         advice: Some(advice),
@@ -385,7 +399,11 @@ fn advice_record(
     let aopts = AdviceOptions {
         base: opts.base.clone(),
         site: opts.site,
-        alternatives: Some(MAX_ALTERNATIVES),
+        alternatives: Some(if opts.detail == Detail::Brief {
+            0
+        } else {
+            MAX_ALTERNATIVES
+        }),
         // Records report the conversion, not the full composition.
         full_equilibrium: false,
         ..AdviceOptions::default()

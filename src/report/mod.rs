@@ -6,6 +6,7 @@
 //! OWNER: command-line work (issue 6).
 
 pub mod analyze;
+pub mod brief;
 pub mod delimited;
 mod json;
 pub mod mapped;
@@ -13,4 +14,5 @@ pub mod record;
 pub mod table;
 
 pub use analyze::{analyze, analyze_molecule, analyze_molfile, Flag, FlagError, Options, Scale};
+pub use brief::{Detail, BRIEF_SCHEMA};
 pub use record::{Record, SCHEMA};
