@@ -7,12 +7,18 @@ use common::run_binary;
 use std::io::Read;
 
 fn reference_records(n: usize) -> Vec<String> {
-    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/mol/sdf/reference.sdf.gz");
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/corpus/mol/sdf/reference.sdf.gz"
+    );
     let mut s = String::new();
     flate2::read::GzDecoder::new(std::fs::File::open(path).unwrap())
         .read_to_string(&mut s)
         .unwrap();
-    s.split_inclusive("$$$$\n").take(n).map(str::to_string).collect()
+    s.split_inclusive("$$$$\n")
+        .take(n)
+        .map(str::to_string)
+        .collect()
 }
 
 fn json_lines(out: &[u8]) -> Vec<serde_json::Value> {
@@ -32,9 +38,17 @@ fn temp(name: &str, bytes: &[u8]) -> std::path::PathBuf {
 
 #[test]
 fn annotate_given_gzip_sd_file_gives_one_record_per_molecule_issue14() {
-    let path = concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/mol/sdf/reference.sdf.gz");
+    let path = concat!(
+        env!("CARGO_MANIFEST_DIR"),
+        "/corpus/mol/sdf/reference.sdf.gz"
+    );
     let out = run_binary(&["annotate", path, "--quiet", "--sites-only"], b"");
-    assert_eq!(out.status.code(), Some(0), "{}", String::from_utf8_lossy(&out.stderr));
+    assert_eq!(
+        out.status.code(),
+        Some(0),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
     let recs = json_lines(&out.stdout);
     assert_eq!(recs.len(), 2454);
     assert_eq!(recs[0]["id"], "chembl-1");
@@ -53,14 +67,27 @@ fn annotate_given_broken_record_resynchronises_at_next_separator_issue14() {
     recs[1] = recs[1].replacen(lines[4], &bad, 1);
     let start2 = recs[0].lines().count() + 1;
     let text = recs.concat();
-    let out = run_binary(&["annotate", "--quiet", "--sites-only", "--threads", "1"], text.as_bytes());
+    let out = run_binary(
+        &["annotate", "--quiet", "--sites-only", "--threads", "1"],
+        text.as_bytes(),
+    );
     assert_eq!(out.status.code(), Some(1));
     let r = json_lines(&out.stdout);
     assert_eq!(r.len(), 3);
-    assert_eq!((r[0]["ok"].as_bool(), r[1]["ok"].as_bool(), r[2]["ok"].as_bool()), (Some(true), Some(false), Some(true)));
+    assert_eq!(
+        (
+            r[0]["ok"].as_bool(),
+            r[1]["ok"].as_bool(),
+            r[2]["ok"].as_bool()
+        ),
+        (Some(true), Some(false), Some(true))
+    );
     assert_eq!(r[1]["line"], start2 as u64);
     let msg = r[1]["error"]["message"].as_str().unwrap();
-    assert!(msg.starts_with(&format!("SD record 2, line {}:", start2 + 4)), "{msg}");
+    assert!(
+        msg.starts_with(&format!("SD record 2, line {}:", start2 + 4)),
+        "{msg}"
+    );
     assert_eq!(r[1]["error"]["kind"], "molfile");
 }
 
@@ -68,12 +95,27 @@ fn annotate_given_broken_record_resynchronises_at_next_separator_issue14() {
 fn annotate_given_id_field_and_csv_output_carries_data_items_issue14() {
     let text = reference_records(4).concat();
     let p = temp("four.sdf", text.as_bytes());
-    let out = run_binary(&["annotate", p.to_str().unwrap(), "--quiet", "--id-field", "smiles", "--format", "csv", "--sites-only"], b"");
+    let out = run_binary(
+        &[
+            "annotate",
+            p.to_str().unwrap(),
+            "--quiet",
+            "--id-field",
+            "smiles",
+            "--format",
+            "csv",
+            "--sites-only",
+        ],
+        b"",
+    );
     assert_eq!(out.status.code(), Some(0));
     let csv = String::from_utf8_lossy(&out.stdout);
     let mut lines = csv.lines();
     let header = lines.next().unwrap();
-    assert!(header.starts_with("line,id,source,form,rdkit_formula,rdkit_total_h,smiles,"), "{header}");
+    assert!(
+        header.starts_with("line,id,source,form,rdkit_formula,rdkit_total_h,smiles,"),
+        "{header}"
+    );
     let first = lines.next().unwrap();
     assert!(first.contains(",N[C@@H](Cc1ccc(O)cc1)"), "{first}");
     assert_eq!(lines.count(), 3);
@@ -82,8 +124,14 @@ fn annotate_given_id_field_and_csv_output_carries_data_items_issue14() {
 #[test]
 fn annotate_given_sd_parallel_output_equals_sequential_issue14() {
     let text = reference_records(300).concat();
-    let one = run_binary(&["annotate", "--quiet", "--threads", "1", "--chunk", "7"], text.as_bytes());
-    let many = run_binary(&["annotate", "--quiet", "--threads", "4", "--chunk", "7"], text.as_bytes());
+    let one = run_binary(
+        &["annotate", "--quiet", "--threads", "1", "--chunk", "7"],
+        text.as_bytes(),
+    );
+    let many = run_binary(
+        &["annotate", "--quiet", "--threads", "4", "--chunk", "7"],
+        text.as_bytes(),
+    );
     assert_eq!(one.status.code(), Some(0));
     assert_eq!(one.stdout, many.stdout);
 }
@@ -91,7 +139,10 @@ fn annotate_given_sd_parallel_output_equals_sequential_issue14() {
 #[test]
 fn annotate_given_unsupported_inputs_exits_2_with_clear_message_issue14() {
     let cases: Vec<(std::path::PathBuf, &str)> = vec![
-        (temp("book.xlsx", b"PK\x03\x04\x14\x00\x06\x00"), "zip archive"),
+        (
+            temp("book.xlsx", b"PK\x03\x04\x14\x00\x06\x00"),
+            "zip archive",
+        ),
         (temp("list.json", b"[\"CCO\"]\n"), ".json"),
         (temp("blob", &[0u8, 1, 2, 3, 0, 255, 254, 0]), "binary"),
     ];
@@ -99,7 +150,10 @@ fn annotate_given_unsupported_inputs_exits_2_with_clear_message_issue14() {
         let out = run_binary(&["annotate", p.to_str().unwrap(), "--quiet"], b"");
         let err = String::from_utf8_lossy(&out.stderr);
         assert_eq!(out.status.code(), Some(2), "{err}");
-        assert!(err.contains("unsupported format") && err.contains(words), "{err}");
+        assert!(
+            err.contains("unsupported format") && err.contains(words),
+            "{err}"
+        );
         assert!(out.stdout.is_empty());
     }
     // Binary on stdin too.

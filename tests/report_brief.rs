@@ -71,7 +71,9 @@ struct ErrorMirror {
 }
 
 fn moses_lines(n: usize) -> String {
-    let text = std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/bulk/real.smi")).unwrap();
+    let text =
+        std::fs::read_to_string(concat!(env!("CARGO_MANIFEST_DIR"), "/corpus/bulk/real.smi"))
+            .unwrap();
     text.lines()
         .filter(|l| l.contains(" moses-test-"))
         .take(n)
@@ -83,8 +85,16 @@ fn brief_lines(input: &str, extra: &[&str]) -> Vec<String> {
     let mut args = vec!["annotate", "--quiet", "--detail", "brief"];
     args.extend_from_slice(extra);
     let out = run_binary(&args, input.as_bytes());
-    assert!(matches!(out.status.code(), Some(0) | Some(1)), "{}", String::from_utf8_lossy(&out.stderr));
-    String::from_utf8(out.stdout).unwrap().lines().map(str::to_string).collect()
+    assert!(
+        matches!(out.status.code(), Some(0) | Some(1)),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    String::from_utf8(out.stdout)
+        .unwrap()
+        .lines()
+        .map(str::to_string)
+        .collect()
 }
 
 #[test]
@@ -94,7 +104,11 @@ fn annotate_given_brief_detail_keeps_p95_under_1500_bytes_issue14() {
     let mut sizes: Vec<usize> = lines.iter().map(|l| l.len() + 1).collect();
     sizes.sort_unstable();
     let p95 = sizes[sizes.len() * 95 / 100];
-    eprintln!("brief record bytes: median {}, p95 {p95}, max {}", sizes[sizes.len() / 2], sizes[sizes.len() - 1]);
+    eprintln!(
+        "brief record bytes: median {}, p95 {p95}, max {}",
+        sizes[sizes.len() / 2],
+        sizes[sizes.len() - 1]
+    );
     // Target from issue 14: under 1.5 KB for 95 % of a MOSES sample.
     assert!(p95 < 1500, "p95 {p95} bytes");
 }
@@ -126,7 +140,11 @@ fn annotate_given_brief_detail_gives_the_same_answer_as_full_issue14() {
     let input = moses_lines(200);
     let brief = brief_lines(&input, &[]);
     let out = run_binary(&["annotate", "--quiet"], input.as_bytes());
-    let full: Vec<Value> = String::from_utf8(out.stdout).unwrap().lines().map(|l| serde_json::from_str(l).unwrap()).collect();
+    let full: Vec<Value> = String::from_utf8(out.stdout)
+        .unwrap()
+        .lines()
+        .map(|l| serde_json::from_str(l).unwrap())
+        .collect();
     assert_eq!(brief.len(), full.len());
     for (b, f) in brief.iter().zip(&full) {
         let b: Value = serde_json::from_str(b).unwrap();
@@ -136,12 +154,36 @@ fn annotate_given_brief_detail_gives_the_same_answer_as_full_issue14() {
             assert!(ba.is_null());
             continue;
         }
-        for k in ["target", "base", "equivalents", "conversion", "solvent", "temperature_c", "scale"] {
-            let want = if fa[k].is_null() { &Value::Null } else { &fa[k] };
+        for k in [
+            "target",
+            "base",
+            "equivalents",
+            "conversion",
+            "solvent",
+            "temperature_c",
+            "scale",
+        ] {
+            let want = if fa[k].is_null() {
+                &Value::Null
+            } else {
+                &fa[k]
+            };
             assert_eq!(&ba[k], want, "{k} of {}", f["input"]);
         }
-        let names: Vec<&Value> = fa["rejected"].as_array().unwrap().iter().map(|r| &r["base"]).collect();
-        assert_eq!(ba["rejected"].as_array().unwrap().iter().collect::<Vec<_>>(), names);
+        let names: Vec<&Value> = fa["rejected"]
+            .as_array()
+            .unwrap()
+            .iter()
+            .map(|r| &r["base"])
+            .collect();
+        assert_eq!(
+            ba["rejected"]
+                .as_array()
+                .unwrap()
+                .iter()
+                .collect::<Vec<_>>(),
+            names
+        );
         let fw = fa["warnings"].as_array().unwrap();
         let bw = ba["warnings"].as_array().unwrap();
         assert_eq!(fw.len(), bw.len());
@@ -152,7 +194,10 @@ fn annotate_given_brief_detail_gives_the_same_answer_as_full_issue14() {
         let bs = b["sites"].as_array().unwrap();
         assert_eq!(fs.len(), bs.len());
         for (x, y) in fs.iter().zip(bs) {
-            assert_eq!((&x["atoms"], &x["class"], &x["uncertainty"]), (&y["atoms"], &y["class"], &y["sd"]));
+            assert_eq!(
+                (&x["atoms"], &x["class"], &x["uncertainty"]),
+                (&y["atoms"], &y["class"], &y["sd"])
+            );
         }
     }
 }
@@ -169,7 +214,10 @@ fn bases_given_name_and_json_gives_each_caution_wording_issue14() {
         assert!(text.contains("safety data sheet"), "{k}: {text}");
     }
     // Sodium hydride in DMF: the runaway hazard (common practice).
-    assert!(c["in_dmf_dmso_dmac"].as_str().unwrap().contains("self-accelerating"));
+    assert!(c["in_dmf_dmso_dmac"]
+        .as_str()
+        .unwrap()
+        .contains("self-accelerating"));
     let out = run_binary(&["bases", "LDA", "--json"], b"");
     let v: Value = serde_json::from_slice(&out.stdout).unwrap();
     assert!(v["cautions"].get("in_dmf_dmso_dmac").is_none());

@@ -11,9 +11,9 @@
 use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
 use super::sdf_input;
 use super::{parse_flag, Outcome, ScaleArg};
+use acidsite::mol::sdf::SdRecord;
 use acidsite::report::delimited::{split_csv_line, Delimiter, Layout, RowWriter};
 use acidsite::report::record::{ErrorOut, Pairs};
-use acidsite::mol::sdf::SdRecord;
 use acidsite::report::{analyze, analyze_molfile, Detail, Flag, Options, Record};
 use anyhow::Context;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
@@ -141,7 +141,9 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .unwrap_or_else(|| "standard input".into());
     let mut source =
         LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
-    let head = source.peek().with_context(|| format!("cannot read {shown}"))?;
+    let head = source
+        .peek()
+        .with_context(|| format!("cannot read {shown}"))?;
     let format = sdf_input::choose_format(args.input_format, path.as_deref(), head)
         .map_err(|e| anyhow::anyhow!("{shown}: {e}"))?;
     let chunk = args.chunk as usize;
@@ -560,7 +562,11 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
             "line".to_string()
         };
         return fail(
-            if ctx.format == InputFormat::Sdf { String::new() } else { text.to_string() },
+            if ctx.format == InputFormat::Sdf {
+                String::new()
+            } else {
+                text.to_string()
+            },
             None,
             "too_large",
             format!(
@@ -642,7 +648,13 @@ fn sd_record(raw: &RawLine, text: &str, ctx: &Context_) -> Record {
         None => Some(sd.title().to_string()),
     }
     .filter(|s| !s.is_empty());
-    let mut rec = analyze_molfile(sd.molfile(), raw.line.saturating_sub(1), raw.line, id, &ctx.opts);
+    let mut rec = analyze_molfile(
+        sd.molfile(),
+        raw.line.saturating_sub(1),
+        raw.line,
+        id,
+        &ctx.opts,
+    );
     if let Some(e) = rec.error.as_mut() {
         e.message = format!("SD record {}, {}", raw.record, e.message);
     }

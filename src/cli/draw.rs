@@ -12,7 +12,11 @@ use std::path::{Path, PathBuf};
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// The molecule (quote it in the shell).
-    #[arg(value_name = "SMILES", required_unless_present = "mol", conflicts_with = "mol")]
+    #[arg(
+        value_name = "SMILES",
+        required_unless_present = "mol",
+        conflicts_with = "mol"
+    )]
     pub smiles: Option<String>,
     /// Read the molecule from a molfile or SD file (its first record) instead;
     /// atom indices are the molfile's atom order, 0-based.

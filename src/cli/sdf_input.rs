@@ -96,7 +96,11 @@ fn binary_kind(head: &[u8]) -> Option<&'static str> {
 fn looks_like_sd(head: &[u8]) -> bool {
     let text = String::from_utf8_lossy(&head[..head.len().min(16384)]);
     let mut lines = text.lines();
-    if lines.clone().nth(3).is_some_and(|l| l.contains("V2000") || l.contains("V3000")) {
+    if lines
+        .clone()
+        .nth(3)
+        .is_some_and(|l| l.contains("V2000") || l.contains("V3000"))
+    {
         return true;
     }
     lines.any(|l| l.starts_with("$$$$") || l.starts_with("M  END"))
@@ -164,32 +168,6 @@ pub fn next_sd_chunk(
     Ok(chunk)
 }
 
-#[cfg(test)]
-mod tests {
-    use super::*;
-
-    #[test]
-    fn choose_format_given_names_and_content() {
-        let sd = b"x\n\n\n  1  0  0  0  0  0  0  0  0  0999 V2000\n";
-        let p = |s: &str| Some(Path::new(s).to_path_buf());
-        assert_eq!(choose_format(None, p("a.sdf.gz").as_deref(), b"").unwrap(), InputFormat::Sdf);
-        assert_eq!(choose_format(None, p("a.txt").as_deref(), sd).unwrap(), InputFormat::Sdf);
-        assert_eq!(choose_format(None, None, sd).unwrap(), InputFormat::Sdf);
-        assert_eq!(choose_format(None, None, b"CCO x\n").unwrap(), InputFormat::Smi);
-        assert!(choose_format(None, p("a.xlsx").as_deref(), b"PK\x03\x04..")
-            .unwrap_err()
-            .starts_with("unsupported format"));
-        assert!(choose_format(None, p("a.json").as_deref(), b"{}")
-            .unwrap_err()
-            .contains(".json"));
-        assert!(choose_format(None, None, b"\x00\x01\x02").is_err());
-        assert_eq!(
-            choose_format(Some(InputFormat::Smi), p("a.json").as_deref(), b"CCO").unwrap(),
-            InputFormat::Smi
-        );
-    }
-}
-
 /// Largest molfile / SD file `scan --mol` and `draw --mol` read whole.
 const MAX_MOL_FILE: u64 = 64 << 20;
 
@@ -249,11 +227,48 @@ pub fn analyze_mol_text(
                 e.message = format!("record {}, {}", r.number, e.message);
             }
             let mol = if rec.ok {
-                acidsite::mol::molfile::read(r.molfile()).ok().map(|m| m.molecule)
+                acidsite::mol::molfile::read(r.molfile())
+                    .ok()
+                    .map(|m| m.molecule)
             } else {
                 None
             };
             (rec, mol)
         })
         .collect()
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+
+    #[test]
+    fn choose_format_given_names_and_content() {
+        let sd = b"x\n\n\n  1  0  0  0  0  0  0  0  0  0999 V2000\n";
+        let p = |s: &str| Some(Path::new(s).to_path_buf());
+        assert_eq!(
+            choose_format(None, p("a.sdf.gz").as_deref(), b"").unwrap(),
+            InputFormat::Sdf
+        );
+        assert_eq!(
+            choose_format(None, p("a.txt").as_deref(), sd).unwrap(),
+            InputFormat::Sdf
+        );
+        assert_eq!(choose_format(None, None, sd).unwrap(), InputFormat::Sdf);
+        assert_eq!(
+            choose_format(None, None, b"CCO x\n").unwrap(),
+            InputFormat::Smi
+        );
+        assert!(choose_format(None, p("a.xlsx").as_deref(), b"PK\x03\x04..")
+            .unwrap_err()
+            .starts_with("unsupported format"));
+        assert!(choose_format(None, p("a.json").as_deref(), b"{}")
+            .unwrap_err()
+            .contains(".json"));
+        assert!(choose_format(None, None, b"\x00\x01\x02").is_err());
+        assert_eq!(
+            choose_format(Some(InputFormat::Smi), p("a.json").as_deref(), b"CCO").unwrap(),
+            InputFormat::Smi
+        );
+    }
 }

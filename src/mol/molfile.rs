@@ -299,7 +299,9 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
     let ws: Vec<&str> = counts.split_whitespace().collect();
     let na = int_field(counts, 0, 3)
         .or_else(|| ws.first().and_then(|s| s.parse().ok()))
-        .ok_or_else(|| MolfileError::format(4, "the counts line does not start with the atom count"))?;
+        .ok_or_else(|| {
+            MolfileError::format(4, "the counts line does not start with the atom count")
+        })?;
     let nb = int_field(counts, 3, 6)
         .or_else(|| ws.get(1).and_then(|s| s.parse().ok()))
         .ok_or_else(|| MolfileError::format(4, "the counts line has no bond count"))?;
@@ -349,7 +351,10 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
                 Some(f.get(k).and_then(|s| s.parse().ok()).unwrap_or(0))
             };
             v.ok_or_else(|| {
-                MolfileError::format(ln, format!("atom line {} has a field that is not a number", i + 1))
+                MolfileError::format(
+                    ln,
+                    format!("atom line {} has a field that is not a number", i + 1),
+                )
             })
         };
         let code = num(36, 5)?;
@@ -406,7 +411,10 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
         let (Some(a), Some(b), Some(t)) = (get(0, 0), get(3, 1), get(6, 2)) else {
             return Err(MolfileError::format(
                 ln,
-                format!("bond line {} does not hold two atom numbers and a type", k + 1),
+                format!(
+                    "bond line {} does not hold two atom numbers and a type",
+                    k + 1
+                ),
             ));
         };
         bonds.push(checked_bond(a, b, t, na, ln)?);
@@ -433,7 +441,9 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
             .split_whitespace()
             .map(|s| s.parse::<i64>())
             .collect::<Result<_, _>>()
-            .map_err(|_| MolfileError::format(ln, format!("{tag} line has a field that is not a number")))?;
+            .map_err(|_| {
+                MolfileError::format(ln, format!("{tag} line has a field that is not a number"))
+            })?;
         let n = values.first().copied().unwrap_or(0);
         if n < 0 || values.len() < 1 + 2 * n as usize {
             return Err(MolfileError::format(
@@ -451,7 +461,10 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
         }
         for pair in values[1..1 + 2 * n as usize].chunks(2) {
             let (a, v) = (pair[0], pair[1]);
-            let Some(atom) = (a >= 1).then(|| table.atoms.get_mut(a as usize - 1)).flatten() else {
+            let Some(atom) = (a >= 1)
+                .then(|| table.atoms.get_mut(a as usize - 1))
+                .flatten()
+            else {
                 return Err(MolfileError::format(
                     ln,
                     format!("{tag} names atom {a}, but there are {na} atoms"),
@@ -460,13 +473,19 @@ fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
             match tag {
                 "M  CHG" => {
                     if !(-15..=15).contains(&v) {
-                        return Err(MolfileError::format(ln, format!("charge {v} is out of range")));
+                        return Err(MolfileError::format(
+                            ln,
+                            format!("charge {v} is out of range"),
+                        ));
                     }
                     atom.charge = v as i8;
                 }
                 "M  ISO" => {
                     if !(1..=999).contains(&v) {
-                        return Err(MolfileError::format(ln, format!("mass number {v} is out of range")));
+                        return Err(MolfileError::format(
+                            ln,
+                            format!("mass number {v} is out of range"),
+                        ));
                     }
                     atom.isotope = Some(v as u16);
                 }
@@ -499,7 +518,10 @@ fn checked_bond(
         }
     }
     if a == b {
-        return Err(MolfileError::format(ln, format!("bond from atom {a} to itself")));
+        return Err(MolfileError::format(
+            ln,
+            format!("bond from atom {a} to itself"),
+        ));
     }
     Ok((a as usize - 1, b as usize - 1, bond_order(t, ln)?, ln))
 }
@@ -518,7 +540,10 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
         }
         let Some(body) = line.strip_prefix("M  V30 ") else {
             if pending.is_some() {
-                return Err(MolfileError::format(ln, "a V3000 line ending in '-' is not continued"));
+                return Err(MolfileError::format(
+                    ln,
+                    "a V3000 line ending in '-' is not continued",
+                ));
             }
             continue;
         };
@@ -533,7 +558,10 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
         }
     }
     if !ended {
-        return Err(MolfileError::format(lines.len(), "the molfile has no 'M  END' line"));
+        return Err(MolfileError::format(
+            lines.len(),
+            "the molfile has no 'M  END' line",
+        ));
     }
     let mut na = None;
     let mut atoms: Vec<TableAtom> = Vec::new();
@@ -548,7 +576,10 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
             "COUNTS" => {
                 let get = |k: usize| words.get(k).and_then(|s| s.parse::<i64>().ok());
                 let (Some(a), Some(_)) = (get(1), get(2)) else {
-                    return Err(MolfileError::format(ln, "the COUNTS line does not hold the atom and bond counts"));
+                    return Err(MolfileError::format(
+                        ln,
+                        "the COUNTS line does not hold the atom and bond counts",
+                    ));
                 };
                 na = Some(check_count(a, "atom", ln)?);
                 continue;
@@ -571,18 +602,27 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
         match block {
             "atom" => {
                 let Some(id) = words.first().and_then(|s| s.parse::<i64>().ok()) else {
-                    return Err(MolfileError::format(ln, "atom line does not start with an atom number"));
+                    return Err(MolfileError::format(
+                        ln,
+                        "atom line does not start with an atom number",
+                    ));
                 };
                 let symbol = words.get(1).map(String::as_str).unwrap_or("");
                 if symbol.starts_with('[') || symbol.starts_with("NOT") {
-                    return Err(MolfileError::unsupported(ln, "atom lists are not supported"));
+                    return Err(MolfileError::unsupported(
+                        ln,
+                        "atom lists are not supported",
+                    ));
                 }
                 if symbol.is_empty() {
                     return Err(MolfileError::format(ln, "atom line has no element symbol"));
                 }
                 for k in 2..5 {
                     if words.get(k).and_then(|s| s.parse::<f64>().ok()).is_none() {
-                        return Err(MolfileError::format(ln, "atom line does not hold three coordinates after the symbol"));
+                        return Err(MolfileError::format(
+                            ln,
+                            "atom line does not hold three coordinates after the symbol",
+                        ));
                     }
                 }
                 let (element, mut isotope) = element_of(symbol, ln)?;
@@ -603,25 +643,38 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
                         "CHG" => {
                             let v: i64 = value.parse().map_err(|_| bad())?;
                             if !(-15..=15).contains(&v) {
-                                return Err(MolfileError::format(ln, format!("charge {v} is out of range")));
+                                return Err(MolfileError::format(
+                                    ln,
+                                    format!("charge {v} is out of range"),
+                                ));
                             }
                             atom.charge = v as i8;
                         }
                         "MASS" => {
                             let v: i64 = value.parse().map_err(|_| bad())?;
                             if !(1..=999).contains(&v) {
-                                return Err(MolfileError::format(ln, format!("mass number {v} is out of range")));
+                                return Err(MolfileError::format(
+                                    ln,
+                                    format!("mass number {v} is out of range"),
+                                ));
                             }
                             isotope = Some(v as u16);
                         }
-                        "RAD" => atom.radical = radical_electrons(value.parse().map_err(|_| bad())?, ln)?,
+                        "RAD" => {
+                            atom.radical = radical_electrons(value.parse().map_err(|_| bad())?, ln)?
+                        }
                         "VAL" => {
                             let v: i64 = value.parse().map_err(|_| bad())?;
                             atom.valence = match v {
                                 0 => None,
                                 -1 => Some(0),
                                 1..=14 => Some(v as u8),
-                                _ => return Err(MolfileError::format(ln, format!("valence {v} is out of range"))),
+                                _ => {
+                                    return Err(MolfileError::format(
+                                        ln,
+                                        format!("valence {v} is out of range"),
+                                    ))
+                                }
                             };
                         }
                         _ => {}
@@ -629,7 +682,10 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
                 }
                 atom.isotope = isotope;
                 if ids.insert(id, atoms.len()).is_some() {
-                    return Err(MolfileError::format(ln, format!("atom number {id} is used twice")));
+                    return Err(MolfileError::format(
+                        ln,
+                        format!("atom number {id} is used twice"),
+                    ));
                 }
                 if atoms.len() >= MAX_ATOMS {
                     return Err(MolfileError {
@@ -644,14 +700,23 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
             "bond" => {
                 let get = |k: usize| words.get(k).and_then(|s| s.parse::<i64>().ok());
                 let (Some(_), Some(t), Some(a), Some(b)) = (get(0), get(1), get(2), get(3)) else {
-                    return Err(MolfileError::format(ln, "bond line does not hold a number, a type and two atoms"));
+                    return Err(MolfileError::format(
+                        ln,
+                        "bond line does not hold a number, a type and two atoms",
+                    ));
                 };
                 let (Some(&x), Some(&y)) = (ids.get(&a), ids.get(&b)) else {
                     let missing = if ids.contains_key(&a) { b } else { a };
-                    return Err(MolfileError::format(ln, format!("bond to atom {missing}, which the atom block does not define")));
+                    return Err(MolfileError::format(
+                        ln,
+                        format!("bond to atom {missing}, which the atom block does not define"),
+                    ));
                 };
                 if x == y {
-                    return Err(MolfileError::format(ln, format!("bond from atom {a} to itself")));
+                    return Err(MolfileError::format(
+                        ln,
+                        format!("bond from atom {a} to itself"),
+                    ));
                 }
                 bonds.push((x, y, bond_order(t, ln)?, ln));
             }
@@ -659,12 +724,18 @@ fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
         }
     }
     let Some(na) = na else {
-        return Err(MolfileError::format(4, "the V3000 connection table has no COUNTS line"));
+        return Err(MolfileError::format(
+            4,
+            "the V3000 connection table has no COUNTS line",
+        ));
     };
     if na != atoms.len() {
         return Err(MolfileError::format(
             4,
-            format!("COUNTS announces {na} atoms, the atom block holds {}", atoms.len()),
+            format!(
+                "COUNTS announces {na} atoms, the atom block holds {}",
+                atoms.len()
+            ),
         ));
     }
     Ok(Table { atoms, bonds })
@@ -748,7 +819,11 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
             } else if a.radical > 0 {
                 let targets = elements::charged_valences(a.element, a.charge);
                 let need = bonds + a.radical as u32;
-                let t = targets.iter().map(|&t| t as u32).find(|&t| t >= need).unwrap_or(need);
+                let t = targets
+                    .iter()
+                    .map(|&t| t as u32)
+                    .find(|&t| t >= need)
+                    .unwrap_or(need);
                 Some((t - need) as u8)
             } else {
                 None
@@ -784,7 +859,8 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
     let (smiles, order) = super::smiles_out::write(&molecule);
     let final_mol = reread(&smiles, &order, &molecule).ok_or_else(|| MolfileError {
         kind: MolfileErrorKind::Unsupported,
-        message: "the molecule could not be written as SMILES for the report (please report this)".into(),
+        message: "the molecule could not be written as SMILES for the report (please report this)"
+            .into(),
         line: None,
         atom: None,
     })?;
@@ -830,7 +906,15 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             join: b.join,
         })
         .collect();
-    let mut mol = super::build(smiles, Raw { atoms, bonds, spans }).ok()?;
+    let mut mol = super::build(
+        smiles,
+        Raw {
+            atoms,
+            bonds,
+            spans,
+        },
+    )
+    .ok()?;
     for (a, o) in mol.atoms.iter_mut().zip(&original.atoms) {
         if a.element != o.element
             || a.charge != o.charge

@@ -46,7 +46,7 @@ pub fn records(text: &str) -> impl Iterator<Item = SdRecord<'_>> + '_ {
     let mut rest = text;
     let mut line = 1u64;
     let mut number = 0u64;
-    std::iter::from_fn(move || loop {
+    std::iter::from_fn(move || {
         if rest.is_empty() {
             return None;
         }
@@ -71,11 +71,11 @@ pub fn records(text: &str) -> impl Iterator<Item = SdRecord<'_>> + '_ {
             return None;
         }
         number += 1;
-        return Some(SdRecord {
+        Some(SdRecord {
             number,
             first_line: start_line,
             text: body,
-        });
+        })
     })
 }
 
@@ -171,7 +171,10 @@ mod tests {
         let text = format!("{ONE}> <a>\n1\n\n$$$$\n{ONE}$$$$\r\n{ONE}");
         let recs: Vec<_> = records(&text).collect();
         assert_eq!(recs.len(), 3);
-        assert_eq!(recs.iter().map(|r| r.first_line).collect::<Vec<_>>(), [1, 11, 18]);
+        assert_eq!(
+            recs.iter().map(|r| r.first_line).collect::<Vec<_>>(),
+            [1, 11, 18]
+        );
         assert_eq!(recs[0].fields(), [("a".to_string(), "1".to_string())]);
         assert!(recs[2].fields().is_empty());
         assert_eq!(recs[2].read_molecule().unwrap().molecule.formula(), "CH4");
