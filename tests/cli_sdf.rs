@@ -180,3 +180,58 @@ fn scan_and_draw_given_mol_file_use_molfile_atom_order_issue14() {
     let out = run_binary(&["scan", "--mol", "/nonexistent/x.mol"], b"");
     assert_eq!(out.status.code(), Some(2));
 }
+
+#[test]
+fn annotate_given_hostile_sd_records_gives_one_record_each_issue14() {
+    let good = reference_records(1).remove(0);
+    let body = good.trim_end_matches("$$$$\n");
+    let hostile: Vec<String> = vec![
+        String::new(),                                           // empty record
+        "\x00\x01garbage\u{fffd}\n".into(),                     // control bytes
+        body.replacen("V2000", "V3000", 1),                      // wrong version mark
+        "t\n\n\n999999999  0  0  0  0  0  0  0  0  0999 V2000\nM  END\n".into(),
+        "t\n\n\n  0  0  0     0  0            999 V3000\nM  V30 BEGIN CTAB\nM  V30 COUNTS 100000000 0 0 0 0\nM  END\n".into(),
+        body[..body.len() / 2].to_string(),                      // cut in half
+        body.replace("M  END", "M  CHG  9   1  -1\nM  END"),     // announces more than it holds
+    ];
+    let mut text = String::new();
+    for h in &hostile {
+        text.push_str(h);
+        if !h.ends_with('\n') && !h.is_empty() {
+            text.push('\n');
+        }
+        text.push_str("$$$$\n");
+        text.push_str(&good);
+    }
+    let out = run_binary(
+        &[
+            "annotate",
+            "--quiet",
+            "--sites-only",
+            "--input-format",
+            "sdf",
+        ],
+        text.as_bytes(),
+    );
+    assert_eq!(
+        out.status.code(),
+        Some(1),
+        "{}",
+        String::from_utf8_lossy(&out.stderr)
+    );
+    let r = json_lines(&out.stdout);
+    assert_eq!(r.len(), 2 * hostile.len());
+    for (k, rec) in r.iter().enumerate() {
+        // Every good record after a hostile one is read again.
+        assert_eq!(
+            rec["ok"].as_bool(),
+            Some(k % 2 == 1),
+            "record {}: {rec}",
+            k + 1
+        );
+        if k % 2 == 0 {
+            let kind = rec["error"]["kind"].as_str().unwrap();
+            assert_ne!(kind, "internal", "{rec}");
+        }
+    }
+}

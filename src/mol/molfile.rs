@@ -128,7 +128,7 @@ impl fmt::Display for MolfileError {
             write!(f, "line {l}: ")?;
         }
         if let Some(a) = self.atom {
-            write!(f, "atom {} ({}th in the atom block): ", a, a + 1)?;
+            write!(f, "atom {} of the atom block (index {a}): ", a + 1)?;
         }
         write!(f, "{}", self.message)
     }
