@@ -37,6 +37,8 @@ enum Command {
     Rules(cli::rules::Args),
     /// Solve the deprotonation equilibrium of a molecule with a base.
     Equilibrium(cli::equilibrium::Args),
+    /// Serve the local web page (one molecule or a list, in your browser).
+    Serve(cli::serve::Args),
 }
 
 fn main() -> ExitCode {
@@ -48,6 +50,7 @@ fn main() -> ExitCode {
         Command::Bases(a) => cli::bases::run(a),
         Command::Rules(a) => cli::rules::run(a),
         Command::Equilibrium(a) => cli::equilibrium::run(a),
+        Command::Serve(a) => cli::serve::run(a),
     };
     match result {
         Ok(cli::Outcome::AllFine) => ExitCode::from(0),

@@ -173,6 +173,8 @@ proptest! {
             solvent: solvent.map(str::to_string),
             scale: None,
             purpose: if catalytic { Purpose::Catalytic } else { Purpose::Stoichiometric },
+            reaction: None,
+            control: None,
             alternatives: None,
             full_equilibrium: true,
         };

@@ -167,3 +167,12 @@ fn annotate_given_bad_flag_pattern_exits_two_with_position() {
     assert!(err.contains("bad") && err.contains("character"), "{err}");
     assert!(out.stdout.is_empty());
 }
+
+#[test]
+fn scan_given_unclosed_ring_names_no_internal_error_kind_issue14() {
+    let out = run(&["scan", "C1CC"], b"");
+    assert_eq!(out.status.code(), Some(1));
+    let text = String::from_utf8_lossy(&out.stdout);
+    assert!(text.contains("ring closure error"), "{text}");
+    assert!(!text.contains("ring_closure"), "{text}");
+}

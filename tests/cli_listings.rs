@@ -82,9 +82,17 @@ fn equilibrium_given_acetone_and_ethoxide_in_ethanol_leaves_little_enolate() {
         .as_array()
         .unwrap()
         .iter()
-        .map(|x| x.as_f64().unwrap())
+        .map(|x| x["fraction"].as_f64().unwrap())
         .sum();
-    assert!((anions - 1.0).abs() < 1e-9);
+    // Six significant digits per species (issue 14: no float noise).
+    assert!((anions - 1.0).abs() < 1e-5);
+    assert_eq!(rec["anions"][0]["charge"], 0);
+    assert_eq!(rec["anions"][1]["charge"], -1);
+    let text = out.trim();
+    assert!(
+        !text.contains("9999999") && !text.contains("0000001"),
+        "float noise in {text}"
+    );
 }
 
 #[test]
@@ -100,4 +108,55 @@ fn equilibrium_given_bad_input_fails_with_right_code() {
     let (code, out, _) = run(&["equilibrium", "CC(=O", "--base", "LDA"]);
     assert_eq!(code, Some(1));
     assert!(out.contains("not read"), "{out}");
+}
+
+#[test]
+fn rules_given_only_matching_no_increment_prints_no_empty_increments_table_issue14() {
+    let (code, out, _) = run(&["rules", "--only", "ketone"]);
+    assert_eq!(code, Some(0));
+    assert!(out.contains("class rules:"), "{out}");
+    assert!(!out.contains("increments: added"), "{out}");
+}
+
+#[test]
+fn rules_given_only_matching_nothing_says_so_and_exits_1_issue14() {
+    let (code, out, err) = run(&["rules", "--only", "no-such-class-xyz"]);
+    assert_eq!(code, Some(1));
+    assert!(out.is_empty(), "{out}");
+    assert!(err.contains("no-such-class-xyz"), "{err}");
+}
+
+#[test]
+fn bases_given_no_options_fits_120_columns_and_lists_systems_issue14() {
+    let (code, out, _) = run(&["bases"]);
+    assert_eq!(code, Some(0));
+    for line in out.lines() {
+        assert!(
+            line.chars().count() <= 120,
+            "{} columns: {line}",
+            line.chars().count()
+        );
+    }
+    assert!(out.contains("Et3N/TMSCl"), "reagent systems listed");
+    let (_, wide, _) = run(&["bases", "--wide"]);
+    assert!(wide.contains("[bordwell1988]") && wide.contains("\nsources\n"));
+}
+
+#[test]
+fn bases_given_system_name_shows_it_with_its_caution_issue10() {
+    let (code, json, _) = run(&["bases", "--json", "Et3N/TMSCl"]);
+    assert_eq!(code, Some(0));
+    let rec: serde_json::Value = serde_json::from_str(json.trim()).unwrap();
+    assert_eq!(rec["system"], "Et3N/TMSCl");
+    assert_eq!(rec["source"], "house1969");
+    assert!(rec["caution"]
+        .as_str()
+        .unwrap()
+        .contains("safety data sheet"));
+    let (_, lda, _) = run(&["bases", "--json", "LDA"]);
+    let rec: serde_json::Value = serde_json::from_str(lda.trim()).unwrap();
+    assert!(rec["caution"]
+        .as_str()
+        .unwrap()
+        .contains("safety data sheet"));
 }

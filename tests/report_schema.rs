@@ -1,4 +1,4 @@
-//! Locks the JSON record schema (`acidsite-record/2`, documented in
+//! Locks the JSON record schema (`acidsite-record/3`, documented in
 //! `src/report/record.rs`): records from the real binary must deserialize into
 //! mirror types that refuse unknown keys, and the required keys must be present.
 //! A change here is a schema change: bump `SCHEMA` and the docs with it. Issue 6.
@@ -26,6 +26,7 @@ struct RecordMirror {
     advice_note: Option<String>,
     mapped_smiles: Option<String>,
     flags: Option<BTreeMap<String, u64>>,
+    flag_warnings: Option<Vec<String>>,
     error: Option<ErrorMirror>,
 }
 
@@ -69,6 +70,12 @@ struct RuleMirror {
 #[allow(dead_code)]
 struct AdviceMirror {
     target: Vec<usize>,
+    reaction: String,
+    control: Option<String>,
+    mode: String,
+    mode_note: String,
+    practice_row: Option<String>,
+    not_judged: Vec<NotJudgedMirror>,
     base: Option<String>,
     equivalents: Option<f64>,
     conversion: Option<f64>,
@@ -87,6 +94,14 @@ struct AdviceMirror {
     scale_note: String,
     regio_conditions: Option<RegioMirror>,
     catalogue: String,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct NotJudgedMirror {
+    base: String,
+    missing: String,
 }
 
 #[derive(Debug, Deserialize)]
@@ -169,7 +184,7 @@ fn check(line: &str) -> RecordMirror {
         .unwrap_or_else(|e| panic!("record does not match the schema: {e}\n{line}"));
     let v: Value = serde_json::from_str(line).unwrap();
     let o = v.as_object().unwrap();
-    assert_eq!(rec.schema, "acidsite-record/2");
+    assert_eq!(rec.schema, "acidsite-record/3");
     for key in ["schema", "line", "id", "input", "ok"] {
         assert!(o.contains_key(key), "missing {key}: {line}");
     }

@@ -115,7 +115,7 @@ impl Hazard {
         }
     }
 
-    fn parse(s: &str) -> Option<Hazard> {
+    pub(crate) fn parse(s: &str) -> Option<Hazard> {
         Some(match s {
             "pyrophoric" => Hazard::Pyrophoric,
             "water-reactive" => Hazard::WaterReactive,
@@ -316,6 +316,32 @@ impl Catalogue {
         self.bases.iter().find(|b| fold_name(&b.name) == key)
     }
 
+    /// Every solvent the catalogue names (usual solvents of the bases and
+    /// the protic solvents that are conjugate acids), sorted, each once.
+    pub fn solvents(&self) -> Vec<&str> {
+        let mut v: Vec<&str> = self
+            .bases
+            .iter()
+            .flat_map(|b| {
+                b.solvents
+                    .iter()
+                    .map(String::as_str)
+                    .chain(b.acid_solvent.as_ref().map(|p| p.name.as_str()))
+            })
+            .collect();
+        v.sort_unstable_by_key(|s| s.to_ascii_lowercase());
+        v.dedup_by(|a, b| a.eq_ignore_ascii_case(b));
+        v
+    }
+
+    /// The catalogue's spelling of a solvent name (case-insensitive), if
+    /// the catalogue knows it.
+    pub fn solvent(&self, name: &str) -> Option<&str> {
+        self.solvents()
+            .into_iter()
+            .find(|s| s.eq_ignore_ascii_case(name.trim()))
+    }
+
     /// The reference text of a citation key.
     pub fn reference(&self, key: &str) -> Option<&str> {
         self.sources
@@ -411,7 +437,7 @@ pub struct CatalogueError {
 }
 
 impl CatalogueError {
-    fn new(file: &str, line: usize, column: Option<&str>, message: String) -> Self {
+    pub(crate) fn new(file: &str, line: usize, column: Option<&str>, message: String) -> Self {
         CatalogueError {
             file: file.to_string(),
             line,
@@ -445,7 +471,7 @@ pub fn catalogue() -> Result<&'static Catalogue, CatalogueError> {
 }
 
 // sources := comment* header row*      (key TAB reference)
-fn parse_sources(text: &str) -> Result<Vec<(String, String)>, CatalogueError> {
+pub(crate) fn parse_sources(text: &str) -> Result<Vec<(String, String)>, CatalogueError> {
     let mut out: Vec<(String, String)> = Vec::new();
     let mut header = false;
     for (i, raw) in text.lines().enumerate() {

@@ -661,13 +661,20 @@ pub fn equilibrium_for(
         .get(&opts.base)
         .ok_or_else(|| EquilibriumError::UnknownBase(opts.base.clone()))?;
     let features = detect_features(mol, sites);
-    solve_for_base(sites, &features.site_unit, base, opts)
+    solve_for_base(
+        sites,
+        &features.site_unit,
+        &features.second_stage_shift,
+        base,
+        opts,
+    )
 }
 
 /// Shared by [`equilibrium_for`] and the recommender.
 pub(crate) fn solve_for_base(
     sites: &SiteReport,
     site_unit: &[usize],
+    second_stage_shift: &[f64],
     base: &Base,
     opts: &EquilibriumOptions,
 ) -> Result<Equilibrium, EquilibriumError> {
@@ -713,7 +720,7 @@ pub(crate) fn solve_for_base(
             ));
         }
     }
-    let units = site_units(sites, site_unit, scale, &mut notes);
+    let units = site_units(sites, site_unit, second_stage_shift, scale, &mut notes);
     if units.is_empty() {
         return Err(EquilibriumError::NoSites);
     }

@@ -39,7 +39,25 @@ pub struct MoleculeFeatures {
     /// anion (bonded or sharing a neighbour, e.g. both α-carbons of a
     /// ketone) share an id; every other site has its own.
     pub site_unit: Vec<usize>,
+    /// Per site: the pKa shift of a second deprotonation. A carbon site
+    /// next to a much more acidic carbon site (the γ-CH3 of a β-keto ester
+    /// beside its CH2) is not an alternative position of that anion but a
+    /// second proton, removed only after the first; it forms its own unit
+    /// and its pKa is raised by `DIANION_SHIFT` (10 units). 0 for every other site.
+    pub second_stage_shift: Vec<f64>,
 }
+
+/// Two neighbouring carbon sites whose pKa (DMSO, else water) differ by at
+/// least this much are a first and a second deprotonation, not alternative
+/// positions of one anion (from memory: a β-dicarbonyl CH2 at 11–14 against
+/// its γ-CH3 at about 25–27 in DMSO; both α-sides of a ketone lie within
+/// about 2 units).
+pub const DIANION_SPLIT: f64 = 5.0;
+/// pKa shift of the second deprotonation of a monoanion (electrostatic
+/// penalty; from memory: β-keto ester and β-diketone dianions form with
+/// n-BuLi or LDA but not with NaH or alkoxides, which fits a second pKa some
+/// 8–12 units above the neutral γ-C–H in DMSO). Uncertain by several units.
+pub const DIANION_SHIFT: f64 = 10.0;
 
 /// Facts about one site.
 #[derive(Debug, Clone, PartialEq, Default)]
@@ -53,6 +71,10 @@ pub struct SiteFeatures {
     /// Flanked by two C=O groups (1,3-dicarbonyl): the anion can be
     /// alkylated on O as well as C.
     pub dicarbonyl: bool,
+    /// Next to a C=O: an enolate (self-condensation, Claisen) can form.
+    pub alpha_carbonyl: bool,
+    /// A deuterium or tritium sits on the site's atoms.
+    pub labelled: bool,
 }
 
 const C: u8 = 6;
@@ -241,12 +263,16 @@ const BETA_LG_PATTERNS: [(&str, &str); 9] = [
 ];
 
 const DICARBONYL_PATTERN: &str = "[#6:1]([CX3]=O)[CX3]=O";
+/// A carbon next to a C=O (an enolisable position of a ketone, aldehyde,
+/// ester, amide, acid or lactone).
+const ALPHA_CARBONYL_PATTERN: &str = "[#6:1][CX3]=[OX1]";
 
 struct Compiled {
     groups: Vec<(&'static str, Pattern)>,
     alkoxy: Vec<(&'static str, Pattern)>,
     beta: Vec<(&'static str, Pattern)>,
     dicarbonyl: Option<Pattern>,
+    alpha_carbonyl: Option<Pattern>,
 }
 
 fn compiled() -> &'static Compiled {
@@ -262,6 +288,7 @@ fn compiled() -> &'static Compiled {
             alkoxy: list(&ALKOXY_PATTERNS),
             beta: list(&BETA_LG_PATTERNS),
             dicarbonyl: Pattern::parse(DICARBONYL_PATTERN).ok(),
+            alpha_carbonyl: Pattern::parse(ALPHA_CARBONYL_PATTERN).ok(),
         }
     })
 }
@@ -336,7 +363,15 @@ pub fn detect_features_in(
     f.ester_alkoxy.dedup();
 
     for site in &sites.sites {
-        let mut sf = SiteFeatures::default();
+        let mut sf = SiteFeatures {
+            labelled: site.atoms.iter().any(|&a| {
+                mol.atoms
+                    .get(a)
+                    .map(|x| x.heavy_hydrogens > 0)
+                    .unwrap_or(false)
+            }),
+            ..SiteFeatures::default()
+        };
         if site.is_carbon() {
             for &t in &site.atoms {
                 if sf.beta_leaving_group.is_none() {
@@ -354,6 +389,14 @@ pub fn detect_features_in(
                 {
                     sf.dicarbonyl = true;
                 }
+                if pats
+                    .alpha_carbonyl
+                    .as_ref()
+                    .map(|p| p.matches_at_in(target, t).is_some())
+                    .unwrap_or(false)
+                {
+                    sf.alpha_carbonyl = true;
+                }
                 if g.h(t) == 1
                     && g.is_sp3_carbon(t)
                     && g.nbrs(t).len() == 3
@@ -365,11 +408,13 @@ pub fn detect_features_in(
         }
         f.sites.push(sf);
     }
-    f.site_unit = group_units(&g, sites);
+    let (units, shift) = group_units(&g, sites);
+    f.site_unit = units;
+    f.second_stage_shift = shift;
     f
 }
 
-fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
+fn group_units(g: &Graph, sites: &SiteReport) -> (Vec<usize>, Vec<f64>) {
     let n = sites.sites.len();
     let mut parent: Vec<usize> = (0..n).collect();
     fn find(p: &mut [usize], mut i: usize) -> usize {
@@ -391,6 +436,8 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
             .iter()
             .any(|x| na.iter().any(|y| y.atom == x.atom))
     };
+    let pk = |s: &crate::sites::Site| s.pka_dmso.or(s.pka_water);
+    let mut shift = vec![0.0; n];
     for i in 0..n {
         for j in (i + 1)..n {
             let (si, sj) = (&sites.sites[i], &sites.sites[j]);
@@ -402,6 +449,12 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
                 .iter()
                 .any(|&a| sj.atoms.iter().any(|&b| near(a, b)))
             {
+                if let (Some(a), Some(b)) = (pk(si), pk(sj)) {
+                    if (a - b).abs() >= DIANION_SPLIT {
+                        shift[if a > b { i } else { j }] = DIANION_SHIFT;
+                        continue;
+                    }
+                }
                 let (ri, rj) = (find(&mut parent, i), find(&mut parent, j));
                 if ri != rj {
                     parent[rj] = ri;
@@ -409,7 +462,8 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
             }
         }
     }
-    (0..n).map(|i| find(&mut parent, i)).collect()
+    let units = (0..n).map(|i| find(&mut parent, i)).collect();
+    (units, shift)
 }
 
 /// Acid units for the solver on one scale: carbon sites grouped by
@@ -418,6 +472,7 @@ fn group_units(g: &Graph, sites: &SiteReport) -> Vec<usize> {
 pub(crate) fn site_units(
     sites: &SiteReport,
     site_unit: &[usize],
+    second_stage_shift: &[f64],
     scale: Scale,
     notes: &mut Vec<String>,
 ) -> Vec<AcidUnit> {
@@ -440,7 +495,7 @@ pub(crate) fn site_units(
             let m = Microsite {
                 site: i,
                 atoms: s.atoms.clone(),
-                pka,
+                pka: pka + second_stage_shift.get(i).copied().unwrap_or(0.0),
             };
             if let Some((_, u)) = units.iter_mut().find(|(k, _)| *k == Some(uid)) {
                 u.alternatives.push(m);

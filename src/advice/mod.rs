@@ -2,12 +2,12 @@
 //! deprotonation equilibrium solver, and the recommender with warnings and
 //! cautions.
 //!
-//! OWNER: base-advice work (issue 5).
-//!
 //! Public entry points:
 //! - [`catalogue`]: the embedded base catalogue, validated on first use.
 //! - [`solve`]: equilibrium composition for a set of acidic units and one base.
 //! - [`equilibrium_for`]: the same, set up from a [`SiteReport`](crate::sites::SiteReport) and a catalogue base.
+//! - [`practice`]: the planned reaction (reactions, base-use modes, reagent
+//!   systems and the practice table), validated on first use.
 //! - [`advise`]: base, equivalents, solvent, temperature, alternatives,
 //!   rejections, warnings and cautions for one molecule.
 //!
@@ -19,6 +19,7 @@ mod cautions;
 mod equilibrium;
 mod features;
 mod numfmt;
+pub mod practice;
 mod recommend;
 
 pub use catalogue::{
@@ -26,8 +27,8 @@ pub use catalogue::{
     ProticSolvent, Scale, BASES_FILE,
 };
 pub use cautions::{
-    caution_for, general_caution, short_caution_for, short_caution_for_reagent, Caution, DEFERRAL,
-    SHORT_DEFERRAL,
+    caution_for, caution_for_reagent, general_caution, short_caution_for,
+    short_caution_for_reagent, Caution, DEFERRAL, SHORT_DEFERRAL,
 };
 pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,

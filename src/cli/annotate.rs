@@ -26,6 +26,10 @@ use std::time::{Duration, Instant};
 /// Bytes of input read per chunk at most (besides the line count).
 const CHUNK_BYTES: usize = 16 << 20;
 
+/// SD records read before the run starts, for the names of the data items
+/// carried into CSV/TSV output.
+const SD_FIRST_CHUNK: usize = 256;
+
 /// Output formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
 pub enum OutputFormat {
@@ -58,6 +62,11 @@ pub struct Args {
     /// SD input: take the id from this data item instead of the title line.
     #[arg(long, value_name = "NAME")]
     pub id_field: Option<String>,
+    /// JSON records: full (every key, cautions and reasons worded) or brief
+    /// (the answer with ids for cautions and rejected bases, about a sixth of
+    /// the size; schema acidsite-brief/1).
+    #[arg(long, value_enum, default_value_t = DetailArg::Full)]
+    pub detail: DetailArg,
     /// Output format.
     #[arg(long, value_enum, default_value_t = OutputFormat::Jsonl)]
     pub format: OutputFormat,
@@ -74,16 +83,23 @@ pub struct Args {
     /// smaller records; `advice` is null).
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
-    /// JSON records: full (every key, cautions and reasons worded) or brief
-    /// (the answer with ids for cautions and rejected bases, about a fifth
-    /// of the size; schema acidsite-brief/1).
-    #[arg(long, value_enum, default_value_t = DetailArg::Full)]
-    pub detail: DetailArg,
     /// pKa scale used to rank the sites.
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
+    /// CSV/TSV input: take the planned reaction of each row from this column
+    /// (an empty cell: `--reaction`, else alkylation; an unknown name: an error record).
+    #[arg(long, value_name = "NAME")]
+    pub reaction_column: Option<String>,
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
-    /// Worker threads (0: one per core).
-    #[arg(long, default_value_t = 0, value_name = "N")]
+    /// Worker threads (0: one per core; at most 256).
+    #[arg(long, default_value_t = 0, value_name = "N", value_parser = parse_threads)]
     pub threads: usize,
     /// Records per chunk (memory bound and parallel grain).
     #[arg(long, default_value_t = 1024, value_name = "N",
@@ -112,24 +128,265 @@ pub enum DetailArg {
 }
 
 /// What every worker needs to turn a raw line into output text.
-struct Context_ {
+pub struct Job {
     format: InputFormat,
     /// CSV/TSV: index of the SMILES column, the id column, and the header.
     smiles_col: usize,
     id_col: Option<usize>,
     header: Vec<String>,
     opts: Options,
+    /// CSV/TSV: the column holding each row's planned reaction.
+    reaction_col: Option<usize>,
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
     /// SD input: data item holding the id (else the title line).
     id_field: Option<String>,
+    /// SD input: the first chunk, read by [`Job::new`] for the names of the
+    /// data items, handed out by the first [`Job::read_chunk`].
+    first_chunk: std::sync::Mutex<Option<Vec<RawLine>>>,
+    /// SD input: records read so far.
+    sd_records: std::sync::Mutex<u64>,
+}
+
+/// What to write for each record.
+#[derive(Debug, Clone, Copy)]
+pub struct Output {
+    /// JSON Lines, CSV or TSV.
+    pub format: OutputFormat,
+    /// CSV/TSV: one row per site.
+    pub per_site: bool,
+    /// Also render an HTML card per record.
+    pub html: bool,
+}
+
+/// Names of the input columns chosen on the command line (or by the page).
+#[derive(Debug, Clone, Copy, Default)]
+pub struct Columns<'a> {
+    pub smiles: Option<&'a str>,
+    pub id: Option<&'a str>,
+    pub reaction: Option<&'a str>,
+    /// SD input: the data item holding the id.
+    pub id_field: Option<&'a str>,
+}
+
+impl Job {
+    /// Read the header row of CSV/TSV input from `source` (named `shown` in
+    /// messages) and set up the rendering of every record. Used by `annotate`
+    /// and by the page's `/api/annotate` (`acidsite serve`).
+    pub fn new(
+        source: &mut LineSource,
+        shown: &str,
+        format: InputFormat,
+        cols: Columns<'_>,
+        opts: Options,
+        out: Output,
+    ) -> anyhow::Result<Job> {
+        source.csv_quotes = format == InputFormat::Csv;
+        let Output {
+            format: output,
+            per_site,
+            html,
+        } = out;
+        let mut first_chunk = None;
+        let mut sd_records = 0u64;
+        // Header of CSV/TSV input; for SD input the data items named in the
+        // first chunk of records.
+        let (header, smiles_col, id_col) = match format {
+            InputFormat::Smi => (Vec::new(), 0, None),
+            InputFormat::Sdf => {
+                let lines =
+                    sdf_input::next_sd_chunk(source, &mut sd_records, SD_FIRST_CHUNK, CHUNK_BYTES)
+                        .with_context(|| format!("cannot read {shown}"))?;
+                let mut names: Vec<String> = Vec::new();
+                for l in &lines {
+                    let text = String::from_utf8_lossy(&l.bytes);
+                    for (n, _) in SdRecord::new(&text, l.record, l.line).fields() {
+                        if Some(n.as_str()) != cols.id_field && !names.contains(&n) {
+                            names.push(n);
+                        }
+                    }
+                }
+                first_chunk = Some(lines);
+                (names, usize::MAX, None)
+            }
+            InputFormat::Csv | InputFormat::Tsv => {
+                // The header is the first line that is not blank and not a
+                // comment; a line starting with `#` is the header when it
+                // names the SMILES column (`#id,smiles`), else a comment.
+                let wanted = cols.smiles.unwrap_or("smiles");
+                let first = loop {
+                    source.header_next = true;
+                    let line = source
+                        .next_record_line()
+                        .with_context(|| format!("cannot read {shown}"))?;
+                    let Some(line) = line else {
+                        anyhow::bail!("{shown} has no header row");
+                    };
+                    let text = String::from_utf8_lossy(&line.bytes);
+                    if !text.trim_start().starts_with('#') {
+                        break line;
+                    }
+                    let names_it =
+                        split_fields(format, &text)
+                            .unwrap_or_default()
+                            .iter()
+                            .any(|f| {
+                                f.trim()
+                                    .trim_start_matches('#')
+                                    .eq_ignore_ascii_case(wanted)
+                            });
+                    if names_it {
+                        break line;
+                    }
+                };
+                source.header_next = false;
+                let text = String::from_utf8_lossy(&first.bytes);
+                let header: Vec<String> = split_fields(format, &text)
+                    .with_context(|| format!("{shown}: header row has an unterminated quote"))?
+                    .into_iter()
+                    .map(|h| h.trim().to_string())
+                    .collect();
+                let smiles_col =
+                    pick_column(&header, cols.smiles, &["smiles"]).with_context(|| {
+                        format!(
+                            "{shown}: no SMILES column {}; header has: {}",
+                            cols.smiles
+                                .map(|c| format!("named {c:?}"))
+                                .unwrap_or_else(
+                                    || "named \"smiles\" (choose one with --column)".into()
+                                ),
+                            header.join(", ")
+                        )
+                    })?;
+                let id_col = match cols.id {
+                    Some(name) => {
+                        Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                            format!(
+                                "{shown}: no column named {name:?}; header has: {}",
+                                header.join(", ")
+                            )
+                        })?)
+                    }
+                    None => {
+                        pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col)
+                    }
+                };
+                (header, smiles_col, id_col)
+            }
+        };
+        let reaction_col = match cols.reaction {
+            None => None,
+            Some(name) => {
+                if matches!(format, InputFormat::Smi | InputFormat::Sdf) {
+                    anyhow::bail!(
+                        "--reaction-column needs CSV or TSV input (--input-format csv|tsv)"
+                    );
+                }
+                Some(pick_column(&header, Some(name), &[]).with_context(|| {
+                    format!(
+                        "{shown}: no column named {name:?} for --reaction-column; header has: {}",
+                        header.join(", ")
+                    )
+                })?)
+            }
+        };
+        // Column names carried into records must be unique (JSON keys):
+        // a repeated header becomes `name_2`, `name_3`, ... (issue 17).
+        let header = unique_names(header);
+        let carried: Vec<String> = header
+            .iter()
+            .enumerate()
+            .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
+            .map(|(_, h)| h.clone())
+            .collect();
+        let rows = match output {
+            OutputFormat::Jsonl => None,
+            OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
+                delimiter: if output == OutputFormat::Csv {
+                    Delimiter::Comma
+                } else {
+                    Delimiter::Tab
+                },
+                layout: if per_site {
+                    Layout::Site
+                } else {
+                    Layout::Molecule
+                },
+                carried,
+            }),
+        };
+        Ok(Job {
+            format,
+            smiles_col,
+            id_col,
+            header,
+            opts,
+            reaction_col,
+            rows,
+            html,
+            id_field: cols.id_field.map(str::to_string),
+            first_chunk: std::sync::Mutex::new(first_chunk),
+            sd_records: std::sync::Mutex::new(sd_records),
+        })
+    }
+
+    /// The next chunk of records from `source`: up to `max` lines, or
+    /// whole SD records for SD input (the chunk read by [`Job::new`]
+    /// first).
+    pub fn read_chunk(
+        &self,
+        source: &mut LineSource,
+        max: usize,
+        max_bytes: usize,
+    ) -> io::Result<Vec<RawLine>> {
+        if let Some(first) = self.first_chunk.lock().ok().and_then(|mut f| f.take()) {
+            return Ok(first);
+        }
+        match self.format {
+            InputFormat::Sdf => {
+                let mut n = self.sd_records.lock().map(|g| *g).unwrap_or(0);
+                let chunk = sdf_input::next_sd_chunk(source, &mut n, max, max_bytes);
+                if let Ok(mut g) = self.sd_records.lock() {
+                    *g = n;
+                }
+                chunk
+            }
+            _ => source.next_chunk(max, max_bytes),
+        }
+    }
+
+    /// The header line of CSV/TSV output (None for JSON Lines).
+    pub fn header_line(&self) -> Option<String> {
+        self.rows.as_ref().map(RowWriter::header)
+    }
+
+    /// One raw line to its output text, whether it was analysed, and its
+    /// HTML card when asked for (never panics: a library panic becomes an
+    /// `internal` error record).
+    pub fn render(&self, raw: &RawLine) -> Rendered {
+        render_record(raw, self)
+    }
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let started = Instant::now();
     super::check_base(args.base.as_deref())?;
+    super::check_flags(&args.flags)?;
     let path = args.input.clone().filter(|p| p.as_os_str() != "-");
+    // Never write onto the input (issue 17): refused before anything is
+    // opened for writing.
+    if let Some(o) = &args.output {
+        super::output::refuse_onto_input(path.as_deref(), o, "-o")?;
+    }
+    if let Some(h) = &args.html {
+        super::output::refuse_onto_input(path.as_deref(), h, "--html")?;
+    }
+    if let (Some(o), Some(h)) = (&args.output, &args.html) {
+        if o == h {
+            anyhow::bail!("-o and --html name the same file {}", o.display());
+        }
+    }
     if args.per_site && args.format == OutputFormat::Jsonl {
         anyhow::bail!(
             "--per-site applies to --format csv or tsv (JSON records list every site already)"
@@ -146,91 +403,18 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .with_context(|| format!("cannot read {shown}"))?;
     let format = sdf_input::choose_format(args.input_format, path.as_deref(), head)
         .map_err(|e| anyhow::anyhow!("{shown}: {e}"))?;
-    let chunk = args.chunk as usize;
-    let mut sd_number = 0u64;
-    // SD input: the first chunk is read now, so that CSV/TSV output can
-    // carry the data items it names.
-    let mut first_chunk = None;
 
-    // Header of CSV/TSV input.
-    let (header, smiles_col, id_col) = match format {
-        InputFormat::Smi => (Vec::new(), 0, None),
-        InputFormat::Sdf => {
-            let lines = read_chunk(&mut source, format, &mut sd_number, chunk)
-                .with_context(|| format!("cannot read {shown}"))?;
-            let mut names: Vec<String> = Vec::new();
-            for l in &lines {
-                let text = String::from_utf8_lossy(&l.bytes);
-                for (n, _) in SdRecord::new(&text, l.record, l.line).fields() {
-                    if Some(n.as_str()) != args.id_field.as_deref() && !names.contains(&n) {
-                        names.push(n);
-                    }
-                }
-            }
-            first_chunk = Some(lines);
-            (names, usize::MAX, None)
-        }
-        InputFormat::Csv | InputFormat::Tsv => {
-            let first = source
-                .next_record_line()
-                .with_context(|| format!("cannot read {shown}"))?;
-            let Some(first) = first else {
-                anyhow::bail!("{shown} has no header row");
-            };
-            let text = String::from_utf8_lossy(&first.bytes);
-            let header: Vec<String> = split_fields(format, &text)
-                .with_context(|| format!("{shown}: header row has an unterminated quote"))?
-                .into_iter()
-                .map(|h| h.trim().to_string())
-                .collect();
-            let smiles_col = pick_column(&header, args.column.as_deref(), &["smiles"])
-                .with_context(|| {
-                    format!(
-                        "{shown}: no SMILES column {}; header has: {}",
-                        args.column.as_deref().map(|c| format!("named {c:?}")).unwrap_or_else(|| "named \"smiles\" (choose one with --column)".into()),
-                        header.join(", ")
-                    )
-                })?;
-            let id_col = match args.id_column.as_deref() {
-                Some(name) => Some(pick_column(&header, Some(name), &[]).with_context(|| {
-                    format!(
-                        "{shown}: no column named {name:?}; header has: {}",
-                        header.join(", ")
-                    )
-                })?),
-                None => pick_column(&header, None, &["id", "name"]).filter(|&i| i != smiles_col),
-            };
-            (header, smiles_col, id_col)
-        }
-    };
-    let carried: Vec<String> = header
-        .iter()
-        .enumerate()
-        .filter(|(i, _)| *i != smiles_col && Some(*i) != id_col)
-        .map(|(_, h)| h.clone())
-        .collect();
-    let rows = match args.format {
-        OutputFormat::Jsonl => None,
-        OutputFormat::Csv | OutputFormat::Tsv => Some(RowWriter {
-            delimiter: if args.format == OutputFormat::Csv {
-                Delimiter::Comma
-            } else {
-                Delimiter::Tab
-            },
-            layout: if args.per_site {
-                Layout::Site
-            } else {
-                Layout::Molecule
-            },
-            carried,
-        }),
-    };
-    let ctx = Context_ {
+    let ctx = Job::new(
+        &mut source,
+        &shown,
         format,
-        smiles_col,
-        id_col,
-        header,
-        opts: Options {
+        Columns {
+            smiles: args.column.as_deref(),
+            id: args.id_column.as_deref(),
+            reaction: args.reaction_column.as_deref(),
+            id_field: args.id_field.as_deref(),
+        },
+        Options {
             site: None,
             base: args.base.clone(),
             scale: args.scale.into(),
@@ -240,29 +424,26 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 DetailArg::Full => Detail::Full,
                 DetailArg::Brief => Detail::Brief,
             },
+            reaction: args.reaction,
+            control: args.control,
         },
-        rows,
-        html: args.html.is_some(),
-        id_field: args.id_field.clone(),
-    };
+        Output {
+            format: args.format,
+            per_site: args.per_site,
+            html: args.html.is_some(),
+        },
+    )?;
 
-    let mut out: Box<dyn Write + Send> = match &args.output {
-        Some(p) => Box::new(io::BufWriter::with_capacity(
-            1 << 16,
-            std::fs::File::create(p).with_context(|| format!("cannot write {}", p.display()))?,
-        )),
-        None => Box::new(io::BufWriter::with_capacity(1 << 16, io::stdout())),
-    };
+    // Files are written under a temporary name and renamed into place when
+    // the run is complete, so an interrupted run never leaves a half file
+    // under the final name.
+    let mut out = super::output::Sink::open(args.output.as_deref())?;
     if let Some(w) = &ctx.rows {
         out.write_all(w.header().as_bytes())?;
     }
     let mut html_out = match &args.html {
         Some(p) => {
-            let mut w = io::BufWriter::with_capacity(
-                1 << 16,
-                std::fs::File::create(p)
-                    .with_context(|| format!("cannot write {}", p.display()))?,
-            );
+            let mut w = super::output::SafeFile::create(p)?;
             w.write_all(super::html::head(&format!("acidsite: {shown}")).as_bytes())?;
             Some(w)
         }
@@ -274,20 +455,19 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .num_threads(args.threads)
         .build()
         .context("cannot start worker threads")?;
+    let chunk = args.chunk as usize;
     // Three-stage pipeline: while the workers analyse chunk N, one task
     // writes chunk N-1 (in order) and reads chunk N+1.
     let (records, failed) = pool.install(|| -> anyhow::Result<(u64, u64)> {
         let mut records = 0u64;
         let mut failed = 0u64;
-        let mut lines = match first_chunk.take() {
-            Some(l) => l,
-            None => read_chunk(&mut source, format, &mut sd_number, chunk)
-                .with_context(|| format!("cannot read {shown}"))?,
-        };
+        let mut lines = ctx
+            .read_chunk(&mut source, chunk, CHUNK_BYTES)
+            .with_context(|| format!("cannot read {shown}"))?;
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
         let mut read_upto = source.consumed.load(Ordering::Relaxed);
-        let mut pending: Vec<(Box<[u8]>, bool, Option<Box<[u8]>>)> = Vec::new();
+        let mut pending: Vec<Rendered> = Vec::new();
         let mut pending_upto = 0u64;
         while !lines.is_empty() || !pending.is_empty() {
             let analysing = std::mem::take(&mut lines);
@@ -324,7 +504,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                     if analysing.is_empty() {
                         return Ok(Vec::new());
                     }
-                    read_chunk(&mut source, format, &mut sd_number, chunk)
+                    ctx.read_chunk(&mut source, chunk, CHUNK_BYTES)
                         .with_context(|| format!("cannot read {shown}"))
                 },
             );
@@ -333,13 +513,37 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             pending_upto = read_upto;
             read_upto = source.consumed.load(Ordering::Relaxed);
         }
+        // Damaged input after some records (a truncated gzip stream): the
+        // records before it are written; the damage is one error record.
+        if let Some((line, message)) = source.read_error.take() {
+            let rec = Record::failure(
+                line,
+                None,
+                String::new(),
+                ErrorOut {
+                    kind: "input".into(),
+                    message: format!(
+                        "the input could not be read past line {}: {message}; the records before it are complete",
+                        line.saturating_sub(1)
+                    ),
+                    position: None,
+                },
+            );
+            let mut buf = Vec::new();
+            render(&rec, &ctx, &mut buf);
+            out.write_all(&buf)?;
+            if let Some(h) = html_out.as_mut() {
+                h.write_all(super::html::card(&rec, None).as_bytes())?;
+            }
+            records += 1;
+            failed += 1;
+        }
         Ok((records, failed))
     })?;
-    out.flush()?;
-    drop(out);
+    out.finish()?;
     if let Some(mut h) = html_out {
         h.write_all(super::html::tail(records, failed).as_bytes())?;
-        h.flush()?;
+        h.commit()?;
     }
     if let Some(b) = bar {
         b.finish_and_clear();
@@ -358,19 +562,6 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     } else {
         Outcome::SomeFailed
     })
-}
-
-/// The next chunk of records: lines, or whole SD records.
-fn read_chunk(
-    source: &mut LineSource,
-    format: InputFormat,
-    sd_number: &mut u64,
-    chunk: usize,
-) -> io::Result<Vec<RawLine>> {
-    match format {
-        InputFormat::Sdf => sdf_input::next_sd_chunk(source, sd_number, chunk, CHUNK_BYTES),
-        _ => source.next_chunk(chunk, CHUNK_BYTES),
-    }
 }
 
 fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
@@ -394,6 +585,43 @@ fn progress_bar(args: &Args, total: Option<u64>) -> Option<ProgressBar> {
 
 /// Column index by explicit name (exact, then any case) or by the first of
 /// the default names (any case).
+/// clap value parser for `--threads`: 0 (one per core) to 256; more would
+/// only exhaust memory for thread stacks (issue 17).
+fn parse_threads(s: &str) -> Result<usize, String> {
+    match s.trim().parse::<usize>() {
+        Ok(n) if n <= 256 => Ok(n),
+        Ok(n) => Err(format!(
+            "{n} threads is more than the 256 allowed (0 uses one per core)"
+        )),
+        Err(_) => Err(format!("{s:?} is not a number of threads")),
+    }
+}
+
+/// Header names made unique: each name keeps its first occurrence; a
+/// repeat becomes `name_2`, `name_3`, ..., the first suffix that no column of
+/// the header already uses (so `note,note,note_2` gives `note, note_3,
+/// note_2`).
+fn unique_names(header: Vec<String>) -> Vec<String> {
+    let original: std::collections::HashSet<String> = header.iter().cloned().collect();
+    let mut out: Vec<String> = Vec::with_capacity(header.len());
+    for h in header {
+        if !out.contains(&h) {
+            out.push(h);
+            continue;
+        }
+        let mut k = 2;
+        let name = loop {
+            let c = format!("{h}_{k}");
+            if !original.contains(&c) && !out.contains(&c) {
+                break c;
+            }
+            k += 1;
+        };
+        out.push(name);
+    }
+    out
+}
+
 fn pick_column(header: &[String], name: Option<&str>, defaults: &[&str]) -> Option<usize> {
     if let Some(n) = name {
         return header
@@ -423,10 +651,14 @@ thread_local! {
 /// A worker's buffer larger than this is freed rather than kept.
 const SCRATCH_KEEP: usize = 1 << 20;
 
+/// A rendered record: its output text, whether it was analysed, and its
+/// HTML card when asked for.
+pub type Rendered = (Box<[u8]>, bool, Option<Box<[u8]>>);
+
 /// One raw line to its output text, rendered in the worker's reused buffer
 /// and copied out at its exact size, whether it was analysed, and its HTML
 /// card when asked for.
-fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<[u8]>>) {
+fn render_record(raw: &RawLine, ctx: &Job) -> Rendered {
     // Taking the buffer out of the cell leaves an empty one behind, so a
     // nested call (none today) would simply allocate its own.
     let mut buf = SCRATCH.take();
@@ -445,7 +677,7 @@ fn render_record(raw: &RawLine, ctx: &Context_) -> (Box<[u8]>, bool, Option<Box<
 /// returns whether the record was analysed.
 fn process_guarded(
     raw: &RawLine,
-    ctx: &Context_,
+    ctx: &Job,
     out: &mut Vec<u8>,
     card: &mut Option<Box<[u8]>>,
 ) -> bool {
@@ -484,7 +716,7 @@ fn process_guarded(
 }
 
 /// Append the record's output text (a JSON line, or CSV/TSV rows) to `out`.
-fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
+fn render(rec: &Record, ctx: &Job, out: &mut Vec<u8>) {
     match &ctx.rows {
         Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
         None => {
@@ -500,7 +732,7 @@ fn render(rec: &Record, ctx: &Context_, out: &mut Vec<u8>) {
 
 /// One raw line to its output text (appended to `out`); returns whether it
 /// was analysed.
-fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
+fn process(raw: &RawLine, ctx: &Job, out: &mut Vec<u8>, card: &mut Option<Box<[u8]>>) -> bool {
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
     if ctx.html {
@@ -519,7 +751,7 @@ fn process(raw: &RawLine, ctx: &Context_, out: &mut Vec<u8>, card: &mut Option<B
     rec.ok
 }
 
-fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
+fn record_for(raw: &RawLine, ctx: &Job) -> Record {
     let fail = |input: String,
                 id: Option<String>,
                 kind: &str,
@@ -556,17 +788,14 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
         }
     };
     if raw.truncated {
-        let what = if ctx.format == InputFormat::Sdf {
+        let sd = ctx.format == InputFormat::Sdf;
+        let what = if sd {
             format!("SD record {}", raw.record)
         } else {
             "line".to_string()
         };
         return fail(
-            if ctx.format == InputFormat::Sdf {
-                String::new()
-            } else {
-                text.to_string()
-            },
+            if sd { String::new() } else { text.to_string() },
             None,
             "too_large",
             format!(
@@ -610,8 +839,40 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
                     .map(|(i, h)| (h.clone(), fields.get(i).cloned().unwrap_or_default()))
                     .collect(),
             );
+            let row_reaction = ctx
+                .reaction_col
+                .and_then(|i| fields.get(i))
+                .map(|s| s.trim())
+                .filter(|s| !s.is_empty());
+            let row_opts;
+            let opts = match row_reaction {
+                None => &ctx.opts,
+                Some(name) => match acidsite::advice::practice::Reaction::parse(name) {
+                    Ok(r) => {
+                        row_opts = Options {
+                            reaction: Some(r),
+                            ..ctx.opts.clone()
+                        };
+                        &row_opts
+                    }
+                    Err(e) => {
+                        let mut rec = fail(
+                            fields.get(ctx.smiles_col).cloned().unwrap_or_default(),
+                            id,
+                            "reaction",
+                            format!(
+                                "column {:?}: {e}",
+                                ctx.header[ctx.reaction_col.unwrap_or(0)]
+                            ),
+                            None,
+                        );
+                        rec.columns = Some(columns);
+                        return rec;
+                    }
+                },
+            };
             let mut rec = match fields.get(ctx.smiles_col) {
-                Some(smiles) => analyze(smiles.trim(), raw.line, id, &ctx.opts),
+                Some(smiles) => analyze(smiles.trim(), raw.line, id, opts),
                 None => fail(
                     String::new(),
                     id,
@@ -637,7 +898,7 @@ fn record_for(raw: &RawLine, ctx: &Context_) -> Record {
 /// One SD record to its record: id from the title line or `--id-field`,
 /// the other data items carried as columns, errors naming the record
 /// number and the file line.
-fn sd_record(raw: &RawLine, text: &str, ctx: &Context_) -> Record {
+fn sd_record(raw: &RawLine, text: &str, ctx: &Job) -> Record {
     let sd = SdRecord::new(text, raw.record, raw.line);
     let fields = sd.fields();
     let id = match &ctx.id_field {

@@ -46,6 +46,21 @@ fn percent(x: f64) -> String {
     }
 }
 
+/// `x` to six significant digits, so that JSON carries no float noise
+/// (`0.5999999999998497`); the numbers are estimates far less precise.
+fn sig(x: f64) -> f64 {
+    if x == 0.0 || !x.is_finite() {
+        return x;
+    }
+    let digits = 6 - 1 - x.abs().log10().floor() as i32;
+    let f = 10f64.powi(digits.clamp(-300, 300));
+    let r = (x * f).round() / f;
+    // Parse back through the shortest decimal text to drop binary residue.
+    format!("{r:.*}", digits.max(0) as usize)
+        .parse()
+        .unwrap_or(r)
+}
+
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let cat = catalogue().map_err(|e| anyhow!("the embedded base catalogue is invalid: {e}"))?;
     if cat.get(&args.base).is_none() {
@@ -54,12 +69,20 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             args.base
         );
     }
-    if !(args.equiv.is_finite() && args.equiv >= 0.0) {
-        anyhow::bail!("--equiv must be a number ≥ 0, not {}", args.equiv);
+    if let Some(sol) = &args.solvent {
+        if cat.solvent(sol).is_none() {
+            anyhow::bail!(
+                "unknown solvent {sol:?}: the pKa scale and the solvent-as-acid correction are known only for the catalogue's solvents: {}",
+                cat.solvents().join(", ")
+            );
+        }
     }
-    if !(args.conc.is_finite() && args.conc > 0.0) {
+    if !(args.equiv.is_finite() && (0.0..=100.0).contains(&args.equiv)) {
+        anyhow::bail!("--equiv must lie between 0 and 100, not {:e}", args.equiv);
+    }
+    if !(args.conc.is_finite() && args.conc > 0.0 && args.conc <= 20.0) {
         anyhow::bail!(
-            "--conc must be a concentration > 0 mol/L, not {}",
+            "--conc must be a concentration above 0 and at most 20 mol/L, not {:e}",
             args.conc
         );
     }
@@ -118,13 +141,14 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             "concentration": eq.concentration,
             "solvent_as_acid": eq.acid_solvent.as_ref().map(|(n, m)| json!({"name": n, "molar": m})),
             "sites": eq.sites.iter().map(|s| json!({
-                "atoms": s.atoms, "class": site_class(s.site), "pka": s.pka,
-                "deprotonated": s.deprotonated})).collect::<Vec<_>>(),
-            "anions": eq.anions,
-            "free_base_molar": eq.free_base_molar,
-            "free_base_fraction": eq.free_base_fraction,
-            "conjugate_acid_molar": eq.conjugate_acid_molar,
-            "mass_balance_residual": eq.mass_balance_residual,
+                "atoms": s.atoms, "class": site_class(s.site), "pka": sig(s.pka),
+                "deprotonated": sig(s.deprotonated)})).collect::<Vec<_>>(),
+            "anions": eq.anions.iter().enumerate().map(|(k, f)| json!({
+                "charge": -(k as i64), "fraction": sig(*f)})).collect::<Vec<_>>(),
+            "free_base_molar": sig(eq.free_base_molar),
+            "free_base_fraction": sig(eq.free_base_fraction),
+            "conjugate_acid_molar": sig(eq.conjugate_acid_molar),
+            "mass_balance_residual": sig(eq.mass_balance_residual),
             "notes": eq.notes,
         });
         writeln!(out, "{rec}")?;

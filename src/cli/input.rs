@@ -84,6 +84,18 @@ pub struct LineSource {
     /// Size of the raw source if known (a regular file).
     pub total: Option<u64>,
     done: bool,
+    /// CSV input: a record whose quotes are not balanced at the end of a
+    /// physical line goes on over the next line (RFC 4180 quoted line
+    /// breaks); the record keeps the line number where it starts.
+    pub csv_quotes: bool,
+    /// A read error met after the start of the input (a damaged gzip
+    /// stream, a device error): the lines before it were returned, the line
+    /// it cut is dropped, and the caller reports it as the last record
+    /// (issue 17). (line number where reading stopped, message)
+    pub read_error: Option<(u64, String)>,
+    /// The next non-blank line is returned even if it starts with `#` (a
+    /// CSV/TSV header such as `#id,smiles`); reset once used.
+    pub header_next: bool,
 }
 
 impl LineSource {
@@ -105,6 +117,25 @@ impl LineSource {
                 (Box::new(f), Some(meta.len()))
             }
         };
+        LineSource::wrap(raw, total, consumed)
+    }
+
+    /// Read from bytes held in memory (an upload to `acidsite serve`); gzip
+    /// is detected by its magic bytes as for files.
+    pub fn from_bytes(bytes: Vec<u8>) -> io::Result<LineSource> {
+        let total = Some(bytes.len() as u64);
+        LineSource::wrap(
+            Box::new(io::Cursor::new(bytes)),
+            total,
+            Arc::new(AtomicU64::new(0)),
+        )
+    }
+
+    fn wrap(
+        raw: Box<dyn Read + Send>,
+        total: Option<u64>,
+        consumed: Arc<AtomicU64>,
+    ) -> io::Result<LineSource> {
         let mut buffered = BufReader::with_capacity(
             1 << 16,
             Counting {
@@ -128,6 +159,9 @@ impl LineSource {
             consumed,
             total,
             done: false,
+            csv_quotes: false,
+            read_error: None,
+            header_next: false,
         })
     }
 
@@ -140,6 +174,9 @@ impl LineSource {
             consumed: Arc::new(AtomicU64::new(0)),
             total: None,
             done: false,
+            csv_quotes: false,
+            read_error: None,
+            header_next: false,
         }
     }
 
@@ -187,23 +224,45 @@ impl LineSource {
                 return Ok(None);
             }
             self.line_no += 1;
-            if buf.last() == Some(&b'\n') {
-                buf.pop();
-            }
-            if buf.last() == Some(&b'\r') {
-                buf.pop();
+            let start_line = self.line_no;
+            strip_line_end(&mut buf);
+            let mut truncated = truncated;
+            // A quoted CSV field with line breaks: join the physical lines
+            // (kept as \n) until the quotes balance, the input ends or the
+            // record reaches the line cap.
+            if self.csv_quotes {
+                while odd_quotes(&buf) && !truncated {
+                    let mut more = Vec::new();
+                    let (any, cut) = read_line_capped(&mut self.reader, &mut more)?;
+                    if !any {
+                        break;
+                    }
+                    self.line_no += 1;
+                    strip_line_end(&mut more);
+                    if buf.len() + 1 + more.len() > MAX_LINE_BYTES {
+                        truncated = true;
+                        break;
+                    }
+                    buf.push(b'\n');
+                    buf.extend_from_slice(&more);
+                    truncated |= cut;
+                }
             }
             if self.line_no == 1 && buf.starts_with(&[0xEF, 0xBB, 0xBF]) {
                 buf.drain(..3);
             }
-            let first = buf.iter().position(|b| !b.is_ascii_whitespace());
+            // Vertical tab and form feed are whitespace like space and tab.
+            let first = buf
+                .iter()
+                .position(|&b| !(b.is_ascii_whitespace() || b == 0x0b));
             match first {
                 None => continue,
-                Some(i) if buf[i] == b'#' => continue,
+                Some(i) if buf[i] == b'#' && !self.header_next => continue,
                 Some(_) => {}
             }
+            self.header_next = false;
             return Ok(Some(RawLine {
-                line: self.line_no,
+                line: start_line,
                 bytes: buf,
                 truncated,
                 record: 0,
@@ -216,19 +275,42 @@ impl LineSource {
         let mut chunk = Vec::new();
         let mut bytes = 0usize;
         while chunk.len() < max_lines && bytes < max_bytes {
-            match self.next_record_line()? {
-                Some(l) => {
+            match self.next_record_line() {
+                Ok(Some(l)) => {
                     bytes += l.bytes.len();
                     chunk.push(l);
                 }
-                None => break,
+                Ok(None) => break,
+                Err(e) => {
+                    // Keep what was read; the damage is reported once, after
+                    // the records before it.
+                    self.done = true;
+                    self.read_error = Some((self.line_no + 1, e.to_string()));
+                    break;
+                }
             }
         }
         Ok(chunk)
     }
 }
 
-/// Read one line (through `\n` or end of input) into `buf`, keeping at most
+/// Drop the line end (`\n`, `\r\n` or a lone `\r`).
+fn strip_line_end(buf: &mut Vec<u8>) {
+    if buf.last() == Some(&b'\n') {
+        buf.pop();
+    }
+    if buf.last() == Some(&b'\r') {
+        buf.pop();
+    }
+}
+
+/// An odd number of `"` bytes: a quoted field is still open.
+fn odd_quotes(buf: &[u8]) -> bool {
+    buf.iter().filter(|&&b| b == b'"').count() % 2 == 1
+}
+
+/// Read one line (through `\n`, a lone `\r` (old Mac line ends) or end of
+/// input) into `buf`, keeping at most
 /// [`MAX_LINE_BYTES`] and discarding the rest. Returns (anything read, cut).
 fn read_line_capped(r: &mut dyn BufRead, buf: &mut Vec<u8>) -> io::Result<(bool, bool)> {
     let mut any = false;
@@ -243,10 +325,11 @@ fn read_line_capped(r: &mut dyn BufRead, buf: &mut Vec<u8>) -> io::Result<(bool,
             return Ok((any, truncated));
         }
         any = true;
-        let (take, found) = match avail.iter().position(|&b| b == b'\n') {
+        let (take, found) = match avail.iter().position(|&b| b == b'\n' || b == b'\r') {
             Some(i) => (i + 1, true),
             None => (avail.len(), false),
         };
+        let lone_cr = found && avail[take - 1] == b'\r';
         let room = MAX_LINE_BYTES.saturating_sub(buf.len());
         if take > room {
             buf.extend_from_slice(&avail[..room]);
@@ -255,6 +338,24 @@ fn read_line_capped(r: &mut dyn BufRead, buf: &mut Vec<u8>) -> io::Result<(bool,
             buf.extend_from_slice(&avail[..take]);
         }
         r.consume(take);
+        if lone_cr {
+            // CR LF: the LF belongs to this line end.
+            loop {
+                match r.fill_buf() {
+                    Ok(next) => {
+                        if next.first() == Some(&b'\n') {
+                            if buf.len() < MAX_LINE_BYTES {
+                                buf.push(b'\n');
+                            }
+                            r.consume(1);
+                        }
+                        break;
+                    }
+                    Err(e) if e.kind() == io::ErrorKind::Interrupted => continue,
+                    Err(e) => return Err(e),
+                }
+            }
+        }
         if found {
             return Ok((true, truncated));
         }

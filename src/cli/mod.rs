@@ -6,9 +6,11 @@ pub mod draw;
 pub mod equilibrium;
 pub mod html;
 pub mod input;
+pub mod output;
 pub mod rules;
 pub mod scan;
 pub mod sdf_input;
+pub mod serve;
 
 use acidsite::report::{Flag, Scale};
 
@@ -51,6 +53,31 @@ impl From<ScaleArg> for Scale {
 /// clap value parser for `--flag NAME=SMARTS`.
 pub fn parse_flag(spec: &str) -> Result<Flag, String> {
     Flag::parse(spec).map_err(|e| e.to_string())
+}
+
+/// Refuse a `--flag` name given twice (its counts would share one JSON key;
+/// issue 17).
+pub fn check_flags(flags: &[Flag]) -> anyhow::Result<()> {
+    for (i, f) in flags.iter().enumerate() {
+        if flags[..i].iter().any(|g| g.name == f.name) {
+            anyhow::bail!(
+                "--flag {} is given twice; each pattern needs its own name",
+                f.name
+            );
+        }
+    }
+    Ok(())
+}
+
+/// clap value parser for `--reaction NAME` (an unknown name: exit 2 with the
+/// valid names).
+pub fn parse_reaction(s: &str) -> Result<acidsite::advice::practice::Reaction, String> {
+    acidsite::advice::practice::Reaction::parse(s).map_err(|e| e.to_string())
+}
+
+/// clap value parser for `--control kinetic|thermodynamic`.
+pub fn parse_control(s: &str) -> Result<acidsite::advice::practice::Control, String> {
+    acidsite::advice::practice::Control::parse(s).map_err(|e| e.to_string())
 }
 
 /// Refuse an unknown `--base` before any work (a bad option: exit 2).

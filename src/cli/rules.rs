@@ -40,6 +40,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .iter()
         .filter(|i| keep(&[&i.id, &i.kind]))
         .collect();
+    if rules.is_empty() && incs.is_empty() {
+        if let Some(text) = &args.only {
+            eprintln!("acidsite rules: no class rule or increment has '{text}' in its id, class, element or substituent");
+            return Ok(Outcome::SomeFailed);
+        }
+    }
     let mut out = std::io::BufWriter::new(std::io::stdout().lock());
     if args.json {
         for r in &rules {
@@ -70,10 +76,6 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         set.increments.len(),
         set.match_order
     )?;
-    writeln!(
-        out,
-        "class rules: base pKa of the parent acid [citation key]"
-    )?;
     let rows: Vec<Vec<String>> = rules
         .iter()
         .map(|r| {
@@ -89,24 +91,26 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             ]
         })
         .collect();
-    write_table(
-        &mut out,
-        &[
-            "id",
-            "el",
-            "class",
-            "DMSO",
-            "water",
-            "±",
-            "source",
-            "SMARTS (acidic atom :1)",
-        ],
-        &rows,
-    )?;
-    writeln!(
-        out,
-        "\nincrements: added for each substituent on the acidic atom"
-    )?;
+    if !rows.is_empty() {
+        writeln!(
+            out,
+            "class rules: base pKa of the parent acid [citation key]"
+        )?;
+        write_table(
+            &mut out,
+            &[
+                "id",
+                "el",
+                "class",
+                "DMSO",
+                "water",
+                "±",
+                "source",
+                "SMARTS (acidic atom :1)",
+            ],
+            &rows,
+        )?;
+    }
     let rows: Vec<Vec<String>> = incs
         .iter()
         .map(|i| {
@@ -122,20 +126,26 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             ]
         })
         .collect();
-    write_table(
-        &mut out,
-        &[
-            "id",
-            "substituent",
-            "families",
-            "nth",
-            "DMSO",
-            "water",
-            "±",
-            "source",
-        ],
-        &rows,
-    )?;
+    if !rows.is_empty() {
+        writeln!(
+            out,
+            "\nincrements: added for each substituent on the acidic atom"
+        )?;
+        write_table(
+            &mut out,
+            &[
+                "id",
+                "substituent",
+                "families",
+                "nth",
+                "DMSO",
+                "water",
+                "±",
+                "source",
+            ],
+            &rows,
+        )?;
+    }
     let keys: BTreeSet<&str> = rules
         .iter()
         .map(|r| r.source.as_str())

@@ -24,6 +24,14 @@ pub struct Args {
     /// Evaluate this base (short name from `acidsite bases`) instead of the recommended one.
     #[arg(long, value_name = "NAME")]
     pub base: Option<String>,
+    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
+    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
+    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
+    pub reaction: Option<acidsite::advice::practice::Reaction>,
+    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
+    /// (default: the side of the target site).
+    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
+    pub control: Option<acidsite::advice::practice::Control>,
     /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
@@ -38,6 +46,7 @@ pub struct Args {
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
     super::check_base(args.base.as_deref())?;
+    super::check_flags(&args.flags)?;
     let opts = Options {
         site: args.site,
         base: args.base.clone(),
@@ -45,10 +54,28 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         flags: args.flags.clone(),
         sites_only: false,
         detail: acidsite::report::Detail::Full,
+        reaction: args.reaction,
+        control: args.control,
     };
     let stdout = std::io::stdout();
     let mut out = std::io::BufWriter::new(stdout.lock());
     let mut failed = 0usize;
+    // `--site N` must name an atom of every molecule given (a bad option:
+    // exit 2 before any output).
+    if let Some(n) = args.site {
+        for smiles in &args.smiles {
+            if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles.trim()) {
+                if n >= m.atoms.len() {
+                    anyhow::bail!(
+                        "--site {n}: {} has {} atoms (indices 0 to {}, in the order written)",
+                        smiles.trim(),
+                        m.atoms.len(),
+                        m.atoms.len().saturating_sub(1)
+                    );
+                }
+            }
+        }
+    }
     let mut all: Vec<(acidsite::report::Record, Option<acidsite::mol::Molecule>)> = args
         .smiles
         .iter()
@@ -60,6 +87,20 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         let recs = super::sdf_input::analyze_mol_text(&text, &opts);
         if recs.is_empty() {
             anyhow::bail!("{}: no molfile in this file", path.display());
+        }
+        if let Some(n) = args.site {
+            for (_, m) in &recs {
+                if let Some(m) = m {
+                    if n >= m.atoms.len() {
+                        anyhow::bail!(
+                            "--site {n}: {} has {} atoms (indices 0 to {}, in molfile order)",
+                            path.display(),
+                            m.atoms.len(),
+                            m.atoms.len().saturating_sub(1)
+                        );
+                    }
+                }
+            }
         }
         all.extend(recs);
     }

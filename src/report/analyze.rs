@@ -4,9 +4,10 @@
 use super::brief::Detail;
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
-    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, Pairs,
-    Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
+    Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
 };
+use crate::advice::practice::{Control, Reaction};
 use crate::advice::{advise_in, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
 use crate::sites::{self, Regio, SiteReport};
@@ -32,6 +33,13 @@ impl Scale {
         }
     }
 }
+
+/// At most this many unique matches of a `--flag` pattern are counted per
+/// molecule; a record that reaches it says so in `flag_warnings`.
+pub const FLAG_MAX_MATCHES: usize = 10_000;
+/// At most this many matcher steps per `--flag` pattern and molecule (well
+/// under a second).
+pub const FLAG_MAX_STEPS: u64 = 10_000_000;
 
 /// A named SMARTS pattern counted in every record (`--flag NAME=SMARTS`).
 #[derive(Debug, Clone)]
@@ -96,6 +104,10 @@ pub struct Options {
     /// builds neither the atom-mapped SMILES nor the component texts, which
     /// the brief form does not carry.
     pub detail: Detail,
+    /// The planned reaction (None: alkylation).
+    pub reaction: Option<Reaction>,
+    /// The enolate wanted where a ketone has two sides.
+    pub control: Option<Control>,
 }
 
 /// Analyse one SMILES. `line` and `id` are stamped into the record as given.
@@ -216,13 +228,32 @@ pub fn analyze_molecule(
     } else {
         mapped_smiles(smiles, mol, &sites_out)
     };
+    // User patterns are counted with bounds (issue 17): a pattern such as a
+    // 20-atom chain on a large cage has astronomically many matches.
+    let mut flag_warnings: Vec<String> = Vec::new();
     let flags = if opts.flags.is_empty() {
         None
     } else {
         Some(Pairs(
             opts.flags
                 .iter()
-                .map(|f| (f.name.clone(), f.pattern.count_unique_in(&target) as u64))
+                .map(|f| {
+                    let (n, bound) =
+                        f.pattern
+                            .count_unique_bounded(&target, FLAG_MAX_MATCHES, FLAG_MAX_STEPS);
+                    match bound {
+                        Some(crate::smarts::CountBound::Matches) => flag_warnings.push(format!(
+                            "pattern {}: more than {FLAG_MAX_MATCHES} matches, count stopped",
+                            f.name
+                        )),
+                        Some(crate::smarts::CountBound::Steps) => flag_warnings.push(format!(
+                            "pattern {}: search stopped after {FLAG_MAX_STEPS} steps; at least {n} matches",
+                            f.name
+                        )),
+                        None => {}
+                    }
+                    (f.name.clone(), n as u64)
+                })
                 .collect(),
         ))
     };
@@ -246,6 +277,7 @@ pub fn analyze_molecule(
         advice_note,
         mapped_smiles: mapped,
         flags,
+        flag_warnings: (!flag_warnings.is_empty()).then_some(flag_warnings),
         error: None,
     }
 }
@@ -399,6 +431,8 @@ fn advice_record(
     let aopts = AdviceOptions {
         base: opts.base.clone(),
         site: opts.site,
+        reaction: opts.reaction,
+        control: opts.control,
         alternatives: Some(if opts.detail == Detail::Brief {
             0
         } else {
@@ -433,6 +467,19 @@ fn advice_record(
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
         target: a.target.atoms,
         target_note: a.target.chosen_by,
+        reaction: a.reaction.name(),
+        control: a.control.map(|c| c.name()),
+        mode: a.mode.name(),
+        mode_note: a.mode_note,
+        practice_row: a.practice_row,
+        not_judged: a
+            .not_judged
+            .into_iter()
+            .map(|n| NotJudgedOut {
+                base: n.base,
+                missing: n.missing,
+            })
+            .collect(),
         base: a.base,
         equivalents_note: a.equivalents_note,
         counted: a

@@ -87,13 +87,22 @@ impl RowWriter {
     /// The row(s) for one record.
     pub fn rows(&self, rec: &Record) -> String {
         let mut lead: Vec<String> = vec![rec.line.to_string(), rec.id.clone().unwrap_or_default()];
-        for name in &self.carried {
-            let v = rec
-                .columns
-                .as_ref()
-                .and_then(|c| c.0.iter().find(|(k, _)| k == name))
-                .map(|(_, v)| v.clone())
-                .unwrap_or_default();
+        // The record's columns come in the order of `carried` (both follow
+        // the header): take them by position, so a row costs time linear in
+        // the number of columns (issue 17); look names up only if the
+        // orders differ.
+        let cols = rec.columns.as_ref().map(|c| &c.0[..]).unwrap_or(&[]);
+        let in_order = cols.len() == self.carried.len()
+            && cols.iter().zip(&self.carried).all(|((k, _), n)| k == n);
+        for (i, name) in self.carried.iter().enumerate() {
+            let v = if in_order {
+                cols[i].1.clone()
+            } else {
+                cols.iter()
+                    .find(|(k, _)| k == name)
+                    .map(|(_, v)| v.clone())
+                    .unwrap_or_default()
+            };
             lead.push(v);
         }
         lead.push(rec.input.clone());
@@ -130,7 +139,7 @@ impl RowWriter {
                 let sites: &[SiteOut] = rec.sites.as_deref().unwrap_or(&[]);
                 if sites.is_empty() {
                     let mut f = lead;
-                    f.extend(std::iter::repeat_n(String::new(), 8));
+                    f.extend(std::iter::repeat_n(String::new(), 9));
                     f.push(error);
                     return self.join(&f);
                 }

@@ -2,8 +2,6 @@
 //! library types), the human table, CSV/TSV rows and atom-mapped SMILES, and
 //! [`analyze()`], which runs SMILES → molecule → sites → advice for one input
 //! and returns its [`Record`]. No I/O.
-//!
-//! OWNER: command-line work (issue 6).
 
 pub mod analyze;
 pub mod brief;

@@ -18,7 +18,7 @@
 //!
 //! | key | type | meaning |
 //! |---|---|---|
-//! | `schema` | string | schema version, currently `"acidsite-record/2"` |
+//! | `schema` | string | schema version, currently `"acidsite-record/3"` |
 //! | `line` | integer | 1-based line number of the record in its input (for an SD record its first line; for `scan`, the 1-based position of the argument) |
 //! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file, the title line or `--id-field` item of an SD record) |
 //! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD); for a molfile, a SMILES of the molecule written by the reader (atom indices stay the molfile's) |
@@ -36,7 +36,8 @@
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
 //! | `advice_note` | string | only when `advice` is null: why |
 //! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number |
-//! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given |
+//! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given (at most 10,000 matches and 10^7 matcher steps per pattern and molecule) |
+//! | `flag_warnings` | array of string | only when a `--flag` count reached a bound: the pattern and the bound; its count is then a lower bound |
 //!
 //! On failure (`ok: false`): `error` with `kind` (`syntax`, `ring_closure`,
 //! `aromaticity`, `valence`, `unsupported`, `too_large`, `empty`, `encoding`,
@@ -56,7 +57,10 @@ use serde::Serialize;
 pub const MAX_ALTERNATIVES: usize = 5;
 
 /// Version of the record schema, stamped into every record as `schema`.
-pub const SCHEMA: &str = "acidsite-record/2";
+pub const SCHEMA: &str = "acidsite-record/3";
+
+/// A failed record's `input` keeps at most this many characters.
+pub const FAILED_INPUT_ECHO: usize = 300;
 
 /// One output record (see the module documentation for the keys).
 ///
@@ -92,13 +96,34 @@ pub struct Record {
     pub mapped_smiles: Option<String>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub flags: Option<Pairs<u64>>,
+    /// Only when a `--flag` count reached a bound: which pattern and which
+    /// bound (the count in `flags` is then a lower bound).
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub flag_warnings: Option<Vec<String>>,
     #[serde(skip_serializing_if = "Option::is_none")]
     pub error: Option<ErrorOut>,
 }
 
 impl Record {
     /// A failed record: the input could not be read or analysed.
-    pub fn failure(line: u64, id: Option<String>, input: String, error: ErrorOut) -> Record {
+    pub fn failure(line: u64, id: Option<String>, input: String, mut error: ErrorOut) -> Record {
+        // A failed record echoes at most FAILED_INPUT_ECHO characters of its
+        // input (an 8 MiB junk line must not become 48 MiB of JSON); the
+        // message then gives the full length (issue 17).
+        let input = if input.len() > FAILED_INPUT_ECHO {
+            let cut: String = input.chars().take(FAILED_INPUT_ECHO).collect();
+            if cut.len() < input.len() {
+                error.message.push_str(&format!(
+                    " (input of {} bytes; the first {FAILED_INPUT_ECHO} characters are shown)",
+                    input.len()
+                ));
+                cut + "…"
+            } else {
+                input
+            }
+        } else {
+            input
+        };
         Record {
             schema: SCHEMA,
             line,
@@ -114,6 +139,7 @@ impl Record {
             advice_note: None,
             mapped_smiles: None,
             flags: None,
+            flag_warnings: None,
             error: Some(error),
         }
     }
@@ -181,6 +207,10 @@ impl Record {
         if let Some(f) = &self.flags {
             out.extend_from_slice(b",\"flags\":");
             f.write_json(out, |o, v| json::uint(o, *v));
+        }
+        if let Some(w) = &self.flag_warnings {
+            out.extend_from_slice(b",\"flag_warnings\":");
+            json::array(out, w, |o, x| json::string(o, x));
         }
         if let Some(e) = &self.error {
             out.extend_from_slice(b",\"error\":{\"kind\":");
@@ -333,6 +363,18 @@ pub struct AdviceOut {
     pub target: Vec<usize>,
     /// How the target was chosen (default most acidic C–H, or `--site`).
     pub target_note: String,
+    /// The planned reaction the advice is for (`--reaction`, default
+    /// `alkylation`).
+    pub reaction: &'static str,
+    /// `kinetic` or `thermodynamic` (given, or the target's enolate side);
+    /// null where the target has no sides to choose between.
+    pub control: Option<&'static str>,
+    /// How the base is used: `preformed`, `in-situ` or `catalytic`.
+    pub mode: &'static str,
+    /// Why that mode, with the practice row and its source.
+    pub mode_note: String,
+    /// Id of the matching row of `fragments/practice.tsv`, if any.
+    pub practice_row: Option<String>,
     /// Recommended (or requested) base, short trade name; null when no
     /// catalogue base qualifies.
     pub base: Option<String>,
@@ -360,8 +402,10 @@ pub struct AdviceOut {
     /// How many further acceptable bases were left out of `alternatives`
     /// (see `acidsite scan` or the library for all of them).
     pub alternatives_omitted: usize,
-    /// Bases ruled out, each with its reason.
+    /// Bases ruled out, each with its chemical reason.
     pub rejected: Vec<RejectedOut>,
+    /// Bases the data cannot judge for this target, with the value missing.
+    pub not_judged: Vec<NotJudgedOut>,
     /// Chemistry warnings (side reactions, selectivity, proton counting).
     pub warnings: Vec<String>,
     /// Kinetic and thermodynamic conditions for an unsymmetrical ketone.
@@ -380,6 +424,16 @@ impl AdviceOut {
         json::indices(out, &self.target);
         out.extend_from_slice(b",\"target_note\":");
         json::string(out, &self.target_note);
+        out.extend_from_slice(b",\"reaction\":");
+        json::string(out, self.reaction);
+        out.extend_from_slice(b",\"control\":");
+        json::opt_string(out, self.control);
+        out.extend_from_slice(b",\"mode\":");
+        json::string(out, self.mode);
+        out.extend_from_slice(b",\"mode_note\":");
+        json::string(out, &self.mode_note);
+        out.extend_from_slice(b",\"practice_row\":");
+        json::opt_string(out, self.practice_row.as_deref());
         out.extend_from_slice(b",\"base\":");
         json::opt_string(out, self.base.as_deref());
         out.extend_from_slice(b",\"equivalents\":");
@@ -442,6 +496,14 @@ impl AdviceOut {
             json::string(o, r.kind);
             o.extend_from_slice(b",\"reason\":");
             json::string(o, &r.reason);
+            o.push(b'}');
+        });
+        out.extend_from_slice(b",\"not_judged\":");
+        json::array(out, &self.not_judged, |o, r| {
+            o.extend_from_slice(b"{\"base\":");
+            json::string(o, r.base);
+            o.extend_from_slice(b",\"missing\":");
+            json::string(o, &r.missing);
             o.push(b'}');
         });
         out.extend_from_slice(b",\"warnings\":");
@@ -555,9 +617,19 @@ impl RegioSideOut {
 pub struct RejectedOut {
     pub base: &'static str,
     /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
-    /// `hydrolysis`, `uncounted-proton`, `no-comparable-pka`.
+    /// `hydrolysis`, `uncounted-proton`, `not-catalytic`, `regio`,
+    /// `side-reaction`, `mode`.
     pub kind: &'static str,
     pub reason: String,
+}
+
+/// A base the data cannot judge for the target.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct NotJudgedOut {
+    /// Catalogue name.
+    pub base: &'static str,
+    /// The value that is missing (a pKa on the scale the base needs).
+    pub missing: String,
 }
 
 /// Why a record failed.

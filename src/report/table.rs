@@ -16,7 +16,12 @@ pub fn render(rec: &Record, scale: Scale) -> String {
     };
     let _ = writeln!(o, "== {title}");
     if let Some(e) = &rec.error {
-        let _ = writeln!(o, "   not analysed: {} error: {}", e.kind, e.message);
+        let _ = writeln!(
+            o,
+            "   not analysed: {} error: {}",
+            e.kind.replace('_', " "),
+            e.message
+        );
         if let Some(p) = e.position {
             // Caret under the offending character (inputs are shown as given).
             let _ = writeln!(o, "   {}", rec.input);
@@ -144,6 +149,23 @@ pub fn render(rec: &Record, scale: Scale) -> String {
         Some(a) => {
             let target = atom_list(&a.target);
             let _ = writeln!(o, "   advice for atom {target}  ({})", a.target_note);
+            let control = a
+                .control
+                .map(|c| format!(", {c} control"))
+                .unwrap_or_default();
+            let _ = writeln!(
+                o,
+                "   reaction       {}{control}; base used {}",
+                a.reaction, a.mode
+            );
+            if !a.mode_note.is_empty() {
+                wrap(
+                    &mut o,
+                    &a.mode_note,
+                    "                  ",
+                    "                  ",
+                );
+            }
             match &a.base {
                 Some(b) => {
                     let eq = a
@@ -251,10 +273,18 @@ pub fn render(rec: &Record, scale: Scale) -> String {
             }
             if !a.rejected.is_empty() {
                 let _ = writeln!(o, "   ruled out");
+                // Bases ruled out for the same reason share one line.
+                let mut groups: Vec<(Vec<&str>, &str)> = Vec::new();
                 for r in a.rejected.iter().filter(|r| r.kind != "too-weak") {
+                    match groups.iter_mut().find(|g| g.1 == r.reason) {
+                        Some(g) => g.0.push(r.base),
+                        None => groups.push((vec![r.base], &r.reason)),
+                    }
+                }
+                for (bases, reason) in groups {
                     wrap(
                         &mut o,
-                        &format!("{}: {}", r.base, r.reason),
+                        &format!("{}: {}", bases.join(", "), reason),
                         "     - ",
                         "       ",
                     );
@@ -269,13 +299,26 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     wrap(
                         &mut o,
                         &format!(
-                            "too weak to deprotonate the target to 99 % at equilibrium: {} (details in --json)",
+                            "too weak for a {} base at equilibrium: {} (details in --json)",
+                            a.mode,
                             weak.join(", ")
                         ),
                         "     - ",
                         "       ",
                     );
                 }
+            }
+            if !a.not_judged.is_empty() {
+                let names: Vec<&str> = a.not_judged.iter().map(|n| n.base).collect();
+                wrap(
+                    &mut o,
+                    &format!(
+                        "not judged (no pKa on a scale shared with the target): {}",
+                        names.join(", ")
+                    ),
+                    "   ",
+                    "     ",
+                );
             }
             if !a.warnings.is_empty() {
                 let _ = writeln!(o, "   watch out");

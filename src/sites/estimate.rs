@@ -63,6 +63,25 @@ fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
             .any(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Triple))
             && a.element == 6;
     }
+    // A thioacetal carbon (the C2–H of a 1,3-dithiane) is activated by its
+    // two sulfur atoms alone.
+    let sulfurs = mol
+        .neighbors(i)
+        .iter()
+        .filter(|nb| mol.atoms[nb.atom].element == 16)
+        .count();
+    if sulfurs >= 2 {
+        return true;
+    }
+    // A haloform C–H (CHCl3, CHBr3) is activated by its three halogens.
+    let halogens = mol
+        .neighbors(i)
+        .iter()
+        .filter(|nb| matches!(mol.atoms[nb.atom].element, 17 | 35))
+        .count();
+    if halogens >= 3 {
+        return true;
+    }
     mol.neighbors(i).iter().any(|nb| {
         let b = &mol.atoms[nb.atom];
         b.charge > 0 || b.aromatic || has_multiple_bond(mol, nb.atom)

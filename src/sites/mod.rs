@@ -1,7 +1,7 @@
 //! Acidic sites with pKa estimates from fragment rules (data in
 //! `fragments/`), every estimate traceable to its rules and sources.
 //!
-//! OWNER: acidic-sites work (issue 4). Contract used by advice and report:
+//! Contract used by advice and report:
 //! `find_sites`, `SiteReport`, `Site`, `Regio`, `RuleUse`,
 //! `rule_set_version`; also [`rule_set`] (for listing the rules),
 //! [`find_sites_with`] and [`Options`].

@@ -108,6 +108,15 @@ impl std::fmt::Display for PatternError {
 
 impl std::error::Error for PatternError {}
 
+/// Which bound stopped [`Pattern::count_unique_bounded`].
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub enum CountBound {
+    /// More matches than the match bound.
+    Matches,
+    /// The step budget ran out.
+    Steps,
+}
+
 /// A bounded search ran out of steps before finishing.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub struct LimitReached {
@@ -718,6 +727,30 @@ impl Pattern {
             Ok(n)
         } else {
             Err(LimitReached { max_steps })
+        }
+    }
+
+    /// Unique matches counted with two bounds, for patterns from untrusted
+    /// input (`--flag`): at most `max_matches` matches and `max_steps`
+    /// matcher steps. Returns the count and, when a bound stopped the
+    /// count, which one (the count is then a lower bound).
+    pub fn count_unique_bounded(
+        &self,
+        t: &Target,
+        max_matches: usize,
+        max_steps: u64,
+    ) -> (usize, Option<CountBound>) {
+        let mut n = 0usize;
+        let complete = self.each_unique(t, None, max_steps, &mut |_| {
+            n += 1;
+            n <= max_matches
+        });
+        if n > max_matches {
+            (max_matches, Some(CountBound::Matches))
+        } else if !complete {
+            (n, Some(CountBound::Steps))
+        } else {
+            (n, None)
         }
     }
 

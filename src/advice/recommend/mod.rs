@@ -1,0 +1,238 @@
+//! The recommender: target site, counted protons, equivalents, candidate
+//! bases, rejections, warnings, regiochemistry and cautions.
+//!
+//! Split by concern: `types` (public types), `choose` (the recommender),
+//! `evaluate` (one base judged), `solve` (the equilibrium behind it), `side`
+//! (side reactions and warnings), `score` (ranking), `regio` (enolate sides).
+
+use super::catalogue::{
+    catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, ProticSolvent, Scale,
+};
+use super::cautions::{
+    caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
+};
+use super::equilibrium::{
+    choose_scale, exp10, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
+    EquilibriumInput, Microsite, ScaleChoice,
+};
+use super::features::{detect_features, site_units, MoleculeFeatures};
+use super::numfmt;
+use super::practice::{practice, Control, Mode, PracticeRow, Reaction, System};
+use crate::mol::Molecule;
+use crate::sites::{Regio, Site, SiteReport};
+use std::borrow::Cow;
+use std::fmt;
+use std::rc::Rc;
+
+mod choose;
+mod evaluate;
+mod regio;
+mod score;
+mod side;
+mod solve;
+mod types;
+
+use choose::*;
+use evaluate::*;
+use regio::*;
+pub use score::commonness_penalty;
+use score::*;
+use side::*;
+use solve::*;
+pub use types::*;
+
+/// Advice for a molecule and its sites.
+pub fn advise(
+    mol: &Molecule,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    let features = detect_features(mol, sites);
+    let t = crate::smarts::Target::new(mol);
+    advise_core(&features, sites, opts, Some(&t))
+}
+
+/// [`advise`] on a pattern-matching view of `mol` that the caller already
+/// built (see [`crate::sites::find_sites_in`]); `target` must come from
+/// `smarts::Target::new(mol)`.
+pub fn advise_in(
+    mol: &Molecule,
+    target: &crate::smarts::Target,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    let features = super::features::detect_features_in(mol, target, sites);
+    advise_core(&features, sites, opts, Some(target))
+}
+
+/// Per-base evaluation.
+struct Eval<'a> {
+    base: &'a Base,
+    solvent: Cow<'a, str>,
+    scale: Option<Scale>,
+    scale_note: String,
+    counted: Rc<Vec<CountedProton>>,
+    equivalents: f64,
+    conversion: f64,
+    /// The reported equilibrium, solved lean; built in full for the chosen base.
+    lean: Option<Lean>,
+    /// Notes of the reported equilibrium (set in the base's own solvent).
+    eq_notes: Vec<String>,
+    /// Sites whose protons are counted (left out of the equilibrium).
+    exclude: Rc<[usize]>,
+    reasons: Vec<(RejectKind, String)>,
+    notes: Vec<String>,
+    score: f64,
+    marginal: bool,
+    no_solvent_check: bool,
+    /// What the notes of a reported base are worded from ([`word_notes`]);
+    /// None once worded or for a base that is not reported.
+    words: Option<Box<Words<'a>>>,
+}
+
+/// The ingredients of a reported base's notes, kept so that only the bases
+/// that are listed get their notes written.
+struct Words<'b> {
+    choice: Rc<ScaleChoice>,
+    scale: Scale,
+    crit_conv: f64,
+    n_counted: usize,
+    accepted: bool,
+    no_water_in: Option<&'b ProticSolvent>,
+    in_solvent: Option<InSolvent<'b>>,
+    marginal: Option<(f64, f64, f64, bool)>,
+    drained: Option<f64>,
+}
+
+/// Acceptance threshold and equivalents of the mode in use.
+#[derive(Debug, Clone, Copy)]
+struct Plan {
+    /// Least fraction of the target as anion at equilibrium.
+    min_fraction: f64,
+    /// Base per target proton (mode or practice row).
+    per_target: f64,
+    /// Equivalents the reaction consumes beyond that.
+    extra: f64,
+}
+
+struct Ctx<'a> {
+    f: &'a MoleculeFeatures,
+    sites: &'a SiteReport,
+    opts: &'a AdviceOptions,
+    plan: Plan,
+    target: usize,
+    target_unit: Vec<usize>,
+    /// Acid units and their notes on the DMSO and water scales, built once.
+    units_dmso: (Vec<AcidUnit>, Vec<String>),
+    units_water: (Vec<AcidUnit>, Vec<String>),
+    /// Reused buffer of unit constants for the lean solver.
+    logk_buf: std::cell::RefCell<Vec<f64>>,
+    /// The target carbon is next to a C=O (from the molecule's features,
+    /// not from the class name).
+    target_carbonyl: bool,
+    /// Lean solutions and target conversions already computed for this
+    /// molecule, keyed by the exact inputs (several catalogue bases share a
+    /// pKa): (base pKa, scale, equivalents, a0 as bits; excluded sites).
+    lean_memo: std::cell::RefCell<Vec<LeanMemo>>,
+    /// Units (indices into `units_dmso` / `units_water`) holding a target
+    /// microsite.
+    target_units_dmso: Vec<usize>,
+    target_units_water: Vec<usize>,
+    /// The base asked for (`AdviceOptions::base`), reported even if rejected.
+    requested: Option<&'a Base>,
+    /// Counted protons already worked out for this molecule: they depend on
+    /// the scale, whether the base is a metal base, a protic solvent and the
+    /// counter-ion named in the reason, not on the base itself.
+    counted_memo: std::cell::RefCell<Vec<(CountedKey, CountedSet)>>,
+    /// The empty counted set, shared by bases rejected before counting.
+    none_counted: CountedSet,
+    /// The target's pKa text on the DMSO and water scales.
+    target_text_dmso: std::cell::OnceCell<String>,
+    target_text_water: std::cell::OnceCell<String>,
+}
+
+/// (scale, metal base, protic solvent, counter-ion) packed into one word:
+/// the counter-ion as its catalogue-wide number ([`counter_ion_id`]).
+type CountedKey = u32;
+
+/// Counted protons and their sites (shared by the bases that count alike).
+type CountedSet = (Rc<Vec<CountedProton>>, Rc<[usize]>);
+
+/// Numeric part of a memo key: (base pKa, scale, equivalents, a0) as bits.
+type LeanKey = (u64, u8, u64, u64);
+
+/// A memoised lean solution and its target conversion, keyed by the exact
+/// inputs and the excluded sites.
+struct LeanMemo {
+    key: LeanKey,
+    exclude: Rc<[usize]>,
+    solution: Option<(Lean, f64)>,
+}
+
+/// A solved equilibrium kept as its parameters and log ratio: enough to
+/// judge a base without building the per-site breakdown; the full
+/// [`Equilibrium`] is built only for the base that is reported.
+#[derive(Debug, Clone, Copy)]
+struct Lean {
+    base_pka: f64,
+    scale: Scale,
+    equivalents: f64,
+    a0: f64,
+    /// log10([B-]/[BH]) at equilibrium.
+    s: f64,
+}
+
+/// What the equilibrium in the base's own protic solvent gave, kept to word
+/// the notes of a base that is reported.
+struct InSolvent<'b> {
+    solvent: &'b ProticSolvent,
+    choice: Rc<ScaleChoice>,
+    conversion: f64,
+}
+
+/// The functional groups a base attacks, in order.
+#[derive(Default)]
+struct GroupList {
+    names: [&'static str; 8],
+    len: usize,
+}
+
+impl GroupList {
+    fn push(&mut self, name: &'static str) {
+        if let Some(slot) = self.names.get_mut(self.len) {
+            *slot = name;
+            self.len += 1;
+        }
+    }
+    fn is_empty(&self) -> bool {
+        self.len == 0
+    }
+    /// Appends the names separated by ", ".
+    fn push_joined(&self, out: &mut String) {
+        for (i, n) in self.names.iter().take(self.len).enumerate() {
+            if i > 0 {
+                out.push_str(", ");
+            }
+            out.push_str(n);
+        }
+    }
+}
+
+/// [`advise`] from features alone: without the molecule no practice row can
+/// be matched, so the reaction's default mode applies.
+pub fn advise_with_features(
+    f: &MoleculeFeatures,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+) -> Result<Advice, AdviceError> {
+    advise_core(f, sites, opts, None)
+}
+
+/// The enolate side a control asks for.
+pub(super) fn side_of(c: Option<Control>) -> Option<Regio> {
+    match c {
+        Some(Control::Kinetic) => Some(Regio::Kinetic),
+        Some(Control::Thermodynamic) => Some(Regio::Thermodynamic),
+        None => None,
+    }
+}
