@@ -27,8 +27,8 @@ pub use catalogue::{
     ProticSolvent, Scale, BASES_FILE,
 };
 pub use cautions::{
-    caution_for, caution_for_reagent, short_caution_for, short_caution_for_reagent, Caution,
-    DEFERRAL, SHORT_DEFERRAL,
+    caution_for, caution_for_reagent, general_caution, short_caution_for,
+    short_caution_for_reagent, Caution, DEFERRAL, SHORT_DEFERRAL,
 };
 pub use equilibrium::{
     equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,

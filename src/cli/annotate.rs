@@ -9,10 +9,12 @@
 //! as it is (no per-record strings).
 
 use super::input::{InputFormat, LineSource, RawLine, MAX_LINE_BYTES};
+use super::sdf_input;
 use super::{parse_flag, Outcome, ScaleArg};
+use acidsite::mol::sdf::SdRecord;
 use acidsite::report::delimited::{split_csv_line, Delimiter, Layout, RowWriter};
 use acidsite::report::record::{ErrorOut, Pairs};
-use acidsite::report::{analyze, Flag, Options, Record};
+use acidsite::report::{analyze, analyze_molfile, Detail, Flag, Options, Record};
 use anyhow::Context;
 use indicatif::{ProgressBar, ProgressDrawTarget, ProgressStyle};
 use rayon::prelude::*;
@@ -23,6 +25,10 @@ use std::time::{Duration, Instant};
 
 /// Bytes of input read per chunk at most (besides the line count).
 const CHUNK_BYTES: usize = 16 << 20;
+
+/// SD records read before the run starts, for the names of the data items
+/// carried into CSV/TSV output.
+const SD_FIRST_CHUNK: usize = 256;
 
 /// Output formats.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
@@ -38,7 +44,8 @@ pub enum OutputFormat {
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// Compound list: .smi (SMILES, whitespace, optional id), .csv or .tsv with a
-    /// header row, optionally gzip-compressed; `-` or nothing reads stdin.
+    /// header row, or an SD file (.sdf, .mol), optionally gzip-compressed; `-` or
+    /// nothing reads stdin (SD content is recognised).
     #[arg(value_name = "FILE")]
     pub input: Option<PathBuf>,
     /// Input layout, when the file name does not tell (stdin is read as smi).
@@ -52,6 +59,14 @@ pub struct Args {
     /// named "id" or "name", any case, if there is one).
     #[arg(long, value_name = "NAME")]
     pub id_column: Option<String>,
+    /// SD input: take the id from this data item instead of the title line.
+    #[arg(long, value_name = "NAME")]
+    pub id_field: Option<String>,
+    /// JSON records: full (every key, cautions and reasons worded) or brief
+    /// (the answer with ids for cautions and rejected bases, about a sixth of
+    /// the size; schema acidsite-brief/1).
+    #[arg(long, value_enum, default_value_t = DetailArg::Full)]
+    pub detail: DetailArg,
     /// Output format.
     #[arg(long, value_enum, default_value_t = OutputFormat::Jsonl)]
     pub format: OutputFormat,
@@ -102,6 +117,16 @@ pub struct Args {
     pub html: Option<PathBuf>,
 }
 
+/// `--detail` values.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum DetailArg {
+    /// Every key of the acidsite-record schema.
+    Full,
+    /// The acidsite-brief schema: sites, base, equivalents, conversion,
+    /// solvent, temperature, warnings; ids for cautions and rejected bases.
+    Brief,
+}
+
 /// What every worker needs to turn a raw line into output text.
 pub struct Job {
     format: InputFormat,
@@ -115,6 +140,13 @@ pub struct Job {
     rows: Option<RowWriter>,
     /// Render an HTML card per record (`--html`).
     html: bool,
+    /// SD input: data item holding the id (else the title line).
+    id_field: Option<String>,
+    /// SD input: the first chunk, read by [`Job::new`] for the names of the
+    /// data items, handed out by the first [`Job::read_chunk`].
+    first_chunk: std::sync::Mutex<Option<Vec<RawLine>>>,
+    /// SD input: records read so far.
+    sd_records: std::sync::Mutex<u64>,
 }
 
 /// What to write for each record.
@@ -134,6 +166,8 @@ pub struct Columns<'a> {
     pub smiles: Option<&'a str>,
     pub id: Option<&'a str>,
     pub reaction: Option<&'a str>,
+    /// SD input: the data item holding the id.
+    pub id_field: Option<&'a str>,
 }
 
 impl Job {
@@ -154,9 +188,28 @@ impl Job {
             per_site,
             html,
         } = out;
-        // Header of CSV/TSV input.
+        let mut first_chunk = None;
+        let mut sd_records = 0u64;
+        // Header of CSV/TSV input; for SD input the data items named in the
+        // first chunk of records.
         let (header, smiles_col, id_col) = match format {
             InputFormat::Smi => (Vec::new(), 0, None),
+            InputFormat::Sdf => {
+                let lines =
+                    sdf_input::next_sd_chunk(source, &mut sd_records, SD_FIRST_CHUNK, CHUNK_BYTES)
+                        .with_context(|| format!("cannot read {shown}"))?;
+                let mut names: Vec<String> = Vec::new();
+                for l in &lines {
+                    let text = String::from_utf8_lossy(&l.bytes);
+                    for (n, _) in SdRecord::new(&text, l.record, l.line).fields() {
+                        if Some(n.as_str()) != cols.id_field && !names.contains(&n) {
+                            names.push(n);
+                        }
+                    }
+                }
+                first_chunk = Some(lines);
+                (names, usize::MAX, None)
+            }
             InputFormat::Csv | InputFormat::Tsv => {
                 // The header is the first line that is not blank and not a
                 // comment; a line starting with `#` is the header when it
@@ -225,7 +278,7 @@ impl Job {
         let reaction_col = match cols.reaction {
             None => None,
             Some(name) => {
-                if format == InputFormat::Smi {
+                if matches!(format, InputFormat::Smi | InputFormat::Sdf) {
                     anyhow::bail!(
                         "--reaction-column needs CSV or TSV input (--input-format csv|tsv)"
                     );
@@ -272,7 +325,35 @@ impl Job {
             reaction_col,
             rows,
             html,
+            id_field: cols.id_field.map(str::to_string),
+            first_chunk: std::sync::Mutex::new(first_chunk),
+            sd_records: std::sync::Mutex::new(sd_records),
         })
+    }
+
+    /// The next chunk of records from `source`: up to `max` lines, or
+    /// whole SD records for SD input (the chunk read by [`Job::new`]
+    /// first).
+    pub fn read_chunk(
+        &self,
+        source: &mut LineSource,
+        max: usize,
+        max_bytes: usize,
+    ) -> io::Result<Vec<RawLine>> {
+        if let Some(first) = self.first_chunk.lock().ok().and_then(|mut f| f.take()) {
+            return Ok(first);
+        }
+        match self.format {
+            InputFormat::Sdf => {
+                let mut n = self.sd_records.lock().map(|g| *g).unwrap_or(0);
+                let chunk = sdf_input::next_sd_chunk(source, &mut n, max, max_bytes);
+                if let Ok(mut g) = self.sd_records.lock() {
+                    *g = n;
+                }
+                chunk
+            }
+            _ => source.next_chunk(max, max_bytes),
+        }
     }
 
     /// The header line of CSV/TSV output (None for JSON Lines).
@@ -306,10 +387,6 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             anyhow::bail!("-o and --html name the same file {}", o.display());
         }
     }
-    let format = args.input_format.unwrap_or_else(|| match &path {
-        Some(p) => InputFormat::from_path(p),
-        None => InputFormat::Smi,
-    });
     if args.per_site && args.format == OutputFormat::Jsonl {
         anyhow::bail!(
             "--per-site applies to --format csv or tsv (JSON records list every site already)"
@@ -321,6 +398,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .unwrap_or_else(|| "standard input".into());
     let mut source =
         LineSource::open(path.as_deref()).with_context(|| format!("cannot read {shown}"))?;
+    let head = source
+        .peek()
+        .with_context(|| format!("cannot read {shown}"))?;
+    let format = sdf_input::choose_format(args.input_format, path.as_deref(), head)
+        .map_err(|e| anyhow::anyhow!("{shown}: {e}"))?;
 
     let ctx = Job::new(
         &mut source,
@@ -330,6 +412,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             smiles: args.column.as_deref(),
             id: args.id_column.as_deref(),
             reaction: args.reaction_column.as_deref(),
+            id_field: args.id_field.as_deref(),
         },
         Options {
             site: None,
@@ -337,6 +420,10 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             scale: args.scale.into(),
             flags: args.flags.clone(),
             sites_only: args.sites_only,
+            detail: match args.detail {
+                DetailArg::Full => Detail::Full,
+                DetailArg::Brief => Detail::Brief,
+            },
             reaction: args.reaction,
             control: args.control,
         },
@@ -374,8 +461,8 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let (records, failed) = pool.install(|| -> anyhow::Result<(u64, u64)> {
         let mut records = 0u64;
         let mut failed = 0u64;
-        let mut lines = source
-            .next_chunk(chunk, CHUNK_BYTES)
+        let mut lines = ctx
+            .read_chunk(&mut source, chunk, CHUNK_BYTES)
             .with_context(|| format!("cannot read {shown}"))?;
         // Raw bytes read up to the end of the chunk being analysed (the bar
         // shows what has been written, not the read-ahead).
@@ -417,8 +504,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                     if analysing.is_empty() {
                         return Ok(Vec::new());
                     }
-                    source
-                        .next_chunk(chunk, CHUNK_BYTES)
+                    ctx.read_chunk(&mut source, chunk, CHUNK_BYTES)
                         .with_context(|| format!("cannot read {shown}"))
                 },
             );
@@ -552,7 +638,7 @@ fn split_fields(format: InputFormat, line: &str) -> Option<Vec<String>> {
     match format {
         InputFormat::Csv => split_csv_line(line),
         InputFormat::Tsv => Some(line.split('\t').map(str::to_string).collect()),
-        InputFormat::Smi => Some(vec![line.to_string()]),
+        InputFormat::Smi | InputFormat::Sdf => Some(vec![line.to_string()]),
     }
 }
 
@@ -634,7 +720,11 @@ fn render(rec: &Record, ctx: &Job, out: &mut Vec<u8>) {
     match &ctx.rows {
         Some(w) => out.extend_from_slice(w.rows(rec).as_bytes()),
         None => {
-            rec.write_json(out);
+            if ctx.opts.detail == Detail::Brief {
+                rec.write_brief_json(out);
+            } else {
+                rec.write_json(out);
+            }
             out.push(b'\n');
         }
     }
@@ -646,7 +736,16 @@ fn process(raw: &RawLine, ctx: &Job, out: &mut Vec<u8>, card: &mut Option<Box<[u
     let rec = record_for(raw, ctx);
     render(&rec, ctx, out);
     if ctx.html {
-        let svg = super::draw::drawing(&rec, 30.0);
+        let svg = if ctx.format == InputFormat::Sdf {
+            // Atom indices are the molfile's: draw the molfile's molecule.
+            let text = String::from_utf8_lossy(&raw.bytes);
+            let sd = SdRecord::new(&text, raw.record, raw.line);
+            acidsite::mol::molfile::read(sd.molfile())
+                .ok()
+                .and_then(|m| super::draw::drawing_of(&rec, &m.molecule, 30.0))
+        } else {
+            super::draw::drawing(&rec, 30.0)
+        };
         *card = Some(super::html::card(&rec, svg.as_deref()).into_bytes().into());
     }
     rec.ok
@@ -669,6 +768,11 @@ fn record_for(raw: &RawLine, ctx: &Job) -> Record {
             },
         )
     };
+    if ctx.format == InputFormat::Sdf && !raw.truncated {
+        // Data items in other encodings (Latin-1 names) should not lose the
+        // molecule: bad bytes become U+FFFD.
+        return sd_record(raw, &String::from_utf8_lossy(&raw.bytes), ctx);
+    }
     let text = match std::str::from_utf8(&raw.bytes) {
         Ok(t) => t,
         Err(e) => {
@@ -684,18 +788,25 @@ fn record_for(raw: &RawLine, ctx: &Job) -> Record {
         }
     };
     if raw.truncated {
+        let sd = ctx.format == InputFormat::Sdf;
+        let what = if sd {
+            format!("SD record {}", raw.record)
+        } else {
+            "line".to_string()
+        };
         return fail(
-            text.to_string(),
+            if sd { String::new() } else { text.to_string() },
             None,
             "too_large",
             format!(
-                "line is longer than {} MiB; it was cut and not analysed",
+                "{what} is longer than {} MiB; it was cut and not analysed",
                 MAX_LINE_BYTES >> 20
             ),
             None,
         );
     }
     match ctx.format {
+        InputFormat::Sdf => sd_record(raw, text, ctx),
         InputFormat::Smi => {
             let t = text.trim_start();
             let (smiles, rest) = match t.find(char::is_whitespace) {
@@ -782,4 +893,37 @@ fn record_for(raw: &RawLine, ctx: &Job) -> Record {
             rec
         }
     }
+}
+
+/// One SD record to its record: id from the title line or `--id-field`,
+/// the other data items carried as columns, errors naming the record
+/// number and the file line.
+fn sd_record(raw: &RawLine, text: &str, ctx: &Job) -> Record {
+    let sd = SdRecord::new(text, raw.record, raw.line);
+    let fields = sd.fields();
+    let id = match &ctx.id_field {
+        Some(name) => fields
+            .iter()
+            .find(|(n, _)| n == name)
+            .map(|(_, v)| v.trim().to_string()),
+        None => Some(sd.title().to_string()),
+    }
+    .filter(|s| !s.is_empty());
+    let mut rec = analyze_molfile(
+        sd.molfile(),
+        raw.line.saturating_sub(1),
+        raw.line,
+        id,
+        &ctx.opts,
+    );
+    if let Some(e) = rec.error.as_mut() {
+        e.message = format!("SD record {}, {}", raw.record, e.message);
+    }
+    rec.columns = Some(Pairs(
+        fields
+            .into_iter()
+            .filter(|(n, _)| Some(n) != ctx.id_field.as_ref())
+            .collect(),
+    ));
+    rec
 }

@@ -150,6 +150,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 "hazards": b.hazards.iter().map(|h| h.name()).collect::<Vec<_>>(),
                 "notes": b.notes,
                 "caution": acidsite::advice::caution_for(b, None).map(|c| c.text),
+                "cautions": cautions_json(b),
             });
             writeln!(out, "{rec}")?;
         }
@@ -256,6 +257,25 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     )?;
     out.flush()?;
     Ok(Outcome::AllFine)
+}
+
+/// The full wording of a base's cautions (brief records name them by id):
+/// `full`, `short` (one line), `in_dmf_dmso_dmac` where the solvent adds a
+/// hazard, and `general`, the caution covering every reagent named in the
+/// advice (id `general` in brief records).
+fn cautions_json(b: &Base) -> serde_json::Value {
+    use acidsite::advice::{caution_for, general_caution, short_caution_for};
+    let full = caution_for(b, None).map(|c| c.text);
+    let dipolar = caution_for(b, Some("DMF")).map(|c| c.text);
+    let mut v = json!({
+        "full": full,
+        "short": short_caution_for(b).map(|c| c.text),
+        "general": general_caution().text,
+    });
+    if dipolar != full {
+        v["in_dmf_dmso_dmac"] = json!(dipolar);
+    }
+    v
 }
 
 /// Left-aligned columns separated by two spaces.

@@ -12,8 +12,16 @@ use std::path::{Path, PathBuf};
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// The molecule (quote it in the shell).
-    #[arg(value_name = "SMILES")]
-    pub smiles: String,
+    #[arg(
+        value_name = "SMILES",
+        required_unless_present = "mol",
+        conflicts_with = "mol"
+    )]
+    pub smiles: Option<String>,
+    /// Read the molecule from a molfile or SD file (its first record) instead;
+    /// atom indices are the molfile's atom order, 0-based.
+    #[arg(long, value_name = "FILE")]
+    pub mol: Option<PathBuf>,
     /// Write the SVG to this file instead of stdout.
     #[arg(short, long, value_name = "FILE")]
     pub output: Option<PathBuf>,
@@ -48,11 +56,29 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         scale: args.scale.into(),
         flags: Vec::new(),
         sites_only: false,
+        detail: acidsite::report::Detail::Full,
         reaction: args.reaction,
         control: args.control,
     };
-    let rec = analyze(args.smiles.trim(), 1, None, &opts);
-    let Some(svg) = drawing(&rec, args.bond_px) else {
+    let (rec, mol) = match &args.mol {
+        Some(path) => {
+            let text = super::sdf_input::read_mol_file(path)?;
+            let mut all = super::sdf_input::analyze_mol_text(&text, &opts);
+            if all.is_empty() {
+                anyhow::bail!("{}: no molfile in this file", path.display());
+            }
+            all.swap_remove(0)
+        }
+        None => (
+            analyze(args.smiles.as_deref().unwrap_or("").trim(), 1, None, &opts),
+            None,
+        ),
+    };
+    let svg = match &mol {
+        Some(m) => drawing_of(&rec, m, args.bond_px),
+        None => drawing(&rec, args.bond_px),
+    };
+    let Some(svg) = svg else {
         let e = rec.error.as_ref();
         let _ = writeln!(
             std::io::stderr(),
@@ -76,6 +102,15 @@ pub fn drawing(rec: &Record, bond_px: f64) -> Option<String> {
         return None;
     }
     let mol = Molecule::from_smiles(&rec.input).ok()?;
+    drawing_of(rec, &mol, bond_px)
+}
+
+/// The drawing of an analysed record whose molecule is at hand (a molfile's,
+/// whose atom order differs from its SMILES text).
+pub fn drawing_of(rec: &Record, mol: &Molecule, bond_px: f64) -> Option<String> {
+    if !rec.ok {
+        return None;
+    }
     let opts = SvgOptions {
         bond_px,
         font_px: bond_px * 0.39,
@@ -84,8 +119,8 @@ pub fn drawing(rec: &Record, bond_px: f64) -> Option<String> {
     // The library is tested never to panic; should it, the record keeps its
     // text output and only the drawing is missing.
     std::panic::catch_unwind(std::panic::AssertUnwindSafe(|| {
-        let lay = depict::layout(&mol);
-        depict::svg(&mol, &lay, &Marks::from_record(rec), &opts)
+        let lay = depict::layout(mol);
+        depict::svg(mol, &lay, &Marks::from_record(rec), &opts)
     }))
     .ok()
 }

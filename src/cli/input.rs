@@ -22,6 +22,8 @@ pub enum InputFormat {
     Csv,
     /// Tab-separated with a header line.
     Tsv,
+    /// SD file (molfiles separated by `$$$$`, with data items).
+    Sdf,
 }
 
 impl InputFormat {
@@ -32,7 +34,9 @@ impl InputFormat {
             .map(|n| n.to_string_lossy().to_ascii_lowercase())
             .unwrap_or_default();
         let name = name.strip_suffix(".gz").unwrap_or(&name);
-        if name.ends_with(".csv") {
+        if name.ends_with(".sdf") || name.ends_with(".sd") || name.ends_with(".mol") {
+            InputFormat::Sdf
+        } else if name.ends_with(".csv") {
             InputFormat::Csv
         } else if name.ends_with(".tsv") || name.ends_with(".tab") {
             InputFormat::Tsv
@@ -52,6 +56,9 @@ pub struct RawLine {
     pub bytes: Vec<u8>,
     /// The line was longer than [`MAX_LINE_BYTES`] and was cut.
     pub truncated: bool,
+    /// SD input: 1-based record number (`bytes` then holds the whole
+    /// record and `line` its first line); 0 for line input.
+    pub record: u64,
 }
 
 /// Counts bytes read from the underlying source (for the progress bar).
@@ -173,6 +180,37 @@ impl LineSource {
         }
     }
 
+    /// The first bytes of the (decompressed) input, without consuming them
+    /// (format sniffing).
+    pub fn peek(&mut self) -> io::Result<&[u8]> {
+        self.reader.fill_buf()
+    }
+
+    /// The next physical line (blank lines included), without its line
+    /// ending; None at the end of input. Returns (1-based line, bytes, cut).
+    pub fn next_physical_line(&mut self) -> io::Result<Option<(u64, Vec<u8>, bool)>> {
+        if self.done {
+            return Ok(None);
+        }
+        let mut buf = Vec::new();
+        let (read_any, truncated) = read_line_capped(&mut self.reader, &mut buf)?;
+        if !read_any {
+            self.done = true;
+            return Ok(None);
+        }
+        self.line_no += 1;
+        if buf.last() == Some(&b'\n') {
+            buf.pop();
+        }
+        if buf.last() == Some(&b'\r') {
+            buf.pop();
+        }
+        if self.line_no == 1 && buf.starts_with(&[0xEF, 0xBB, 0xBF]) {
+            buf.drain(..3);
+        }
+        Ok(Some((self.line_no, buf, truncated)))
+    }
+
     /// The next line that holds a record, skipping blank and `#` lines.
     pub fn next_record_line(&mut self) -> io::Result<Option<RawLine>> {
         loop {
@@ -227,6 +265,7 @@ impl LineSource {
                 line: start_line,
                 bytes: buf,
                 truncated,
+                record: 0,
             }));
         }
     }

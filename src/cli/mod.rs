@@ -9,6 +9,7 @@ pub mod input;
 pub mod output;
 pub mod rules;
 pub mod scan;
+pub mod sdf_input;
 pub mod serve;
 
 use acidsite::report::{Flag, Scale};

@@ -8,8 +8,12 @@ use std::io::Write;
 #[derive(clap::Args, Debug)]
 pub struct Args {
     /// One or more SMILES (quote them in the shell).
-    #[arg(required = true, value_name = "SMILES")]
+    #[arg(required_unless_present = "mol", value_name = "SMILES")]
     pub smiles: Vec<String>,
+    /// Also read the molecules of a molfile or SD file (every record; atom
+    /// indices are the molfile's atom order, 0-based).
+    #[arg(long, value_name = "FILE")]
+    pub mol: Option<std::path::PathBuf>,
     /// Print one JSON record per SMILES (the `annotate` schema) instead of the report.
     #[arg(long)]
     pub json: bool,
@@ -49,6 +53,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         scale: args.scale.into(),
         flags: args.flags.clone(),
         sites_only: false,
+        detail: acidsite::report::Detail::Full,
         reaction: args.reaction,
         control: args.control,
     };
@@ -71,14 +76,46 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             }
         }
     }
-    for (i, smiles) in args.smiles.iter().enumerate() {
-        let rec = analyze(smiles.trim(), i as u64 + 1, None, &opts);
+    let mut all: Vec<(acidsite::report::Record, Option<acidsite::mol::Molecule>)> = args
+        .smiles
+        .iter()
+        .enumerate()
+        .map(|(i, s)| (analyze(s.trim(), i as u64 + 1, None, &opts), None))
+        .collect();
+    if let Some(path) = &args.mol {
+        let text = super::sdf_input::read_mol_file(path)?;
+        let recs = super::sdf_input::analyze_mol_text(&text, &opts);
+        if recs.is_empty() {
+            anyhow::bail!("{}: no molfile in this file", path.display());
+        }
+        if let Some(n) = args.site {
+            for (_, m) in &recs {
+                if let Some(m) = m {
+                    if n >= m.atoms.len() {
+                        anyhow::bail!(
+                            "--site {n}: {} has {} atoms (indices 0 to {}, in molfile order)",
+                            path.display(),
+                            m.atoms.len(),
+                            m.atoms.len().saturating_sub(1)
+                        );
+                    }
+                }
+            }
+        }
+        all.extend(recs);
+    }
+    let many = all.len() > 1;
+    for (i, (rec, mol)) in all.iter().enumerate() {
         if !rec.ok {
             failed += 1;
         }
         if let Some(path) = &args.svg {
-            if let Some(svg) = super::draw::drawing(&rec, 36.0) {
-                let path = if args.smiles.len() > 1 {
+            let svg = match mol {
+                Some(m) => super::draw::drawing_of(rec, m, 36.0),
+                None => super::draw::drawing(rec, 36.0),
+            };
+            if let Some(svg) = svg {
+                let path = if many {
                     numbered(path, i + 1)
                 } else {
                     path.clone()
@@ -92,7 +129,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             if i > 0 {
                 writeln!(out)?;
             }
-            write!(out, "{}", table::render(&rec, opts.scale))?;
+            write!(out, "{}", table::render(rec, opts.scale))?;
         }
     }
     out.flush()?;

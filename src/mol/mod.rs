@@ -123,8 +123,11 @@ mod aromatic;
 mod elements;
 mod error;
 mod kekule;
+pub mod molfile;
 mod read;
 mod rings;
+pub mod sdf;
+mod smiles_out;
 mod symmetry;
 mod valence_table;
 

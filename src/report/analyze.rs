@@ -1,6 +1,7 @@
 //! One SMILES in, one [`Record`] out: molecule → sites → advice, with the
 //! options of `scan` and `annotate`. No I/O.
 
+use super::brief::Detail;
 use super::mapped::{atom_mapped_smiles, Label};
 use super::record::{
     round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
@@ -99,6 +100,10 @@ pub struct Options {
     pub flags: Vec<Flag>,
     /// Sites only: skip the base advice (`advice` is null, with a note).
     pub sites_only: bool,
+    /// Full or brief records. Brief analysis words no alternatives and
+    /// builds neither the atom-mapped SMILES nor the component texts, which
+    /// the brief form does not carry.
+    pub detail: Detail,
     /// The planned reaction (None: alkylation).
     pub reaction: Option<Reaction>,
     /// The enolate wanted where a ketone has two sides.
@@ -150,11 +155,57 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
             )
         }
     };
+    analyze_molecule(smiles, &mol, line, id, opts)
+}
+
+/// Analyse one molfile (V2000 or V3000; see [`crate::mol::molfile`]). The
+/// record's `input` is a SMILES of the molecule written by the reader (atom
+/// indices stay in molfile order); a molfile that cannot be read gives a
+/// failure record whose message names the line (`line_offset` is added to
+/// the molfile's own line numbers, for a molfile inside a larger file).
+/// Never panics.
+pub fn analyze_molfile(
+    molfile: &str,
+    line_offset: u64,
+    line: u64,
+    id: Option<String>,
+    opts: &Options,
+) -> Record {
+    match crate::mol::molfile::read(molfile) {
+        Ok(r) => analyze_molecule(&r.smiles, &r.molecule, line, id, opts),
+        Err(e) => {
+            let e = e.shifted(line_offset as usize);
+            Record::failure(
+                line,
+                id,
+                String::new(),
+                ErrorOut {
+                    kind: e.kind.name().to_string(),
+                    message: e.to_string(),
+                    position: None,
+                },
+            )
+        }
+    }
+}
+
+/// Analyse a molecule already read. `input` is the SMILES text its atom
+/// spans point into (the input SMILES, or the SMILES a molfile reader
+/// wrote); it is stamped into the record and used for the atom-mapped
+/// SMILES and the component texts.
+pub fn analyze_molecule(
+    input: &str,
+    mol: &Molecule,
+    line: u64,
+    id: Option<String>,
+    opts: &Options,
+) -> Record {
+    let smiles = input;
     // One pattern-matching view of the molecule serves the sites and the
     // advice's functional groups.
-    let target = Target::new(&mol);
+    let target = Target::new(mol);
     let report = sites::find_sites_in(
-        &mol,
+        mol,
         &target,
         &sites::Options {
             scale: match opts.scale {
@@ -166,12 +217,17 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
     let (advice, advice_note) = if opts.sites_only {
         (None, Some("not requested (sites only)".to_string()))
     } else {
-        advice_record(&mol, &target, &report, opts)
+        advice_record(mol, &target, &report, opts)
     };
     // The report is not needed after the advice: its strings move into the
     // record.
     let sites_out = site_records(report);
-    let mapped = mapped_smiles(smiles, &mol, &sites_out);
+    let brief = opts.detail == Detail::Brief;
+    let mapped = if brief {
+        None
+    } else {
+        mapped_smiles(smiles, mol, &sites_out)
+    };
     // User patterns are counted with bounds (issue 17): a pattern such as a
     // 20-atom chain on a large cage has astronomically many matches.
     let mut flag_warnings: Vec<String> = Vec::new();
@@ -201,7 +257,11 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
                 .collect(),
         ))
     };
-    let (formula, components) = molecule_facts(smiles, &mol);
+    let (formula, components) = if brief {
+        (mol.formula(), Vec::new())
+    } else {
+        molecule_facts(smiles, mol)
+    };
     Record {
         schema: SCHEMA,
         line,
@@ -210,7 +270,7 @@ pub fn analyze(smiles: &str, line: u64, id: Option<String>, opts: &Options) -> R
         ok: true,
         columns: None,
         formula: Some(formula),
-        components: Some(components),
+        components: (!brief).then_some(components),
         rule_set: Some(sites::rule_set_version()),
         sites: Some(sites_out),
         advice: Some(advice),
@@ -373,7 +433,11 @@ fn advice_record(
         site: opts.site,
         reaction: opts.reaction,
         control: opts.control,
-        alternatives: Some(MAX_ALTERNATIVES),
+        alternatives: Some(if opts.detail == Detail::Brief {
+            0
+        } else {
+            MAX_ALTERNATIVES
+        }),
         // Records report the conversion, not the full composition.
         full_equilibrium: false,
         ..AdviceOptions::default()

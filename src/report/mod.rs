@@ -4,11 +4,13 @@
 //! and returns its [`Record`]. No I/O.
 
 pub mod analyze;
+pub mod brief;
 pub mod delimited;
 mod json;
 pub mod mapped;
 pub mod record;
 pub mod table;
 
-pub use analyze::{analyze, Flag, FlagError, Options, Scale};
+pub use analyze::{analyze, analyze_molecule, analyze_molfile, Flag, FlagError, Options, Scale};
+pub use brief::{Detail, BRIEF_SCHEMA};
 pub use record::{Record, SCHEMA};

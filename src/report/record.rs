@@ -19,11 +19,11 @@
 //! | key | type | meaning |
 //! |---|---|---|
 //! | `schema` | string | schema version, currently `"acidsite-record/3"` |
-//! | `line` | integer | 1-based line number of the record in its input (for `scan`, the 1-based position of the argument) |
-//! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file) |
-//! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD) |
+//! | `line` | integer | 1-based line number of the record in its input (for an SD record its first line; for `scan`, the 1-based position of the argument) |
+//! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file, the title line or `--id-field` item of an SD record) |
+//! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD); for a molfile, a SMILES of the molecule written by the reader (atom indices stay the molfile's) |
 //! | `ok` | bool | true when the SMILES was read and analysed |
-//! | `columns` | object | only for CSV/TSV input: the other columns of the row, carried through by header name |
+//! | `columns` | object | only for CSV/TSV input: the other columns of the row, carried through by header name; for SD input, the record's data items |
 //!
 //! On success (`ok: true`):
 //!
@@ -41,7 +41,8 @@
 //!
 //! On failure (`ok: false`): `error` with `kind` (`syntax`, `ring_closure`,
 //! `aromaticity`, `valence`, `unsupported`, `too_large`, `empty`, `encoding`,
-//! `columns`), `message`, and `position` (0-based character index in
+//! `columns`, `molfile` for a connection table that cannot be read, with the
+//! file line in the message), `message`, and `position` (0-based character index in
 //! `input`, or null).
 //!
 //! Numbers: pKa values and uncertainties are rounded to 0.01, conversion (a

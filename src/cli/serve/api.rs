@@ -325,6 +325,7 @@ fn scan_options(req: &ScanRequest) -> Result<Options, ApiError> {
         scale,
         flags: Vec::new(),
         sites_only: false,
+        detail: acidsite::report::Detail::Full,
         reaction,
         control,
     })
@@ -566,6 +567,7 @@ async fn annotate(
                     smiles: q.column.as_deref(),
                     id: q.id_column.as_deref(),
                     reaction: q.reaction_column.as_deref(),
+                    id_field: None,
                 },
                 opts,
                 Output {
@@ -604,7 +606,7 @@ async fn annotate(
         }
         let (mut records, mut failed) = (0u64, 0u64);
         loop {
-            let chunk = match source.next_chunk(PIECE, 1 << 20) {
+            let chunk = match job.read_chunk(&mut source, PIECE, 1 << 20) {
                 Ok(c) => c,
                 Err(e) => {
                     let _ = tx.blocking_send(Err(e));
