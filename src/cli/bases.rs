@@ -4,7 +4,6 @@
 use super::Outcome;
 use acidsite::advice::{catalogue, Base, Scale};
 use anyhow::anyhow;
-use serde_json::json;
 use std::collections::BTreeSet;
 use std::io::Write;
 
@@ -58,17 +57,7 @@ fn show_system(
 ) -> anyhow::Result<()> {
     let caution = acidsite::advice::caution_for_reagent(&sy.name, &sy.hazards, &[]);
     if json_out {
-        let rec = json!({
-            "system": sy.name,
-            "base": sy.base,
-            "solvent": sy.solvent,
-            "temperature_range_c": [sy.temp_min_c, sy.temp_max_c],
-            "hazards": sy.hazards.iter().map(|h| h.name()).collect::<Vec<_>>(),
-            "procedure": sy.procedure,
-            "source": sy.source,
-            "caution": caution.map(|c| c.text),
-        });
-        writeln!(out, "{rec}")?;
+        writeln!(out, "{}", acidsite::report::listings::system_json(sy))?;
     } else {
         writeln!(out, "reagent system {}", sy.name)?;
         writeln!(
@@ -127,31 +116,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     };
     if args.json {
         for b in &bases {
-            let cited = |s: Scale| {
-                b.pka(s)
-                    .map(|v| json!({"value": v, "source": b.pka_source(s)}))
-                    .unwrap_or(serde_json::Value::Null)
-            };
-            let rec = json!({
-                "catalogue": cat.version,
-                "name": b.name,
-                "full_name": b.full_name,
-                "family": b.family.name(),
-                "conjugate_acid": b.conjugate_acid,
-                "pka_dmso": cited(Scale::Dmso),
-                "pka_water": cited(Scale::Water),
-                "pka_thf": cited(Scale::Thf),
-                "counter_ion": b.counter_ion,
-                "nucleophilic": b.nucleophilic.name(),
-                "hindered": b.hindered,
-                "solvents": b.solvents,
-                "temperature_range_c": [b.temp_min_c, b.temp_max_c],
-                "solvent_is_conjugate_acid": b.acid_solvent.as_ref().map(|p| &p.name),
-                "hazards": b.hazards.iter().map(|h| h.name()).collect::<Vec<_>>(),
-                "notes": b.notes,
-                "caution": acidsite::advice::caution_for(b, None).map(|c| c.text),
-                "cautions": cautions_json(b),
-            });
+            let rec = acidsite::report::listings::base_json(cat, b);
             writeln!(out, "{rec}")?;
         }
         out.flush()?;
@@ -257,25 +222,6 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     )?;
     out.flush()?;
     Ok(Outcome::AllFine)
-}
-
-/// The full wording of a base's cautions (brief records name them by id):
-/// `full`, `short` (one line), `in_dmf_dmso_dmac` where the solvent adds a
-/// hazard, and `general`, the caution covering every reagent named in the
-/// advice (id `general` in brief records).
-fn cautions_json(b: &Base) -> serde_json::Value {
-    use acidsite::advice::{caution_for, general_caution, short_caution_for};
-    let full = caution_for(b, None).map(|c| c.text);
-    let dipolar = caution_for(b, Some("DMF")).map(|c| c.text);
-    let mut v = json!({
-        "full": full,
-        "short": short_caution_for(b).map(|c| c.text),
-        "general": general_caution().text,
-    });
-    if dipolar != full {
-        v["in_dmf_dmso_dmac"] = json!(dipolar);
-    }
-    v
 }
 
 /// Left-aligned columns separated by two spaces.

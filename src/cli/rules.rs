@@ -5,7 +5,6 @@ use super::bases::write_table;
 use super::Outcome;
 use acidsite::sites::rule_set;
 use anyhow::anyhow;
-use serde_json::json;
 use std::collections::BTreeSet;
 use std::io::Write;
 
@@ -49,21 +48,14 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     let mut out = std::io::BufWriter::new(std::io::stdout().lock());
     if args.json {
         for r in &rules {
-            let rec = json!({
-                "rule_set": set.version, "kind": "rule", "id": r.id, "element": r.element,
-                "class": r.class, "smarts": r.smarts, "family": r.family,
-                "pka_dmso": r.pka_dmso, "pka_water": r.pka_water, "uncertainty": r.uncertainty,
-                "source": r.source, "note": r.note,
-            });
-            writeln!(out, "{rec}")?;
+            writeln!(out, "{}", acidsite::report::listings::rule_json(set, r))?;
         }
         for i in &incs {
-            let rec = json!({
-                "rule_set": set.version, "kind": "increment", "id": i.id, "substituent": i.kind,
-                "families": i.families, "nth": i.nth, "dmso": i.dmso, "water": i.water,
-                "uncertainty": i.uncertainty, "source": i.source, "note": i.note,
-            });
-            writeln!(out, "{rec}")?;
+            writeln!(
+                out,
+                "{}",
+                acidsite::report::listings::increment_json(set, i)
+            )?;
         }
         out.flush()?;
         return Ok(Outcome::AllFine);

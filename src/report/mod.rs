@@ -7,6 +7,7 @@ pub mod analyze;
 pub mod brief;
 pub mod delimited;
 mod json;
+pub mod listings;
 pub mod mapped;
 pub mod record;
 pub mod table;
