@@ -84,6 +84,11 @@ proptest! {
         let par = annotate(&input, &["--threads", "2", "--chunk", &chunk_s]);
         prop_assert_eq!(seq.0, par.0);
         prop_assert!(seq.1 == par.1, "outputs differ");
-        prop_assert!(seq.0 == Some(0) || seq.0 == Some(1));
+        // Exit 2 only when the input is mostly junk bytes and refused as
+        // binary before any record is written.
+        prop_assert!(
+            seq.0 == Some(0) || seq.0 == Some(1) || (seq.0 == Some(2) && seq.1.is_empty()),
+            "exit {:?}", seq.0
+        );
     }
 }

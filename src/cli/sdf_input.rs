@@ -75,9 +75,11 @@ fn binary_kind(head: &[u8]) -> Option<&'static str> {
         return Some(k);
     }
     // Text lists may hold the odd NUL or stray byte (each becomes an error
-    // record); binary data is mostly such bytes.
+    // record); binary data is mostly such bytes. Below 256 bytes a share
+    // says little (one stray line would be most of it): a short input must
+    // also hold a NUL byte, else each bad line becomes its own error record.
     let sample = &head[..head.len().min(8192)];
-    if sample.is_empty() {
+    if sample.is_empty() || (sample.len() < 256 && !sample.contains(&0)) {
         return None;
     }
     let control = sample
@@ -265,7 +267,14 @@ mod tests {
         assert!(choose_format(None, p("a.json").as_deref(), b"{}")
             .unwrap_err()
             .contains(".json"));
+        assert!(choose_format(None, None, &[0u8, 1, 2, 0x80].repeat(100)).is_err());
         assert!(choose_format(None, None, b"\x00\x01\x02").is_err());
+        // A short input with a stray byte (no NUL) is text: its bad line becomes an
+        // error record (regression: a lone 0x80 line was refused as binary).
+        assert_eq!(
+            choose_format(None, None, b"\x80\n").unwrap(),
+            InputFormat::Smi
+        );
         assert_eq!(
             choose_format(Some(InputFormat::Smi), p("a.json").as_deref(), b"CCO").unwrap(),
             InputFormat::Smi
