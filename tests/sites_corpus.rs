@@ -483,9 +483,14 @@ fn find_sites_given_water_carbon_acids_finds_every_site() {
         rows.len()
     );
     assert!(m <= 1.5, "water MAE {m:.2} > 1.5");
-    // The holdout of this subset holds many gem-dinitroalkanes that the
-    // rules describe only roughly; the limit is the honest figure, not 1.0.
-    assert!(mh <= 1.5, "water holdout MAE {mh:.2} > 1.5 (n={nh})");
+    // Issue 11: holdout MAE per scale at most 1.0 (measured 0.78, n=20,
+    // rule set 2026.12-2; the subset is rich in gem-dinitroalkanes that the
+    // rules describe only roughly).
+    assert!(nh >= 15, "only {nh} holdout comparisons");
+    assert!(
+        mh <= HOLDOUT_LIMIT_WATER,
+        "water holdout MAE {mh:.2} > {HOLDOUT_LIMIT_WATER} (n={nh})"
+    );
     let bad = row_limit_failures(&o);
     assert!(bad.is_empty(), "rows past {ROW_LIMIT} units: {bad:#?}");
 }
