@@ -131,6 +131,21 @@ def classify(mol, site, groups):
     return "+".join(names) if names else "other"
 
 
+def literature_splits():
+    """Canonical SMILES -> split of corpus/sites/literature.tsv (rows with a water value; holdout wins)."""
+    path = os.path.join(L.ROOT, "corpus", "sites", "literature.tsv")
+    with open(path) as f:
+        lines = [line.rstrip("\n").split("\t") for line in f if line.strip() and not line.startswith("#")]
+    cols = lines[0]
+    out = {}
+    for cells in lines[1:]:
+        row = dict(zip(cols, cells))
+        canon = L.canon(row["smiles"])
+        if out.get(canon) != "holdout":
+            out[canon] = row["split"]
+    return out
+
+
 def main():
     by_smiles = {}
     with open(L.CARBON, newline="") as f:
@@ -198,12 +213,18 @@ def main():
         f.write("# of Pure and Applied Chemistry. See ATTRIBUTION.md. One row per structure: median of the pure-water, 20-25 C,\n")
         f.write("# Approximate/Reliable pK1 rows; at most 30 per class (gem-dinitroalkanes are capped). site_atom = ionising carbon\n")
         f.write("# (0-based, written order), found by rule and checked\n")
-        f.write("# by eye. No DMSO values. split: every fourth row (by class and value) is holdout.\n")
+        f.write("# by eye. No DMSO values. split: every fourth row (by class and value) is holdout, except that a structure\n")
+        f.write("# that is also in literature.tsv takes its split there (a parent of a rule or increment is never holdout).\n")
         cols = ["id", "smiles", "name", "site_atom", "element", "class", "pka_dmso", "dmso_source", "pka_water",
                 "water_source", "split", "note", "dataset", "record_ids", "reference"]
         f.write("\t".join(cols) + "\n")
+        lit_split = literature_splits()
         for i, c in enumerate(chosen, 1):
             split = "holdout" if i % 4 == 0 else "train"
+            canon = L.canon(c["smiles"])
+            if canon in lit_split and lit_split[canon] != split:
+                split = lit_split[canon]
+                c["note"] += f"; split {split} as in literature.tsv (issue 11)"
             f.write("\t".join([f"wca-{i:03d}", c["smiles"], c["name"], str(c["site"]), c["element"], c["class"],
                                "", "", f"{c['value']:g}", "iupac-serjeant", split, c["note"], L.SERJEANT,
                                " ".join(c["ids"]), " | ".join(c["refs"])]) + "\n")
