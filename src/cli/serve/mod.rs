@@ -104,6 +104,14 @@ async fn serve(args: Args) -> anyhow::Result<()> {
     let told = stopping.clone();
     let server = axum::serve(listener, app).with_graceful_shutdown(async move {
         stop.wait().await;
+        // Whatever still runs (a long analysis on the blocking pool, which
+        // the runtime waits for when it shuts down), the process ends soon
+        // after a stop request.
+        std::thread::spawn(|| {
+            std::thread::sleep(std::time::Duration::from_secs(15));
+            let _ = writeln!(std::io::stderr(), "acidsite serve: stopped (forced)");
+            std::process::exit(0);
+        });
         told.notify_one();
     });
     // Open connections get a few seconds to finish after a stop request;
@@ -132,10 +140,13 @@ fn bind_warning(ip: IpAddr, port: u16) -> Option<String> {
     })
 }
 
-/// Ctrl-C and (on Unix) SIGTERM, registered when created.
+/// Ctrl-C and (on Unix) SIGTERM, registered when created (before the
+/// address is printed, so a stop request right after start-up is caught).
 struct Stop {
     #[cfg(unix)]
     term: Option<tokio::signal::unix::Signal>,
+    #[cfg(unix)]
+    int: Option<tokio::signal::unix::Signal>,
 }
 
 impl Stop {
@@ -143,11 +154,25 @@ impl Stop {
         Stop {
             #[cfg(unix)]
             term: tokio::signal::unix::signal(tokio::signal::unix::SignalKind::terminate()).ok(),
+            #[cfg(unix)]
+            int: tokio::signal::unix::signal(tokio::signal::unix::SignalKind::interrupt()).ok(),
         }
     }
 
     /// Resolves at the first Ctrl-C or SIGTERM.
     async fn wait(self) {
+        #[cfg(unix)]
+        let ctrl_c = async move {
+            match self.int {
+                Some(mut s) => {
+                    s.recv().await;
+                }
+                None => {
+                    let _ = tokio::signal::ctrl_c().await;
+                }
+            }
+        };
+        #[cfg(not(unix))]
         let ctrl_c = async {
             let _ = tokio::signal::ctrl_c().await;
         };
