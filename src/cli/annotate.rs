@@ -403,6 +403,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         .with_context(|| format!("cannot read {shown}"))?;
     let format = sdf_input::choose_format(args.input_format, path.as_deref(), head)
         .map_err(|e| anyhow::anyhow!("{shown}: {e}"))?;
+    if args.input_format.is_none() && format == InputFormat::Smi {
+        if let Some(hint) = sdf_input::table_header_hint(head) {
+            eprintln!("acidsite annotate: {shown}: {hint}");
+        }
+    }
 
     let ctx = Job::new(
         &mut source,

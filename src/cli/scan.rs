@@ -42,6 +42,10 @@ pub struct Args {
     /// (with several SMILES: FILE-1.svg, FILE-2.svg, ...).
     #[arg(long, value_name = "FILE")]
     pub svg: Option<std::path::PathBuf>,
+    /// Every ruled-out base with its full reasons (by default they are grouped
+    /// by kind of reason, one line each; JSON always has every reason).
+    #[arg(long)]
+    pub all: bool,
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -129,7 +133,8 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             if i > 0 {
                 writeln!(out)?;
             }
-            write!(out, "{}", table::render(rec, opts.scale))?;
+            let text = table::TextOptions { all: args.all };
+            write!(out, "{}", table::render_with(rec, opts.scale, text))?;
         }
     }
     out.flush()?;

@@ -57,6 +57,36 @@ pub fn choose_format(
     }
 }
 
+/// A hint when input read as a SMILES list starts with what looks like the
+/// header line of a table: a comma- or tab-separated first line with a
+/// column named like a SMILES column (`smiles`, `SMILES`, `canonical_smiles`,
+/// ...). Each line would otherwise fail as a SMILES with a comma in it.
+pub fn table_header_hint(head: &[u8]) -> Option<String> {
+    let first = head.split(|&b| b == b'\n').next()?;
+    let first = String::from_utf8_lossy(first);
+    let first = first.trim_start_matches('\u{feff}').trim_end_matches('\r');
+    let (sep, layout) = if first.contains('\t') {
+        ('\t', "tsv")
+    } else if first.contains(',') {
+        (',', "csv")
+    } else {
+        return None;
+    };
+    let named = first.split(sep).any(|c| {
+        c.trim()
+            .trim_matches('"')
+            .to_ascii_lowercase()
+            .contains("smiles")
+    });
+    named.then(|| {
+        format!(
+            "the first line looks like a table header ({first:?}); read as a SMILES list, every \
+             line will fail: add --input-format {layout} (and --column NAME if the SMILES column \
+             is not named smiles)"
+        )
+    })
+}
+
 /// A short name for a binary input, or None for text.
 fn binary_kind(head: &[u8]) -> Option<&'static str> {
     let magic: &[(&[u8], &str)] = &[
@@ -243,6 +273,17 @@ pub fn analyze_mol_text(
 #[cfg(test)]
 mod tests {
     use super::*;
+
+    #[test]
+    fn table_header_hint_given_csv_header_names_input_format_issue14() {
+        let hint = table_header_hint(b"smiles,id\nCCO,a\n").unwrap();
+        assert!(hint.contains("--input-format csv"), "{hint}");
+        assert!(table_header_hint(b"id\tSMILES\nCCO\n")
+            .unwrap()
+            .contains("--input-format tsv"));
+        assert!(table_header_hint(b"CCO ethanol\nCC(=O)C\n").is_none());
+        assert!(table_header_hint(b"name,value\n").is_none());
+    }
 
     #[test]
     fn choose_format_given_names_and_content() {

@@ -7,8 +7,41 @@ use super::record::{CautionOut, Record};
 use crate::advice::DEFERRAL;
 use std::fmt::Write;
 
-/// Render one record as the scan report.
+/// How much of the advice the report shows.
+#[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
+pub struct TextOptions {
+    /// Every ruled-out base with its full reasons (`scan --all`). By
+    /// default the ruled-out bases are grouped by kind of reason, one line
+    /// each, so the common report fits one screen; the full reasons are in
+    /// `--all` and in the JSON record.
+    pub all: bool,
+}
+
+/// A short label for a kind of rejection (the record's `kind` names).
+fn reject_label(kind: &str) -> &str {
+    match kind {
+        "too-weak" => "too weak at equilibrium",
+        "nucleophile" => "attack a group of the substrate",
+        "transesterification" => "exchange the ester group",
+        "hydrolysis" => "hydrolyse the ester or acyl group",
+        "uncounted-proton" => "consumed by a more acidic hydrogen",
+        "no-comparable-pka" => "no pKa on a comparable scale",
+        "not-catalytic" => "consumed, not catalytic",
+        "regio" => "give the other enolate",
+        "side-reaction" => "known side reaction",
+        "mode" => "not how this reaction is run",
+        other => other,
+    }
+}
+
+/// Render one record as the scan report (short form of the ruled-out
+/// bases; see [`render_with`]).
 pub fn render(rec: &Record, scale: Scale) -> String {
+    render_with(rec, scale, TextOptions::default())
+}
+
+/// Render one record as the scan report.
+pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
     let mut o = String::new();
     let title = match &rec.id {
         Some(id) => format!("{id}  {}", rec.input),
@@ -271,7 +304,28 @@ pub fn render(rec: &Record, scale: Scale) -> String {
                     );
                 }
             }
-            if !a.rejected.is_empty() {
+            if !a.rejected.is_empty() && !text.all {
+                let _ = writeln!(
+                    o,
+                    "   ruled out (by kind of reason; --all gives each reason)"
+                );
+                let mut groups: Vec<(&str, Vec<&str>)> = Vec::new();
+                for r in &a.rejected {
+                    match groups.iter_mut().find(|g| g.0 == r.kind) {
+                        Some(g) => g.1.push(r.base),
+                        None => groups.push((r.kind, vec![r.base])),
+                    }
+                }
+                for (kind, bases) in groups {
+                    wrap(
+                        &mut o,
+                        &format!("{}: {}", reject_label(kind), bases.join(", ")),
+                        "     - ",
+                        "       ",
+                    );
+                }
+            }
+            if !a.rejected.is_empty() && text.all {
                 let _ = writeln!(o, "   ruled out");
                 // Bases ruled out for the same reason share one line.
                 let mut groups: Vec<(Vec<&str>, &str)> = Vec::new();
