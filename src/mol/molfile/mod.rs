@@ -342,6 +342,8 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
                 hcount,
                 map: None,
                 bracket: hcount.is_some(),
+                chiral: 0,
+                t: 0,
             }
         })
         .collect();
@@ -355,9 +357,13 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
                 b: b as u32,
                 order,
                 join: None,
+                dir: 0,
+                ka: 0,
+                kb: 0,
             })
             .collect(),
         spans: (0..n).map(|i| i..i + 1).collect(),
+        stereo: false,
     };
     let lines: Vec<usize> = table.atoms.iter().map(|a| a.line).collect();
     // Atom index after folding hydrogens, for error messages.
@@ -410,6 +416,9 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             b: order[b.b as usize] as u32,
             order: b.order,
             join: b.join,
+            dir: 0,
+            ka: 0,
+            kb: 0,
         })
         .collect();
     let mut mol = super::build(
@@ -418,6 +427,7 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             atoms,
             bonds,
             spans,
+            stereo: false,
         },
     )
     .ok()?;
