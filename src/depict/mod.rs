@@ -45,10 +45,12 @@ mod geom;
 mod labels;
 mod quality;
 mod rings;
+mod stereo;
 mod svg;
 
 pub use geom::{segments_cross, Point};
 pub use quality::{assess, Quality};
+pub use stereo::{wedges, Wedge};
 pub use svg::{svg, Marks, SiteMark, SvgOptions};
 
 use crate::mol::Molecule;
@@ -98,7 +100,9 @@ pub fn layout(mol: &Molecule) -> Layout {
     for atoms in comps.iter().filter(|c| !c.is_empty()) {
         placer.place_component(atoms);
         let mut pts = placer.pos.clone();
+        stereo::fix_double_bonds(mol, atoms, &mut pts);
         cleanup::clean(mol, atoms, &mut pts);
+        stereo::fix_double_bonds(mol, atoms, &mut pts);
         orient(atoms, &mut pts);
         // Place right of the previous component, centred on y = 0.
         let (mut lo, mut hi) = (
