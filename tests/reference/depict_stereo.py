@@ -19,9 +19,16 @@
    corpus/stereo/rdkit_summary.txt, whose figures tests/depict_stereo.rs
    checks against its threshold.
 
+3. `molfiles` writes the first 100 sample molecules as molfiles drawn and
+   wedged by RDKit (rdDepictor.Compute2DCoords, MolToMolBlock's wedging;
+   80 as V2000, 20 as V3000; the title line is the SMILES) into
+   corpus/stereo/rdkit_molfiles.sdf, for tests/mol_stereo.rs to check that
+   acidsite reads the same stereo from them as from the SMILES.
+
 Run (from the repository root, after `cargo build --release`):
   /work/venv/bin/python tests/reference/depict_stereo.py sample ../shared/data
   /work/venv/bin/python tests/reference/depict_stereo.py check
+  /work/venv/bin/python tests/reference/depict_stereo.py molfiles
 """
 import csv
 import random
@@ -184,11 +191,31 @@ def check():
     print(f"agree {agree} of {compared} ({share:.2f} %), {apart} apart")
 
 
+def molfiles():
+    from rdkit.Chem import rdDepictor
+
+    rows = [
+        l.strip()
+        for l in open(OUT / "sample.tsv")
+        if l.strip() and not l.startswith("#") and l.strip() != "smiles"
+    ][:100]
+    with open(OUT / "rdkit_molfiles.sdf", "w") as f:
+        for k, s in enumerate(rows):
+            m = Chem.MolFromSmiles(s)
+            rdDepictor.Compute2DCoords(m)
+            m.SetProp("_Name", s)
+            f.write(Chem.MolToMolBlock(m, forceV3000=k >= 80))
+            f.write("$$$$\n")
+    print(f"{len(rows)} molfiles written (RDKit {rdBase.rdkitVersion})")
+
+
 if __name__ == "__main__":
     if sys.argv[1:2] == ["sample"]:
         sample(sys.argv[2] if len(sys.argv) > 2 else "../shared/data")
     elif sys.argv[1:2] == ["check"]:
         check()
+    elif sys.argv[1:2] == ["molfiles"]:
+        molfiles()
     else:
         print(__doc__)
         sys.exit(2)
