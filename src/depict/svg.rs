@@ -340,7 +340,14 @@ fn wedge_path(
     }
     let u = (pf - pc) * (1.0 / len);
     let a = pc + u * rc;
-    let e = pf - u * rf;
+    // The wide end stops a little further from a label, so stripes and
+    // text do not touch.
+    let gap = if labels[w.far].is_some() {
+        bond * 0.08
+    } else {
+        0.0
+    };
+    let e = pf - u * (rf + gap);
     let nrm = u.perp();
     let half = bond * 0.1;
     if !w.hash {
