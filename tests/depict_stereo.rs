@@ -169,6 +169,8 @@ fn svg_given_stereo_sample_draws_input_configurations_issue12() {
     assert!(pct(c_ok, c_all) >= 99.5, "centres {c_ok}/{c_all}");
     assert!(pct(d_ok, d_all) >= 97.0, "double bonds {d_ok}/{d_all}");
     assert!(pct(mol_ok, rows.len()) >= 98.0, "molecules {mol_ok}");
+    // Never two wedges with their wide ends on the same atom (issue 12).
+    assert_eq!(shared, 0, "wedges sharing a wide end");
 }
 
 #[test]

@@ -142,7 +142,7 @@ pub fn wedges(mol: &Molecule, layout: &Layout) -> Vec<Wedge> {
                 continue;
             }
             let key = (
-                u8::from(!out.iter().any(|w| w.far == nb.atom || w.centre == nb.atom)),
+                u8::from(!out.iter().any(|w| w.far == nb.atom)),
                 u8::from(!mol.bond_in_ring(nb.bond)),
                 u8::from(!is_centre(nb.atom)),
                 u8::from(mol.degree(nb.atom) == 1),
