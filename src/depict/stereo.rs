@@ -48,9 +48,12 @@ pub(crate) fn double_bond_shown(mol: &Molecule, pos: &[Point], k: usize) -> Opti
 }
 
 /// Atoms on `far`'s side of bond `bond` (empty when the bond is in a ring).
+/// Linear in the size of the molecule.
 fn side(mol: &Molecule, bond: usize, far: usize) -> Vec<usize> {
     let near = mol.bonds[bond].other(far);
-    let mut seen = vec![far];
+    let mut seen = vec![false; mol.atom_count()];
+    seen[far] = true;
+    let mut out = vec![far];
     let mut stack = vec![far];
     while let Some(u) = stack.pop() {
         for nb in mol.neighbors(u) {
@@ -60,13 +63,14 @@ fn side(mol: &Molecule, bond: usize, far: usize) -> Vec<usize> {
             if nb.atom == near {
                 return Vec::new();
             }
-            if !seen.contains(&nb.atom) {
-                seen.push(nb.atom);
+            if !seen[nb.atom] {
+                seen[nb.atom] = true;
+                out.push(nb.atom);
                 stack.push(nb.atom);
             }
         }
     }
-    seen
+    out
 }
 
 /// Mirror the smaller side of every stereo double bond of `atoms` that is
@@ -74,7 +78,10 @@ fn side(mol: &Molecule, bond: usize, far: usize) -> Vec<usize> {
 pub(crate) fn fix_double_bonds(mol: &Molecule, atoms: &[usize], pos: &mut [Point]) {
     for st in mol.double_bond_stereo() {
         let [u, v] = mol.bonds[st.bond].atoms;
-        if !atoms.contains(&u) || double_bond_shown(mol, pos, st.bond) != Some(false) {
+        let here = atoms
+            .first()
+            .is_some_and(|&a| mol.component_of(a) == mol.component_of(u));
+        if !here || double_bond_shown(mol, pos, st.bond) != Some(false) {
             continue;
         }
         let (su, sv) = (side(mol, st.bond, u), side(mol, st.bond, v));
@@ -90,7 +97,11 @@ pub(crate) fn fix_double_bonds(mol: &Molecule, atoms: &[usize], pos: &mut [Point
 pub(crate) fn shown_double_bonds(mol: &Molecule, atoms: &[usize], pos: &[Point]) -> Vec<usize> {
     mol.double_bond_stereo()
         .iter()
-        .filter(|st| atoms.contains(&mol.bonds[st.bond].atoms[0]))
+        .filter(|st| {
+            atoms.first().is_some_and(|&a| {
+                mol.component_of(a) == mol.component_of(mol.bonds[st.bond].atoms[0])
+            })
+        })
         .filter(|st| double_bond_shown(mol, pos, st.bond) == Some(true))
         .map(|st| st.bond)
         .collect()
