@@ -89,8 +89,10 @@ const HALO: &str = "fill=\"#111\" stroke=\"#fff\" stroke-width=\"3\" paint-order
 /// Write the SVG drawing of `mol` at `layout` with `marks`. Every atom is a
 /// `<g>` element carrying `data-atom` (0-based input index), `data-x` and
 /// `data-y` (its drawing coordinates in pixels); bonds are `<path>`s
-/// carrying `data-bond`. Atoms missing from the layout are drawn at the
-/// origin.
+/// carrying `data-bond`; a stereo wedge also carries `data-stereo`
+/// (`wedge`: a filled triangle, `hash`: stripes) and `data-narrow` (the
+/// stereocentre at its narrow end). Atoms missing from the layout are
+/// drawn at the origin.
 pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) -> String {
     let n = mol.atom_count();
     let bond = if opts.bond_px.is_finite() && opts.bond_px > 1.0 {
