@@ -167,8 +167,8 @@ fn svg_given_stereo_sample_draws_input_configurations_issue12() {
     // Thresholds just under the figures measured when this test was
     // written (common practice: catch regressions, allow no slack beyond).
     assert!(pct(c_ok, c_all) >= 99.5, "centres {c_ok}/{c_all}");
-    assert!(pct(d_ok, d_all) >= 97.0, "double bonds {d_ok}/{d_all}");
-    assert!(pct(mol_ok, rows.len()) >= 98.0, "molecules {mol_ok}");
+    assert!(pct(d_ok, d_all) >= 98.0, "double bonds {d_ok}/{d_all}");
+    assert!(pct(mol_ok, rows.len()) >= 99.0, "molecules {mol_ok}");
     // Never two wedges with their wide ends on the same atom (issue 12).
     assert_eq!(shared, 0, "wedges sharing a wide end");
 }
@@ -186,7 +186,7 @@ fn rdkit_summary_given_committed_figures_meets_threshold_issue12() {
     let (compared, agree) = (field("compared"), field("agree"));
     assert!(compared >= 300, "only {compared} compared");
     assert!(
-        agree * 100 >= compared * 98,
+        agree * 100 >= compared * 99,
         "RDKit agrees on {agree} of {compared}"
     );
     // The script that wrote the figures is present and says how to run it.
@@ -234,6 +234,10 @@ fn layout_given_e_and_z_isomers_draws_each_side_issue12() {
         ("OC(=O)/C=C\\C(=O)O", true),
         ("OC(=O)/C=C/C(=O)O", false),
         ("C/C(Cl)=C(/F)CCC", false),
+        // Ring double bonds of a macrocycle: the trans one gets a notch.
+        ("C1CCCCC/C=C/CCCC1", false),
+        ("C1CCCCC/C=C\\CCCC1", true),
+        ("O=C1CCCC/C=C/CCCCCCO1", false),
     ] {
         let m = Molecule::from_smiles(s).unwrap();
         let l = depict::layout(&m);

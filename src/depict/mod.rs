@@ -42,7 +42,7 @@
 //! centre, chosen on the finished coordinates so the drawing reads as the
 //! input. The SVG marks them with `data-stereo="wedge|hash"` and
 //! `data-narrow` (the centre). `tests/depict_stereo.rs` reads the
-//! configurations back from the SVG; RDKit agrees on 398 of 400 ChEMBL
+//! configurations back from the SVG; RDKit agrees on 400 of 400 ChEMBL
 //! molecules (`tests/reference/depict_stereo.py`).
 //!
 //! # Quality

@@ -5,7 +5,9 @@
 //! refuses moves that would undo one) every double bond with a written
 //! configuration whose drawing shows the other one has its smaller side
 //! mirrored across the bond's line. A double bond in a ring (8 atoms or
-//! more) cannot be fixed this way and may stay wrong.
+//! more) cannot be fixed this way; the ring placement notches a trans one
+//! (`rings`), and a ring double bond outside the first ring of its system
+//! may stay wrong.
 //!
 //! Wedges ([`wedges`]): per centre, in atom order, each single bond from
 //! the centre to a neighbour is a candidate; the wedge's narrow end is at
