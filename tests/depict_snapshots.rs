@@ -61,3 +61,10 @@ fn draw_given_ammonium_chloride_salt() {
 fn draw_given_stereo_centre_ibuprofen() {
     insta::assert_snapshot!(draw("C[C@H](C(=O)O)c1ccc(CC(C)C)cc1"));
 }
+
+#[test]
+fn draw_given_two_stereocentres_and_e_double_bond_issue12() {
+    // (E)-alkene next to two centres: one wedge or hash per centre and the
+    // methyl and the centre on opposite sides of the double bond.
+    insta::assert_snapshot!(draw("C/C=C/[C@@H](O)[C@H](C)N"));
+}

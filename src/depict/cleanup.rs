@@ -136,6 +136,9 @@ pub(crate) fn clean(mol: &Molecule, atoms: &[usize], pos: &mut [Point]) {
     } else {
         0
     };
+    // Stereo double bonds drawn rightly stay so: moves that undo one are
+    // refused.
+    let keep = super::stereo::shown_double_bonds(mol, atoms, pos);
     let mut current = score(mol, atoms, pos);
     for _ in 0..rounds {
         if current <= 0.0 {
@@ -177,7 +180,7 @@ pub(crate) fn clean(mol: &Molecule, atoms: &[usize], pos: &mut [Point]) {
                             (a, np)
                         })
                         .collect();
-                    let s = trial_score(mol, atoms, pos, &trial);
+                    let s = trial_score(mol, atoms, pos, &trial, &keep);
                     if s < current - 1e-9 && best.as_ref().is_none_or(|(b, _)| s < *b - 1e-9) {
                         best = Some((s, trial));
                     }
@@ -204,12 +207,20 @@ fn trial_score(
     atoms: &[usize],
     pos: &mut [Point],
     trial: &[(usize, Point)],
+    keep: &[usize],
 ) -> f64 {
     let saved: Vec<(usize, Point)> = trial.iter().map(|(a, _)| (*a, pos[*a])).collect();
     for (a, p) in trial {
         pos[*a] = *p;
     }
-    let s = score(mol, atoms, pos);
+    let undone = keep
+        .iter()
+        .any(|&k| super::stereo::double_bond_shown(mol, pos, k) != Some(true));
+    let s = if undone {
+        f64::INFINITY
+    } else {
+        score(mol, atoms, pos)
+    };
     for (a, p) in saved {
         pos[a] = p;
     }

@@ -34,6 +34,17 @@
 //! order. Everything is deterministic: the same SMILES gives the same
 //! drawing.
 //!
+//! # Stereo
+//! Written stereo is drawn (`stereo`): double bonds with a configuration
+//! get their substituents on the written sides (the smaller side mirrored
+//! after placement and after the clean-up, which refuses moves that undo
+//! one), and [`wedges`] gives one solid or hashed wedge per tetrahedral
+//! centre, chosen on the finished coordinates so the drawing reads as the
+//! input. The SVG marks them with `data-stereo="wedge|hash"` and
+//! `data-narrow` (the centre). `tests/depict_stereo.rs` reads the
+//! configurations back from the SVG; RDKit agrees on 400 of 400 ChEMBL
+//! molecules (`tests/reference/depict_stereo.py`).
+//!
 //! # Quality
 //! [`assess`] computes three defects (atom clash, bond crossing, bond length
 //! off by more than 30 %); `tests/depict_quality.rs` compares their shares
@@ -45,10 +56,12 @@ mod geom;
 mod labels;
 mod quality;
 mod rings;
+mod stereo;
 mod svg;
 
 pub use geom::{segments_cross, Point};
 pub use quality::{assess, Quality};
+pub use stereo::{wedges, Wedge};
 pub use svg::{svg, Marks, SiteMark, SvgOptions};
 
 use crate::mol::Molecule;
@@ -98,7 +111,9 @@ pub fn layout(mol: &Molecule) -> Layout {
     for atoms in comps.iter().filter(|c| !c.is_empty()) {
         placer.place_component(atoms);
         let mut pts = placer.pos.clone();
+        stereo::fix_double_bonds(mol, atoms, &mut pts);
         cleanup::clean(mol, atoms, &mut pts);
+        stereo::fix_double_bonds(mol, atoms, &mut pts);
         orient(atoms, &mut pts);
         // Place right of the previous component, centred on y = 0.
         let (mut lo, mut hi) = (

@@ -10,7 +10,8 @@
 //! for a perifused or bridged ring a flatter arc. The arc goes to the side
 //! where it lands farther from the atoms already placed. A ring sharing a
 //! single atom (spiro) is a regular polygon pointing away from that atom's
-//! placed neighbours.
+//! placed neighbours. A trans double bond written in a first ring of 8 or
+//! more atoms gets a notch: one end mirrored into the ring.
 
 use super::geom::{centroid, Point};
 use crate::mol::Molecule;
@@ -99,6 +100,9 @@ pub(crate) fn place_system(mol: &Molecule, sys: &RingSystem) -> Vec<Option<Point
     for (k, &a) in first.iter().enumerate() {
         pos[a] = Some(Point::polar(base + TAU * k as f64 / n as f64) * r);
     }
+    if n >= 8 {
+        dent_trans_bonds(mol, first, &rings, &mut pos);
+    }
     let mut done = vec![false; rings.len()];
     done[start] = true;
     loop {
@@ -133,6 +137,50 @@ pub(crate) fn place_system(mol: &Molecule, sys: &RingSystem) -> Vec<Option<Point
         }
     }
     pos
+}
+
+/// A regular polygon draws every ring double bond with its two ring
+/// neighbours on the same side. For a double bond of a large first ring
+/// whose written configuration puts them on opposite sides, one end (an
+/// atom in no other ring, fewest neighbours first) is mirrored across the
+/// line through its two ring neighbours: bond lengths stay 1 and the ring
+/// gets a notch that shows the trans bond.
+fn dent_trans_bonds(mol: &Molecule, ring: &[usize], rings: &[&[usize]], pos: &mut [Option<Point>]) {
+    let n = ring.len();
+    for st in mol.double_bond_stereo() {
+        let [u, v] = mol.bonds[st.bond].atoms;
+        let (Some(iu), Some(iv)) = (
+            ring.iter().position(|&a| a == u),
+            ring.iter().position(|&a| a == v),
+        ) else {
+            continue;
+        };
+        // Ring neighbours: x of u, y of v (the ring order may run either way).
+        let (x, y) = if (iu + 1) % n == iv {
+            (ring[(iu + n - 1) % n], ring[(iv + 1) % n])
+        } else if (iv + 1) % n == iu {
+            (ring[(iu + 1) % n], ring[(iv + n - 1) % n])
+        } else {
+            continue;
+        };
+        let ring_cis = st.cis ^ (st.refs[0] != x) ^ (st.refs[1] != y);
+        let (Some(pu), Some(pv), Some(px), Some(py)) = (pos[u], pos[v], pos[x], pos[y]) else {
+            continue;
+        };
+        let shown = crate::mol::cis_from_2d([pu.x, pu.y], [pv.x, pv.y], [px.x, px.y], [py.x, py.y]);
+        if shown != Some(!ring_cis) {
+            continue;
+        }
+        let in_one_ring = |a: usize| rings.iter().filter(|r| r.contains(&a)).count() == 1;
+        // (atom to move, its other ring neighbour).
+        let mut choices = [(v, y, u), (u, x, v)];
+        choices.sort_by_key(|c| mol.degree(c.0));
+        if let Some(&(m, a, b)) = choices.iter().find(|c| in_one_ring(c.0)) {
+            if let (Some(pa), Some(pb), Some(pm)) = (pos[a], pos[b], pos[m]) {
+                pos[m] = Some(super::geom::reflect(pm, pa, pb));
+            }
+        }
+    }
 }
 
 /// The ring to draw first.

@@ -89,8 +89,10 @@ const HALO: &str = "fill=\"#111\" stroke=\"#fff\" stroke-width=\"3\" paint-order
 /// Write the SVG drawing of `mol` at `layout` with `marks`. Every atom is a
 /// `<g>` element carrying `data-atom` (0-based input index), `data-x` and
 /// `data-y` (its drawing coordinates in pixels); bonds are `<path>`s
-/// carrying `data-bond`. Atoms missing from the layout are drawn at the
-/// origin.
+/// carrying `data-bond`; a stereo wedge also carries `data-stereo`
+/// (`wedge`: a filled triangle, `hash`: stripes) and `data-narrow` (the
+/// stereocentre at its narrow end). Atoms missing from the layout are
+/// drawn at the origin.
 pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) -> String {
     let n = mol.atom_count();
     let bond = if opts.bond_px.is_finite() && opts.bond_px > 1.0 {
@@ -231,8 +233,19 @@ pub fn svg(mol: &Molecule, layout: &Layout, marks: &Marks, opts: &SvgOptions) ->
         r#"<g class="bonds" stroke="{INK}" stroke-width="{}" stroke-linecap="round" fill="none">"#,
         f((bond / 24.0).clamp(1.0, 4.0))
     );
+    let wedges = super::stereo::wedges(mol, layout);
     for (k, b) in mol.bonds.iter().enumerate() {
         let [i, j] = b.atoms;
+        if let Some(w) = wedges.iter().find(|w| w.bond == k) {
+            let (kind, d) = wedge_path(&pts, &labels, w, fs, bond);
+            let fill = if w.hash { "none" } else { INK };
+            let _ = write!(
+                out,
+                r#"<path data-bond="{k}" data-atoms="{i} {j}" data-stereo="{kind}" data-narrow="{}" d="{d}" fill="{fill}" stroke-linejoin="round"/>"#,
+                w.centre
+            );
+            continue;
+        }
         let d = bond_path(mol, &pts, &labels, k, fs, bond);
         let _ = write!(
             out,
@@ -305,6 +318,64 @@ fn clip_radius(l: &Option<Label>, fs: f64) -> f64 {
         Some(_) => fs * 0.58,
         None => 0.0,
     }
+}
+
+/// Kind (`wedge` or `hash`) and path data of a wedge: a filled triangle,
+/// or stripes across the bond widening from the centre, so both read in
+/// greyscale.
+fn wedge_path(
+    pts: &[Point],
+    labels: &[Option<Label>],
+    w: &super::Wedge,
+    fs: f64,
+    bond: f64,
+) -> (&'static str, String) {
+    let (pc, pf) = (pts[w.centre], pts[w.far]);
+    let len = pc.dist(pf);
+    let kind = if w.hash { "hash" } else { "wedge" };
+    let (rc, rf) = (
+        clip_radius(&labels[w.centre], fs),
+        clip_radius(&labels[w.far], fs),
+    );
+    if len < 1e-6 || rc + rf >= len * 0.9 {
+        return (kind, format!("M{} {}", f(pc.x), f(pc.y)));
+    }
+    let u = (pf - pc) * (1.0 / len);
+    let a = pc + u * rc;
+    // The wide end stops a little further from a label, so stripes and
+    // text do not touch.
+    let gap = if labels[w.far].is_some() {
+        bond * 0.08
+    } else {
+        0.0
+    };
+    let e = pf - u * (rf + gap);
+    let nrm = u.perp();
+    let half = bond * 0.1;
+    if !w.hash {
+        let (e1, e2) = (e + nrm * half, e - nrm * half);
+        let d = format!(
+            "M{} {}L{} {}L{} {}Z",
+            f(a.x),
+            f(a.y),
+            f(e1.x),
+            f(e1.y),
+            f(e2.x),
+            f(e2.y)
+        );
+        return (kind, d);
+    }
+    let span = a.dist(e);
+    let stripes = ((span / (bond * 0.14)).round() as usize).clamp(3, 12);
+    let mut d = String::new();
+    for s in 1..=stripes {
+        let t = s as f64 / stripes as f64;
+        let c = a + (e - a) * t;
+        let h = half * t;
+        let (p1, p2) = (c + nrm * h, c - nrm * h);
+        let _ = write!(d, "M{} {}L{} {}", f(p1.x), f(p1.y), f(p2.x), f(p2.y));
+    }
+    (kind, d)
 }
 
 /// Path data for bond `k`.

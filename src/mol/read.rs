@@ -10,7 +10,7 @@
 use std::ops::Range;
 
 use purr::feature::{
-    Aliphatic, Aromatic, AtomKind, BondKind, BracketAromatic, BracketSymbol, Rnum,
+    Aliphatic, Aromatic, AtomKind, BondKind, BracketAromatic, BracketSymbol, Configuration, Rnum,
 };
 use purr::walk::Follower;
 
@@ -35,6 +35,11 @@ pub(crate) struct RawAtom {
     pub hcount: Option<u8>,
     pub map: Option<u16>,
     pub bracket: bool,
+    /// Tetrahedral mark: 0 none, 1 `@` (`@TH1`), 2 `@@` (`@TH2`). Other
+    /// stereo classes (`@AL`, `@SP`, `@TB`, `@OH`) are read as none.
+    pub chiral: u8,
+    /// Event time of the atom in the walk (see [`RawBond::ka`]).
+    pub t: u32,
 }
 
 /// Bond order as written.
@@ -56,6 +61,14 @@ pub(crate) struct RawBond {
     pub order: RawOrder,
     /// Index of the ring-closure digit that closed this bond, if any.
     pub join: Option<u32>,
+    /// Written direction from `a` to `b`: 0 none, 1 `/`, 2 `\`.
+    pub dir: u8,
+    /// Neighbour-order keys at `a` and at `b`: twice the walk time of the
+    /// event that wrote the bond at that atom (a chain bond's time, or the
+    /// ring-closure digit's), so the written neighbour order of an atom is
+    /// its bonds sorted by key; an atom's own hydrogens sort at `2 t + 1`.
+    pub ka: u32,
+    pub kb: u32,
 }
 
 /// The parse result: atoms and bonds in written order.
@@ -64,6 +77,8 @@ pub(crate) struct Raw {
     pub atoms: Vec<RawAtom>,
     pub bonds: Vec<RawBond>,
     pub spans: Vec<Range<usize>>,
+    /// Any tetrahedral or bond-direction mark was read.
+    pub stereo: bool,
 }
 
 fn order_of(kind: &BondKind) -> RawOrder {
@@ -74,6 +89,15 @@ fn order_of(kind: &BondKind) -> RawOrder {
         BondKind::Triple => RawOrder::Triple,
         BondKind::Quadruple => RawOrder::Quadruple,
         BondKind::Aromatic => RawOrder::Aromatic,
+    }
+}
+
+/// Written direction of a bond symbol: 0 none, 1 `/`, 2 `\`.
+fn dir_of(kind: &BondKind) -> u8 {
+    match kind {
+        BondKind::Up => 1,
+        BondKind::Down => 2,
+        _ => 0,
     }
 }
 
@@ -128,6 +152,8 @@ fn plain(element: u8, aromatic: bool) -> RawAtom {
         hcount: None,
         map: None,
         bracket: false,
+        chiral: 0,
+        t: 0,
     }
 }
 
@@ -139,7 +165,7 @@ fn convert(kind: AtomKind) -> RawAtom {
         AtomKind::Bracket {
             isotope,
             symbol,
-            configuration: _,
+            configuration,
             hcount,
             charge,
             map,
@@ -158,6 +184,12 @@ fn convert(kind: AtomKind) -> RawAtom {
                 hcount: Some(hcount.as_ref().map(|h| h.into()).unwrap_or(0)),
                 map: map.as_ref().map(u16::from),
                 bracket: true,
+                chiral: match configuration {
+                    Some(Configuration::TH1) => 1,
+                    Some(Configuration::TH2) => 2,
+                    _ => 0,
+                },
+                t: 0,
             }
         }
     }
@@ -178,9 +210,13 @@ struct Builder {
     atoms: Vec<RawAtom>,
     bonds: Vec<RawBond>,
     stack: Vec<usize>,
-    /// Open ring closures by digit: (atom, bond kind, join index).
-    /// Open ring closures: (digit, atom, bond kind, join index).
-    opens: Vec<(u8, usize, RawOrder, usize)>,
+    /// Open ring closures: (digit, atom, bond kind, join index, written
+    /// direction, walk time).
+    opens: Vec<(u8, usize, RawOrder, usize, u8, u32)>,
+    /// Walk time: one tick per atom and per ring-closure digit.
+    clock: u32,
+    /// A stereo mark was seen.
+    stereo: bool,
     joins: usize,
     trouble: Option<Trouble>,
     /// Ring-closure numbers in written order, from the lexer.
@@ -197,14 +233,19 @@ impl Builder {
             joins: 0,
             trouble: None,
             digits,
+            clock: 0,
+            stereo: false,
         }
     }
 
-    fn push_atom(&mut self, atom: RawAtom) -> Option<usize> {
+    fn push_atom(&mut self, mut atom: RawAtom) -> Option<usize> {
         if self.atoms.len() >= MAX_ATOMS {
             self.trouble.get_or_insert(Trouble::TooLarge);
             return None;
         }
+        self.clock += 1;
+        atom.t = self.clock;
+        self.stereo |= atom.chiral != 0;
         self.atoms.push(atom);
         Some(self.atoms.len() - 1)
     }
@@ -217,15 +258,20 @@ impl Builder {
     }
 
     /// A bond from the head atom to a new atom.
-    fn extend_atom(&mut self, order: RawOrder, atom: RawAtom) {
+    fn extend_atom(&mut self, order: RawOrder, dir: u8, atom: RawAtom) {
         let head = self.stack.last().copied();
         if let Some(id) = self.push_atom(atom) {
             if let Some(head) = head {
+                self.stereo |= dir != 0;
+                let k = 2 * self.clock;
                 self.bonds.push(RawBond {
                     a: head as u32,
                     b: id as u32,
                     order,
                     join: None,
+                    dir,
+                    ka: k,
+                    kb: k,
                 });
             }
             self.stack.push(id);
@@ -234,9 +280,12 @@ impl Builder {
 
     /// A ring-closure digit at the head atom; `fallback` is the ring number
     /// used if the lexer's digits ran out (never for accepted text).
-    fn join_digit(&mut self, order: RawOrder, fallback: u8) {
+    fn join_digit(&mut self, order: RawOrder, dir: u8, fallback: u8) {
         let join = self.joins;
         self.joins += 1;
+        self.clock += 1;
+        let now = self.clock;
+        self.stereo |= dir != 0;
         let Some(&head) = self.stack.last() else {
             return;
         };
@@ -244,9 +293,9 @@ impl Builder {
         // of the same text (valid whenever purr accepts the string).
         let digit = self.digits.get(join).copied().unwrap_or(fallback);
         match self.opens.iter().position(|o| o.0 == digit) {
-            None => self.opens.push((digit, head, order, join)),
+            None => self.opens.push((digit, head, order, join, dir, now)),
             Some(k) => {
-                let (_, other, other_order, _) = self.opens.swap_remove(k);
+                let (_, other, other_order, _, other_dir, then) = self.opens.swap_remove(k);
                 if other == head {
                     self.trouble.get_or_insert(Trouble::SelfBond(join));
                     return;
@@ -259,11 +308,20 @@ impl Builder {
                         return;
                     }
                 };
+                // A direction written at the closing digit runs from here
+                // (b) back to the opener (a).
+                let dir = match (other_dir, dir) {
+                    (0, d) => (3 - d) % 3,
+                    (d, _) => d,
+                };
                 self.bonds.push(RawBond {
                     a: other as u32,
                     b: head as u32,
                     order,
                     join: Some(join as u32),
+                    dir,
+                    ka: 2 * then,
+                    kb: 2 * now,
                 });
             }
         }
@@ -276,11 +334,11 @@ impl Follower for Builder {
     }
 
     fn extend(&mut self, bond_kind: BondKind, atom_kind: AtomKind) {
-        self.extend_atom(order_of(&bond_kind), convert(atom_kind));
+        self.extend_atom(order_of(&bond_kind), dir_of(&bond_kind), convert(atom_kind));
     }
 
     fn join(&mut self, bond_kind: BondKind, rnum: Rnum) {
-        self.join_digit(order_of(&bond_kind), rnum as u8);
+        self.join_digit(order_of(&bond_kind), dir_of(&bond_kind), rnum as u8);
     }
 
     fn pop(&mut self, depth: usize) {
@@ -561,6 +619,7 @@ pub(crate) fn read_raw_with(smiles: &str, direct: bool) -> Result<Raw, MolError>
         atoms,
         bonds: builder.bonds,
         spans,
+        stereo: builder.stereo,
     })
 }
 
@@ -589,13 +648,13 @@ fn fast_read(
     while let Some(&c) = s.get(i) {
         match c {
             b'(' => {
-                let (order, j) = fast_bond(s, i + 1);
+                let (order, dir, j) = fast_bond(s, i + 1);
                 let Some((atom, next)) = fast_atom(s, j) else {
                     return false;
                 };
                 spans.push(j..next);
                 branches.push(b.stack.len());
-                b.extend_atom(order, atom);
+                b.extend_atom(order, dir, atom);
                 i = next;
             }
             b')' => {
@@ -614,17 +673,17 @@ fn fast_read(
                 i = next;
             }
             _ => {
-                let (order, j) = fast_bond(s, i);
+                let (order, dir, j) = fast_bond(s, i);
                 match s.get(j) {
                     Some(&d @ b'0'..=b'9') => {
                         rnums.push(j);
-                        b.join_digit(order, d - b'0');
+                        b.join_digit(order, dir, d - b'0');
                         i = j + 1;
                     }
                     Some(b'%') => match (s.get(j + 1), s.get(j + 2)) {
                         (Some(&d1 @ b'0'..=b'9'), Some(&d2 @ b'0'..=b'9')) => {
                             rnums.push(j);
-                            b.join_digit(order, (d1 - b'0') * 10 + (d2 - b'0'));
+                            b.join_digit(order, dir, (d1 - b'0') * 10 + (d2 - b'0'));
                             i = j + 3;
                         }
                         _ => return false,
@@ -634,7 +693,7 @@ fn fast_read(
                             return false;
                         };
                         spans.push(j..next);
-                        b.extend_atom(order, atom);
+                        b.extend_atom(order, dir, atom);
                         i = next;
                     }
                 }
@@ -645,17 +704,23 @@ fn fast_read(
 }
 
 // <bond> ::= "-" | "=" | "#" | "$" | ":" | "/" | "\\"
-/// The bond symbol at `i` (elided if none) and the position after it.
-fn fast_bond(s: &[u8], i: usize) -> (RawOrder, usize) {
+/// The bond symbol at `i` (elided if none), its written direction (see
+/// [`RawBond::dir`]) and the position after it.
+fn fast_bond(s: &[u8], i: usize) -> (RawOrder, u8, usize) {
+    let dir = match s.get(i) {
+        Some(b'/') => 1,
+        Some(b'\\') => 2,
+        _ => 0,
+    };
     let order = match s.get(i) {
         Some(b'-' | b'/' | b'\\') => RawOrder::Single,
         Some(b'=') => RawOrder::Double,
         Some(b'#') => RawOrder::Triple,
         Some(b'$') => RawOrder::Quadruple,
         Some(b':') => RawOrder::Aromatic,
-        _ => return (RawOrder::Elided, i),
+        _ => return (RawOrder::Elided, 0, i),
     };
-    (order, i + 1)
+    (order, dir, i + 1)
 }
 
 // <atom> ::= <organic> | <bracket> | "*"

@@ -287,6 +287,12 @@ fn read_raw_given_unusual_syntax_matches_purr() {
         "C$C",
         "C:C",
         "C/C=C\\C",
+        "C/1=C/F.C1",
+        "F/C=C\\1.C\\1",
+        "C/1=C/F.C/1",
+        "[C@]1(F)(Cl)CCC1",
+        "F[C@]([H])(Cl)Br",
+        "C[C@@H]1CC[C@@H](C)CC1",
         "C1CC1(",
         "C(C)1CC1",
         "C=(C)",
@@ -356,4 +362,23 @@ fn neighbors_given_corpus_molecules_list_each_atoms_bonds_in_bond_order() {
         checked += 1;
     }
     assert!(checked > 1000);
+}
+
+#[test]
+fn read_raw_given_long_stereo_input_matches_purr_issue12() {
+    // Over the direct reader's atom limit, purr reads on its own thread;
+    // both paths must keep the same stereo marks and neighbour keys.
+    let centres: String = (0..1200)
+        .map(|i| if i % 2 == 1 { "[C@H](F)" } else { "[C@@H](Cl)" })
+        .collect();
+    let chain = format!("C{centres}/C=C/C1CC[C@H](O)CC1");
+    assert!(chain.len() > 1500);
+    same_reading(&chain);
+    let m = Molecule::from_smiles(&chain).unwrap();
+    assert_eq!(m.chirality().len(), 1201);
+    assert_eq!(m.double_bond_stereo().len(), 1);
+    // And a short one read by both paths gives the same molecule stereo.
+    for s in ["F/C=C/[C@@H](O)C1CC[C@]2(CC1)OC2", "C/1=C/F.C/1"] {
+        same_reading(s);
+    }
 }

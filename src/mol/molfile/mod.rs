@@ -18,8 +18,13 @@
 //! `M  RAD` or `RAD=`, the valence field `vvv` / `VAL=`), bonds of type 1,
 //! 2, 3 and 4 (aromatic). As the CTfile format specifies, the first `M  CHG`
 //! or `M  RAD` line replaces the charges and radicals of the atom block.
-//! Coordinates are checked to be numbers and then ignored (the drawing makes
-//! its own layout); stereo marks and other property lines are ignored.
+//! Coordinates are checked to be numbers; the drawing makes its own
+//! layout, but in a 2D molfile they define stereo with the wedges (bond
+//! stereo 1 / 6, V3000 `CFG=1` / `CFG=3`): tetrahedral centres at the
+//! wedges' narrow ends and double-bond E/Z from the coordinates, kept as
+//! the SMILES reader keeps them (rules in the `stereo` submodule; checked
+//! against 100 RDKit-drawn molfiles in `tests/mol_stereo.rs`). Other
+//! property lines are ignored.
 //! Query features (atom lists, `A`/`Q`/`L` atoms, bond types 5 to 8) and
 //! dative or hydrogen bonds (types 9, 10) are refused as unsupported.
 //!
@@ -52,6 +57,7 @@ use super::read::{Raw, RawAtom, RawBond, RawOrder};
 use super::{atomic_number, elements, ErrorKind, MolError, Molecule, MAX_ATOMS};
 use std::fmt;
 
+mod stereo;
 mod v2000;
 mod v3000;
 use v2000::read_v2000;
@@ -192,12 +198,17 @@ pub(super) struct TableAtom {
     /// Valence field: None (default), Some(0) (code 15), Some(v).
     pub(super) valence: Option<u8>,
     pub(super) line: usize,
+    /// Coordinates as written.
+    pub(super) xyz: [f64; 3],
 }
 
 pub(super) struct Table {
     pub(super) atoms: Vec<TableAtom>,
     /// (a, b, order, line), 0-based atoms.
     pub(super) bonds: Vec<(usize, usize, RawOrder, usize)>,
+    /// Per bond, its stereo field in V2000 terms: 0 none, 1 wedge (narrow
+    /// end at `a`), 6 hashed wedge, 4 either (single), 3 either (double).
+    pub(super) stereo: Vec<u8>,
 }
 
 pub(super) fn element_of(symbol: &str, line: usize) -> Result<(u8, Option<u16>), MolfileError> {
@@ -342,6 +353,8 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
                 hcount,
                 map: None,
                 bracket: hcount.is_some(),
+                chiral: 0,
+                t: 0,
             }
         })
         .collect();
@@ -355,21 +368,26 @@ fn finish(table: Table) -> Result<(Molecule, String), MolfileError> {
                 b: b as u32,
                 order,
                 join: None,
+                dir: 0,
+                ka: 0,
+                kb: 0,
             })
             .collect(),
         spans: (0..n).map(|i| i..i + 1).collect(),
+        stereo: false,
     };
     let lines: Vec<usize> = table.atoms.iter().map(|a| a.line).collect();
     // Atom index after folding hydrogens, for error messages.
     let molecule = super::build("", raw).map_err(|e| molecule_error(e, &lines))?;
     let (smiles, order) = super::smiles_out::write(&molecule);
-    let final_mol = reread(&smiles, &order, &molecule).ok_or_else(|| MolfileError {
+    let mut final_mol = reread(&smiles, &order, &molecule).ok_or_else(|| MolfileError {
         kind: MolfileErrorKind::Unsupported,
         message: "the molecule could not be written as SMILES for the report (please report this)"
             .into(),
         line: None,
         atom: None,
     })?;
+    stereo::assign(&table, &mut final_mol);
     Ok((final_mol, smiles))
 }
 
@@ -410,6 +428,9 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             b: order[b.b as usize] as u32,
             order: b.order,
             join: b.join,
+            dir: 0,
+            ka: 0,
+            kb: 0,
         })
         .collect();
     let mut mol = super::build(
@@ -418,6 +439,7 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             atoms,
             bonds,
             spans,
+            stereo: false,
         },
     )
     .ok()?;

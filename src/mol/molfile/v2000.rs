@@ -59,12 +59,16 @@ pub(super) fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
                 f.get(3).copied().unwrap_or(""),
             )
         };
-        for c in coords {
-            if c.and_then(|c| c.parse::<f64>().ok()).is_none() {
-                return Err(MolfileError::format(
-                    ln,
-                    format!("atom line {} does not start with three coordinates", i + 1),
-                ));
+        let mut xyz = [0.0; 3];
+        for (k, c) in coords.into_iter().enumerate() {
+            match c.and_then(|c| c.trim().parse::<f64>().ok()) {
+                Some(v) if v.is_finite() => xyz[k] = v,
+                _ => {
+                    return Err(MolfileError::format(
+                        ln,
+                        format!("atom line {} does not start with three coordinates", i + 1),
+                    ))
+                }
             }
         }
         if symbol.is_empty() {
@@ -118,9 +122,11 @@ pub(super) fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
             radical,
             valence,
             line: ln,
+            xyz,
         });
     }
     let mut bonds = Vec::with_capacity(nb);
+    let mut stereo = Vec::with_capacity(nb);
     for k in 0..nb {
         let ln = 5 + na + k;
         let Some(line) = lines.get(4 + na + k) else {
@@ -148,8 +154,17 @@ pub(super) fn read_v2000(lines: &[&str]) -> Result<Table, MolfileError> {
             ));
         };
         bonds.push(checked_bond(a, b, t, na, ln)?);
+        // Bond stereo field: 1 wedge, 6 hash, 4 either; 3 either (double).
+        stereo.push(match get(9, 3) {
+            Some(s @ (1 | 3 | 4 | 6)) => s as u8,
+            _ => 0,
+        });
     }
-    let mut table = Table { atoms, bonds };
+    let mut table = Table {
+        atoms,
+        bonds,
+        stereo,
+    };
     // Property block.
     let mut charges_reset = false;
     let mut radicals_reset = false;

@@ -6,6 +6,7 @@ use super::{
     bond_order, check_count, element_of, radical_electrons, MolfileError, MolfileErrorKind, Table,
     TableAtom,
 };
+use crate::mol::read::RawOrder;
 use crate::mol::MAX_ATOMS;
 
 /// V3000: logical lines (continuations joined), each with its first
@@ -49,6 +50,7 @@ pub(super) fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
     let mut atoms: Vec<TableAtom> = Vec::new();
     let mut ids: std::collections::HashMap<i64, usize> = std::collections::HashMap::new();
     let mut bonds = Vec::new();
+    let mut stereo = Vec::new();
     let mut block = "";
     for (ln, text) in &logical {
         let ln = *ln;
@@ -99,12 +101,16 @@ pub(super) fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
                 if symbol.is_empty() {
                     return Err(MolfileError::format(ln, "atom line has no element symbol"));
                 }
+                let mut xyz = [0.0; 3];
                 for k in 2..5 {
-                    if words.get(k).and_then(|s| s.parse::<f64>().ok()).is_none() {
-                        return Err(MolfileError::format(
-                            ln,
-                            "atom line does not hold three coordinates after the symbol",
-                        ));
+                    match words.get(k).and_then(|s| s.parse::<f64>().ok()) {
+                        Some(v) if v.is_finite() => xyz[k - 2] = v,
+                        _ => {
+                            return Err(MolfileError::format(
+                                ln,
+                                "atom line does not hold three coordinates after the symbol",
+                            ))
+                        }
                     }
                 }
                 let (element, mut isotope) = element_of(symbol, ln)?;
@@ -115,6 +121,7 @@ pub(super) fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
                     radical: 0,
                     valence: None,
                     line: ln,
+                    xyz,
                 };
                 for w in words.iter().skip(6) {
                     let Some((key, value)) = w.split_once('=') else {
@@ -200,7 +207,21 @@ pub(super) fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
                         format!("bond from atom {a} to itself"),
                     ));
                 }
-                bonds.push((x, y, bond_order(t, ln)?, ln));
+                let order = bond_order(t, ln)?;
+                bonds.push((x, y, order, ln));
+                // CFG=1 wedge, 3 hash, 2 either; in V2000 terms.
+                let cfg = words
+                    .iter()
+                    .skip(4)
+                    .find_map(|w| w.strip_prefix("CFG="))
+                    .and_then(|v| v.parse::<u8>().ok());
+                stereo.push(match (cfg, order) {
+                    (Some(1), _) => 1,
+                    (Some(3), _) => 6,
+                    (Some(2), RawOrder::Double) => 3,
+                    (Some(2), _) => 4,
+                    _ => 0,
+                });
             }
             _ => {}
         }
@@ -220,7 +241,11 @@ pub(super) fn read_v3000(lines: &[&str]) -> Result<Table, MolfileError> {
             ),
         ));
     }
-    Ok(Table { atoms, bonds })
+    Ok(Table {
+        atoms,
+        bonds,
+        stereo,
+    })
 }
 
 /// Split a V3000 line into words; double-quoted words keep their spaces,
