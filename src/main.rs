@@ -27,7 +27,7 @@ struct Cli {
 enum Command {
     /// Report the acidic sites and base advice for one or more SMILES.
     Scan(cli::scan::Args),
-    /// Annotate a compound list (.smi, .csv, .tsv, optionally gzipped, or stdin).
+    /// Annotate a compound list (.smi, .csv, .tsv, .sdf, optionally gzipped, or stdin).
     Annotate(cli::annotate::Args),
     /// Draw a molecule as SVG with its acidic sites marked.
     Draw(cli::draw::Args),

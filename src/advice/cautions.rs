@@ -32,7 +32,7 @@ fn sentence(h: Hazard) -> &'static str {
         Hazard::HydrogenEvolution => "releases hydrogen on reaction and quench: vent, exclude ignition sources, allow for the gas volume",
         Hazard::Corrosive => "causes severe skin and eye burns: gloves, eye and face protection",
         Hazard::Toxic => "is toxic by inhalation, ingestion or skin contact: fume hood, no skin contact",
-        Hazard::Cryogenic => "is used at -78 C: cold baths and surfaces cause cold burns, wear insulated gloves",
+        Hazard::Cryogenic => "is used at -78 °C: cold baths and surfaces cause cold burns, wear insulated gloves",
         Hazard::Flammable => "is flammable or in a flammable solvent: exclude ignition sources, earth equipment",
         Hazard::Irritant => "irritates skin, eyes and airways: avoid dust, wear gloves and eye protection",
     }

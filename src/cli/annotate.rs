@@ -83,19 +83,18 @@ pub struct Args {
     /// smaller records; `advice` is null).
     #[arg(long, conflicts_with = "base")]
     pub sites_only: bool,
-    /// pKa scale used to rank the sites.
-    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
-    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
-    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
-    pub reaction: Option<acidsite::advice::practice::Reaction>,
-    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
-    /// (default: the side of the target site).
-    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
-    pub control: Option<acidsite::advice::practice::Control>,
+    /// The planned reaction (default: alkylation).
+    #[arg(long, value_name = "NAME", value_enum)]
+    pub reaction: Option<super::ReactionArg>,
+    /// The enolate wanted where a ketone has two sides (default: the side of the
+    /// target site).
+    #[arg(long, value_name = "SIDE", value_enum)]
+    pub control: Option<super::ControlArg>,
     /// CSV/TSV input: take the planned reaction of each row from this column
     /// (an empty cell: `--reaction`, else alkylation; an unknown name: an error record).
     #[arg(long, value_name = "NAME")]
     pub reaction_column: Option<String>,
+    /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
     /// Worker threads (0: one per core; at most 256).
@@ -429,8 +428,8 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
                 DetailArg::Full => Detail::Full,
                 DetailArg::Brief => Detail::Brief,
             },
-            reaction: args.reaction,
-            control: args.control,
+            reaction: args.reaction.map(|r| r.0),
+            control: args.control.map(Into::into),
         },
         Output {
             format: args.format,

@@ -32,14 +32,13 @@ pub struct Args {
     /// Evaluate this base (short name from `acidsite bases`) instead of the recommended one.
     #[arg(long, value_name = "NAME")]
     pub base: Option<String>,
-    /// The planned reaction: alkylation (default), dialkylation, aldol, acylation,
-    /// condensation, conjugate-addition, enol-trap, olefination, equilibration.
-    #[arg(long, value_name = "NAME", value_parser = super::parse_reaction)]
-    pub reaction: Option<acidsite::advice::practice::Reaction>,
-    /// The enolate wanted where a ketone has two sides: kinetic or thermodynamic
-    /// (default: the side of the target site).
-    #[arg(long, value_name = "CONTROL", value_parser = super::parse_control)]
-    pub control: Option<acidsite::advice::practice::Control>,
+    /// The planned reaction (default: alkylation).
+    #[arg(long, value_name = "NAME", value_enum)]
+    pub reaction: Option<super::ReactionArg>,
+    /// The enolate wanted where a ketone has two sides (default: the side of the
+    /// target site).
+    #[arg(long, value_name = "SIDE", value_enum)]
+    pub control: Option<super::ControlArg>,
     /// pKa scale used to rank the sites.
     #[arg(long, value_enum, default_value_t = ScaleArg::Dmso)]
     pub scale: ScaleArg,
@@ -57,8 +56,8 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         flags: Vec::new(),
         sites_only: false,
         detail: acidsite::report::Detail::Full,
-        reaction: args.reaction,
-        control: args.control,
+        reaction: args.reaction.map(|r| r.0),
+        control: args.control.map(Into::into),
     };
     let (rec, mol) = match &args.mol {
         Some(path) => {

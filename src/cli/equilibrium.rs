@@ -27,9 +27,10 @@ pub struct Args {
     /// conjugate acid (EtOH for NaOEt) it takes part in the equilibrium.
     #[arg(long, value_name = "NAME")]
     pub solvent: Option<String>,
-    /// Compare on this pKa scale instead of the automatic choice.
-    #[arg(long, value_name = "SCALE", value_parser = ["dmso", "water", "thf"])]
-    pub scale: Option<String>,
+    /// Compare on this pKa scale instead of the automatic choice (the scale
+    /// nearest the solvent on which both acids have a value).
+    #[arg(long, value_name = "SCALE", value_enum)]
+    pub scale: Option<EquilibriumScale>,
     /// One JSON object instead of the report.
     #[arg(long)]
     pub json: bool,
@@ -59,6 +60,17 @@ fn sig(x: f64) -> f64 {
     format!("{r:.*}", digits.max(0) as usize)
         .parse()
         .unwrap_or(r)
+}
+
+/// The pKa scales a base's conjugate acid can be compared on.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum EquilibriumScale {
+    /// pKa in dimethyl sulfoxide (Bordwell scale)
+    Dmso,
+    /// pKa in water
+    Water,
+    /// pKa in tetrahydrofuran (ion-pair scale of lithium amides and organolithiums)
+    Thf,
 }
 
 pub fn run(args: Args) -> anyhow::Result<Outcome> {
@@ -107,7 +119,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         equivalents: args.equiv,
         concentration: args.conc,
         solvent: args.solvent.clone(),
-        scale: args.scale.as_deref().and_then(Scale::parse),
+        scale: args.scale.map(|s| match s {
+            EquilibriumScale::Dmso => Scale::Dmso,
+            EquilibriumScale::Water => Scale::Water,
+            EquilibriumScale::Thf => Scale::Thf,
+        }),
     };
     let eq = match equilibrium_for(&mol, &report, &opts) {
         Ok(e) => e,

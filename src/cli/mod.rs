@@ -50,6 +50,61 @@ impl From<ScaleArg> for Scale {
     }
 }
 
+/// `--reaction NAME`: the planned reactions of the library, each listed in
+/// the help with its summary from `fragments/reactions.tsv`.
+#[derive(Debug, Clone, Copy, PartialEq, Eq)]
+pub struct ReactionArg(pub acidsite::advice::practice::Reaction);
+
+impl clap::ValueEnum for ReactionArg {
+    fn value_variants<'a>() -> &'a [Self] {
+        static ALL: std::sync::OnceLock<Vec<ReactionArg>> = std::sync::OnceLock::new();
+        ALL.get_or_init(|| {
+            acidsite::advice::practice::Reaction::ALL
+                .iter()
+                .map(|&r| ReactionArg(r))
+                .collect()
+        })
+    }
+
+    fn to_possible_value(&self) -> Option<clap::builder::PossibleValue> {
+        let v = clap::builder::PossibleValue::new(self.0.name());
+        let summary = acidsite::advice::practice::practice()
+            .ok()
+            .map(|p| capitalised(&p.reaction(self.0).summary));
+        Some(match summary {
+            Some(text) => v.help(text),
+            None => v,
+        })
+    }
+}
+
+/// `--control SIDE`: which enolate of a ketone with two sides.
+#[derive(Debug, Clone, Copy, PartialEq, Eq, clap::ValueEnum)]
+pub enum ControlArg {
+    /// The less substituted enolate, formed fastest (strong hindered base, low temperature)
+    Kinetic,
+    /// The more substituted, more stable enolate (equilibrating conditions)
+    Thermodynamic,
+}
+
+impl From<ControlArg> for acidsite::advice::practice::Control {
+    fn from(c: ControlArg) -> Self {
+        match c {
+            ControlArg::Kinetic => acidsite::advice::practice::Control::Kinetic,
+            ControlArg::Thermodynamic => acidsite::advice::practice::Control::Thermodynamic,
+        }
+    }
+}
+
+/// The text with its first letter in upper case (help lines are sentences).
+fn capitalised(text: &str) -> String {
+    let mut c = text.chars();
+    match c.next() {
+        Some(f) => f.to_uppercase().chain(c).collect(),
+        None => String::new(),
+    }
+}
+
 /// clap value parser for `--flag NAME=SMARTS`.
 pub fn parse_flag(spec: &str) -> Result<Flag, String> {
     Flag::parse(spec).map_err(|e| e.to_string())
@@ -67,17 +122,6 @@ pub fn check_flags(flags: &[Flag]) -> anyhow::Result<()> {
         }
     }
     Ok(())
-}
-
-/// clap value parser for `--reaction NAME` (an unknown name: exit 2 with the
-/// valid names).
-pub fn parse_reaction(s: &str) -> Result<acidsite::advice::practice::Reaction, String> {
-    acidsite::advice::practice::Reaction::parse(s).map_err(|e| e.to_string())
-}
-
-/// clap value parser for `--control kinetic|thermodynamic`.
-pub fn parse_control(s: &str) -> Result<acidsite::advice::practice::Control, String> {
-    acidsite::advice::practice::Control::parse(s).map_err(|e| e.to_string())
 }
 
 /// Refuse an unknown `--base` before any work (a bad option: exit 2).
