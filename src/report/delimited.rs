@@ -122,9 +122,9 @@ impl RowWriter {
                 let top = rec.top_carbon_site();
                 f.push(top.map(|s| atoms(&s.atoms)).unwrap_or_default());
                 f.push(top.map(|s| s.class.clone()).unwrap_or_default());
-                f.push(num(top.and_then(|s| s.pka_dmso)));
-                f.push(num(top.and_then(|s| s.pka_water)));
-                f.push(num(top.map(|s| s.uncertainty)));
+                f.push(num1(top.and_then(|s| s.pka_dmso)));
+                f.push(num1(top.and_then(|s| s.pka_water)));
+                f.push(num1(top.map(|s| s.uncertainty)));
                 let adv = rec.advice.as_ref().and_then(|a| a.as_ref());
                 f.push(adv.and_then(|a| a.base.clone()).unwrap_or_default());
                 f.push(num(adv.and_then(|a| a.equivalents)));
@@ -151,9 +151,9 @@ impl RowWriter {
                     f.push(s.element.clone());
                     f.push(s.hydrogens.to_string());
                     f.push(s.class.clone());
-                    f.push(num(s.pka_dmso));
-                    f.push(num(s.pka_water));
-                    f.push(num(Some(s.uncertainty)));
+                    f.push(num1(s.pka_dmso));
+                    f.push(num1(s.pka_water));
+                    f.push(num1(Some(s.uncertainty)));
                     f.push(s.regio.unwrap_or_default().to_string());
                     f.push(error.clone());
                     out.push_str(&self.join(&f));
@@ -204,6 +204,20 @@ fn atoms(a: &[usize]) -> String {
         .map(|i| i.to_string())
         .collect::<Vec<_>>()
         .join(";")
+}
+
+/// A pKa or uncertainty: one decimal, as in the text report (the JSON
+/// record keeps two); -0.0 is written 0.0.
+fn num1(x: Option<f64>) -> String {
+    x.map(|v| {
+        let t = format!("{v:.1}");
+        if t == "-0.0" {
+            "0.0".into()
+        } else {
+            t
+        }
+    })
+    .unwrap_or_default()
 }
 
 fn num(x: Option<f64>) -> String {
