@@ -522,7 +522,11 @@ fn advice_record(
                 reason: r.reason,
             })
             .collect(),
-        warnings: a.warnings.into_iter().map(|w| w.message).collect(),
+        warnings: a
+            .warnings
+            .into_iter()
+            .map(|w| sentence_case(w.message))
+            .collect(),
         regio_conditions: a.regio.map(|r| {
             let side = |c: RegioConditions| RegioSideOut {
                 base: c.base,
@@ -619,5 +623,15 @@ mod tests {
             round(0.1 + 0.2, 0.01).map(|x| x.to_string()),
             Some("0.3".to_string())
         );
+    }
+}
+
+/// A warning as a sentence: its first letter in upper case (the advice
+/// words warnings so they can also be quoted mid-sentence).
+fn sentence_case(text: String) -> String {
+    let mut chars = text.chars();
+    match chars.next() {
+        Some(c) if c.is_lowercase() => c.to_uppercase().chain(chars).collect(),
+        _ => text,
     }
 }
