@@ -565,6 +565,16 @@ fn significant(x: f64) -> Option<f64> {
     })
 }
 
+/// A warning as a sentence: its first letter in upper case (the advice
+/// words warnings so they can also be quoted mid-sentence).
+fn sentence_case(text: String) -> String {
+    let mut chars = text.chars();
+    match chars.next() {
+        Some(c) if c.is_lowercase() => c.to_uppercase().chain(chars).collect(),
+        _ => text,
+    }
+}
+
 #[cfg(test)]
 mod tests {
     use super::*;
@@ -623,15 +633,5 @@ mod tests {
             round(0.1 + 0.2, 0.01).map(|x| x.to_string()),
             Some("0.3".to_string())
         );
-    }
-}
-
-/// A warning as a sentence: its first letter in upper case (the advice
-/// words warnings so they can also be quoted mid-sentence).
-fn sentence_case(text: String) -> String {
-    let mut chars = text.chars();
-    match chars.next() {
-        Some(c) if c.is_lowercase() => c.to_uppercase().chain(chars).collect(),
-        _ => text,
     }
 }
