@@ -141,7 +141,7 @@ impl fmt::Display for EquilibriumError {
         match self {
             EquilibriumError::Invalid(what, v) => write!(f, "invalid {what}: {v}"),
             EquilibriumError::UnknownBase(b) => {
-                write!(f, "unknown base {b:?} (see `acidsite bases`)")
+                write!(f, "unknown base {b:?}: not in the base catalogue")
             }
             EquilibriumError::NoCommonScale(b) => write!(
                 f,

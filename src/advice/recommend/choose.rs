@@ -57,7 +57,7 @@ pub(super) fn advise_core(
                     Some(j) => (
                         j,
                         format!(
-                            "the {} side of the most acidic C–H unit, as --control asks",
+                            "the {} side of the most acidic C–H unit, as the control asked for",
                             opts.control.map(|c| c.name()).unwrap_or("")
                         ),
                     ),

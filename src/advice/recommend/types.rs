@@ -374,7 +374,7 @@ impl fmt::Display for AdviceError {
             AdviceError::NotAcidicAtom(a) => {
                 write!(f, "atom {a} is not part of an acidic site")
             }
-            AdviceError::UnknownBase(b) => write!(f, "unknown base {b:?} (see `acidsite bases`)"),
+            AdviceError::UnknownBase(b) => write!(f, "unknown base {b:?}: not in the base catalogue"),
             AdviceError::Invalid(w, v) => write!(f, "invalid {w}: {v}"),
             AdviceError::Catalogue(e) => write!(f, "base catalogue: {e}"),
         }
