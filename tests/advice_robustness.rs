@@ -145,6 +145,7 @@ fn site_strategy() -> impl Strategy<Value = Site> {
             uncertainty: u,
             rules: Vec::new(),
             regio,
+            background: false,
         })
 }
 

@@ -433,11 +433,12 @@ fn estimate_atom(
             hammett_terms(mol, ipso, h, &rule.id, sigma, &mut uses, &mut var);
         }
     }
-    if rule.element != "C" && rule.family != "none" {
+    let increments = rule.family != "none" && !rule.background;
+    if rule.element != "C" && increments {
         let kinds = hetero_kinds(mol, i, matched);
         apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
     }
-    if rule.element == "C" && rule.family != "none" {
+    if rule.element == "C" && increments {
         let mut kinds: Vec<(&'static str, usize)> = Vec::new();
         for nb in mol.neighbors(i) {
             if matched.contains(&nb.atom) || mol.atoms[nb.atom].element == 1 {
@@ -482,6 +483,7 @@ fn estimate_atom(
         uncertainty: round2(var.sqrt()),
         rules: uses,
         regio: None,
+        background: rule.background,
     }
 }
 
@@ -649,16 +651,19 @@ fn run_on(
         if a.hydrogens == 0 {
             continue;
         }
-        match a.element {
-            6 => {
-                if !carbon_candidate(mol, i) {
-                    continue;
-                }
-            }
-            7 | 8 | 16 => {}
+        // A C–H with no activating neighbour is tried against the
+        // background rows only (cheap; they come last in the file).
+        let only_background = match a.element {
+            6 => !carbon_candidate(mol, i),
+            7 | 8 | 16 => false,
             _ => continue,
-        }
-        for &r in set.rules_for(a.element) {
+        };
+        let candidates = if only_background {
+            set.background_rules()
+        } else {
+            set.rules_for(a.element)
+        };
+        for &r in candidates {
             let Some(rule) = set.rules.get(r) else {
                 continue;
             };
@@ -696,13 +701,15 @@ fn run_on(
     }
     let mut sites = group(mol, raws);
     sites.sort_by(|a, b| {
-        rank_key(a, opts.scale)
-            .total_cmp(&rank_key(b, opts.scale))
+        a.background
+            .cmp(&b.background)
+            .then(rank_key(a, opts.scale).total_cmp(&rank_key(b, opts.scale)))
             .then(a.atoms.cmp(&b.atoms))
     });
     mark_regio(mol, &mut sites);
-    let top_overall = if sites.is_empty() { None } else { Some(0) };
-    let top_carbon = sites.iter().position(|s| s.is_carbon());
+    // Background sites come last and are never the top site.
+    let top_overall = sites.iter().position(|s| !s.background);
+    let top_carbon = sites.iter().position(|s| s.is_carbon() && !s.background);
     SiteReport {
         sites,
         top_carbon,
@@ -719,7 +726,7 @@ fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     let need = raws
         .iter()
         .enumerate()
-        .any(|(x, a)| raws[x + 1..].iter().any(|b| same(a, b)));
+        .any(|(x, a)| !a.site.background && raws[x + 1..].iter().any(|b| same(a, b)));
     let classes = if need {
         super::symmetry_classes(mol)
     } else {
@@ -728,11 +735,14 @@ fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     let mut out: Vec<Site> = Vec::new();
     let mut reps: Vec<usize> = Vec::new();
     for (x, raw) in raws.iter().enumerate() {
+        // Background atoms with the same hydrogen count form one site
+        // whatever their symmetry (bounded output for large alkyl parts).
         let found = reps.iter().position(|&r| {
             let rep = &raws[r];
             same(rep, raw)
-                && classes.get(rep.atom).is_some()
-                && classes.get(rep.atom) == classes.get(raw.atom)
+                && ((rep.site.background && raw.site.background)
+                    || (classes.get(rep.atom).is_some()
+                        && classes.get(rep.atom) == classes.get(raw.atom)))
         });
         match found {
             Some(k) => out[k].atoms.push(raw.atom),

@@ -65,7 +65,8 @@ mod rules;
 
 pub use hammett::{SigmaEntry, SigmaTable};
 pub use rules::{
-    parse_rule_set, Hammett, Increment, Rule, RuleError, RuleSet, SigmaKind, SUBSTITUENT_KINDS,
+    parse_rule_set, Hammett, Increment, Rule, RuleError, RuleSet, SigmaKind, BACKGROUND_FAMILY,
+    SUBSTITUENT_KINDS,
 };
 
 /// Embedded rule files: (file name, text).
@@ -169,6 +170,13 @@ pub struct Site {
     pub uncertainty: f64,
     pub rules: Vec<RuleUse>,
     pub regio: Option<Regio>,
+    /// An unactivated C–H from a background rule (family `background` in
+    /// `fragments/rules.tsv`, e.g. alkane C–H near pKa 56): listed so that
+    /// no carbon-bound hydrogen is silently absent, ranked after every other
+    /// site, all such atoms with the same hydrogen count form one site, and
+    /// it is never the default advice target (only when asked for by atom).
+    /// Background sites do not make a ranking mixed-scale.
+    pub background: bool,
 }
 
 impl Site {
@@ -201,7 +209,7 @@ impl SiteReport {
     /// output should say which scale each site was ranked on.
     pub fn mixed_scales(&self, preferred: Scale) -> bool {
         let mut seen = [false, false];
-        for s in &self.sites {
+        for s in self.sites.iter().filter(|s| !s.background) {
             if let Some((sc, _)) = s.ranking_pka(preferred) {
                 seen[usize::from(sc == Scale::Water)] = true;
             }
@@ -214,9 +222,11 @@ impl SiteReport {
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct SiteReport {
     pub sites: Vec<Site>,
-    /// Index into `sites` of the most acidic C–H site.
+    /// Index into `sites` of the most acidic C–H site that is not a
+    /// background site (background sites are never the default target).
     pub top_carbon: Option<usize>,
-    /// Index into `sites` of the most acidic site overall.
+    /// Index into `sites` of the most acidic site overall that is not a
+    /// background site.
     pub top_overall: Option<usize>,
 }
 
