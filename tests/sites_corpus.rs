@@ -408,6 +408,15 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CS(=O)(=O)C(F)(F)F", "C-TRIFL-01"),
     ("CCOC(=O)C[P+](c1ccccc1)(c1ccccc1)c1ccccc1", "I-SO-EST"),
     ("C[S+](C)CC(=O)c1ccccc1", "I-CO-ONP"),
+    // Issue 11 (sites added by the sites2 branch).
+    ("Cc1ccc2ccccc2n1", "C-HARME-Q2"),
+    ("Cc1ccnc2ccccc12", "C-HARME-Q4"),
+    ("Cc1nc2ccccc2s1", "C-HARME-BZ"),
+    ("Cc1nccs1", "C-HARME-AZ"),
+    ("Cc1nccn1C", "C-HARME-IM"),
+    ("Cc1cc(C)on1", "C-HARME-I5"),
+    ("Cc1cc(C)on1", "C-HARME-I3"),
+    ("Cc1ccn(C)n1", "C-PICOL-01"),
 ];
 
 /// Kinetic / thermodynamic sides of unsymmetrical ketones

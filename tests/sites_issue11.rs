@@ -1,0 +1,67 @@
+//! Sites added or corrected for issue 11: background alkane C–H,
+//! heteroaryl-methyl groups, cyclic aryl ketones, vinylogous enone sites,
+//! X–H values, charged states and isotope labels. Each check value names
+//! its source (from memory where no source was consulted).
+
+use acidsite::mol::Molecule;
+use acidsite::sites::{find_sites, Site, SiteReport};
+
+fn report(smiles: &str) -> SiteReport {
+    find_sites(&Molecule::from_smiles(smiles).expect("test SMILES parses"))
+}
+
+/// The site holding `atom` (0-based input order).
+fn site(smiles: &str, atom: usize) -> Site {
+    report(smiles)
+        .sites
+        .into_iter()
+        .find(|s| s.atoms.contains(&atom))
+        .unwrap_or_else(|| panic!("{smiles}: no site on atom {atom}"))
+}
+
+fn dmso(smiles: &str, atom: usize) -> f64 {
+    let s = site(smiles, atom);
+    s.pka_dmso
+        .unwrap_or_else(|| panic!("{smiles}: no DMSO estimate on atom {atom}"))
+}
+
+#[test]
+fn find_sites_given_methylpyridines_ranks_4_above_2_above_3_issue11() {
+    // Fraser, Mansour, Savard, J. Org. Chem. 1985, 50, 3232 (order stated
+    // in the abstract; values 32.2, 34.0, 37.7 recalled): 4-picoline is the
+    // most acidic, 3-picoline the least; all well below toluene (about 43,
+    // from memory).
+    let p4 = dmso("Cc1ccncc1", 0);
+    let p2 = dmso("Cc1ccccn1", 0);
+    let p3 = dmso("Cc1cccnc1", 0);
+    let tol = dmso("Cc1ccccc1", 0);
+    assert!((p4 - 32.2).abs() <= 0.5 && (p2 - 34.0).abs() <= 0.5 && (p3 - 37.7).abs() <= 0.5);
+    assert!(p4 < p2 && p2 < p3 && p3 < tol - 4.0);
+}
+
+#[test]
+fn find_sites_given_heteroaryl_methyl_groups_activates_them_issue11() {
+    // From memory: quinaldine, lepidine, 2-methylbenzothiazole, 2-methyl-
+    // thiazole and -oxazole, 1,2-dimethylimidazole and 3,5-dimethylisoxazole
+    // (5-methyl) are lithiated on the methyl group (LDA or n-BuLi); none is a
+    // plain benzylic C–H at 43.
+    for (smi, atom) in [
+        ("Cc1ccc2ccccc2n1", 0),
+        ("Cc1ccnc2ccccc12", 0),
+        ("Cc1nc2ccccc2s1", 0),
+        ("Cc1nccs1", 0),
+        ("Cc1ncco1", 0),
+        ("Cc1nccn1C", 0),
+        ("Cc1cc(C)on1", 4),
+    ] {
+        let v = dmso(smi, atom);
+        assert!(v <= 36.0, "{smi}: {v}");
+    }
+    // Benzo fusion adds delocalisation (estimated).
+    assert!(dmso("Cc1ccc2ccccc2n1", 0) < dmso("Cc1ccccn1", 0));
+    // 3,5-Dimethylisoxazole is lithiated on the 5-methyl (from memory).
+    assert!(dmso("Cc1cc(C)on1", 4) < dmso("Cc1cc(C)on1", 0));
+    // The N-methyl of an N-methylazole is not conjugated with the ring:
+    // not benzylic, a background C–H.
+    assert!(site("Cc1nccn1C", 6).background);
+}
