@@ -65,3 +65,45 @@ fn find_sites_given_heteroaryl_methyl_groups_activates_them_issue11() {
     // not benzylic, a background C–H.
     assert!(site("Cc1nccn1C", 6).background);
 }
+
+#[test]
+fn find_sites_given_alpha_tetralone_keeps_the_aryl_conjugation_issue11() {
+    // 1-Tetralone is an aryl ketone in a ring: its C2–H is estimated like
+    // propiophenone (24.4, recalled) rather than cyclohexanone (26.4,
+    // recalled); from memory, no cyclic value recalled.
+    let tetralone = site("O=C1CCCc2ccccc21", 2);
+    assert!(tetralone.rules.iter().any(|u| u.id == "C-KETAR-02"));
+    let t = tetralone.pka_dmso.expect("DMSO estimate");
+    let prop = dmso("CCC(=O)c1ccccc1", 1);
+    assert!((t - prop).abs() <= 0.6, "{t} vs {prop}");
+    assert!(t < dmso("O=C1CCCCC1", 2) - 1.0);
+    // 1-Indanone likewise.
+    assert!(site("O=C1CCc2ccccc21", 2)
+        .rules
+        .iter()
+        .any(|u| u.id == "C-KETAR-02"));
+}
+
+#[test]
+fn find_sites_given_cyclohexenone_ranks_gamma_below_alpha_prime_with_sides_issue11() {
+    use acidsite::sites::Regio;
+    // Common practice: LDA at -78 °C removes the α′ proton of an enone
+    // (cross-conjugated, kinetic enolate); equilibrating bases give the
+    // extended γ-dienolate (thermodynamic), so the γ C–H is the more acidic.
+    for (smi, alpha_prime, gamma) in [
+        ("O=C1CCCC(C)=C1", 2, 4),
+        ("O=C1C=CCCC1", 6, 4),
+        // Testosterone: α′ = C2 (atom 12), γ = C6 (atom 7).
+        (
+            "C[C@]12CC[C@H]3[C@@H](CCC4=CC(=O)CC[C@@]34C)[C@@H]1CC[C@@H]2O",
+            12,
+            7,
+        ),
+    ] {
+        let a = site(smi, alpha_prime);
+        let g = site(smi, gamma);
+        assert_eq!(a.regio, Some(Regio::Kinetic), "{smi}");
+        assert_eq!(g.regio, Some(Regio::Thermodynamic), "{smi}");
+        assert!(g.pka_dmso < a.pka_dmso, "{smi}");
+    }
+}

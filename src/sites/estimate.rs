@@ -511,6 +511,9 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
         if alphas.len() != 2 || alphas.iter().any(|&a| mol.atoms[a].element != 6) {
             continue;
         }
+        if mark_enone(mol, sites, &alphas) {
+            continue;
+        }
         let (Some(x), Some(y)) = (site_of(sites, alphas[0]), site_of(sites, alphas[1])) else {
             continue;
         };
@@ -542,6 +545,50 @@ fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
         sites[kin].regio = Some(Regio::Kinetic);
         sites[thermo].regio = Some(Regio::Thermodynamic);
     }
+}
+
+/// Enone regiochemistry: a ketone C=O with one sp3 α′-carbon (a ketone
+/// site) and one α-carbon in a C=C. The α′ side gives the cross-conjugated
+/// enolate, formed fastest by a hindered amide at low temperature (kinetic);
+/// the γ-carbons (sites on the β-carbon's other neighbours) give the
+/// extended dienolate favoured at equilibrium (thermodynamic). Returns true
+/// when `alphas` is such a pair (whether or not a side was marked).
+fn mark_enone(mol: &Molecule, sites: &mut [Site], alphas: &[usize]) -> bool {
+    let vinyl_beta = |a: usize| {
+        mol.neighbors(a).iter().find_map(|nb| {
+            (mol.atoms[nb.atom].element == 6
+                && !mol.atoms[nb.atom].aromatic
+                && matches!(mol.bonds[nb.bond].order, BondOrder::Double))
+            .then_some(nb.atom)
+        })
+    };
+    let (alpha_prime, alpha, beta) = match (vinyl_beta(alphas[0]), vinyl_beta(alphas[1])) {
+        (None, Some(b)) => (alphas[0], alphas[1], b),
+        (Some(b), None) => (alphas[1], alphas[0], b),
+        _ => return false,
+    };
+    let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
+    let Some(k) = site_of(sites, alpha_prime) else {
+        return true;
+    };
+    if !sites[k].class.starts_with("ketone") {
+        return true;
+    }
+    let gammas: Vec<usize> = mol
+        .neighbors(beta)
+        .iter()
+        .filter(|nb| nb.atom != alpha)
+        .filter_map(|nb| site_of(sites, nb.atom))
+        .filter(|&g| g != k && sites[g].is_carbon() && !sites[g].background)
+        .collect();
+    if gammas.is_empty() {
+        return true;
+    }
+    sites[k].regio = Some(Regio::Kinetic);
+    for g in gammas {
+        sites[g].regio = Some(Regio::Thermodynamic);
+    }
+    true
 }
 
 /// Run the rule set over the molecule's main component.
