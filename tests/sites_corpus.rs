@@ -355,7 +355,7 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CC(=O)COC(C)=O", "I-CO-OAC"),
     ("CC(=O)CC=C", "I-CO-VIN1"),
     ("CC(C#N)C#N", "I-MN-ALK1"),
-    ("CC=CC(C)=O", "C-VINCO-01"),
+    ("CC=CC(=O)OC", "C-VINCO-01"),
     ("COCCO", "I-AL-HETB"),
     ("[NH3+]CC(F)(F)F", "I-NH-FB"),
     ("CC(=O)C1C(=O)CC(C)(C)CC1=O", "I-CD-ACY"),
@@ -417,6 +417,8 @@ const EXERCISE: &[(&str, &str)] = &[
     ("Cc1cc(C)on1", "C-HARME-I5"),
     ("Cc1cc(C)on1", "C-HARME-I3"),
     ("Cc1ccn(C)n1", "C-PICOL-01"),
+    ("CC=CC(C)=O", "C-VINKE-01"),
+    ("O=C1CCCc2ccccc21", "C-KETAR-02"),
 ];
 
 /// Kinetic / thermodynamic sides of unsymmetrical ketones
