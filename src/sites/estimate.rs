@@ -10,13 +10,13 @@ use crate::smarts::Target;
 
 /// One acidic atom before grouping.
 #[derive(Debug, Clone)]
-struct Raw {
-    atom: usize,
-    rule: usize,
-    site: Site,
+pub(super) struct Raw {
+    pub(super) atom: usize,
+    pub(super) rule: usize,
+    pub(super) site: Site,
 }
 
-fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
+pub(super) fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
     let mut m = 0u128;
     for &i in atoms {
         if let Some(a) = mol.atoms.get(i) {
@@ -487,7 +487,7 @@ fn estimate_atom(
     }
 }
 
-fn rank_key(s: &Site, scale: Scale) -> f64 {
+pub(super) fn rank_key(s: &Site, scale: Scale) -> f64 {
     s.ranking_pka(scale).map_or(f64::INFINITY, |(_, v)| v)
 }
 
@@ -694,58 +694,11 @@ fn run_on(
     // Per rule: 0 screen not run yet, 1 passed, 2 failed.
     let mut screened = vec![0u8; set.rules.len()];
     for &i in &atoms {
-        let a = &mol.atoms[i];
-        if a.hydrogens == 0 {
-            continue;
-        }
-        // A C–H with no activating neighbour is tried against the
-        // background rows only (cheap; they come last in the file).
-        let only_background = match a.element {
-            6 => !carbon_candidate(mol, i),
-            7 | 8 | 16 => false,
-            _ => continue,
-        };
-        let candidates = if only_background {
-            set.background_rules()
-        } else {
-            set.rules_for(a.element)
-        };
-        for &r in candidates {
-            let Some(rule) = set.rules.get(r) else {
-                continue;
-            };
-            if rule.z != a.element
-                || rule.required_elements & !mask != 0
-                || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
-            {
-                continue;
-            }
-            // The molecule-wide screen once per rule and molecule.
-            let passes = match screened.get(r).copied() {
-                Some(0) => {
-                    let ok = rule.pattern.passes_screen(target);
-                    if let Some(x) = screened.get_mut(r) {
-                        *x = if ok { 1 } else { 2 };
-                    }
-                    ok
-                }
-                Some(x) => x == 1,
-                None => rule.pattern.passes_screen(target),
-            };
-            if !passes {
-                continue;
-            }
-            if let Some(m) = rule.pattern.matches_at_screened(target, i) {
-                let site = estimate_atom(mol, set, sigma, i, rule, &m);
-                raws.push(Raw {
-                    atom: i,
-                    rule: r,
-                    site,
-                });
-                break;
-            }
+        if let Some(raw) = classify_atom(mol, target, set, sigma, mask, &mut screened, i) {
+            raws.push(raw);
         }
     }
+    super::states::after_removal(mol, &atoms, set, sigma, opts, &mut raws);
     let mut sites = group(mol, raws);
     sites.sort_by(|a, b| {
         a.background
@@ -762,6 +715,72 @@ fn run_on(
         top_carbon,
         top_overall,
     }
+}
+
+/// The class rule and estimate of the hydrogen-bearing atom `i` (None when
+/// it bears no hydrogen or no rule matches). `mask` holds the elements of the
+/// analysed part; `screened` caches the molecule-wide screen per rule
+/// (0 not run, 1 passed, 2 failed) and belongs to `target`.
+pub(super) fn classify_atom(
+    mol: &Molecule,
+    target: &Target,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    mask: u128,
+    screened: &mut [u8],
+    i: usize,
+) -> Option<Raw> {
+    let a = &mol.atoms[i];
+    if a.hydrogens == 0 {
+        return None;
+    }
+    // A C–H with no activating neighbour is tried against the background
+    // rows only (cheap; they come last in the file).
+    let only_background = match a.element {
+        6 => !carbon_candidate(mol, i),
+        7 | 8 | 16 => false,
+        _ => return None,
+    };
+    let candidates = if only_background {
+        set.background_rules()
+    } else {
+        set.rules_for(a.element)
+    };
+    for &r in candidates {
+        let Some(rule) = set.rules.get(r) else {
+            continue;
+        };
+        if rule.z != a.element
+            || rule.required_elements & !mask != 0
+            || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
+        {
+            continue;
+        }
+        // The molecule-wide screen once per rule and molecule.
+        let passes = match screened.get(r).copied() {
+            Some(0) => {
+                let ok = rule.pattern.passes_screen(target);
+                if let Some(x) = screened.get_mut(r) {
+                    *x = if ok { 1 } else { 2 };
+                }
+                ok
+            }
+            Some(x) => x == 1,
+            None => rule.pattern.passes_screen(target),
+        };
+        if !passes {
+            continue;
+        }
+        if let Some(m) = rule.pattern.matches_at_screened(target, i) {
+            let site = estimate_atom(mol, set, sigma, i, rule, &m);
+            return Some(Raw {
+                atom: i,
+                rule: r,
+                site,
+            });
+        }
+    }
+    None
 }
 
 /// Merge symmetry-equivalent atoms with the same estimate into one site.

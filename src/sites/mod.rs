@@ -38,6 +38,14 @@
 //!    widen the uncertainty. Without a ρ on one scale that scale gets no
 //!    term and a wider uncertainty.
 //!
+//! 4. **Charged states** (`states.rs`): a site that lies at least 3 units
+//!    above an O–H, S–H or cationic N–H site (a carboxylic acid, a phenol,
+//!    an ammonium) is estimated as the proton that goes after it: its rule
+//!    is matched again with those acids deprotonated, so it sees a
+//!    carboxylate, a phenoxide or a free amine (e.g. `I-CO-NR`, not
+//!    `I-CO-ONN`, for glycine methyl ester hydrochloride; a Hammett term
+//!    `…/sigma-p:oxido` for a phenol that went first).
+//!
 //! Each contribution is a [`RuleUse`]; the estimate is their sum. Class
 //! rules and increments appear under their ids (`C-KETON-01`,
 //! `I-CO-ALK1`); a Hammett term appears as
@@ -62,6 +70,7 @@ use crate::mol::Molecule;
 mod estimate;
 mod hammett;
 mod rules;
+mod states;
 
 pub use hammett::{SigmaEntry, SigmaTable};
 pub use rules::{
