@@ -162,3 +162,15 @@ fn find_sites_given_a_more_acidic_ammonium_or_acid_estimates_after_its_removal_i
         .iter()
         .any(|u| u.id == "C-LACTA-01"));
 }
+
+#[test]
+fn find_sites_given_deuterium_and_tritium_counts_them_apart_issue11() {
+    // Acetone-d3: the CD3 and CH3 sides are distinct sites; the labelled
+    // site lists its 3 hydrogens as 3 deuterium (issue 11).
+    let d = site("[2H]C([2H])([2H])C(=O)C", 0);
+    assert_eq!((d.hydrogens, d.deuterium, d.tritium), (3, 3, 0));
+    let h = site("[2H]C([2H])([2H])C(=O)C", 3);
+    assert_eq!((h.hydrogens, h.deuterium, h.tritium), (3, 0, 0));
+    let t = site("CC(=O)C([2H])([3H])C", 3);
+    assert_eq!((t.hydrogens, t.deuterium, t.tritium), (2, 1, 1));
+}

@@ -294,6 +294,8 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
             atoms: s.atoms,
             element: s.element,
             hydrogens: s.hydrogens,
+            deuterium: s.deuterium,
+            tritium: s.tritium,
             class: s.class,
             pka_dmso: s.pka_dmso.and_then(|x| round(x, 0.01)),
             pka_water: s.pka_water.and_then(|x| round(x, 0.01)),

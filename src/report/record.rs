@@ -300,8 +300,14 @@ pub struct SiteOut {
     pub atoms: Vec<usize>,
     /// Element of the acidic atom: `C`, `N`, `O` or `S`.
     pub element: String,
-    /// Hydrogens on each atom of the site.
+    /// Hydrogens on each atom of the site (all isotopes).
     pub hydrogens: u8,
+    /// How many of `hydrogens` are deuterium (key written only when > 0).
+    #[serde(skip_serializing_if = "is_zero")]
+    pub deuterium: u8,
+    /// How many of `hydrogens` are tritium (key written only when > 0).
+    #[serde(skip_serializing_if = "is_zero")]
+    pub tritium: u8,
     /// Class name from the rule data.
     pub class: String,
     pub pka_dmso: Option<f64>,
@@ -328,6 +334,14 @@ impl SiteOut {
         json::string(out, &self.element);
         out.extend_from_slice(b",\"hydrogens\":");
         json::uint(out, self.hydrogens as u64);
+        if self.deuterium > 0 {
+            out.extend_from_slice(b",\"deuterium\":");
+            json::uint(out, self.deuterium as u64);
+        }
+        if self.tritium > 0 {
+            out.extend_from_slice(b",\"tritium\":");
+            json::uint(out, self.tritium as u64);
+        }
         out.extend_from_slice(b",\"class\":");
         json::string(out, &self.class);
         out.extend_from_slice(b",\"pka_dmso\":");
@@ -658,4 +672,9 @@ pub(crate) fn round(x: f64, step: f64) -> Option<f64> {
     }
     let inv = (1.0 / step).round();
     Some((x * inv).round() / inv)
+}
+
+/// Serde helper: skip a zero count.
+fn is_zero(n: &u8) -> bool {
+    *n == 0
 }

@@ -4,7 +4,7 @@
 
 use super::hammett::{ring_positions, SigmaTable};
 use super::rules::{Hammett, Rule, RuleSet, SigmaKind};
-use super::{Options, Regio, RuleUse, Scale, Site, SiteReport};
+use super::{Options, RuleUse, Scale, Site, SiteReport};
 use crate::mol::{BondOrder, Molecule};
 use crate::smarts::Target;
 
@@ -189,7 +189,7 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
     }
 }
 
-fn double_to_any(mol: &Molecule, i: usize, el: u8) -> bool {
+pub(super) fn double_to_any(mol: &Molecule, i: usize, el: u8) -> bool {
     mol.neighbors(i).iter().any(|nb| {
         mol.atoms[nb.atom].element == el && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
     })
@@ -477,6 +477,8 @@ fn estimate_atom(
         atoms: vec![i],
         element: a.symbol().to_string(),
         hydrogens: a.hydrogens,
+        deuterium: a.heavy_hydrogens - a.tritium.min(a.heavy_hydrogens),
+        tritium: a.tritium.min(a.heavy_hydrogens),
         class: rule.class.clone(),
         pka_dmso: dmso.map(round2),
         pka_water: water.map(round2),
@@ -489,106 +491,6 @@ fn estimate_atom(
 
 pub(super) fn rank_key(s: &Site, scale: Scale) -> f64 {
     s.ranking_pka(scale).map_or(f64::INFINITY, |(_, v)| v)
-}
-
-/// Ketone regiochemistry: for a ketone carbonyl with two enolisable
-/// α-carbons in different sites, the side with more hydrogens (less
-/// substituted) is kinetic and the other thermodynamic; with equal
-/// hydrogen counts the more acidic side is thermodynamic.
-fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
-    let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
-    for c in 0..mol.atom_count() {
-        let at = &mol.atoms[c];
-        if at.element != 6 || at.aromatic || !double_to_any(mol, c, 8) {
-            continue;
-        }
-        let alphas: Vec<usize> = mol
-            .neighbors(c)
-            .iter()
-            .filter(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Single))
-            .map(|nb| nb.atom)
-            .collect();
-        if alphas.len() != 2 || alphas.iter().any(|&a| mol.atoms[a].element != 6) {
-            continue;
-        }
-        if mark_enone(mol, sites, &alphas) {
-            continue;
-        }
-        let (Some(x), Some(y)) = (site_of(sites, alphas[0]), site_of(sites, alphas[1])) else {
-            continue;
-        };
-        if x == y || !sites[x].class.starts_with("ketone") || !sites[y].class.starts_with("ketone")
-        {
-            continue;
-        }
-        let (hx, hy) = (sites[x].hydrogens, sites[y].hydrogens);
-        let (kin, thermo) = if hx != hy {
-            if hx > hy {
-                (x, y)
-            } else {
-                (y, x)
-            }
-        } else {
-            let (kx, ky) = (
-                rank_key(&sites[x], Scale::Dmso),
-                rank_key(&sites[y], Scale::Dmso),
-            );
-            if (kx - ky).abs() < 0.05 {
-                continue;
-            }
-            if kx < ky {
-                (y, x)
-            } else {
-                (x, y)
-            }
-        };
-        sites[kin].regio = Some(Regio::Kinetic);
-        sites[thermo].regio = Some(Regio::Thermodynamic);
-    }
-}
-
-/// Enone regiochemistry: a ketone C=O with one sp3 α′-carbon (a ketone
-/// site) and one α-carbon in a C=C. The α′ side gives the cross-conjugated
-/// enolate, formed fastest by a hindered amide at low temperature (kinetic);
-/// the γ-carbons (sites on the β-carbon's other neighbours) give the
-/// extended dienolate favoured at equilibrium (thermodynamic). Returns true
-/// when `alphas` is such a pair (whether or not a side was marked).
-fn mark_enone(mol: &Molecule, sites: &mut [Site], alphas: &[usize]) -> bool {
-    let vinyl_beta = |a: usize| {
-        mol.neighbors(a).iter().find_map(|nb| {
-            (mol.atoms[nb.atom].element == 6
-                && !mol.atoms[nb.atom].aromatic
-                && matches!(mol.bonds[nb.bond].order, BondOrder::Double))
-            .then_some(nb.atom)
-        })
-    };
-    let (alpha_prime, alpha, beta) = match (vinyl_beta(alphas[0]), vinyl_beta(alphas[1])) {
-        (None, Some(b)) => (alphas[0], alphas[1], b),
-        (Some(b), None) => (alphas[1], alphas[0], b),
-        _ => return false,
-    };
-    let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
-    let Some(k) = site_of(sites, alpha_prime) else {
-        return true;
-    };
-    if !sites[k].class.starts_with("ketone") {
-        return true;
-    }
-    let gammas: Vec<usize> = mol
-        .neighbors(beta)
-        .iter()
-        .filter(|nb| nb.atom != alpha)
-        .filter_map(|nb| site_of(sites, nb.atom))
-        .filter(|&g| g != k && sites[g].is_carbon() && !sites[g].background)
-        .collect();
-    if gammas.is_empty() {
-        return true;
-    }
-    sites[k].regio = Some(Regio::Kinetic);
-    for g in gammas {
-        sites[g].regio = Some(Regio::Thermodynamic);
-    }
-    true
 }
 
 /// Run the rule set over the molecule's main component.
@@ -706,7 +608,7 @@ fn run_on(
             .then(rank_key(a, opts.scale).total_cmp(&rank_key(b, opts.scale)))
             .then(a.atoms.cmp(&b.atoms))
     });
-    mark_regio(mol, &mut sites);
+    super::regio::mark_regio(mol, &mut sites);
     // Background sites come last and are never the top site.
     let top_overall = sites.iter().position(|s| !s.background);
     let top_carbon = sites.iter().position(|s| s.is_carbon() && !s.background);
@@ -786,7 +688,10 @@ pub(super) fn classify_atom(
 /// Merge symmetry-equivalent atoms with the same estimate into one site.
 fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     let same = |a: &Raw, b: &Raw| {
-        a.rule == b.rule && a.site.rules == b.site.rules && a.site.hydrogens == b.site.hydrogens
+        a.rule == b.rule
+            && a.site.rules == b.site.rules
+            && (a.site.hydrogens, a.site.deuterium, a.site.tritium)
+                == (b.site.hydrogens, b.site.deuterium, b.site.tritium)
     };
     // Symmetry classes are computed only if two atoms could be merged.
     let need = raws

@@ -69,6 +69,7 @@ use crate::mol::Molecule;
 
 mod estimate;
 mod hammett;
+mod regio;
 mod rules;
 mod states;
 
@@ -169,8 +170,12 @@ pub struct Site {
     pub atoms: Vec<usize>,
     /// Element symbol of the acidic atom ("C", "O", "N", "S").
     pub element: String,
-    /// Hydrogens on each atom of the group.
+    /// Hydrogens on each atom of the group (all isotopes).
     pub hydrogens: u8,
+    /// How many of `hydrogens` are deuterium, on each atom of the group.
+    pub deuterium: u8,
+    /// How many of `hydrogens` are tritium, on each atom of the group.
+    pub tritium: u8,
     /// Class name from the rule data (e.g. "ketone", "ester", "alcohol").
     pub class: String,
     pub pka_dmso: Option<f64>,
