@@ -638,3 +638,20 @@ fn advise_given_alcohol_without_acidic_c_h_prefers_sodium_hydride_to_lithium_ami
         }
     }
 }
+
+#[test]
+fn advise_given_alcohol_with_alkyl_groups_never_targets_background_ch_issue11() {
+    // Issue 11: alkane C–H is listed (background, about 56 in DMSO, from
+    // memory) but is never the default target while another site exists;
+    // asked for by atom it is the target.
+    let a = plan("CCCCO");
+    assert_eq!(a.target.atoms, vec![4]);
+    let b = plan_with(
+        "CCCCO",
+        AdviceOptions {
+            site: Some(1),
+            ..AdviceOptions::default()
+        },
+    );
+    assert!(b.target.atoms.contains(&1));
+}

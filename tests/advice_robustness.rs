@@ -139,12 +139,15 @@ fn site_strategy() -> impl Strategy<Value = Site> {
             atoms,
             element: el.to_string(),
             hydrogens: 1,
+            deuterium: 0,
+            tritium: 0,
             class: class.to_string(),
             pka_dmso: d,
             pka_water: w,
             uncertainty: u,
             rules: Vec::new(),
             regio,
+            background: false,
         })
 }
 

@@ -391,7 +391,11 @@ fn formula_given_common_molecules_is_hill_order() {
     assert_eq!(mol("O").formula(), "H2O");
     assert_eq!(mol("OS(=O)(=O)O").formula(), "H2O4S");
     assert_eq!(mol("[Na+].[Cl-]").formula(), "ClNa");
-    assert_eq!(mol("[2H]OC").formula(), "CH4O");
+    // Folded deuterium and tritium are written as D and T after H (issue 11;
+    // RDKit's default formula merges them into H).
+    assert_eq!(mol("[2H]OC").formula(), "CH3DO");
+    assert_eq!(mol("[2H]C([3H])([2H])C(=O)C").formula(), "C3H3D2TO");
+    assert_eq!(mol("[2H]O[2H]").formula(), "D2O");
 }
 
 // ----- hydrogens and accessors -----

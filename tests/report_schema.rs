@@ -48,6 +48,9 @@ struct SiteMirror {
     atoms: Vec<usize>,
     element: String,
     hydrogens: u8,
+    /// Present only for a labelled site (issue 11).
+    deuterium: Option<u8>,
+    tritium: Option<u8>,
     class: String,
     pka_dmso: Option<f64>,
     pka_water: Option<f64>,

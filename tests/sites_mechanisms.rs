@@ -71,10 +71,12 @@ fn find_sites_given_4_cyanotoluene_ranks_between_toluene_and_nitrotoluene() {
 
 #[test]
 fn find_sites_given_4_picoline_keeps_the_azine_rule() {
-    // 4-methylpyridine about 35 in DMSO vs toluene 43 (from memory).
+    // 4-methylpyridine 32.2 vs toluene about 43 (recalled from Fraser,
+    // Mansour, Savard, J. Org. Chem. 1985, 50, 3232, THF lithium scale;
+    // issue 11 gave the 4-, 2- and 3-isomers their own rows).
     let s = site("Cc1ccncc1", 0);
-    assert!(uses(&s, "C-PICOL-01"));
-    assert!((dmso(&s) - 35.0).abs() <= 2.0);
+    assert!(uses(&s, "C-HARME-P4"));
+    assert!((dmso(&s) - 32.2).abs() <= 1.0);
 }
 
 #[test]

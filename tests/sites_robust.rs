@@ -19,9 +19,17 @@ fn check(smiles: &str) {
         assert!(s.pka_water.is_none_or(f64::is_finite));
         assert!(!s.rules.is_empty());
     }
-    assert_eq!(r.top_overall.is_some(), !r.sites.is_empty());
+    // Background (unactivated alkane) sites are never the top site
+    // (issue 11); they come after every other site.
+    assert_eq!(
+        r.top_overall.is_some(),
+        r.sites.iter().any(|s| !s.background)
+    );
     if let Some(c) = r.top_carbon {
-        assert!(r.sites[c].is_carbon());
+        assert!(r.sites[c].is_carbon() && !r.sites[c].background);
+    }
+    if let Some(first) = r.sites.iter().position(|s| s.background) {
+        assert!(r.sites[first..].iter().all(|s| s.background));
     }
     // Every atom appears in at most one site.
     let mut all: Vec<usize> = r.sites.iter().flat_map(|s| s.atoms.clone()).collect();

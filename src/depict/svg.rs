@@ -39,13 +39,15 @@ pub struct Marks {
 
 impl Marks {
     /// The sites and the advice target of an analysis record (none for a
-    /// failed record).
+    /// failed record). Background (unactivated alkane) C–H sites are not
+    /// marked (an advice target is still ringed).
     pub fn from_record(rec: &Record) -> Marks {
         let sites = rec
             .sites
             .as_deref()
             .unwrap_or(&[])
             .iter()
+            .filter(|s| !s.background)
             .map(|s| SiteMark {
                 rank: s.rank,
                 atoms: s.atoms.clone(),

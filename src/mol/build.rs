@@ -206,6 +206,7 @@ pub(crate) fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> 
             isotope: a.isotope,
             hydrogens: a.hcount.unwrap_or(0),
             heavy_hydrogens: 0,
+            tritium: 0,
             map: a.map,
             bracket: a.bracket,
             span: spans[i].clone(),
@@ -223,6 +224,9 @@ pub(crate) fn build(smiles: &str, raw: read::Raw) -> Result<Molecule, MolError> 
             atom.hydrogens = atom.hydrogens.saturating_add(1);
             if matches!(raw_atoms[h].isotope, Some(2) | Some(3)) {
                 atom.heavy_hydrogens = atom.heavy_hydrogens.saturating_add(1);
+            }
+            if raw_atoms[h].isotope == Some(3) {
+                atom.tritium = atom.tritium.saturating_add(1);
             }
             continue;
         }

@@ -37,7 +37,8 @@
 //! as atoms (`[H]`, `[2H]`, `[3H]`) that are neutral, carry no hydrogen
 //! count and have one single bond to a non-hydrogen atom are folded into
 //! that atom's hydrogen count (their atom maps are dropped); deuterium and
-//! tritium are also counted in [`Atom::heavy_hydrogens`]. Folded hydrogens
+//! tritium are also counted in [`Atom::heavy_hydrogens`] (tritium alone in
+//! [`Atom::tritium`]), and the formula writes them as D and T. Folded hydrogens
 //! take no index; every other atom keeps its written order. Other hydrogens
 //! (`[H][H]`, `[H+]`, bridging hydrogens) stay atoms.
 //!
@@ -196,6 +197,8 @@ pub struct Atom {
     pub hydrogens: u8,
     /// How many of `hydrogens` are deuterium or tritium.
     pub heavy_hydrogens: u8,
+    /// How many of `heavy_hydrogens` are tritium (the rest are deuterium).
+    pub tritium: u8,
     /// Atom-map number (`[CH3:4]`), if any.
     pub map: Option<u16>,
     /// Written as a bracket atom.
@@ -565,6 +568,7 @@ fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
     // whole table afterwards).
     let mut present: Vec<u8> = Vec::with_capacity(8);
     let mut hydrogens = 0u32;
+    let (mut deuterium, mut tritium) = (0u32, 0u32);
     for a in atoms {
         if let Some(c) = counts.get_mut(a.element as usize) {
             if *c == 0 {
@@ -573,7 +577,14 @@ fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
             *c += 1;
         }
         hydrogens += a.hydrogens as u32;
+        let t = a.tritium.min(a.heavy_hydrogens);
+        tritium += t as u32;
+        deuterium += (a.heavy_hydrogens - t) as u32;
     }
+    // Folded deuterium and tritium are written as D and T after H (Hill
+    // order with carbon, else with the other symbols); an explicit [2H]
+    // atom that stays an atom counts as H, as RDKit writes it.
+    hydrogens -= (deuterium + tritium).min(hydrogens);
     if counts[1] == 0 && hydrogens > 0 {
         present.push(1);
     }
@@ -591,6 +602,12 @@ fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
         if counts[1] > 0 {
             put("H", counts[1]);
         }
+        if deuterium > 0 {
+            put("D", deuterium);
+        }
+        if tritium > 0 {
+            put("T", tritium);
+        }
     }
     // `*` sorts before the letters, as RDKit writes it.
     let mut rest: Vec<(&str, u32)> = present
@@ -599,6 +616,13 @@ fn formula_of<'a>(atoms: impl Iterator<Item = &'a Atom>) -> String {
         .filter(|&z| !(has_carbon && (z == 6 || z == 1)))
         .map(|z| (elements::SYMBOLS[z], counts[z]))
         .collect();
+    if !has_carbon {
+        rest.extend(
+            [("D", deuterium), ("T", tritium)]
+                .into_iter()
+                .filter(|x| x.1 > 0),
+        );
+    }
     rest.sort_unstable_by(|a, b| a.0.cmp(b.0));
     for (sym, c) in rest {
         put(sym, c);

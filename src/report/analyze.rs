@@ -294,6 +294,8 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
             atoms: s.atoms,
             element: s.element,
             hydrogens: s.hydrogens,
+            deuterium: s.deuterium,
+            tritium: s.tritium,
             class: s.class,
             pka_dmso: s.pka_dmso.and_then(|x| round(x, 0.01)),
             pka_water: s.pka_water.and_then(|x| round(x, 0.01)),
@@ -311,6 +313,7 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
                 Regio::Kinetic => "kinetic",
                 Regio::Thermodynamic => "thermodynamic",
             }),
+            background: s.background,
         })
         .collect()
 }
@@ -319,7 +322,9 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
 /// do not fit the text (reported rather than guessed).
 fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<String> {
     let mut labels = Vec::new();
-    for s in sites {
+    // Background (unactivated alkane) C–H sites rank last and are not
+    // labelled: the text stays readable.
+    for s in sites.iter().filter(|s| !s.background) {
         for &a in &s.atoms {
             let atom = mol.atoms.get(a)?;
             labels.push(Label {

@@ -35,7 +35,7 @@
 //! | `sites` | array | acidic sites, ranked most acidic first (see [`SiteOut`]) |
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
 //! | `advice_note` | string | only when `advice` is null: why |
-//! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number |
+//! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number (background alkane C–H sites, ranked last, are not labelled) |
 //! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given (at most 10,000 matches and 10^7 matcher steps per pattern and molecule) |
 //! | `flag_warnings` | array of string | only when a `--flag` count reached a bound: the pattern and the bound; its count is then a lower bound |
 //!
@@ -229,7 +229,10 @@ impl Record {
 
     /// The most acidic C–H site, if any (sites are ranked).
     pub fn top_carbon_site(&self) -> Option<&SiteOut> {
-        self.sites.as_ref()?.iter().find(|s| s.element == "C")
+        self.sites
+            .as_ref()?
+            .iter()
+            .find(|s| s.element == "C" && !s.background)
     }
 }
 
@@ -297,8 +300,14 @@ pub struct SiteOut {
     pub atoms: Vec<usize>,
     /// Element of the acidic atom: `C`, `N`, `O` or `S`.
     pub element: String,
-    /// Hydrogens on each atom of the site.
+    /// Hydrogens on each atom of the site (all isotopes).
     pub hydrogens: u8,
+    /// How many of `hydrogens` are deuterium (key written only when > 0).
+    #[serde(skip_serializing_if = "is_zero")]
+    pub deuterium: u8,
+    /// How many of `hydrogens` are tritium (key written only when > 0).
+    #[serde(skip_serializing_if = "is_zero")]
+    pub tritium: u8,
     /// Class name from the rule data.
     pub class: String,
     pub pka_dmso: Option<f64>,
@@ -309,6 +318,10 @@ pub struct SiteOut {
     pub rules: Vec<RuleOut>,
     /// `"kinetic"`, `"thermodynamic"` or null.
     pub regio: Option<&'static str>,
+    /// Background (unactivated) C–H site: listed last, never the top C–H
+    /// site. Not written (the class says it).
+    #[serde(skip)]
+    pub background: bool,
 }
 
 impl SiteOut {
@@ -321,6 +334,14 @@ impl SiteOut {
         json::string(out, &self.element);
         out.extend_from_slice(b",\"hydrogens\":");
         json::uint(out, self.hydrogens as u64);
+        if self.deuterium > 0 {
+            out.extend_from_slice(b",\"deuterium\":");
+            json::uint(out, self.deuterium as u64);
+        }
+        if self.tritium > 0 {
+            out.extend_from_slice(b",\"tritium\":");
+            json::uint(out, self.tritium as u64);
+        }
         out.extend_from_slice(b",\"class\":");
         json::string(out, &self.class);
         out.extend_from_slice(b",\"pka_dmso\":");
@@ -651,4 +672,9 @@ pub(crate) fn round(x: f64, step: f64) -> Option<f64> {
     }
     let inv = (1.0 / step).round();
     Some((x * inv).round() / inv)
+}
+
+/// Serde helper: skip a zero count.
+fn is_zero(n: &u8) -> bool {
+    *n == 0
 }

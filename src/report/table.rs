@@ -112,7 +112,7 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
                 [
                     format!("#{}", s.rank),
                     format!("{}{}", s.element, atom_list(&s.atoms)),
-                    format!("{}H", s.hydrogens),
+                    hydrogen_counts(s.hydrogens, s.deuterium, s.tritium),
                     s.class.clone(),
                     pka(s.pka_dmso),
                     pka(s.pka_water),
@@ -500,4 +500,21 @@ fn percent(c: f64) -> String {
     } else {
         format!("{p:.2e} %")
     }
+}
+
+/// Hydrogen count of a site atom with its labels apart: `3H`, `2H+1D`,
+/// `1D+1T` (D and T are part of the total the record gives as `hydrogens`).
+fn hydrogen_counts(total: u8, d: u8, t: u8) -> String {
+    let h = total.saturating_sub(d).saturating_sub(t);
+    let mut parts = Vec::new();
+    if h > 0 || (d == 0 && t == 0) {
+        parts.push(format!("{h}H"));
+    }
+    if d > 0 {
+        parts.push(format!("{d}D"));
+    }
+    if t > 0 {
+        parts.push(format!("{t}T"));
+    }
+    parts.join("+")
 }

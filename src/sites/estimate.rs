@@ -4,19 +4,19 @@
 
 use super::hammett::{ring_positions, SigmaTable};
 use super::rules::{Hammett, Rule, RuleSet, SigmaKind};
-use super::{Options, Regio, RuleUse, Scale, Site, SiteReport};
+use super::{Options, RuleUse, Scale, Site, SiteReport};
 use crate::mol::{BondOrder, Molecule};
 use crate::smarts::Target;
 
 /// One acidic atom before grouping.
 #[derive(Debug, Clone)]
-struct Raw {
-    atom: usize,
-    rule: usize,
-    site: Site,
+pub(super) struct Raw {
+    pub(super) atom: usize,
+    pub(super) rule: usize,
+    pub(super) site: Site,
 }
 
-fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
+pub(super) fn elem_mask(mol: &Molecule, atoms: &[usize]) -> u128 {
     let mut m = 0u128;
     for &i in atoms {
         if let Some(a) = mol.atoms.get(i) {
@@ -189,7 +189,7 @@ fn substituent_kind(mol: &Molecule, site: usize, s: usize) -> Option<&'static st
     }
 }
 
-fn double_to_any(mol: &Molecule, i: usize, el: u8) -> bool {
+pub(super) fn double_to_any(mol: &Molecule, i: usize, el: u8) -> bool {
     mol.neighbors(i).iter().any(|nb| {
         mol.atoms[nb.atom].element == el && matches!(mol.bonds[nb.bond].order, BondOrder::Double)
     })
@@ -433,11 +433,12 @@ fn estimate_atom(
             hammett_terms(mol, ipso, h, &rule.id, sigma, &mut uses, &mut var);
         }
     }
-    if rule.element != "C" && rule.family != "none" {
+    let increments = rule.family != "none" && !rule.background;
+    if rule.element != "C" && increments {
         let kinds = hetero_kinds(mol, i, matched);
         apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
     }
-    if rule.element == "C" && rule.family != "none" {
+    if rule.element == "C" && increments {
         let mut kinds: Vec<(&'static str, usize)> = Vec::new();
         for nb in mol.neighbors(i) {
             if matched.contains(&nb.atom) || mol.atoms[nb.atom].element == 1 {
@@ -476,70 +477,20 @@ fn estimate_atom(
         atoms: vec![i],
         element: a.symbol().to_string(),
         hydrogens: a.hydrogens,
+        deuterium: a.heavy_hydrogens - a.tritium.min(a.heavy_hydrogens),
+        tritium: a.tritium.min(a.heavy_hydrogens),
         class: rule.class.clone(),
         pka_dmso: dmso.map(round2),
         pka_water: water.map(round2),
         uncertainty: round2(var.sqrt()),
         rules: uses,
         regio: None,
+        background: rule.background,
     }
 }
 
-fn rank_key(s: &Site, scale: Scale) -> f64 {
+pub(super) fn rank_key(s: &Site, scale: Scale) -> f64 {
     s.ranking_pka(scale).map_or(f64::INFINITY, |(_, v)| v)
-}
-
-/// Ketone regiochemistry: for a ketone carbonyl with two enolisable
-/// α-carbons in different sites, the side with more hydrogens (less
-/// substituted) is kinetic and the other thermodynamic; with equal
-/// hydrogen counts the more acidic side is thermodynamic.
-fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
-    let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
-    for c in 0..mol.atom_count() {
-        let at = &mol.atoms[c];
-        if at.element != 6 || at.aromatic || !double_to_any(mol, c, 8) {
-            continue;
-        }
-        let alphas: Vec<usize> = mol
-            .neighbors(c)
-            .iter()
-            .filter(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Single))
-            .map(|nb| nb.atom)
-            .collect();
-        if alphas.len() != 2 || alphas.iter().any(|&a| mol.atoms[a].element != 6) {
-            continue;
-        }
-        let (Some(x), Some(y)) = (site_of(sites, alphas[0]), site_of(sites, alphas[1])) else {
-            continue;
-        };
-        if x == y || !sites[x].class.starts_with("ketone") || !sites[y].class.starts_with("ketone")
-        {
-            continue;
-        }
-        let (hx, hy) = (sites[x].hydrogens, sites[y].hydrogens);
-        let (kin, thermo) = if hx != hy {
-            if hx > hy {
-                (x, y)
-            } else {
-                (y, x)
-            }
-        } else {
-            let (kx, ky) = (
-                rank_key(&sites[x], Scale::Dmso),
-                rank_key(&sites[y], Scale::Dmso),
-            );
-            if (kx - ky).abs() < 0.05 {
-                continue;
-            }
-            if kx < ky {
-                (y, x)
-            } else {
-                (x, y)
-            }
-        };
-        sites[kin].regio = Some(Regio::Kinetic);
-        sites[thermo].regio = Some(Regio::Thermodynamic);
-    }
 }
 
 /// Run the rule set over the molecule's main component.
@@ -645,64 +596,22 @@ fn run_on(
     // Per rule: 0 screen not run yet, 1 passed, 2 failed.
     let mut screened = vec![0u8; set.rules.len()];
     for &i in &atoms {
-        let a = &mol.atoms[i];
-        if a.hydrogens == 0 {
-            continue;
-        }
-        match a.element {
-            6 => {
-                if !carbon_candidate(mol, i) {
-                    continue;
-                }
-            }
-            7 | 8 | 16 => {}
-            _ => continue,
-        }
-        for &r in set.rules_for(a.element) {
-            let Some(rule) = set.rules.get(r) else {
-                continue;
-            };
-            if rule.z != a.element
-                || rule.required_elements & !mask != 0
-                || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
-            {
-                continue;
-            }
-            // The molecule-wide screen once per rule and molecule.
-            let passes = match screened.get(r).copied() {
-                Some(0) => {
-                    let ok = rule.pattern.passes_screen(target);
-                    if let Some(x) = screened.get_mut(r) {
-                        *x = if ok { 1 } else { 2 };
-                    }
-                    ok
-                }
-                Some(x) => x == 1,
-                None => rule.pattern.passes_screen(target),
-            };
-            if !passes {
-                continue;
-            }
-            if let Some(m) = rule.pattern.matches_at_screened(target, i) {
-                let site = estimate_atom(mol, set, sigma, i, rule, &m);
-                raws.push(Raw {
-                    atom: i,
-                    rule: r,
-                    site,
-                });
-                break;
-            }
+        if let Some(raw) = classify_atom(mol, target, set, sigma, mask, &mut screened, i) {
+            raws.push(raw);
         }
     }
+    super::states::after_removal(mol, &atoms, set, sigma, opts, &mut raws);
     let mut sites = group(mol, raws);
     sites.sort_by(|a, b| {
-        rank_key(a, opts.scale)
-            .total_cmp(&rank_key(b, opts.scale))
+        a.background
+            .cmp(&b.background)
+            .then(rank_key(a, opts.scale).total_cmp(&rank_key(b, opts.scale)))
             .then(a.atoms.cmp(&b.atoms))
     });
-    mark_regio(mol, &mut sites);
-    let top_overall = if sites.is_empty() { None } else { Some(0) };
-    let top_carbon = sites.iter().position(|s| s.is_carbon());
+    super::regio::mark_regio(mol, &mut sites);
+    // Background sites come last and are never the top site.
+    let top_overall = sites.iter().position(|s| !s.background);
+    let top_carbon = sites.iter().position(|s| s.is_carbon() && !s.background);
     SiteReport {
         sites,
         top_carbon,
@@ -710,16 +619,85 @@ fn run_on(
     }
 }
 
+/// The class rule and estimate of the hydrogen-bearing atom `i` (None when
+/// it bears no hydrogen or no rule matches). `mask` holds the elements of the
+/// analysed part; `screened` caches the molecule-wide screen per rule
+/// (0 not run, 1 passed, 2 failed) and belongs to `target`.
+pub(super) fn classify_atom(
+    mol: &Molecule,
+    target: &Target,
+    set: &RuleSet,
+    sigma: &SigmaTable,
+    mask: u128,
+    screened: &mut [u8],
+    i: usize,
+) -> Option<Raw> {
+    let a = &mol.atoms[i];
+    if a.hydrogens == 0 {
+        return None;
+    }
+    // A C–H with no activating neighbour is tried against the background
+    // rows only (cheap; they come last in the file).
+    let only_background = match a.element {
+        6 => !carbon_candidate(mol, i),
+        7 | 8 | 16 => false,
+        _ => return None,
+    };
+    let candidates = if only_background {
+        set.background_rules()
+    } else {
+        set.rules_for(a.element)
+    };
+    for &r in candidates {
+        let Some(rule) = set.rules.get(r) else {
+            continue;
+        };
+        if rule.z != a.element
+            || rule.required_elements & !mask != 0
+            || rule.anchor_aromatic.is_some_and(|ar| ar != a.aromatic)
+        {
+            continue;
+        }
+        // The molecule-wide screen once per rule and molecule.
+        let passes = match screened.get(r).copied() {
+            Some(0) => {
+                let ok = rule.pattern.passes_screen(target);
+                if let Some(x) = screened.get_mut(r) {
+                    *x = if ok { 1 } else { 2 };
+                }
+                ok
+            }
+            Some(x) => x == 1,
+            None => rule.pattern.passes_screen(target),
+        };
+        if !passes {
+            continue;
+        }
+        if let Some(m) = rule.pattern.matches_at_screened(target, i) {
+            let site = estimate_atom(mol, set, sigma, i, rule, &m);
+            return Some(Raw {
+                atom: i,
+                rule: r,
+                site,
+            });
+        }
+    }
+    None
+}
+
 /// Merge symmetry-equivalent atoms with the same estimate into one site.
 fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     let same = |a: &Raw, b: &Raw| {
-        a.rule == b.rule && a.site.rules == b.site.rules && a.site.hydrogens == b.site.hydrogens
+        a.rule == b.rule
+            && a.site.rules == b.site.rules
+            && (a.site.hydrogens, a.site.deuterium, a.site.tritium)
+                == (b.site.hydrogens, b.site.deuterium, b.site.tritium)
     };
     // Symmetry classes are computed only if two atoms could be merged.
     let need = raws
         .iter()
         .enumerate()
-        .any(|(x, a)| raws[x + 1..].iter().any(|b| same(a, b)));
+        .any(|(x, a)| !a.site.background && raws[x + 1..].iter().any(|b| same(a, b)));
     let classes = if need {
         super::symmetry_classes(mol)
     } else {
@@ -728,11 +706,14 @@ fn group(mol: &Molecule, raws: Vec<Raw>) -> Vec<Site> {
     let mut out: Vec<Site> = Vec::new();
     let mut reps: Vec<usize> = Vec::new();
     for (x, raw) in raws.iter().enumerate() {
+        // Background atoms with the same hydrogen count form one site
+        // whatever their symmetry (bounded output for large alkyl parts).
         let found = reps.iter().position(|&r| {
             let rep = &raws[r];
             same(rep, raw)
-                && classes.get(rep.atom).is_some()
-                && classes.get(rep.atom) == classes.get(raw.atom)
+                && ((rep.site.background && raw.site.background)
+                    || (classes.get(rep.atom).is_some()
+                        && classes.get(rep.atom) == classes.get(raw.atom)))
         });
         match found {
             Some(k) => out[k].atoms.push(raw.atom),

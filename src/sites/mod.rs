@@ -14,8 +14,13 @@
 //!    atom on the atom gives the class and the base pKa of the parent
 //!    compound on each scale. Rows are ordered most specific first, so a
 //!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
-//!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is not
-//!    a site; neither are vinyl and aryl C–H (except azole C2–H).
+//!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is
+//!    tried only against the *background* rows (family `background`,
+//!    `C-ALKAN-01`, methane about 56): it is listed so that no
+//!    carbon-bound hydrogen is silently absent, ranked after every other
+//!    site, all such atoms with one hydrogen count form one site, and it is
+//!    never the top site or the default advice target. Vinyl and aryl C–H
+//!    are not sites (except azole C2–H).
 //!    A benzylic C–H whose ring carries a para (or ortho) π-acceptor (NO2,
 //!    CN, C=O, SO2R) is a *phenylogous* α-C–H of that acceptor: its rows
 //!    (`C-PHNYL-*`) take the acceptor's parent value plus a phenylene
@@ -37,6 +42,14 @@
 //!    (`fragments/sigma.tsv`); ortho substituents are not modelled and
 //!    widen the uncertainty. Without a ρ on one scale that scale gets no
 //!    term and a wider uncertainty.
+//!
+//! 4. **Charged states** (`states.rs`): a site that lies at least 3 units
+//!    above an O–H, S–H or cationic N–H site (a carboxylic acid, a phenol,
+//!    an ammonium) is estimated as the proton that goes after it: its rule
+//!    is matched again with those acids deprotonated, so it sees a
+//!    carboxylate, a phenoxide or a free amine (e.g. `I-CO-NR`, not
+//!    `I-CO-ONN`, for glycine methyl ester hydrochloride; a Hammett term
+//!    `…/sigma-p:oxido` for a phenol that went first).
 //!
 //! Each contribution is a [`RuleUse`]; the estimate is their sum. Class
 //! rules and increments appear under their ids (`C-KETON-01`,
@@ -61,11 +74,14 @@ use crate::mol::Molecule;
 
 mod estimate;
 mod hammett;
+mod regio;
 mod rules;
+mod states;
 
 pub use hammett::{SigmaEntry, SigmaTable};
 pub use rules::{
-    parse_rule_set, Hammett, Increment, Rule, RuleError, RuleSet, SigmaKind, SUBSTITUENT_KINDS,
+    parse_rule_set, Hammett, Increment, Rule, RuleError, RuleSet, SigmaKind, BACKGROUND_FAMILY,
+    SUBSTITUENT_KINDS,
 };
 
 /// Embedded rule files: (file name, text).
@@ -159,8 +175,12 @@ pub struct Site {
     pub atoms: Vec<usize>,
     /// Element symbol of the acidic atom ("C", "O", "N", "S").
     pub element: String,
-    /// Hydrogens on each atom of the group.
+    /// Hydrogens on each atom of the group (all isotopes).
     pub hydrogens: u8,
+    /// How many of `hydrogens` are deuterium, on each atom of the group.
+    pub deuterium: u8,
+    /// How many of `hydrogens` are tritium, on each atom of the group.
+    pub tritium: u8,
     /// Class name from the rule data (e.g. "ketone", "ester", "alcohol").
     pub class: String,
     pub pka_dmso: Option<f64>,
@@ -169,6 +189,13 @@ pub struct Site {
     pub uncertainty: f64,
     pub rules: Vec<RuleUse>,
     pub regio: Option<Regio>,
+    /// An unactivated C–H from a background rule (family `background` in
+    /// `fragments/rules.tsv`, e.g. alkane C–H near pKa 56): listed so that
+    /// no carbon-bound hydrogen is silently absent, ranked after every other
+    /// site, all such atoms with the same hydrogen count form one site, and
+    /// it is never the default advice target (only when asked for by atom).
+    /// Background sites do not make a ranking mixed-scale.
+    pub background: bool,
 }
 
 impl Site {
@@ -201,7 +228,7 @@ impl SiteReport {
     /// output should say which scale each site was ranked on.
     pub fn mixed_scales(&self, preferred: Scale) -> bool {
         let mut seen = [false, false];
-        for s in &self.sites {
+        for s in self.sites.iter().filter(|s| !s.background) {
             if let Some((sc, _)) = s.ranking_pka(preferred) {
                 seen[usize::from(sc == Scale::Water)] = true;
             }
@@ -214,9 +241,11 @@ impl SiteReport {
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct SiteReport {
     pub sites: Vec<Site>,
-    /// Index into `sites` of the most acidic C–H site.
+    /// Index into `sites` of the most acidic C–H site that is not a
+    /// background site (background sites are never the default target).
     pub top_carbon: Option<usize>,
-    /// Index into `sites` of the most acidic site overall.
+    /// Index into `sites` of the most acidic site overall that is not a
+    /// background site.
     pub top_overall: Option<usize>,
 }
 

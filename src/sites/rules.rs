@@ -68,6 +68,11 @@ pub struct Rule {
     pub class: String,
     /// Increment family (which rows of `increments.tsv` apply).
     pub family: String,
+    /// Family `background` (see [`BACKGROUND_FAMILY`]): an unactivated
+    /// C–H listed so that no hydrogen is silently absent; no increments,
+    /// ranked after every other site, one site per hydrogen count, never
+    /// the default advice target.
+    pub background: bool,
     pub pka_dmso: Option<f64>,
     pub pka_water: Option<f64>,
     pub uncertainty: f64,
@@ -104,6 +109,9 @@ pub struct Increment {
     pub note: String,
     pub line: usize,
 }
+
+/// The family value that marks a background row (unactivated C–H).
+pub const BACKGROUND_FAMILY: &str = "background";
 
 /// Substituent kinds recognised on the acidic atom (see `estimate`).
 pub const SUBSTITUENT_KINDS: &[&str] = &[
@@ -147,6 +155,8 @@ pub struct RuleSet {
     /// Indices into `rules` per acidic element (atomic number, list in
     /// rule order), so that an atom is tried only against its own rows.
     by_element: Vec<(u8, Vec<usize>)>,
+    /// Indices into `rules` of the background rows, in rule order.
+    background: Vec<usize>,
     /// Indices into `increments` per substituent kind, in table order.
     by_kind: Vec<(String, Vec<usize>)>,
 }
@@ -158,6 +168,12 @@ impl RuleSet {
             .iter()
             .find(|(e, _)| *e == z)
             .map_or(&[], |(_, v)| v.as_slice())
+    }
+
+    /// Indices of the background rules (family `background`), in rule
+    /// order: the only rows tried for a C–H with no activating neighbour.
+    pub(crate) fn background_rules(&self) -> &[usize] {
+        &self.background
     }
 
     /// Indices of the increment rows for substituent kind `kind`, in
@@ -485,6 +501,7 @@ pub fn parse_rules(
             pattern,
             class: class.to_string(),
             family: family.to_string(),
+            background: family == BACKGROUND_FAMILY,
             pka_dmso,
             pka_water,
             uncertainty,
@@ -591,7 +608,11 @@ pub fn parse_rule_set(
             None => by_kind.push((inc.kind.clone(), vec![i])),
         }
     }
+    let background = (0..rule_rows.len())
+        .filter(|&i| rule_rows[i].background)
+        .collect();
     Ok(RuleSet {
+        background,
         by_kind,
         version,
         match_order,

@@ -240,6 +240,14 @@ ENTRIES = [
     ("O=C1[CH2:1]c2ccccc2N1", "oxindole", "oxindole C3-H", 18.5, FM, "", "", "T", "added with the rule (issue 11); value recalled, no source consulted"),
     ("[NH3+:1]CC(=O)OC", "glycine methyl ester ammonium", "ammonium of an alpha-amino ester", "", "", 7.7, FM, "T", "added with the rule (issue 11); value recalled, no source consulted"),
     ("C[Si](C)(C)[NH:1][Si](C)(C)C", "hexamethyldisilazane", "disilylamine N-H (HMDS)", 30.0, FM, "", "", "T", "added with the rule (issue 11); value recalled, no source consulted"),
+    ("[CH4:1]", "methane", "alkane C-H (unactivated)", 56.0, FM, "", "", "T", "added with the background rule (issue 11); extrapolated value recalled, no source consulted"),
+    ("[CH3:1]c1ccncc1", "4-methylpyridine", "heteroaryl-methyl", 32.2, FM, "", "", "T", "added with the rule (issue 11); recalled from Fraser, Mansour, Savard, J. Org. Chem. 1985, 50, 3232 (THF lithium ion-pair scale, used for DMSO)"),
+    ("[CH3:1]c1ccccn1", "2-methylpyridine", "heteroaryl-methyl", 34.0, FM, "", "", "T", "added with the rule (issue 11); recalled from Fraser et al. 1985 (THF lithium ion-pair scale, used for DMSO)"),
+    ("[CH3:1]c1cccnc1", "3-methylpyridine", "heteroaryl-methyl", 37.7, FM, "", "", "T", "added with the rule (issue 11); recalled from Fraser et al. 1985 (THF lithium ion-pair scale, used for DMSO)"),
+    ("[OH:1]C(=O)c1ccccc1O", "salicylic acid (CO2H)", "carboxylic acid (salicylic, ortho-hydroxy)", 6.8, FM, 2.98, "iupac-serjeant", "T", "added with the rule (issue 11); water: IUPAC row serjeant3397 pK1 at 25 C; DMSO recalled"),
+    ("OC(=O)c1ccccc1[OH:1]", "salicylic acid (phenol O-H, second ionisation)", "phenol of a salicylate (second ionisation)", "", "", 13.6, "iupac-serjeant", "T", "added with the rule (issue 11); IUPAC row serjeant3397 pK2 (12.95-13.9 at 25 C, median 13.6)"),
+    ("O=c1cc([OH:1])c2ccccc2o1", "4-hydroxycoumarin", "vinylogous acid (4-hydroxy-2-pyrone, 4-hydroxycoumarin)", "", "", 4.1, FM, "T", "added with the rule (issue 11); value recalled, no source consulted"),
+    ("CC1=C([OH:1])COC1=O", "3-methyltetronic acid", "vinylogous acid (tetronic acid)", "", "", 4.15, "iupac-serjeant", "T", "added with the rule (issue 11); IUPAC row serjeant2548 (25 C)"),
 ]
 
 # Where a cited source gives its DMSO value (the dmso_table column). A key not listed here must not be

@@ -69,11 +69,11 @@ pub(super) fn advise_core(
                 let i = sites
                     .top_overall
                     .filter(|&i| sites.sites.get(i).map(has_pka).unwrap_or(false))
-                    .or_else(|| sites.sites.iter().position(has_pka))
+                    .or_else(|| sites.sites.iter().position(|s| has_pka(s) && !s.background))
                     .ok_or(AdviceError::NoSites)?;
                 (
                     i,
-                    "the most acidic site (the molecule has no acidic C–H with an estimate)"
+                    "the most acidic site (the molecule has no activated C–H with an estimate)"
                         .to_string(),
                 )
             }

@@ -358,7 +358,8 @@ pub struct NotJudged {
 /// What the recommender could not do.
 #[derive(Debug, Clone, PartialEq)]
 pub enum AdviceError {
-    /// The molecule has no acidic site with a pKa estimate.
+    /// The molecule has no activated acidic site with a pKa estimate
+    /// (background alkane C–H sites are targets only when asked for).
     NoSites,
     /// `--site N`: atom N carries no acidic hydrogen (or is out of range).
     NotAcidicAtom(usize),
@@ -370,7 +371,10 @@ pub enum AdviceError {
 impl fmt::Display for AdviceError {
     fn fmt(&self, f: &mut fmt::Formatter<'_>) -> fmt::Result {
         match self {
-            AdviceError::NoSites => write!(f, "no acidic site with a pKa estimate"),
+            AdviceError::NoSites => write!(
+                f,
+                "no activated acidic site with a pKa estimate (an unactivated alkane C–H is a target only when asked for with --site)"
+            ),
             AdviceError::NotAcidicAtom(a) => {
                 write!(f, "atom {a} is not part of an acidic site")
             }

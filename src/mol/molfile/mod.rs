@@ -453,6 +453,7 @@ fn reread(smiles: &str, order: &[usize], original: &Molecule) -> Option<Molecule
             return None;
         }
         a.heavy_hydrogens = o.heavy_hydrogens;
+        a.tritium = o.tritium;
     }
     if mol.bonds.len() != original.bonds.len() {
         return None;
