@@ -20,12 +20,17 @@ pub const MAX_SMILES_BYTES: usize = 100_000;
 /// pKa scale used to rank sites in the table and CSV output.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum Scale {
+    /// Rank by the DMSO estimate, a site without one by its water
+    /// estimate; the default.
     #[default]
     Dmso,
+    /// Rank by the water estimate, a site without one by its DMSO
+    /// estimate.
     Water,
 }
 
 impl Scale {
+    /// Stable lower-case name (`dmso`, `water`).
     pub fn name(self) -> &'static str {
         match self {
             Scale::Dmso => "dmso",
@@ -44,7 +49,9 @@ pub const FLAG_MAX_STEPS: u64 = 10_000_000;
 /// A named SMARTS pattern counted in every record (`--flag NAME=SMARTS`).
 #[derive(Debug, Clone)]
 pub struct Flag {
+    /// Name the count is reported under (a key of the record's `flags`).
     pub name: String,
+    /// The parsed SMARTS pattern whose unique matches are counted.
     pub pattern: Pattern,
 }
 

@@ -17,14 +17,20 @@ use super::record::{Record, SiteOut};
 /// Field separator.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Delimiter {
+    /// Comma-separated values with RFC 4180 quoting.
     Comma,
+    /// Tab-separated values without quoting (tabs and line breaks inside a
+    /// field become spaces).
     Tab,
 }
 
 /// Row layout.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Layout {
+    /// One row per record: the most acidic C–H site and the advice.
     Molecule,
+    /// One row per acidic site, most acidic first; a record without sites
+    /// still gives one row.
     Site,
 }
 
@@ -65,7 +71,9 @@ const SITE_COLUMNS: &[&str] = &[
 /// Writes header and rows as strings (each ending in `\n`).
 #[derive(Debug, Clone)]
 pub struct RowWriter {
+    /// Field separator.
     pub delimiter: Delimiter,
+    /// One row per molecule or one per site.
     pub layout: Layout,
     /// Names of carried-through input columns.
     pub carried: Vec<String>,

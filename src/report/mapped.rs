@@ -23,6 +23,8 @@ pub struct Label {
 /// caller, reported instead of panicking).
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct MapError {
+    /// Which atom span did not fit the input (with the input's length in
+    /// characters) or which bracket-atom text was malformed.
     pub message: String,
 }
 
