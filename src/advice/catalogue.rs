@@ -43,8 +43,8 @@ pub const COLUMNS: [&str; 19] = [
 /// A pKa scale (solvent of the reference measurements).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Scale {
-    /// Dimethyl sulfoxide, the main organic ion-free scale (Bordwell-type
-    /// values); serialised as `dmso`.
+    /// Dimethyl sulfoxide (free ions, Bordwell-type values), the main
+    /// scale for carbon acids; serialised as `dmso`.
     Dmso,
     /// Water (aqueous pKa); serialised as `water`.
     Water,

@@ -253,8 +253,10 @@ pub enum WarningKind {
     /// The equivalents asked for in [`AdviceOptions::equivalents`] do not
     /// cover the target plus the counted protons; `requested-equivalents`.
     RequestedEquivalents,
-    /// No catalogue base or reagent system qualifies; [`Advice::base`] is
-    /// None; `no-base`.
+    /// No catalogue base qualifies ([`Advice::base`] is None), or none of
+    /// the bases practice names for this site and reaction passes the
+    /// checks and the recommendation is the catalogue's best other base;
+    /// `no-base`.
     NoBase,
     /// A side reaction from `fragments/side_reactions.tsv`.
     SideReaction,
