@@ -47,6 +47,24 @@
 //!
 //! Numbers: pKa values and uncertainties are rounded to 0.01, conversion (a
 //! fraction 0..1) to 1e-6, equivalents to 0.01.
+//!
+//! ```
+//! use acidsite::report::record::FAILED_INPUT_ECHO;
+//! use acidsite::report::{analyze, Options};
+//!
+//! let rec = analyze("CC(=O)OC", 3, Some("methyl acetate".into()), &Options::default());
+//! // The hand-written writer gives exactly serde_json's bytes.
+//! assert_eq!(rec.to_json_line(), serde_json::to_string(&rec).unwrap());
+//!
+//! // A failed record echoes at most FAILED_INPUT_ECHO characters of its
+//! // input, marked with an ellipsis, and says how long the input was.
+//! let junk = "X".repeat(1000);
+//! let bad = analyze(&junk, 4, None, &Options::default());
+//! assert!(!bad.ok);
+//! assert_eq!(bad.input.chars().count(), FAILED_INPUT_ECHO + 1);
+//! assert!(bad.input.ends_with('…'));
+//! assert!(bad.error.unwrap().message.contains("1000 bytes"));
+//! ```
 
 use super::json;
 use serde::ser::{SerializeMap, Serializer};
