@@ -286,7 +286,10 @@ pub struct ProticSolvent {
 /// One catalogue entry.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Base {
-    /// Short name the trade uses ("LDA", "KOtBu").
+    /// Short catalogue name as chemists write it (`LDA`, `KOtBu`,
+    /// `n-BuLi`); unique in the catalogue, looked up by [`Catalogue::get`];
+    /// the value of `base` in records and of `name` in `acidsite bases
+    /// --json`.
     pub name: String,
     /// Systematic or common full name (`lithium diisopropylamide`).
     pub full_name: String,

@@ -97,8 +97,9 @@ pub struct Record {
     /// column, an SD title or data item); None when the input has none;
     /// key `id`.
     pub id: Option<String>,
-    /// The SMILES as read (a failed record's at most [`FAILED_INPUT_ECHO`]
-    /// characters); key `input`.
+    /// The SMILES as read, or for a molfile the SMILES the reader wrote
+    /// (atom indices stay the molfile's); a failed record keeps at most
+    /// [`FAILED_INPUT_ECHO`] characters; key `input`.
     pub input: String,
     /// True when the input was read and analysed; false for an error
     /// record (then [`error`](Self::error) is set); key `ok`.
