@@ -43,8 +43,13 @@ pub const COLUMNS: [&str; 19] = [
 /// A pKa scale (solvent of the reference measurements).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Scale {
+    /// Dimethyl sulfoxide (free ions, Bordwell-type values), the main
+    /// scale for carbon acids; serialised as `dmso`.
     Dmso,
+    /// Water (aqueous pKa); serialised as `water`.
     Water,
+    /// Tetrahydrofuran ion-pair scale (lithium and other metal salts, as
+    /// used for amide bases); serialised as `thf`.
     Thf,
 }
 
@@ -72,12 +77,20 @@ impl Scale {
 /// How readily the base attacks electrophilic carbon (C=O, C≡N, C–X).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Nucleophilicity {
+    /// Adds to carbonyls, nitriles and alkyl halides readily (alkyllithiums,
+    /// NaNH2, piperidine, DMAP); catalogue cell `yes`.
     Yes,
+    /// Adds slowly or only to reactive electrophiles (alkoxides, hydroxides,
+    /// DBU, pyridine); catalogue cell `weak`.
     Weak,
+    /// Practically non-nucleophilic (LDA, the silylamides, hydrides,
+    /// carbonates, DIPEA); catalogue cell `no`.
     No,
 }
 
 impl Nucleophilicity {
+    /// Stable lower-case name as written in the catalogue's `nucleophilic`
+    /// column (`yes`, `weak`, `no`).
     pub fn name(self) -> &'static str {
         match self {
             Nucleophilicity::Yes => "yes",
@@ -90,13 +103,23 @@ impl Nucleophilicity {
 /// Hazard classes used in cautions.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
 pub enum Hazard {
+    /// Ignites in air (alkyllithiums); `pyrophoric`.
     Pyrophoric,
+    /// Reacts violently with water or moist air; `water-reactive`.
     WaterReactive,
+    /// Gives off hydrogen gas on deprotonation or quenching (metal
+    /// hydrides); `hydrogen-evolution`.
     HydrogenEvolution,
+    /// Corrodes skin and eyes; `corrosive`.
     Corrosive,
+    /// Toxic by contact or inhalation; `toxic`.
     Toxic,
+    /// Normally handled in a cold bath down to −78 °C (dry ice), with the
+    /// cold-burn and condensation risks that brings; `cryogenic`.
     Cryogenic,
+    /// Flammable itself or sold in a flammable solvent; `flammable`.
     Flammable,
+    /// Irritant to skin, eyes or airways; `irritant`.
     Irritant,
 }
 
@@ -133,20 +156,36 @@ impl Hazard {
 /// Chemical family of a base; drives the side-reaction checks.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum BaseFamily {
+    /// Lithium dialkylamides (LDA, LiTMP); `lithium-amide`.
     LithiumAmide,
+    /// Metal bis(trimethylsilyl)amides (LiHMDS, NaHMDS, KHMDS); `silylamide`.
     Silylamide,
+    /// Alkyllithiums (n-BuLi, s-BuLi, t-BuLi); `alkyllithium`.
     Alkyllithium,
+    /// Metal hydrides (NaH, KH); `hydride`.
     Hydride,
+    /// Other metal amides (NaNH2); `metal-amide`.
     MetalAmide,
+    /// Metal alkoxides (NaOMe, NaOEt, KOtBu); `alkoxide`.
     Alkoxide,
+    /// Metal hydroxides (NaOH, KOH, LiOH); `hydroxide`.
     Hydroxide,
+    /// Metal carbonates (K2CO3, Cs2CO3); pKa values refer to HCO3−;
+    /// `carbonate`.
     Carbonate,
+    /// Metal carboxylates (NaOAc); `carboxylate`.
     Carboxylate,
+    /// Neutral amidines (DBU); `amidine`.
     Amidine,
+    /// Neutral guanidines (TMG); `guanidine`.
     Guanidine,
+    /// Tertiary amines (Et3N, DIPEA); `tertiary-amine`.
     TertiaryAmine,
+    /// Secondary amines (piperidine); `secondary-amine`.
     SecondaryAmine,
+    /// Pyridines (pyridine, DMAP); `pyridine`.
     Pyridine,
+    /// Phosphazene superbases (BEMP, P4-tBu); `phosphazene`.
     Phosphazene,
 }
 
@@ -225,7 +264,11 @@ impl BaseFamily {
 /// A pKa value with its citation key (a key of `fragments/sources.tsv`).
 #[derive(Debug, Clone, PartialEq)]
 pub struct CitedPka {
+    /// pKa of the conjugate acid, in pKa units on the scale of the column
+    /// it was read from.
     pub value: f64,
+    /// Citation key resolved in `fragments/sources.tsv` (for example
+    /// `common-practice`); see [`Catalogue::reference`].
     pub source: String,
 }
 
@@ -233,16 +276,24 @@ pub struct CitedPka {
 /// with the molar concentration of the neat solvent used in the solver.
 #[derive(Debug, Clone, PartialEq)]
 pub struct ProticSolvent {
+    /// Solvent name as the catalogue spells it (`EtOH`, `MeOH`, `water`).
     pub name: String,
+    /// Concentration of the neat solvent in mol/L at 20 °C (EtOH 17.1);
+    /// the solver treats it as that much extra conjugate acid.
     pub molar: f64,
 }
 
 /// One catalogue entry.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Base {
-    /// Short name the trade uses ("LDA", "KOtBu").
+    /// Short catalogue name as chemists write it (`LDA`, `KOtBu`,
+    /// `n-BuLi`); unique in the catalogue, looked up by [`Catalogue::get`];
+    /// the value of `base` in records and of `name` in `acidsite bases
+    /// --json`.
     pub name: String,
+    /// Systematic or common full name (`lithium diisopropylamide`).
     pub full_name: String,
+    /// Chemical family; drives the side-reaction checks.
     pub family: BaseFamily,
     /// Conjugate acid as SMILES.
     pub conjugate_acid: String,
@@ -254,14 +305,21 @@ pub struct Base {
     pub pka_thf: Option<CitedPka>,
     /// Metal counter-ion ("Li", "Na", "K", "Cs"), None for neutral bases.
     pub counter_ion: Option<String>,
+    /// How readily the base attacks C=O, C≡N and C–X.
     pub nucleophilic: Nucleophilicity,
+    /// Sterically hindered (LDA, KOtBu, DIPEA, DBU): less prone to add as a
+    /// nucleophile; the catalogue cell `yes`/`no`.
     pub hindered: bool,
     /// Typical solvents, most usual first.
     pub solvents: Vec<String>,
+    /// Low end of the usual working temperature range, in °C (−78 for LDA).
     pub temp_min_c: f64,
+    /// High end of the usual working temperature range, in °C; never below
+    /// [`temp_min_c`](Self::temp_min_c).
     pub temp_max_c: f64,
     /// The conjugate acid is normally the solvent (NaOEt in EtOH).
     pub acid_solvent: Option<ProticSolvent>,
+    /// Hazard classes in catalogue order; they select the cautions.
     pub hazards: Vec<Hazard>,
     /// Free-text practical note.
     pub notes: Option<String>,
@@ -293,6 +351,7 @@ impl Base {
         self.solvents.first().map(String::as_str).unwrap_or("THF")
     }
 
+    /// Whether the catalogue lists hazard class `h` for this base.
     pub fn has_hazard(&self, h: Hazard) -> bool {
         self.hazards.contains(&h)
     }
@@ -303,6 +362,7 @@ impl Base {
 pub struct Catalogue {
     /// Value of the `# version:` comment.
     pub version: String,
+    /// Every base in file order (the order of `acidsite bases`).
     pub bases: Vec<Base>,
     /// Citation keys and references from `fragments/sources.tsv`.
     pub sources: Vec<(String, String)>,
@@ -430,9 +490,17 @@ fn fold_name(s: &str) -> String {
 /// column name where known, and what is wrong.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct CatalogueError {
+    /// File name as passed to [`Catalogue::parse`] (the embedded catalogue
+    /// uses [`BASES_FILE`] and `fragments/sources.tsv`).
     pub file: String,
+    /// 1-based line number of the offending line (1 for whole-file
+    /// problems such as a missing version comment).
     pub line: usize,
+    /// Column name of `fragments/bases.tsv` (`pka_dmso`, `hazards`, …) or
+    /// of the practice files where the fault is in one cell; None
+    /// when the whole line or file is at fault.
     pub column: Option<String>,
+    /// What is wrong, in plain words.
     pub message: String,
 }
 

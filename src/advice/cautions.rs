@@ -16,7 +16,12 @@ pub const SHORT_DEFERRAL: &str =
 /// A caution for one reagent.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Caution {
+    /// Name of the reagent the caution is about, as the advice names it (a
+    /// catalogue base such as `n-BuLi`, or a reagent of a system);
+    /// `all reagents named` for [`general_caution`].
     pub reagent: String,
+    /// The reagent's hazard classes, in catalogue order; empty for the
+    /// general caution and for a caution made only of extra sentences.
     pub hazards: Vec<Hazard>,
     /// Full text ending with [`DEFERRAL`], or for a one-line caution the
     /// hazard words ending with [`SHORT_DEFERRAL`].

@@ -49,12 +49,16 @@ pub struct Microsite {
 /// A group of alternative microsites that gives up at most one proton.
 #[derive(Debug, Clone, PartialEq)]
 pub struct AcidUnit {
+    /// The microsites that compete for this unit's one proton (both
+    /// α-carbons of one ketone C=O); at least one.
     pub alternatives: Vec<Microsite>,
 }
 
 /// Numerical problem statement.
 #[derive(Debug, Clone, PartialEq)]
 pub struct EquilibriumInput {
+    /// Independent acidic units of one substrate molecule; all pKa values
+    /// on the same scale as [`base_pka`](Self::base_pka).
     pub units: Vec<AcidUnit>,
     /// pKa of the base's conjugate acid on the same scale as the units.
     pub base_pka: f64,
@@ -69,8 +73,13 @@ pub struct EquilibriumInput {
 /// Deprotonated fraction of one site.
 #[derive(Debug, Clone, PartialEq)]
 pub struct SiteFraction {
+    /// The microsite's [`Microsite::site`] label (an index into
+    /// `SiteReport::sites` when set up by [`equilibrium_for`]).
     pub site: usize,
+    /// Atoms of the site, 0-based in input order.
     pub atoms: Vec<usize>,
+    /// pKa used for this microsite, on [`Equilibrium::scale`] (including
+    /// any second-stage shift applied by [`equilibrium_for`]).
     pub pka: f64,
     /// Fraction of substrate molecules deprotonated at this site, 0..=1.
     pub deprotonated: f64,
@@ -98,8 +107,10 @@ pub struct Equilibrium {
     /// `anions[k]`: fraction of substrate carrying k removed protons
     /// (k = 0 neutral, 1 mono-anion, 2 di-anion ...). Sums to 1.
     pub anions: Vec<f64>,
-    /// Free base left, mol/L, and as a fraction of the base added.
+    /// Free base left at equilibrium, mol/L.
     pub free_base_molar: f64,
+    /// Free base left as a fraction of the base added, 0..=1 (0 when no
+    /// base was added).
     pub free_base_fraction: f64,
     /// Conjugate acid at equilibrium, mol/L (solvent included).
     pub conjugate_acid_molar: f64,
@@ -129,10 +140,14 @@ impl Equilibrium {
 pub enum EquilibriumError {
     /// A number outside its allowed range (name, value).
     Invalid(&'static str, f64),
+    /// No catalogue base has this name (the name as given).
     UnknownBase(String),
     /// The base has no conjugate-acid pKa comparable with the sites.
     NoCommonScale(String),
+    /// The site report has no site with a pKa on the chosen scale, so
+    /// there is nothing to deprotonate.
     NoSites,
+    /// The embedded base catalogue failed validation (a build defect).
     Catalogue(CatalogueError),
 }
 
@@ -450,8 +465,10 @@ pub fn solve(input: &EquilibriumInput) -> Result<Equilibrium, EquilibriumError> 
 pub struct EquilibriumOptions {
     /// Base name as in the catalogue.
     pub base: String,
+    /// Base equivalents relative to substrate (1.0 = one mole of base per
+    /// mole of substrate); default 1.0.
     pub equivalents: f64,
-    /// Substrate concentration, mol/L.
+    /// Substrate concentration, mol/L; default 0.5.
     pub concentration: f64,
     /// Solvent name; when it is the base's conjugate acid (EtOH for NaOEt)
     /// the solvent enters the mass balance at its neat molarity.

@@ -17,21 +17,30 @@ use std::sync::OnceLock;
 /// Facts about the molecule as a whole and about each site.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct MoleculeFeatures {
+    /// A ketone C=O with carbon on both sides (`[#6][CX3](=O)[#6]`).
     pub ketone: bool,
+    /// An aldehyde: a C(H)=O on carbon, or formaldehyde.
     pub aldehyde: bool,
+    /// A carboxylic ester (carbamates and anhydrides excluded).
     pub ester: bool,
     /// Alkoxy groups of the esters: "methyl", "ethyl", "tert-butyl",
     /// "isopropyl", "benzyl" or "other".
     pub ester_alkoxy: Vec<String>,
+    /// A carboxylic acid O–H (`[CX3](=O)[OX2H1]`).
     pub carboxylic_acid: bool,
+    /// An amide, lactam, carbamate or urea C(=O)N.
     pub amide: bool,
+    /// A nitrile C≡N.
     pub nitrile: bool,
+    /// An acyl halide C(=O)X (X = F, Cl, Br, I).
     pub acyl_halide: bool,
+    /// A carboxylic anhydride C(=O)OC(=O).
     pub anhydride: bool,
     /// sp3 C–Cl, C–Br, C–I or a sulfonate ester: an alkylating agent.
     pub alkyl_halide: bool,
     /// Halide or sulfonate on a carbon next to C=O (α-halo ketone or ester).
     pub alpha_halo_carbonyl: bool,
+    /// A C-nitro group, in either charge-separated or pentavalent form.
     pub nitro: bool,
     /// Per site (same order as `SiteReport::sites`).
     pub sites: Vec<SiteFeatures>,

@@ -1,5 +1,30 @@
 //! One SMILES in, one [`Record`] out: molecule → sites → advice, with the
 //! options of `scan` and `annotate`. No I/O.
+//!
+//! ```
+//! use acidsite::report::analyze::{analyze, Flag, Options};
+//!
+//! // Butan-2-one, `CC(=O)CC`: atom 0 is the methyl, atom 3 the methylene.
+//! // Ask for advice on the methylene side and count the carbonyl groups.
+//! let opts = Options {
+//!     site: Some(3),
+//!     flags: vec![Flag::parse("carbonyl=[CX3]=O").unwrap()],
+//!     ..Options::default()
+//! };
+//! let rec = analyze("CC(=O)CC", 1, None, &opts);
+//! assert!(rec.ok);
+//! let advice = rec.advice.clone().flatten().expect("advice for atom 3");
+//! assert_eq!(advice.target, vec![3]);
+//! // The two α-carbons are separate sites: the methyl is the kinetic
+//! // (less substituted) side, the methylene the thermodynamic side.
+//! let sites = rec.sites.as_ref().unwrap();
+//! let side = |atom: usize| sites.iter().find(|s| s.atoms == [atom]).and_then(|s| s.regio);
+//! assert_eq!(side(0), Some("kinetic"));
+//! assert_eq!(side(3), Some("thermodynamic"));
+//! assert_eq!(rec.flags.as_ref().unwrap().0, vec![("carbonyl".to_string(), 1)]);
+//! // A flag needs `NAME=SMARTS`.
+//! assert!(Flag::parse("carbonyl").is_err());
+//! ```
 
 use super::brief::Detail;
 use super::mapped::{atom_mapped_smiles, Label};
@@ -20,12 +45,17 @@ pub const MAX_SMILES_BYTES: usize = 100_000;
 /// pKa scale used to rank sites in the table and CSV output.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub enum Scale {
+    /// Rank by the DMSO estimate, a site without one by its water
+    /// estimate; the default.
     #[default]
     Dmso,
+    /// Rank by the water estimate, a site without one by its DMSO
+    /// estimate.
     Water,
 }
 
 impl Scale {
+    /// Stable lower-case name (`dmso`, `water`).
     pub fn name(self) -> &'static str {
         match self {
             Scale::Dmso => "dmso",
@@ -44,7 +74,9 @@ pub const FLAG_MAX_STEPS: u64 = 10_000_000;
 /// A named SMARTS pattern counted in every record (`--flag NAME=SMARTS`).
 #[derive(Debug, Clone)]
 pub struct Flag {
+    /// Name the count is reported under (a key of the record's `flags`).
     pub name: String,
+    /// The parsed SMARTS pattern whose unique matches are counted.
     pub pattern: Pattern,
 }
 

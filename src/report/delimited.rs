@@ -11,20 +11,52 @@
 //! a quote, a line break or leading/trailing space (RFC 4180 quoting); TSV has
 //! no quoting, so tabs and line breaks inside a field become spaces. List
 //! fields (atoms, warnings) are joined with `;` and ` | `.
+//!
+//! ```
+//! use acidsite::report::delimited::{Delimiter, Layout, RowWriter};
+//! use acidsite::report::record::Pairs;
+//! use acidsite::report::{analyze, Options};
+//!
+//! // Hydroxyacetone with one column carried through from a CSV input.
+//! let mut rec = analyze("OCC(=O)C", 1, Some("h1".into()), &Options::default());
+//! rec.columns = Some(Pairs(vec![("note".into(), "dry, cold".into())]));
+//!
+//! let csv = RowWriter {
+//!     delimiter: Delimiter::Comma,
+//!     layout: Layout::Molecule,
+//!     carried: vec!["note".into()],
+//! };
+//! assert!(csv.header().starts_with("line,id,note,smiles,ok,"));
+//! // The carried field holds the separator, so it is quoted.
+//! assert!(csv.rows(&rec).starts_with("1,h1,\"dry, cold\",OCC(=O)C,true,"));
+//!
+//! // One row per site, most acidic first.
+//! let tsv = RowWriter { delimiter: Delimiter::Tab, layout: Layout::Site, carried: Vec::new() };
+//! let rows = tsv.rows(&rec);
+//! assert_eq!(rows.lines().count(), rec.sites.as_ref().unwrap().len());
+//! let first: Vec<&str> = rows.lines().next().unwrap().split('\t').collect();
+//! assert_eq!(first[5], "1"); // the `rank` column
+//! ```
 
 use super::record::{Record, SiteOut};
 
 /// Field separator.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Delimiter {
+    /// Comma-separated values with RFC 4180 quoting.
     Comma,
+    /// Tab-separated values without quoting (tabs and line breaks inside a
+    /// field become spaces).
     Tab,
 }
 
 /// Row layout.
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
 pub enum Layout {
+    /// One row per record: the most acidic C–H site and the advice.
     Molecule,
+    /// One row per acidic site, most acidic first; a record without sites
+    /// still gives one row.
     Site,
 }
 
@@ -65,7 +97,9 @@ const SITE_COLUMNS: &[&str] = &[
 /// Writes header and rows as strings (each ending in `\n`).
 #[derive(Debug, Clone)]
 pub struct RowWriter {
+    /// Field separator.
     pub delimiter: Delimiter,
+    /// One row per molecule or one per site.
     pub layout: Layout,
     /// Names of carried-through input columns.
     pub carried: Vec<String>,

@@ -17,6 +17,19 @@
 //! `note`; of an increment: `rule_set`, `kind` (`increment`), `id`,
 //! `substituent`, `families`, `nth`, `dmso`, `water`, `uncertainty`,
 //! `source`, `note`.
+//!
+//! ```
+//! use acidsite::advice::catalogue;
+//! use acidsite::report::listings::base_json;
+//!
+//! let cat = catalogue().unwrap();
+//! let v = base_json(cat, cat.get("NaOEt").unwrap());
+//! assert_eq!(v["family"], "alkoxide");
+//! assert_eq!(v["conjugate_acid"], "CCO");
+//! // Ethanol is the usual solvent and the base's own conjugate acid.
+//! assert_eq!(v["solvent_is_conjugate_acid"], "EtOH");
+//! assert!(v["pka_water"]["source"].is_string()); // a key of fragments/sources.tsv
+//! ```
 
 use crate::advice::practice::System;
 use crate::advice::{

@@ -2,6 +2,18 @@
 //! bracket atoms carrying the site's rank as atom-map number, everything else
 //! kept exactly as written (an open convention: drawing programs show map
 //! numbers beside the atoms).
+//!
+//! ```
+//! use acidsite::report::mapped::{atom_mapped_smiles, Label};
+//!
+//! // Acetone, `CC(=O)C`: both methyl carbons (characters 0 and 6, three H
+//! // each) belong to the site ranked 1.
+//! let methyl = |at: usize| Label { span: at..at + 1, bracket: false, hydrogens: 3, map: 1 };
+//! let mapped = atom_mapped_smiles("CC(=O)C", &[methyl(0), methyl(6)]).unwrap();
+//! assert_eq!(mapped, "[CH3:1]C(=O)[CH3:1]");
+//! // A span outside the input is an error, not a panic.
+//! assert!(atom_mapped_smiles("CC", &[methyl(5)]).is_err());
+//! ```
 
 use std::ops::Range;
 
@@ -23,6 +35,8 @@ pub struct Label {
 /// caller, reported instead of panicking).
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct MapError {
+    /// Which atom span did not fit the input (with the input's length in
+    /// characters) or which bracket-atom text was malformed.
     pub message: String,
 }
 

@@ -47,6 +47,24 @@
 //!
 //! Numbers: pKa values and uncertainties are rounded to 0.01, conversion (a
 //! fraction 0..1) to 1e-6, equivalents to 0.01.
+//!
+//! ```
+//! use acidsite::report::record::FAILED_INPUT_ECHO;
+//! use acidsite::report::{analyze, Options};
+//!
+//! let rec = analyze("CC(=O)OC", 3, Some("methyl acetate".into()), &Options::default());
+//! // The hand-written writer gives exactly serde_json's bytes.
+//! assert_eq!(rec.to_json_line(), serde_json::to_string(&rec).unwrap());
+//!
+//! // A failed record echoes at most FAILED_INPUT_ECHO characters of its
+//! // input, marked with an ellipsis, and says how long the input was.
+//! let junk = "X".repeat(1000);
+//! let bad = analyze(&junk, 4, None, &Options::default());
+//! assert!(!bad.ok);
+//! assert_eq!(bad.input.chars().count(), FAILED_INPUT_ECHO + 1);
+//! assert!(bad.input.ends_with('…'));
+//! assert!(bad.error.unwrap().message.contains("1000 bytes"));
+//! ```
 
 use super::json;
 use serde::ser::{SerializeMap, Serializer};
@@ -70,19 +88,39 @@ pub const FAILED_INPUT_ECHO: usize = 300;
 /// `&'static str`.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct Record {
+    /// Schema version, always [`SCHEMA`]; key `schema`.
     pub schema: &'static str,
+    /// 1-based line number of the record in its input (an SD record's first
+    /// line; for `scan`, the argument's 1-based position); key `line`.
     pub line: u64,
+    /// The record's identifier (second field of a `.smi` line, the id
+    /// column, an SD title or data item); None when the input has none;
+    /// key `id`.
     pub id: Option<String>,
+    /// The SMILES as read, or for a molfile the SMILES the reader wrote
+    /// (atom indices stay the molfile's); a failed record keeps at most
+    /// [`FAILED_INPUT_ECHO`] characters; key `input`.
     pub input: String,
+    /// True when the input was read and analysed; false for an error
+    /// record (then [`error`](Self::error) is set); key `ok`.
     pub ok: bool,
+    /// CSV/TSV input only: the row's other columns by header name, in file
+    /// order (SD input: the data items); key `columns`, absent otherwise.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub columns: Option<Pairs<String>>,
+    /// Molecular formula of the whole input, Hill order, every H counted;
+    /// key `formula`, absent on failure.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub formula: Option<String>,
+    /// Each `.`-separated component with its role; key `components`,
+    /// absent on failure.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub components: Option<Vec<ComponentOut>>,
+    /// Version of the fragment rule set used; key `rule_set`, absent on
+    /// failure.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub rule_set: Option<&'static str>,
+    /// Acidic sites, most acidic first; key `sites`, absent on failure.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub sites: Option<Vec<SiteOut>>,
     /// `Some(None)` serializes as `"advice": null` (no target site).
@@ -92,14 +130,21 @@ pub struct Record {
     /// acidic); absent when there is advice.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub advice_note: Option<String>,
+    /// The input with each site's atoms as bracket atoms carrying the
+    /// site's rank as atom-map number; key `mapped_smiles`, absent on
+    /// failure.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub mapped_smiles: Option<String>,
+    /// Only with `--flag` patterns: unique match count per pattern name, in
+    /// the order given; key `flags`.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub flags: Option<Pairs<u64>>,
     /// Only when a `--flag` count reached a bound: which pattern and which
     /// bound (the count in `flags` is then a lower bound).
     #[serde(skip_serializing_if = "Option::is_none")]
     pub flag_warnings: Option<Vec<String>>,
+    /// Why the record failed; key `error`, present exactly when `ok` is
+    /// false.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub error: Option<ErrorOut>,
 }
@@ -272,6 +317,8 @@ pub struct ComponentOut {
     pub role: &'static str,
     /// The component's text in the input SMILES.
     pub smiles: String,
+    /// Molecular formula of this component, Hill order, every H counted,
+    /// no charge.
     pub formula: String,
     /// Net formal charge.
     pub charge: i32,
@@ -310,7 +357,11 @@ pub struct SiteOut {
     pub tritium: u8,
     /// Class name from the rule data.
     pub class: String,
+    /// Estimated pKa in DMSO, rounded to 0.01; null when the rules give no
+    /// DMSO value for this class.
     pub pka_dmso: Option<f64>,
+    /// Estimated pKa in water, rounded to 0.01; null when the rules give no
+    /// water value for this class.
     pub pka_water: Option<f64>,
     /// One standard uncertainty of the estimates, pKa units.
     pub uncertainty: f64,
@@ -372,8 +423,14 @@ impl SiteOut {
 /// One applied rule and its contribution on each scale.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RuleOut {
+    /// Rule or increment id from the fragment rule files.
     pub id: String,
+    /// Its contribution to the DMSO estimate, pKa units (the base value
+    /// for a site rule, a shift for an increment); null when it has none on
+    /// this scale.
     pub dmso: Option<f64>,
+    /// Its contribution to the water estimate, pKa units; null when it has
+    /// none on this scale.
     pub water: Option<f64>,
 }
 
@@ -408,6 +465,8 @@ pub struct AdviceOut {
     pub counted: Vec<CountedOut>,
     /// Predicted fraction of the target deprotonated at equilibrium (0..1).
     pub conversion: Option<f64>,
+    /// Solvent for the recommended base (the requested one, else its usual
+    /// one); null when no base qualifies.
     pub solvent: Option<String>,
     /// Temperature to start at, °C (low end of `temperature_range_c`).
     pub temperature_c: Option<f64>,
@@ -579,37 +638,59 @@ pub struct CautionOut {
 /// A proton removed before the target.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct CountedOut {
+    /// Atoms of the site, 0-based in input order.
     pub atoms: Vec<usize>,
+    /// The site's class name from the rule data.
     pub class: String,
+    /// Protons this site consumes (one base equivalent each).
     pub protons: usize,
+    /// Why it is counted: more acidic than the target, or fast O–H, N–H or
+    /// S–H proton transfer.
     pub reason: String,
 }
 
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct AlternativeOut {
+    /// Catalogue short name (`KHMDS`, `NaH`).
     pub base: &'static str,
+    /// Equivalents it would need, rounded to 0.01.
     pub equivalents: f64,
+    /// Fraction of the target it deprotonates at equilibrium, 0..1, to six
+    /// significant figures.
     pub conversion: f64,
+    /// Its usual (or the requested) solvent.
     pub solvent: String,
+    /// Its usual working range, °C: `[low, high]`.
     pub temperature_range_c: [f64; 2],
+    /// Notes from its evaluation (scale, marginal acceptance, solvent);
+    /// may be empty.
     pub note: String,
 }
 
 /// Conditions for each side of an unsymmetrical ketone.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RegioOut {
+    /// Conditions for the less substituted enolate (key `kinetic`).
     pub kinetic: RegioSideOut,
+    /// Conditions for the more substituted enolate (key `thermodynamic`).
     pub thermodynamic: RegioSideOut,
 }
 
 /// Conditions favouring one enolate side.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RegioSideOut {
+    /// The practice data's preferred bases for this side, at most two,
+    /// joined by " or " (`LDA or LiTMP`).
     pub base: String,
+    /// Equivalents including the practical excess, rounded to 0.01.
     pub equivalents: f64,
+    /// Usual solvent of the first preferred base.
     pub solvent: String,
+    /// Usual working range of the first preferred base, °C: `[low, high]`.
     pub temperature_range_c: [f64; 2],
+    /// How it is done, from the practice row, ending with the row id in
+    /// brackets.
     pub procedure: String,
     /// Atoms of the α-carbon this side deprotonates.
     pub favours: Vec<usize>,
@@ -636,11 +717,14 @@ impl RegioSideOut {
 /// A base ruled out, with the reason.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct RejectedOut {
+    /// Catalogue short name of the base ruled out.
     pub base: &'static str,
     /// Short reason code: `too-weak`, `nucleophile`, `transesterification`,
     /// `hydrolysis`, `uncounted-proton`, `not-catalytic`, `regio`,
     /// `side-reaction`, `mode`.
     pub kind: &'static str,
+    /// Every reason found, in words, separated by "; " (the pKa values
+    /// compared, the group attacked, the side reaction).
     pub reason: String,
 }
 
@@ -656,7 +740,11 @@ pub struct NotJudgedOut {
 /// Why a record failed.
 #[derive(Debug, Clone, PartialEq, Serialize)]
 pub struct ErrorOut {
+    /// Error class: `syntax`, `ring_closure`, `aromaticity`, `valence`,
+    /// `unsupported`, `too_large`, `empty`, `encoding`, `columns` or
+    /// `molfile` (see the module documentation).
     pub kind: String,
+    /// What is wrong and where, in plain words.
     pub message: String,
     /// 0-based character index into `input`, or null.
     pub position: Option<usize>,

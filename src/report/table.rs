@@ -1,6 +1,17 @@
 //! The human report of `acidsite scan`: plain text, fixed-width columns, read
 //! at a glance. Rendered from the same [`Record`] as the JSON output, so the
 //! two never disagree.
+//!
+//! ```
+//! use acidsite::report::{analyze, table, Options, Scale};
+//!
+//! let rec = analyze("CC(=O)C", 1, None, &Options::default());
+//! let text = table::render(&rec, Scale::Dmso);
+//! // One line per site: rank, atoms, hydrogens, class, then the estimates.
+//! let site = text.lines().find(|l| l.trim_start().starts_with("#1")).unwrap();
+//! assert!(site.contains("C0,3") && site.contains("ketone"), "{site}");
+//! assert_eq!(table::atom_list(&[0, 3]), "0,3");
+//! ```
 
 use super::analyze::Scale;
 use super::record::{CautionOut, Record};

@@ -9,7 +9,13 @@ pub enum AtomPrim {
     Any,
     /// An element symbol: atomic number and, where the symbol says so,
     /// aromatic (lower case) or aliphatic (upper case). `[#n]` gives `None`.
-    Element { number: u8, aromatic: Option<bool> },
+    Element {
+        /// Atomic number (6 for `C`, `c` and `#6`).
+        number: u8,
+        /// `Some(true)` for a lower-case (aromatic) symbol, `Some(false)`
+        /// for an upper-case (aliphatic) one, `None` for `[#n]`.
+        aromatic: Option<bool>,
+    },
     /// `a` (true) or `A` (false).
     Aromatic(bool),
     /// `H n`: total hydrogen count.
@@ -43,9 +49,13 @@ pub enum AtomPrim {
 /// An atom expression tree.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub enum AtomExpr {
+    /// A single primitive.
     Prim(AtomPrim),
+    /// `!`: the inner expression does not hold.
     Not(Box<AtomExpr>),
+    /// `&`, `;` or juxtaposition: every operand holds.
     And(Vec<AtomExpr>),
+    /// `,`: at least one operand holds.
     Or(Vec<AtomExpr>),
 }
 
@@ -71,9 +81,13 @@ pub enum BondPrim {
 /// A bond expression tree.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub enum BondExpr {
+    /// A single primitive.
     Prim(BondPrim),
+    /// `!`: the inner expression does not hold.
     Not(Box<BondExpr>),
+    /// `&`, `;` or juxtaposition: every operand holds.
     And(Vec<BondExpr>),
+    /// `,`: at least one operand holds.
     Or(Vec<BondExpr>),
 }
 
@@ -224,11 +238,18 @@ impl BondExpr {
 /// comparisons before the remaining expression tree.
 #[derive(Debug, Clone, Default, PartialEq, Eq)]
 pub struct AtomFilter {
+    /// Required atomic number; None: any element.
     pub element: Option<u8>,
+    /// Required aromaticity (`a`/`A` or the case of the element symbol);
+    /// None: either.
     pub aromatic: Option<bool>,
+    /// Required total hydrogen count (`H n`); None: any.
     pub hydrogens: Option<u8>,
+    /// Required explicit connections (`D n`); None: any.
     pub degree: Option<u8>,
+    /// Required total connections including hydrogens (`X n`); None: any.
     pub connectivity: Option<u8>,
+    /// Required formal charge; None: any.
     pub charge: Option<i8>,
     /// From `!H0`: at least one hydrogen.
     pub some_hydrogen: bool,

@@ -72,6 +72,8 @@
 //! assert_eq!(p.anchored_atoms_in(&t), vec![0, 3]);
 //! ```
 
+#![warn(missing_docs)]
+
 mod expr;
 mod matcher;
 mod parse;

@@ -320,6 +320,7 @@ impl SideReaction {
 /// one enolate side.
 #[derive(Debug, Clone)]
 pub struct RegioRule {
+    /// The enolate side (kinetic or thermodynamic) the rule applies to.
     pub control: Control,
     /// Base families ruled out under this control.
     pub families: Vec<String>,

@@ -153,11 +153,24 @@ pub struct Alternative {
 /// Why a base was rejected.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum RejectKind {
+    /// The conjugate acid is not acidic enough: the base does not reach
+    /// the conversion the purpose needs (99 % for a preformed anion);
+    /// `too-weak`.
     TooWeak,
+    /// The base adds to or substitutes at a group of the molecule (C=O,
+    /// C≡N, C–X, acyl halide, anhydride); `nucleophile`.
     Nucleophile,
+    /// An alkoxide whose alkyl group differs from the ester's alkoxy group
+    /// exchanges it; `transesterification`.
     Transesterification,
+    /// Hydroxide saponifies an ester or acyl group; `hydrolysis`.
     Hydrolysis,
+    /// Strong enough for the target only by also taking a proton the
+    /// equivalents do not count (a site of similar acidity); the reason
+    /// names its atoms and pKa; `uncounted-proton`.
     UncountedProton,
+    /// The base and the target have no pKa on a common scale, so the data
+    /// cannot compare them; `no-comparable-pka`.
     NoComparablePka,
     /// Consumed irreversibly (organolithiums, metal amides, hydrides): a
     /// stoichiometric reagent, not a catalyst.
@@ -205,17 +218,45 @@ pub struct Rejection {
 /// Warning categories.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum WarningKind {
+    /// The molecule is an aldehyde: its enolate adds to unreacted
+    /// aldehyde; `self-aldol`.
     SelfAldol,
+    /// The chosen base forms the enolate slowly or reversibly, so enolate
+    /// and carbonyl compound coexist (aldol or Claisen);
+    /// `self-condensation`.
     SelfCondensation,
+    /// A leaving group on the carbon next to the acidic carbon can be
+    /// expelled (E1cB); `beta-elimination`.
     BetaElimination,
+    /// The target carbon is a stereocentre and will epimerise or
+    /// racemise; `epimerisation`.
     Epimerisation,
+    /// The molecule contains an alkyl halide or sulfonate (self-alkylation,
+    /// elimination of HX); `alkyl-halide`.
     AlkylHalide,
+    /// A 1,3-dicarbonyl anion reacts at O as well as C;
+    /// `o-versus-c-alkylation`.
     OVersusCAlkylation,
+    /// More acidic protons are removed before the target and consume base
+    /// (see [`Advice::counted`]); `counted-protons`.
     CountedProtons,
+    /// The base is stronger than the target by less than the estimate's
+    /// uncertainty; the conversion could be lower; `uncertainty`.
     Uncertainty,
+    /// Only part of the target is deprotonated at equilibrium; the
+    /// reaction relies on the electrophile pulling it over;
+    /// `incomplete-equilibrium`.
     IncompleteEquilibrium,
+    /// The base asked for in [`AdviceOptions::base`] is unsuitable; the
+    /// message gives its rejection reasons; `requested-base`.
     RequestedBase,
+    /// The equivalents asked for in [`AdviceOptions::equivalents`] do not
+    /// cover the target plus the counted protons; `requested-equivalents`.
     RequestedEquivalents,
+    /// No catalogue base qualifies ([`Advice::base`] is None), or none of
+    /// the bases practice names for this site and reaction passes the
+    /// checks and the recommendation is the catalogue's best other base;
+    /// `no-base`.
     NoBase,
     /// A side reaction from `fragments/side_reactions.tsv`.
     SideReaction,
@@ -224,6 +265,7 @@ pub enum WarningKind {
 }
 
 impl WarningKind {
+    /// Stable lower-case name used in records (key `kind` of a warning).
     pub fn name(self) -> &'static str {
         match self {
             WarningKind::SelfAldol => "self-aldol",
@@ -256,27 +298,44 @@ pub struct Warning {
 /// Conditions favouring one side of an unsymmetrical ketone.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RegioConditions {
+    /// The practice row's preferred bases or systems, at most two, joined
+    /// by " or " (`LDA or LiTMP`).
     pub base: String,
+    /// Equivalents: the practice row's value (1.0 when it gives none) plus
+    /// the practical excess of 0.1 equiv.
     pub equivalents: f64,
+    /// Usual solvent of the first preferred base or system (empty when
+    /// neither the catalogue nor the practice data knows it).
     pub solvent: String,
+    /// Usual temperature range of the first preferred base or system.
     pub temperature: Temperature,
+    /// The practice row's note followed by its id in brackets.
     pub procedure: String,
-    /// Site index and atoms of the α-carbon this side deprotonates.
+    /// Index into `SiteReport::sites` of the α-carbon this side
+    /// deprotonates; None when the molecule has no site on this side.
     pub favours_site: Option<usize>,
+    /// Atoms of that site, 0-based in input order (empty with
+    /// `favours_site` None).
     pub favours_atoms: Vec<usize>,
 }
 
 /// Kinetic and thermodynamic conditions for an unsymmetrical ketone.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RegioAdvice {
+    /// Conditions for the less substituted enolate, formed fastest (cold,
+    /// strong hindered base).
     pub kinetic: RegioConditions,
+    /// Conditions for the more substituted, more stable enolate
+    /// (equilibrating conditions).
     pub thermodynamic: RegioConditions,
 }
 
 /// The advice for one molecule.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Advice {
+    /// The site the advice is about.
     pub target: Target,
+    /// The purpose asked for in [`AdviceOptions::purpose`].
     pub purpose: Purpose,
     /// The planned reaction the advice is for.
     pub reaction: Reaction,
@@ -292,6 +351,10 @@ pub struct Advice {
     pub not_judged: Vec<NotJudged>,
     /// Recommended (or requested) base; None when no catalogue base qualifies.
     pub base: Option<String>,
+    /// Equivalents of base per mole of substrate: the target's share, any
+    /// extra the reaction consumes, one per counted proton and a practical
+    /// excess of 0.1 equiv (or the requested value); 0.0 when no base is
+    /// chosen.
     pub equivalents: f64,
     /// How the equivalents were reached.
     pub equivalents_note: String,
@@ -301,22 +364,43 @@ pub struct Advice {
     /// The full equilibrium with the recommended base (None when
     /// [`AdviceOptions::full_equilibrium`] is false).
     pub equilibrium: Option<Equilibrium>,
+    /// Solvent for the recommended base or system (the requested solvent,
+    /// else its usual one); None when no base is chosen.
     pub solvent: Option<String>,
+    /// Usual working temperature range of the recommended base or system;
+    /// None when no base is chosen.
     pub temperature: Option<Temperature>,
+    /// pKa scale on which the recommended base was compared with the
+    /// target; None when no base is chosen.
     pub scale: Option<Scale>,
+    /// Why that scale (for example a THF value standing in for DMSO);
+    /// empty when no base is chosen.
     pub scale_note: String,
+    /// Substrate concentration used, mol/L.
     pub concentration: f64,
     /// Protons removed before the target.
     pub counted: Vec<CountedProton>,
+    /// Plain-language explanation of the counted protons; None when there
+    /// are none.
     pub counted_note: Option<String>,
+    /// Other acceptable bases, best first (at most
+    /// [`AdviceOptions::alternatives`]).
     pub alternatives: Vec<Alternative>,
     /// Acceptable bases left out of `alternatives` by
     /// [`AdviceOptions::alternatives`].
     pub alternatives_omitted: usize,
+    /// Catalogue bases ruled out for this target, with their reasons.
     pub rejected: Vec<Rejection>,
+    /// Chemistry warnings about the molecule, the target and the chosen
+    /// conditions.
     pub warnings: Vec<Warning>,
+    /// Safety cautions for the recommended base (full) and the other
+    /// reagents named (see [`Caution::full`]).
     pub cautions: Vec<Caution>,
+    /// Kinetic and thermodynamic conditions when the target is a carbonyl
+    /// α-carbon with two enolate sides; None otherwise.
     pub regio: Option<RegioAdvice>,
+    /// Version of the base catalogue used (its `# version:` comment).
     pub catalogue_version: String,
 }
 
@@ -340,6 +424,7 @@ impl Advice {
                 .iter()
                 .any(|a| a.base.eq_ignore_ascii_case(base))
     }
+    /// Does the advice carry a warning of this kind?
     pub fn has_warning(&self, kind: WarningKind) -> bool {
         self.warnings.iter().any(|w| w.kind == kind)
     }
@@ -363,8 +448,14 @@ pub enum AdviceError {
     NoSites,
     /// `--site N`: atom N carries no acidic hydrogen (or is out of range).
     NotAcidicAtom(usize),
+    /// [`AdviceOptions::base`] names no catalogue base (the name as
+    /// given).
     UnknownBase(String),
+    /// A number outside its allowed range (option name, value), for
+    /// example a concentration that is not positive.
     Invalid(&'static str, f64),
+    /// The embedded base catalogue or practice data failed validation (a
+    /// build defect).
     Catalogue(CatalogueError),
 }
 
