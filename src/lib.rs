@@ -65,5 +65,8 @@ pub mod advice;
 pub mod depict;
 pub mod mol;
 pub mod report;
+mod scale;
 pub mod sites;
 pub mod smarts;
+
+pub use scale::Scale;

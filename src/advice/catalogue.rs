@@ -40,39 +40,7 @@ pub const COLUMNS: [&str; 19] = [
     "notes",
 ];
 
-/// A pKa scale (solvent of the reference measurements).
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
-pub enum Scale {
-    /// Dimethyl sulfoxide (free ions, Bordwell-type values), the main
-    /// scale for carbon acids; serialised as `dmso`.
-    Dmso,
-    /// Water (aqueous pKa); serialised as `water`.
-    Water,
-    /// Tetrahydrofuran ion-pair scale (lithium and other metal salts, as
-    /// used for amide bases); serialised as `thf`.
-    Thf,
-}
-
-impl Scale {
-    /// Stable lower-case name.
-    pub fn name(self) -> &'static str {
-        match self {
-            Scale::Dmso => "dmso",
-            Scale::Water => "water",
-            Scale::Thf => "thf",
-        }
-    }
-
-    /// Parse a scale name (case-insensitive: dmso, water, thf).
-    pub fn parse(s: &str) -> Option<Scale> {
-        match s.trim().to_ascii_lowercase().as_str() {
-            "dmso" => Some(Scale::Dmso),
-            "water" | "h2o" => Some(Scale::Water),
-            "thf" => Some(Scale::Thf),
-            _ => None,
-        }
-    }
-}
+pub use crate::scale::Scale;
 
 /// How readily the base attacks electrophilic carbon (C=O, C≡N, C–X).
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]

@@ -42,27 +42,7 @@ use crate::smarts::{Pattern, PatternError, Target};
 /// `too_large` error instead of a slowdown).
 pub const MAX_SMILES_BYTES: usize = 100_000;
 
-/// pKa scale used to rank sites in the table and CSV output.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub enum Scale {
-    /// Rank by the DMSO estimate, a site without one by its water
-    /// estimate; the default.
-    #[default]
-    Dmso,
-    /// Rank by the water estimate, a site without one by its DMSO
-    /// estimate.
-    Water,
-}
-
-impl Scale {
-    /// Stable lower-case name (`dmso`, `water`).
-    pub fn name(self) -> &'static str {
-        match self {
-            Scale::Dmso => "dmso",
-            Scale::Water => "water",
-        }
-    }
-}
+pub use crate::scale::Scale;
 
 /// At most this many unique matches of a `--flag` pattern are counted per
 /// molecule; a record that reaches it says so in `flag_warnings`.
@@ -236,16 +216,7 @@ pub fn analyze_molecule(
     // One pattern-matching view of the molecule serves the sites and the
     // advice's functional groups.
     let target = Target::new(mol);
-    let report = sites::find_sites_in(
-        mol,
-        &target,
-        &sites::Options {
-            scale: match opts.scale {
-                Scale::Dmso => sites::Scale::Dmso,
-                Scale::Water => sites::Scale::Water,
-            },
-        },
-    );
+    let report = sites::find_sites_in(mol, &target, &sites::Options { scale: opts.scale });
     let (advice, advice_note) = if opts.sites_only {
         (None, Some("not requested (sites only)".to_string()))
     } else {

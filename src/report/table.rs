@@ -113,8 +113,9 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
             o,
             "   acidic hydrogens, most acidic first (ranked on the {} scale)",
             match scale {
-                Scale::Dmso => "DMSO",
                 Scale::Water => "water",
+                Scale::Thf => "DMSO (no site has a THF estimate)",
+                _ => "DMSO",
             }
         );
         let rows: Vec<[String; 8]> = sites

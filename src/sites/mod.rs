@@ -135,15 +135,7 @@ pub fn sigma_table() -> Result<&'static SigmaTable, &'static RuleError> {
     loaded().map(|l| &l.sigma)
 }
 
-/// Which pKa scale ranks the sites.
-#[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
-pub enum Scale {
-    /// DMSO where the site has a DMSO estimate, else its water estimate.
-    #[default]
-    Dmso,
-    /// Water where available, else DMSO.
-    Water,
-}
+pub use crate::scale::Scale;
 
 /// Options for [`find_sites_with`].
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
@@ -211,8 +203,10 @@ impl Site {
     /// the site has no estimate on either scale (ranked last).
     pub fn ranking_pka(&self, preferred: Scale) -> Option<(Scale, f64)> {
         let (first, second) = match preferred {
-            Scale::Dmso => ((Scale::Dmso, self.pka_dmso), (Scale::Water, self.pka_water)),
             Scale::Water => ((Scale::Water, self.pka_water), (Scale::Dmso, self.pka_dmso)),
+            // DMSO, and THF (no site has a THF estimate: the nearer
+            // aprotic scale ranks).
+            _ => ((Scale::Dmso, self.pka_dmso), (Scale::Water, self.pka_water)),
         };
         [first, second]
             .into_iter()
