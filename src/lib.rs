@@ -20,7 +20,8 @@
 //! ```
 //! use acidsite::advice::{advise, AdviceOptions, RejectKind};
 //! use acidsite::mol::Molecule;
-//! use acidsite::report::{analyze, Options, SCHEMA};
+//! use acidsite::analyze::{analyze, Options};
+//! use acidsite::report::SCHEMA;
 //! use acidsite::sites::find_sites;
 //!
 //! // Acetone: atoms 0 (CH3), 1 (C=O carbon), 2 (O), 3 (CH3).
@@ -62,6 +63,7 @@
 //! ```
 
 pub mod advice;
+pub mod analyze;
 pub mod depict;
 pub mod mol;
 pub mod report;

@@ -43,7 +43,6 @@
 
 #![warn(missing_docs)]
 
-pub mod analyze;
 pub mod brief;
 pub mod delimited;
 mod json;
@@ -52,6 +51,10 @@ pub mod mapped;
 pub mod record;
 pub mod table;
 
-pub use analyze::{analyze, analyze_molecule, analyze_molfile, Flag, FlagError, Options, Scale};
+// The pipeline entry point lives in its own module, crate::analyze; these
+// re-exports keep the older paths working.
+pub use crate::analyze::{
+    analyze, analyze_molecule, analyze_molfile, Flag, FlagError, Options, Scale,
+};
 pub use brief::{Detail, BRIEF_SCHEMA};
 pub use record::{Record, SCHEMA};

@@ -13,9 +13,9 @@
 //! assert_eq!(table::atom_list(&[0, 3]), "0,3");
 //! ```
 
-use super::analyze::Scale;
 use super::record::{CautionOut, Record};
 use crate::advice::DEFERRAL;
+use crate::scale::Scale;
 use std::fmt::Write;
 
 /// How much of the advice the report shows.

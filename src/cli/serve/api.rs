@@ -159,7 +159,7 @@ async fn options() -> Response {
                 "json_body_bytes": JSON_LIMIT_BYTES,
                 "annotate_body_bytes": ANNOTATE_LIMIT_BYTES,
                 "annotate_unpacked_bytes": ANNOTATE_UNPACKED_LIMIT_BYTES,
-                "smiles_bytes": acidsite::report::analyze::MAX_SMILES_BYTES,
+                "smiles_bytes": acidsite::analyze::MAX_SMILES_BYTES,
             },
         })
         .to_string(),
@@ -338,7 +338,7 @@ async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, ApiError> {
     tokio::task::spawn_blocking(move || {
         let smiles = req.smiles.trim();
         if let Some(n) = opts.site {
-            if smiles.len() <= acidsite::report::analyze::MAX_SMILES_BYTES {
+            if smiles.len() <= acidsite::analyze::MAX_SMILES_BYTES {
                 if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles) {
                     if n >= m.atoms.len() {
                         return Err(fail(

@@ -2,7 +2,7 @@
 //! options of `scan` and `annotate`. No I/O.
 //!
 //! ```
-//! use acidsite::report::analyze::{analyze, Flag, Options};
+//! use acidsite::analyze::{analyze, Flag, Options};
 //!
 //! // Butan-2-one, `CC(=O)CC`: atom 0 is the methyl, atom 3 the methylene.
 //! // Ask for advice on the methylene side and count the carbonyl groups.
@@ -26,15 +26,17 @@
 //! assert!(Flag::parse("carbonyl").is_err());
 //! ```
 
-use super::brief::Detail;
-use super::mapped::{atom_mapped_smiles, Label};
-use super::record::{
-    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
-    Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
-};
+#![warn(missing_docs)]
+
 use crate::advice::practice::{Control, Reaction};
 use crate::advice::{advise_in, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
+use crate::report::brief::Detail;
+use crate::report::mapped::{atom_mapped_smiles, Label};
+use crate::report::record::{
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
+    Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
+};
 use crate::sites::{self, Regio, SiteReport};
 use crate::smarts::{Pattern, PatternError, Target};
 
