@@ -64,6 +64,7 @@ pub struct Flag {
 
 /// Why a `NAME=SMARTS` flag specification was refused.
 #[derive(Debug, Clone, PartialEq, Eq)]
+#[non_exhaustive]
 pub enum FlagError {
     /// No `=`, or an empty name.
     Form(String),

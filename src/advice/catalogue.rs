@@ -70,6 +70,7 @@ impl Nucleophilicity {
 
 /// Hazard classes used in cautions.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+#[non_exhaustive]
 pub enum Hazard {
     /// Ignites in air (alkyllithiums); `pyrophoric`.
     Pyrophoric,
@@ -123,6 +124,7 @@ impl Hazard {
 
 /// Chemical family of a base; drives the side-reaction checks.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
 pub enum BaseFamily {
     /// Lithium dialkylamides (LDA, LiTMP); `lithium-amide`.
     LithiumAmide,

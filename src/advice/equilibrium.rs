@@ -137,6 +137,7 @@ impl Equilibrium {
 
 /// What the solver or its set-up could not do.
 #[derive(Debug, Clone, PartialEq)]
+#[non_exhaustive]
 pub enum EquilibriumError {
     /// A number outside its allowed range (name, value).
     Invalid(&'static str, f64),

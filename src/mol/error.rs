@@ -4,6 +4,7 @@ use std::fmt;
 
 /// What went wrong while reading a SMILES string.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
 pub enum ErrorKind {
     /// No SMILES given (empty or only white space).
     Empty,

@@ -42,6 +42,7 @@ impl std::error::Error for RuleError {}
 /// Which σ constant a para substituent uses in a Hammett term (meta
 /// substituents always use σm).
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
 pub enum SigmaKind {
     /// σp: the aryl ring is not directly conjugated with the lone pair.
     Para,

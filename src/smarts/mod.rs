@@ -112,6 +112,7 @@ impl std::error::Error for PatternError {}
 
 /// Which bound stopped [`Pattern::count_unique_bounded`].
 #[derive(Debug, Clone, Copy, PartialEq, Eq)]
+#[non_exhaustive]
 pub enum CountBound {
     /// More matches than the match bound.
     Matches,

@@ -152,6 +152,7 @@ pub struct Alternative {
 
 /// Why a base was rejected.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
 pub enum RejectKind {
     /// The conjugate acid is not acidic enough: the base does not reach
     /// the conversion the purpose needs (99 % for a preformed anion);
@@ -217,6 +218,7 @@ pub struct Rejection {
 
 /// Warning categories.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
+#[non_exhaustive]
 pub enum WarningKind {
     /// The molecule is an aldehyde: its enolate adds to unreacted
     /// aldehyde; `self-aldol`.
@@ -442,6 +444,7 @@ pub struct NotJudged {
 
 /// What the recommender could not do.
 #[derive(Debug, Clone, PartialEq)]
+#[non_exhaustive]
 pub enum AdviceError {
     /// The molecule has no activated acidic site with a pKa estimate
     /// (background alkane C–H sites are targets only when asked for).
