@@ -277,6 +277,39 @@ pub fn find_sites_in(mol: &Molecule, target: &crate::smarts::Target, opts: &Opti
     }
 }
 
+/// [`find_sites_with`] with a rule set and σ table of the caller's own
+/// (parsed with [`parse_rule_set`] and [`SigmaTable::parse`] from its own
+/// files) instead of the embedded ones.
+///
+/// ```
+/// use acidsite::mol::Molecule;
+/// use acidsite::sites::{find_sites_using, parse_rule_set, sigma_table, Options};
+///
+/// // A one-rule table: methyl ketone C-H only (value: acetone 26.5 in
+/// // DMSO, 19.3 in water; common practice).
+/// let rules = "# my rules\n# version: mine-1\n# match order: as written\n\
+/// id\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n\
+/// K-1\tC\t[CH3:1]C(=O)\tmethyl ketone\tcarbonyl\t26.5\t19.3\t1.0\t\t\t\tcommon-practice\tacetone\n";
+/// let increments = "# my increments\n# version: mine-1\n\
+/// id\tkind\tfamilies\tnth\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n";
+/// let sources = "key\treference\ncommon-practice\tFigure used routinely in practice.\n";
+/// let set = parse_rule_set(("rules.tsv", rules), ("increments.tsv", increments), ("sources.tsv", sources));
+/// let set = set.expect("my rule table parses");
+/// let sigma = sigma_table().expect("embedded sigma table");
+/// let mol = Molecule::from_smiles("CC(=O)CC").unwrap();
+/// let report = find_sites_using(&mol, &set, sigma, &Options::default());
+/// assert_eq!(report.sites.len(), 1);
+/// assert_eq!(report.sites[0].pka_dmso, Some(26.5));
+/// ```
+pub fn find_sites_using(
+    mol: &Molecule,
+    rules: &RuleSet,
+    sigma: &SigmaTable,
+    opts: &Options,
+) -> SiteReport {
+    estimate::run(mol, None, rules, sigma, opts)
+}
+
 /// Version of the embedded rule set, stamped into every output.
 pub fn rule_set_version() -> &'static str {
     match rule_set() {
