@@ -476,3 +476,30 @@ fn scan_given_deuterium_on_the_target_warns_that_the_label_exchanges_issue10() {
     let (_, h, _) = scan_json(&["CC(=O)c1ccccc1"]);
     assert!(!h["advice"]["warnings"].to_string().contains("deuterium"));
 }
+
+#[test]
+fn scan_given_amine_hydrochloride_counts_the_ammonium_across_scales_issue11() {
+    // Glycine methyl ester hydrochloride: the ammonium (water pKa about 7.7,
+    // no DMSO value) gives up its proton before the ester alpha-C-H (DMSO
+    // about 29.5, no water value); common practice: an amine salt takes
+    // one equivalent of base of its own. Found when charged states moved
+    // the C-H estimate to the free-amine value.
+    let (code, v, err) = scan_json(&["Cl.COC(=O)CN"]);
+    assert_eq!(code, Some(0), "{err}");
+    let adv = &v["advice"];
+    assert_eq!(adv["target"], serde_json::json!([5]));
+    let counted = adv["counted"].as_array().unwrap();
+    assert!(
+        counted.iter().any(|c| c["atoms"] == serde_json::json!([6])),
+        "{counted:?}"
+    );
+    assert!(adv["equivalents"].as_f64().unwrap() >= 2.0, "{adv}");
+    // A neutral amine's N-H is not counted that way (DMSO values on both
+    // sides: N-H about 41 is less acidic than the ester).
+    let (_, v, _) = scan_json(&["COC(=O)CN"]);
+    let counted = v["advice"]["counted"].as_array().unwrap();
+    assert!(
+        counted.iter().all(|c| c["atoms"] != serde_json::json!([6])),
+        "{counted:?}"
+    );
+}

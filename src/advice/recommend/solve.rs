@@ -123,6 +123,12 @@ pub(super) fn memo_position(ctx: &Ctx, key: LeanKey, exclude: &[usize]) -> Optio
 /// reversibly).
 pub(super) const CATALYTIC_CH_GAP: f64 = 3.0;
 
+/// Across scales (one site with only a water value, the other with only a
+/// DMSO value) a site is counted as more acidic only when its pKa is this
+/// much lower: the same acid differs by up to several units between water
+/// and DMSO (carbon acids most, ammoniums least; common practice).
+pub(super) const CROSS_SCALE_GAP: f64 = 8.0;
+
 pub(super) fn count_protons(
     ctx: &Ctx,
     base: &Base,
@@ -137,14 +143,18 @@ pub(super) fn count_protons(
         if ctx.target_unit.contains(&i) {
             continue;
         }
-        // Compare on the chosen scale, else on the other one.
+        // Compare on the chosen scale, else on the other one; values on
+        // different scales (an ammonium with only a water value against a
+        // C–H with only a DMSO value) count only across a wide gap.
         let cmp = match (pka_on(s, scale), t_pka) {
             (Some(a), Some(b)) => Some((a, b)),
             _ => match (s.pka_dmso.or(s.pka_water), t.pka_dmso.or(t.pka_water)) {
                 (Some(a), Some(b)) if s.pka_dmso.is_some() == t.pka_dmso.is_some() => Some((a, b)),
+                (Some(a), Some(b)) if a + CROSS_SCALE_GAP < b => Some((a, b)),
                 _ => None,
             },
         };
+        let cross_scale = pka_on(s, scale).is_none() || t_pka.is_none();
         let hetero = matches!(s.element.as_str(), "O" | "N" | "S");
         // A catalytic amount of base is not titrated by a C–H of about the
         // target's acidity: that anion forms and gives its proton back as
@@ -182,10 +192,26 @@ pub(super) fn count_protons(
         let reason = if more_acidic {
             let mut r = String::with_capacity(48);
             r.push_str("more acidic than the target (");
-            r.push_str(scale.name());
-            r.push_str(" pKa ");
-            numfmt::push_fixed1(&mut r, cmp.map(|c| c.0).unwrap_or(f64::NAN));
-            r.push_str(" vs ");
+            if cross_scale {
+                let name = |x: &crate::sites::Site| {
+                    if x.pka_dmso.is_some() {
+                        "dmso"
+                    } else {
+                        "water"
+                    }
+                };
+                r.push_str(name(s));
+                r.push_str(" pKa ");
+                numfmt::push_fixed1(&mut r, cmp.map(|c| c.0).unwrap_or(f64::NAN));
+                r.push_str(" vs ");
+                r.push_str(name(t));
+                r.push(' ');
+            } else {
+                r.push_str(scale.name());
+                r.push_str(" pKa ");
+                numfmt::push_fixed1(&mut r, cmp.map(|c| c.0).unwrap_or(f64::NAN));
+                r.push_str(" vs ");
+            }
             numfmt::push_fixed1(&mut r, cmp.map(|c| c.1).unwrap_or(f64::NAN));
             r.push(')');
             r
