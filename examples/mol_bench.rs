@@ -104,7 +104,7 @@ fn main() {
                 for _ in 0..m.atom_count() {
                     g.add_node(());
                 }
-                for (k, b) in m.bonds.iter().enumerate() {
+                for (k, b) in m.bonds().iter().enumerate() {
                     g.add_edge(
                         petgraph::graph::NodeIndex::new(b.atoms[0]),
                         petgraph::graph::NodeIndex::new(b.atoms[1]),

@@ -31,7 +31,7 @@ fn show(s: &str) {
                 return;
             }
             let classes = m.symmetry_classes();
-            for (i, a) in m.atoms.iter().enumerate() {
+            for (i, a) in m.atoms().iter().enumerate() {
                 println!(
                     "  {i:>3} {:<2} arom={} charge={:+} H={} (D/T {}) deg={} val={} R={} r={} x={} class={}",
                     a.symbol(),

@@ -108,7 +108,7 @@ fn check(m: &Molecule) -> (usize, usize, usize, usize, usize) {
     }
     let mut db_right = 0;
     for st in m.double_bond_stereo() {
-        let [u, v] = m.bonds[st.bond].atoms;
+        let [u, v] = m.bonds()[st.bond].atoms;
         if cis_from_2d(p(u), p(v), p(st.refs[0]), p(st.refs[1])) == Some(st.cis) {
             db_right += 1;
         }
@@ -242,7 +242,7 @@ fn layout_given_e_and_z_isomers_draws_each_side_issue12() {
         let m = Molecule::from_smiles(s).unwrap();
         let l = depict::layout(&m);
         let st = &m.double_bond_stereo()[0];
-        let [u, v] = m.bonds[st.bond].atoms;
+        let [u, v] = m.bonds()[st.bond].atoms;
         let xy = |a: usize| [l.points[a].x, l.points[a].y];
         assert_eq!(
             cis_from_2d(xy(u), xy(v), xy(st.refs[0]), xy(st.refs[1])),

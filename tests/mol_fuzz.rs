@@ -109,14 +109,14 @@ fn check(s: &str) {
         }
         Ok(m) => {
             let n = m.atom_count();
-            for a in &m.atoms {
+            for a in m.atoms() {
                 assert!(
                     a.span.start < a.span.end && a.span.end <= n_chars,
                     "span in {s:?}"
                 );
                 assert!(a.heavy_hydrogens <= a.hydrogens);
             }
-            for (k, b) in m.bonds.iter().enumerate() {
+            for (k, b) in m.bonds().iter().enumerate() {
                 assert!(b.atoms[0] < n && b.atoms[1] < n && b.atoms[0] != b.atoms[1]);
                 assert!(m.neighbors(b.atoms[0]).iter().any(|x| x.bond == k));
                 assert!((1..=4).contains(&b.kekule));

@@ -141,14 +141,14 @@ fn from_smiles_given_reference_corpus_agrees_with_rdkit() {
             m.total_hydrogens().to_string(),
             r.total_h.to_string(),
         );
-        let arom = m.atoms.iter().filter(|a| a.aromatic).count();
+        let arom = m.atoms().iter().filter(|a| a.aromatic).count();
         if arom == r.aromatic {
             aromatic_agree += 1;
         }
         note("aromatic", arom.to_string(), r.aromatic.to_string());
         note("sssr", m.sssr_count().to_string(), r.sssr.to_string());
         let smallest: Vec<usize> = (0..m.atom_count())
-            .filter(|&i| m.atoms[i].element != 1)
+            .filter(|&i| m.atoms()[i].element != 1)
             .map(|i| m.smallest_ring(i))
             .collect();
         note(
@@ -241,14 +241,14 @@ fn from_smiles_given_full_datasets_reports_agreement() {
                 } else {
                     bad.push(format!("H {} vs {}", m.total_hydrogens(), f[3]));
                 }
-                let arom = m.atoms.iter().filter(|a| a.aromatic).count();
+                let arom = m.atoms().iter().filter(|a| a.aromatic).count();
                 if arom.to_string() == f[4] {
                     arom_ok += 1;
                 } else {
                     bad.push(format!("aromatic {} vs {}", arom, f[4]));
                 }
                 let smallest: Vec<String> = (0..m.atom_count())
-                    .filter(|&i| m.atoms[i].element != 1)
+                    .filter(|&i| m.atoms()[i].element != 1)
                     .map(|i| m.smallest_ring(i).to_string())
                     .collect();
                 if m.sssr_count().to_string() == f[5] && smallest.join(",") == f[6] {

@@ -115,8 +115,8 @@ fn read_given_charge_isotope_and_radical_lines() {
     );
     let r = molfile::read(&text).unwrap();
     assert_eq!(r.molecule.formula(), "C2H3O2");
-    assert_eq!(r.molecule.atoms[3].charge, -1);
-    assert_eq!(r.molecule.atoms[1].isotope, Some(13));
+    assert_eq!(r.molecule.atoms()[3].charge, -1);
+    assert_eq!(r.molecule.atoms()[1].isotope, Some(13));
     assert_eq!(r.smiles, "C[13C](=O)[O-]");
     // Methyl radical (M  RAD 2 = doublet): three hydrogens, not four.
     let text = v2000(&["C"], &[], &["M  RAD  1   1   2"]);
@@ -141,7 +141,7 @@ fn read_given_aromatic_bond_type_4_and_explicit_hydrogen_on_nitrogen() {
     let r = molfile::read(&text).unwrap();
     assert_eq!(r.molecule.formula(), "C4H5N");
     assert_eq!(r.molecule.atom_count(), 5); // the hydrogen is folded
-    assert!(r.molecule.atoms.iter().all(|a| a.aromatic));
+    assert!(r.molecule.atoms().iter().all(|a| a.aromatic));
     // Without the hydrogen the ring cannot be kekulized: error at the N.
     let text = v2000(
         &["N", "C", "C", "C", "C"],
@@ -162,10 +162,10 @@ fn read_given_atom_order_keeps_molfile_indices_and_spans() {
         &[],
     );
     let r = molfile::read(&text).unwrap();
-    let elements: Vec<u8> = r.molecule.atoms.iter().map(|a| a.element).collect();
+    let elements: Vec<u8> = r.molecule.atoms().iter().map(|a| a.element).collect();
     assert_eq!(elements, [8, 6, 6, 8, 6, 6]);
     let chars: Vec<char> = r.smiles.chars().collect();
-    for a in &r.molecule.atoms {
+    for a in r.molecule.atoms() {
         let text: String = chars[a.span.clone()].iter().collect();
         assert_eq!(text, a.symbol(), "span of {a:?} in {}", r.smiles);
     }

@@ -166,7 +166,7 @@ fn same_as_given_swapped_neighbours_flips_issue12() {
 /// cis/trans of `st` restated for reference atoms `want` (flipped once per
 /// end whose reference differs).
 fn cis_for(st: &acidsite::mol::DoubleBondStereo, m: &Molecule, want: [usize; 2]) -> bool {
-    let [u, v] = m.bonds[st.bond].atoms;
+    let [u, v] = m.bonds()[st.bond].atoms;
     let mut cis = st.cis;
     for (k, end) in [(0, u), (1, v)] {
         if st.refs[k] != want[k] {

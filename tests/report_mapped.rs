@@ -20,11 +20,11 @@ fn check(smiles: &str) -> bool {
         .unwrap_or_else(|e| panic!("mapped SMILES {mapped} of {smiles} does not read: {e}"));
     assert_eq!(again.formula(), original.formula(), "{smiles} -> {mapped}");
     assert_eq!(
-        again.atoms.len(),
-        original.atoms.len(),
+        again.atoms().len(),
+        original.atoms().len(),
         "{smiles} -> {mapped}"
     );
-    let mut expected: Vec<Option<u16>> = original.atoms.iter().map(|a| a.map).collect();
+    let mut expected: Vec<Option<u16>> = original.atoms().iter().map(|a| a.map).collect();
     // Background alkane C–H sites (issue 11) are not labelled.
     for s in rec
         .sites
@@ -37,9 +37,9 @@ fn check(smiles: &str) -> bool {
             expected[a] = Some(s.rank as u16);
         }
     }
-    let got: Vec<Option<u16>> = again.atoms.iter().map(|a| a.map).collect();
+    let got: Vec<Option<u16>> = again.atoms().iter().map(|a| a.map).collect();
     assert_eq!(got, expected, "{smiles} -> {mapped}");
-    for (x, y) in original.atoms.iter().zip(&again.atoms) {
+    for (x, y) in original.atoms().iter().zip(again.atoms()) {
         assert_eq!(
             (x.element, x.hydrogens, x.charge),
             (y.element, y.hydrogens, y.charge),

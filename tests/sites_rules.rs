@@ -167,7 +167,7 @@ fn sigma_table_lookup_given_each_table_substituent_finds_its_row() {
     for (i, e) in sigma.entries.iter().enumerate() {
         let mol = acidsite::mol::Molecule::from_smiles(&e.smiles).expect("parses");
         let star = mol
-            .atoms
+            .atoms()
             .iter()
             .position(|a| a.element == 0)
             .expect("attachment");

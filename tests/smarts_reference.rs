@@ -29,12 +29,12 @@ fn rows(text: &str) -> impl Iterator<Item = Vec<&str>> {
 /// recorded in molecules.tsv?
 fn aromatic_differs(mol: &Molecule, rdkit_atoms: &str, rdkit_bonds: &str) -> bool {
     let ours: String = mol
-        .atoms
+        .atoms()
         .iter()
         .map(|a| if a.aromatic { '1' } else { '0' })
         .collect();
     let mut our_bonds: Vec<(usize, usize)> = mol
-        .bonds
+        .bonds()
         .iter()
         .filter(|b| b.order == BondOrder::Aromatic)
         .map(|b| (b.atoms[0].min(b.atoms[1]), b.atoms[0].max(b.atoms[1])))

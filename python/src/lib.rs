@@ -100,12 +100,12 @@ fn options(
 fn check_site(smiles: &str, site: Option<usize>) -> PyResult<()> {
     if let Some(n) = site {
         if let Ok(m) = Molecule::from_smiles(smiles.trim()) {
-            if n >= m.atoms.len() {
+            if n >= m.atoms().len() {
                 return Err(PyValueError::new_err(format!(
                     "site {n}: {} has {} atoms (indices 0 to {}, in the order written)",
                     smiles.trim(),
-                    m.atoms.len(),
-                    m.atoms.len().saturating_sub(1)
+                    m.atoms().len(),
+                    m.atoms().len().saturating_sub(1)
                 )));
             }
         }

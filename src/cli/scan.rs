@@ -68,12 +68,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
     if let Some(n) = args.site {
         for smiles in &args.smiles {
             if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles.trim()) {
-                if n >= m.atoms.len() {
+                if n >= m.atoms().len() {
                     anyhow::bail!(
                         "--site {n}: {} has {} atoms (indices 0 to {}, in the order written)",
                         smiles.trim(),
-                        m.atoms.len(),
-                        m.atoms.len().saturating_sub(1)
+                        m.atoms().len(),
+                        m.atoms().len().saturating_sub(1)
                     );
                 }
             }
@@ -94,12 +94,12 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         if let Some(n) = args.site {
             for (_, m) in &recs {
                 if let Some(m) = m {
-                    if n >= m.atoms.len() {
+                    if n >= m.atoms().len() {
                         anyhow::bail!(
                             "--site {n}: {} has {} atoms (indices 0 to {}, in molfile order)",
                             path.display(),
-                            m.atoms.len(),
-                            m.atoms.len().saturating_sub(1)
+                            m.atoms().len(),
+                            m.atoms().len().saturating_sub(1)
                         );
                     }
                 }

@@ -251,9 +251,9 @@ pub struct Neighbor {
 #[derive(Debug, Clone)]
 pub struct Molecule {
     /// Atoms in written order (folded hydrogens excluded).
-    pub atoms: Vec<Atom>,
+    pub(crate) atoms: Vec<Atom>,
     /// Bonds in written order (ring closures at their closing digit).
-    pub bonds: Vec<Bond>,
+    pub(crate) bonds: Vec<Bond>,
     /// Adjacency in compressed rows: neighbours of atom i are
     /// `adjacency[adjacency_start[i]..adjacency_start[i + 1]]`.
     adjacency_start: Vec<u32>,
@@ -291,6 +291,18 @@ impl Molecule {
     /// Double-bond configurations as written, in bond order.
     pub fn double_bond_stereo(&self) -> &[DoubleBondStereo] {
         &self.stereo.double_bonds
+    }
+
+    /// Atoms in written order (folded hydrogens excluded); index `i` is
+    /// atom `i` everywhere (0-based input order). Read-only: a molecule
+    /// cannot be changed into an inconsistent state from outside.
+    pub fn atoms(&self) -> &[Atom] {
+        &self.atoms
+    }
+
+    /// Bonds in written order (ring closures at their closing digit).
+    pub fn bonds(&self) -> &[Bond] {
+        &self.bonds
     }
 
     /// Number of atoms.

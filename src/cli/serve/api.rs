@@ -340,14 +340,14 @@ async fn analyse(req: ScanRequest, opts: Options) -> Result<Record, ApiError> {
         if let Some(n) = opts.site {
             if smiles.len() <= acidsite::analyze::MAX_SMILES_BYTES {
                 if let Ok(m) = acidsite::mol::Molecule::from_smiles(smiles) {
-                    if n >= m.atoms.len() {
+                    if n >= m.atoms().len() {
                         return Err(fail(
                             StatusCode::BAD_REQUEST,
                             "site",
                             format!(
                                 "site {n}: {smiles} has {} atoms (indices 0 to {}, in the order written)",
-                                m.atoms.len(),
-                                m.atoms.len().saturating_sub(1)
+                                m.atoms().len(),
+                                m.atoms().len().saturating_sub(1)
                             ),
                         ));
                     }
