@@ -298,7 +298,7 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
         .map(|(rank, s)| SiteOut {
             rank: rank as u32 + 1,
             atoms: s.atoms,
-            element: s.element,
+            element: s.element.symbol().to_string(),
             hydrogens: s.hydrogens,
             deuterium: s.deuterium,
             tritium: s.tritium,

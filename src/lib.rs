@@ -31,7 +31,7 @@
 //! // symmetry-equivalent and form one C–H site.
 //! let sites = find_sites(&mol);
 //! let top = &sites.sites[sites.top_carbon.expect("a C–H site")];
-//! assert_eq!(top.element, "C");
+//! assert_eq!(top.element, acidsite::mol::Element::C);
 //! assert_eq!(top.atoms, vec![0, 3]);
 //! // Check value: acetone's α-C–H pKa in DMSO is 26.5 (Bordwell's scale,
 //! // common practice); the estimate must lie within 25–28.

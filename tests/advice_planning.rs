@@ -168,7 +168,7 @@ fn advise_given_carboxylic_acid_alpha_site_needs_two_equivalents_for_the_dianion
     assert!(a
         .counted
         .iter()
-        .any(|c| c.atoms == vec![4] && c.element == "O"));
+        .any(|c| c.atoms == vec![4] && c.element == acidsite::mol::Element::O));
     assert!(a.is_acceptable("LDA"));
     assert_rejected(&a, "n-BuLi", RejectKind::Nucleophile);
     assert_rejected(&a, "NaOH", RejectKind::TooWeak);
@@ -392,7 +392,7 @@ fn advise_given_boc_amino_ketone_counts_the_carbamate() {
     assert!(a
         .counted
         .iter()
-        .any(|c| c.atoms == vec![5] && c.element == "N"));
+        .any(|c| c.atoms == vec![5] && c.element == acidsite::mol::Element::N));
     assert_base_in(&a, &AMIDE_BASES);
 }
 
@@ -401,7 +401,10 @@ fn advise_given_hydroxyacetophenone_counts_the_phenol() {
     // Common practice: the phenol O–H (more acidic) takes the first equivalent.
     let a = plan("CC(=O)c1ccc(O)cc1");
     assert_equiv(&a, 2.1);
-    assert!(a.counted.iter().any(|c| c.element == "O"));
+    assert!(a
+        .counted
+        .iter()
+        .any(|c| c.element == acidsite::mol::Element::O));
     assert_base_in(&a, &AMIDE_BASES);
 }
 

@@ -137,7 +137,7 @@ fn site_strategy() -> impl Strategy<Value = Site> {
     )
         .prop_map(|(atoms, el, d, w, u, regio, class)| Site {
             atoms,
-            element: el.to_string(),
+            element: acidsite::mol::Element::from_symbol(el).unwrap_or(acidsite::mol::Element::C),
             hydrogens: 1,
             deuterium: 0,
             tritium: 0,

@@ -86,7 +86,7 @@ fn find_sites_given_carboxylic_acids_estimates_the_dianion_step_on_both_scales()
     // reaches (common practice), so it needs a DMSO value below
     // diisopropylamine (about 36, common practice) with a wide uncertainty.
     let r = report("CCC(=O)O");
-    assert_eq!(r.sites.first().map(|s| s.element.as_str()), Some("O"));
+    assert_eq!(r.sites.first().map(|s| s.element.symbol()), Some("O"));
     let ch = site("CCC(=O)O", 1);
     assert!(uses(&ch, "C-ACID-01"));
     let d = dmso(&ch);

@@ -167,13 +167,16 @@ fn find_sites_given_amine_with_neutral_hcl_reads_ammonium_salt() {
         let mol = Molecule::from_smiles(smiles).expect("parses");
         let r = find_sites(&mol);
         let top = &r.sites[r.top_overall.expect("a site")];
-        assert_eq!(top.element, "N", "{smiles}");
+        assert_eq!(top.element.symbol(), "N", "{smiles}");
         assert!(top.class.starts_with("ammonium"), "{smiles}: {}", top.class);
         assert_eq!(top.hydrogens, 1);
     }
     // An amide is not protonated by the acid.
     let mol = Molecule::from_smiles("CC(=O)N(C)C.Cl").expect("parses");
-    assert!(find_sites(&mol).sites.iter().all(|s| s.element != "N"));
+    assert!(find_sites(&mol)
+        .sites
+        .iter()
+        .all(|s| s.element != acidsite::mol::Element::N));
 }
 
 snap!(find_sites_given_pyridine_hydrochloride, "c1ccncc1.Cl");

@@ -24,6 +24,70 @@ pub fn atomic_number(symbol: &str) -> Option<u8> {
     SYMBOLS.iter().position(|s| *s == symbol).map(|z| z as u8)
 }
 
+/// A chemical element, by atomic number: the typed form of an element in
+/// the library's results (an acidic site's atom, a counted proton), so
+/// code compares elements, not symbol strings. Displayed and written in
+/// records as its symbol.
+///
+/// ```
+/// use acidsite::mol::Element;
+/// assert_eq!(Element::from_symbol("O"), Some(Element::O));
+/// assert_eq!(Element::C.symbol(), "C");
+/// assert_eq!(Element::N.atomic_number(), 7);
+/// assert!(Element::from_symbol("Xx").is_none());
+/// ```
+#[derive(Debug, Clone, Copy, PartialEq, Eq, Hash, PartialOrd, Ord)]
+pub struct Element(u8);
+
+impl Element {
+    /// Hydrogen.
+    pub const H: Element = Element(1);
+    /// Carbon.
+    pub const C: Element = Element(6);
+    /// Nitrogen.
+    pub const N: Element = Element(7);
+    /// Oxygen.
+    pub const O: Element = Element(8);
+    /// Phosphorus.
+    pub const P: Element = Element(15);
+    /// Sulfur.
+    pub const S: Element = Element(16);
+    /// Selenium.
+    pub const SE: Element = Element(34);
+
+    /// The element of atomic number `z` (1 to 118), or None.
+    pub fn from_atomic_number(z: u8) -> Option<Element> {
+        (1..SYMBOLS.len() as u8).contains(&z).then_some(Element(z))
+    }
+
+    /// The element written `symbol` (case-sensitive), or None.
+    pub fn from_symbol(symbol: &str) -> Option<Element> {
+        atomic_number(symbol).and_then(Element::from_atomic_number)
+    }
+
+    /// Atomic number.
+    pub fn atomic_number(self) -> u8 {
+        self.0
+    }
+
+    /// Element symbol (`C`, `Cl`).
+    pub fn symbol(self) -> &'static str {
+        symbol(self.0)
+    }
+}
+
+impl serde::Serialize for Element {
+    fn serialize<S: serde::Serializer>(&self, s: S) -> Result<S::Ok, S::Error> {
+        s.serialize_str(self.symbol())
+    }
+}
+
+impl std::fmt::Display for Element {
+    fn fmt(&self, f: &mut std::fmt::Formatter<'_>) -> std::fmt::Result {
+        f.write_str(self.symbol())
+    }
+}
+
 /// Normal valences of the main-group elements that SMILES gives implicit
 /// hydrogens to (OpenSMILES organic subset: B 3; C 4; N 3; O 2; P 3, 5;
 /// S 2, 4, 6; halogens 1), as RDKit, our reference, applies them: neutral

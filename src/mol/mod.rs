@@ -146,7 +146,7 @@ mod stereo;
 mod symmetry;
 mod valence_table;
 
-pub use elements::{atomic_number, symbol};
+pub use elements::{atomic_number, symbol, Element};
 pub use error::{ErrorKind, MolError};
 pub use read::{MAX_ATOMS, MAX_CHARS};
 pub use stereo::{anticlockwise_from_2d, cis_from_2d, Chirality, DoubleBondStereo};

@@ -475,7 +475,8 @@ fn estimate_atom(
     let a = &mol.atoms[i];
     Site {
         atoms: vec![i],
-        element: a.symbol().to_string(),
+        element: crate::mol::Element::from_atomic_number(a.element)
+            .unwrap_or(crate::mol::Element::H),
         hydrogens: a.hydrogens,
         deuterium: a.heavy_hydrogens - a.tritium.min(a.heavy_hydrogens),
         tritium: a.tritium.min(a.heavy_hydrogens),

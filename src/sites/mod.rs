@@ -166,7 +166,7 @@ pub struct Site {
     /// Symmetry-equivalent atoms (input order indices), ascending.
     pub atoms: Vec<usize>,
     /// Element symbol of the acidic atom ("C", "O", "N", "S").
-    pub element: String,
+    pub element: crate::mol::Element,
     /// Hydrogens on each atom of the group (all isotopes).
     pub hydrogens: u8,
     /// How many of `hydrogens` are deuterium, on each atom of the group.
@@ -193,7 +193,7 @@ pub struct Site {
 impl Site {
     /// True for C–H sites.
     pub fn is_carbon(&self) -> bool {
-        self.element == "C"
+        self.element == crate::mol::Element::C
     }
 
     /// The estimate this site is ranked by when `preferred` is the ranking

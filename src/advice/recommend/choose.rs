@@ -590,7 +590,7 @@ pub(super) fn advise_core(
     let t = Target {
         site: target,
         atoms: tsite.atoms.clone(),
-        element: tsite.element.clone(),
+        element: tsite.element,
         class: tsite.class.clone(),
         pka_dmso: tsite.pka_dmso,
         pka_water: tsite.pka_water,

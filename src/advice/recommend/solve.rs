@@ -1,6 +1,7 @@
 //! The equilibrium behind each judgement: counted protons, the lean solver and its memo, the full equilibrium of the reported base.
 
 use super::*;
+use crate::mol::Element;
 
 pub(super) fn pka_on(site: &Site, scale: Scale) -> Option<f64> {
     match scale {
@@ -155,7 +156,7 @@ pub(super) fn count_protons(
             },
         };
         let cross_scale = pka_on(s, scale).is_none() || t_pka.is_none();
-        let hetero = matches!(s.element.as_str(), "O" | "N" | "S");
+        let hetero = matches!(s.element, Element::O | Element::N | Element::S);
         // A catalytic amount of base is not titrated by a C–H of about the
         // target's acidity: that anion forms and gives its proton back as
         // reversibly as the target's. Only a C–H well below the target
@@ -169,8 +170,8 @@ pub(super) fn count_protons(
         let metal_rule = hetero
             && base.family.is_metal_base()
             && !protic
-            && match s.element.as_str() {
-                "O" | "S" => true,
+            && match s.element {
+                Element::O | Element::S => true,
                 _ => match (s.pka_dmso, t.pka_dmso) {
                     (Some(a), Some(b)) => a <= b + 6.0,
                     _ => false,
@@ -217,7 +218,7 @@ pub(super) fn count_protons(
             r
         } else {
             let mut r = String::with_capacity(160);
-            r.push_str(&s.element);
+            r.push_str(s.element.symbol());
             r.push_str("–H proton transfer is fast: ");
             r.push_str(base.counter_ion.as_deref().unwrap_or("metal"));
             r.push_str(" bases in aprotic solvents take it before the C–H even though its DMSO pKa is somewhat higher (common practice)");
@@ -226,7 +227,7 @@ pub(super) fn count_protons(
         out.push(CountedProton {
             site: i,
             atoms: s.atoms.clone(),
-            element: s.element.clone(),
+            element: s.element,
             class: s.class.clone(),
             pka: pka_on(s, scale),
             protons,

@@ -87,8 +87,8 @@ pub struct Target {
     pub site: usize,
     /// Atoms of the target site (input order, 0-based).
     pub atoms: Vec<usize>,
-    /// Element of the acidic atom ("C", "O", "N", "S").
-    pub element: String,
+    /// Element of the acidic atom (C, O, N, S).
+    pub element: crate::mol::Element,
     /// Site class from the rule data.
     pub class: String,
     /// Estimated pKa in DMSO.
@@ -111,7 +111,7 @@ pub struct CountedProton {
     /// Atoms of the site (input order).
     pub atoms: Vec<usize>,
     /// Element of the acidic atom.
-    pub element: String,
+    pub element: crate::mol::Element,
     /// Site class from the rule data.
     pub class: String,
     /// pKa on the scale of the comparison.
