@@ -609,7 +609,7 @@ fn run_on(
             .then(rank_key(a, opts.scale).total_cmp(&rank_key(b, opts.scale)))
             .then(a.atoms.cmp(&b.atoms))
     });
-    super::regio::mark_regio(mol, &mut sites);
+    super::regio::mark_regio(mol, set, &mut sites);
     // Background sites come last and are never the top site.
     let top_overall = sites.iter().position(|s| !s.background);
     let top_carbon = sites.iter().position(|s| s.is_carbon() && !s.background);

@@ -1,14 +1,15 @@
 //! Enolate sides: kinetic and thermodynamic sites of ketones and enones.
 
 use super::estimate::{double_to_any, rank_key};
-use super::{Regio, Scale, Site};
+use super::{Regio, RuleSet, Scale, Site};
 use crate::mol::{BondOrder, Molecule};
 
 /// Ketone regiochemistry: for a ketone carbonyl with two enolisable
 /// α-carbons in different sites, the side with more hydrogens (less
 /// substituted) is kinetic and the other thermodynamic; with equal
 /// hydrogen counts the more acidic side is thermodynamic.
-pub(super) fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
+pub(super) fn mark_regio(mol: &Molecule, set: &RuleSet, sites: &mut [Site]) {
+    let is_ketone = |s: &Site| ketone_family(set, s);
     let site_of = |sites: &[Site], a: usize| sites.iter().position(|s| s.atoms.contains(&a));
     for c in 0..mol.atom_count() {
         let at = &mol.atoms[c];
@@ -24,14 +25,13 @@ pub(super) fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
         if alphas.len() != 2 || alphas.iter().any(|&a| mol.atoms[a].element != 6) {
             continue;
         }
-        if mark_enone(mol, sites, &alphas) {
+        if mark_enone(mol, set, sites, &alphas) {
             continue;
         }
         let (Some(x), Some(y)) = (site_of(sites, alphas[0]), site_of(sites, alphas[1])) else {
             continue;
         };
-        if x == y || !sites[x].class.starts_with("ketone") || !sites[y].class.starts_with("ketone")
-        {
+        if x == y || !is_ketone(&sites[x]) || !is_ketone(&sites[y]) {
             continue;
         }
         let (hx, hy) = (sites[x].hydrogens, sites[y].hydrogens);
@@ -66,7 +66,7 @@ pub(super) fn mark_regio(mol: &Molecule, sites: &mut [Site]) {
 /// the γ-carbons (sites on the β-carbon's other neighbours) give the
 /// extended dienolate favoured at equilibrium (thermodynamic). Returns true
 /// when `alphas` is such a pair (whether or not a side was marked).
-fn mark_enone(mol: &Molecule, sites: &mut [Site], alphas: &[usize]) -> bool {
+fn mark_enone(mol: &Molecule, set: &RuleSet, sites: &mut [Site], alphas: &[usize]) -> bool {
     let vinyl_beta = |a: usize| {
         mol.neighbors(a).iter().find_map(|nb| {
             (mol.atoms[nb.atom].element == 6
@@ -84,7 +84,7 @@ fn mark_enone(mol: &Molecule, sites: &mut [Site], alphas: &[usize]) -> bool {
     let Some(k) = site_of(sites, alpha_prime) else {
         return true;
     };
-    if !sites[k].class.starts_with("ketone") {
+    if !ketone_family(set, &sites[k]) {
         return true;
     }
     let gammas: Vec<usize> = mol
@@ -102,4 +102,16 @@ fn mark_enone(mol: &Molecule, sites: &mut [Site], alphas: &[usize]) -> bool {
         sites[g].regio = Some(Regio::Thermodynamic);
     }
     true
+}
+
+/// A site whose class rule (its first rule use) is of the `carbonyl`
+/// family of fragments/rules.tsv: with the structural test above (an
+/// α-carbon of a C=O flanked by two carbons) that is a ketone α-C–H, the
+/// sites that have kinetic and thermodynamic sides. Decided by the rule's
+/// family (a validated selector), not by the wording of its class.
+fn ketone_family(set: &RuleSet, s: &Site) -> bool {
+    s.rules
+        .first()
+        .and_then(|u| set.rules.iter().find(|r| r.id == u.id))
+        .is_some_and(|r| r.family == "carbonyl")
 }
