@@ -174,3 +174,20 @@ fn find_sites_given_deuterium_and_tritium_counts_them_apart_issue11() {
     let t = site("CC(=O)C([2H])([3H])C", 3);
     assert_eq!((t.hydrogens, t.deuterium, t.tritium), (2, 1, 1));
 }
+
+#[test]
+fn find_sites_given_cyclic_imide_classes_alpha_ch_as_imide_not_lactam_issue11() {
+    // Succinimide and N-methylsuccinimide: the CH2 next to an imide
+    // carbonyl is activated like an N-acyl amide's (about 27-28 in DMSO,
+    // from memory), well below a lactam's alpha C-H (about 34, from
+    // memory), while a plain lactam keeps its own row.
+    for smiles in ["O=C1CCC(=O)N1", "O=C1CCC(=O)N1C"] {
+        let s = site(smiles, 2);
+        assert!(s.class.starts_with("imide alpha"), "{smiles}: {}", s.class);
+        let v = dmso(smiles, 2);
+        assert!((26.0..=29.5).contains(&v), "{smiles}: {v}");
+    }
+    let lactam = site("O=C1CCCCN1", 2);
+    assert_eq!(lactam.class, "lactam");
+    assert!(dmso("O=C1CCCCN1", 2) > dmso("O=C1CCC(=O)N1C", 2) + 4.0);
+}

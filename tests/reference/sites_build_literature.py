@@ -228,7 +228,7 @@ ENTRIES = [
     ("CC(=O)Nc1ccc([OH:1])cc1", "paracetamol (phenol O-H)", "phenol", "", "", 9.5, FM, "T", "drug-like, competing amide N-H"),
     ("CC(=O)[NH:1]c1ccc(O)cc1", "paracetamol (amide N-H)", "amide_nh", "", "", "", "", "T", "less acidic than the phenol; no value"),
     ("[CH3:1]C(=O)Cc1ccccc1", "phenylacetone (CH3 side)", "ketone", "", "", "", "", "T", "less acidic than the benzylic CH2; no measured value"),
-    ("C[CH2:1]C(=O)N1CCOC1=O", "3-propanoyl-1,3-oxazolidin-2-one", "N-acyl imide (N-acyl oxazolidinone)", 27.5, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
+    ("C[CH2:1]C(=O)N1CCOC1=O", "3-propanoyl-1,3-oxazolidin-2-one", "imide alpha C-H (N-acyl amide, N-acyl oxazolidinone)", 27.5, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
     ("CON(C)C(=O)[CH2:1]C", "N-methoxy-N-methylpropanamide", "N-alkoxy amide (Weinreb amide)", 33.0, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
     ("[CH2:1]1SCCCS1", "1,3-dithiane", "1,3-dithiane C2-H", 39.0, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
     ("CCOC(=O)[CH2:1]N=C(c1ccccc1)c1ccccc1", "ethyl N-(diphenylmethylene)glycinate", "glycine ester benzophenone imine", 18.7, FM, "", "", "T", "added with the rule (issue 11); value recalled or estimated, no source consulted"),
