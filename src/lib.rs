@@ -62,6 +62,8 @@
 //! assert_eq!(json["advice"]["base"].as_str(), advice.base.as_deref());
 //! ```
 
+#![warn(missing_docs)]
+
 pub mod advice;
 pub mod analyze;
 pub mod depict;

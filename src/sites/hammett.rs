@@ -64,17 +64,24 @@ pub(crate) fn ring_positions(mol: &Molecule, ipso: usize) -> Option<Ring> {
 /// One row of the σ table.
 #[derive(Debug, Clone)]
 pub struct SigmaEntry {
+    /// Substituent name (e.g. `nitro`), the key rules and records use.
     pub name: String,
+    /// The substituent as a SMILES fragment, attachment atom first.
     pub smiles: String,
+    /// Hammett σ for the meta position.
     pub sigma_m: f64,
+    /// Hammett σ for the para position.
     pub sigma_p: f64,
+    /// σp⁻ (through-conjugation with an anion), None where not tabulated.
     pub sigma_p_minus: Option<f64>,
+    /// Citation key (resolved in `fragments/sources.tsv`).
     pub source: String,
 }
 
 /// The σ table indexed by substituent key.
 #[derive(Debug, Clone, Default)]
 pub struct SigmaTable {
+    /// Rows in file order.
     pub entries: Vec<SigmaEntry>,
     by_key: HashMap<String, usize>,
     /// [`key_hash`] of every key, sorted: a substituent whose hash is not

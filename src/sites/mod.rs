@@ -140,19 +140,24 @@ pub use crate::scale::Scale;
 /// Options for [`find_sites_with`].
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Default)]
 pub struct Options {
+    /// Scale the sites are ranked on (default DMSO).
     pub scale: Scale,
 }
 
 /// Kinetic / thermodynamic side of an unsymmetrical ketone.
 #[derive(Debug, Clone, Copy, PartialEq, Eq, Hash)]
 pub enum Regio {
+    /// The less substituted side, deprotonated fastest (LDA, −78 °C).
     Kinetic,
+    /// The side giving the more substituted, more stable enolate.
     Thermodynamic,
 }
 
 /// One applied rule and its contribution to the estimate.
 #[derive(Debug, Clone, PartialEq)]
 pub struct RuleUse {
+    /// Rule or increment id (`C-KETON-01`, `I-CO-ALK1`, or an id with a
+    /// `/sigma-…` suffix for a Hammett term).
     pub id: String,
     /// Contribution on the DMSO scale (base value or increment).
     pub dmso: Option<f64>,
@@ -165,7 +170,7 @@ pub struct RuleUse {
 pub struct Site {
     /// Symmetry-equivalent atoms (input order indices), ascending.
     pub atoms: Vec<usize>,
-    /// Element symbol of the acidic atom ("C", "O", "N", "S").
+    /// Element of the acidic atom (C, O, N, S); records write its symbol.
     pub element: crate::mol::Element,
     /// Hydrogens on each atom of the group (all isotopes).
     pub hydrogens: u8,
@@ -175,11 +180,15 @@ pub struct Site {
     pub tritium: u8,
     /// Class name from the rule data (e.g. "ketone", "ester", "alcohol").
     pub class: String,
+    /// Estimated pKa in DMSO, None where the class has no DMSO basis.
     pub pka_dmso: Option<f64>,
+    /// Estimated pKa in water, None where the class has no water basis.
     pub pka_water: Option<f64>,
     /// One standard uncertainty of the estimate, pKa units.
     pub uncertainty: f64,
+    /// The class rule and every increment that made the estimate, in order.
     pub rules: Vec<RuleUse>,
+    /// Kinetic or thermodynamic side, for the α-sites of a ketone or enone.
     pub regio: Option<Regio>,
     /// An unactivated C–H from a background rule (family `background` in
     /// `fragments/rules.tsv`, e.g. alkane C–H near pKa 56): listed so that
@@ -234,6 +243,7 @@ impl SiteReport {
 /// All sites of a molecule, ranked most acidic first.
 #[derive(Debug, Clone, PartialEq, Default)]
 pub struct SiteReport {
+    /// Sites, most acidic first on the ranking scale; background sites last.
     pub sites: Vec<Site>,
     /// Index into `sites` of the most acidic C–H site that is not a
     /// background site (background sites are never the default target).

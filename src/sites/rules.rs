@@ -24,10 +24,12 @@ use crate::smarts::Pattern;
 /// A problem in a rule file: which file, which line (1-based), what.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct RuleError {
+    /// The file name as given to the parser (e.g. `fragments/rules.tsv`).
     pub file: String,
     /// 1-based line number in the file; 0 when the problem concerns the
     /// file as a whole.
     pub line: usize,
+    /// What is wrong, in words (the column, the value, what was expected).
     pub message: String,
 }
 
@@ -53,19 +55,27 @@ pub enum SigmaKind {
 /// Hammett term attached to a class rule or an increment: ρ per scale.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Hammett {
+    /// ρ on the DMSO scale (column `rho_dmso`; pKa units per unit σ), None
+    /// when the row gives no DMSO term.
     pub rho_dmso: Option<f64>,
+    /// ρ on the water scale (column `rho_water`), None when not given.
     pub rho_water: Option<f64>,
+    /// Which σ a para substituent uses (column `sigma`: `p` or `p-`).
     pub sigma: SigmaKind,
 }
 
 /// One class rule.
 #[derive(Debug, Clone)]
 pub struct Rule {
+    /// Stable id (column `id`, e.g. `C-KETON-01`), named in records.
     pub id: String,
     /// Element symbol of the acidic atom ("C", "N", "O", "S").
     pub element: String,
+    /// The SMARTS as written (column `smarts`), the acidic atom mapped `:1`.
     pub smarts: String,
+    /// The compiled [`Rule::smarts`].
     pub pattern: Pattern,
+    /// Class name shown for a site of this rule (column `class`).
     pub class: String,
     /// Increment family (which rows of `increments.tsv` apply).
     pub family: String,
@@ -74,11 +84,19 @@ pub struct Rule {
     /// ranked after every other site, one site per hydrogen count, never
     /// the default advice target.
     pub background: bool,
+    /// Base pKa of the class on the DMSO scale (column `pka_dmso`), None
+    /// where the class has no DMSO value.
     pub pka_dmso: Option<f64>,
+    /// Base pKa of the class in water (column `pka_water`), None where none.
     pub pka_water: Option<f64>,
+    /// One standard uncertainty of the base value, pKa units.
     pub uncertainty: f64,
+    /// Hammett term for aryl substituents on the site, if the row gives ρ.
     pub hammett: Option<Hammett>,
+    /// Citation keys (column `source`, comma-separated; resolved in
+    /// `fragments/sources.tsv`).
     pub source: String,
+    /// Free-text note: the parent compound and how the value was set.
     pub note: String,
     /// Elements written unbracketed in the SMARTS: all must be present in
     /// the molecule for the rule to match (a cheap prescreen).
@@ -95,6 +113,7 @@ pub struct Rule {
 /// One substituent increment.
 #[derive(Debug, Clone)]
 pub struct Increment {
+    /// Stable id (column `id`, e.g. `I-CO-ALK1`), named in records.
     pub id: String,
     /// Substituent kind (see [`SUBSTITUENT_KINDS`]).
     pub kind: String,
@@ -102,12 +121,19 @@ pub struct Increment {
     pub families: Vec<String>,
     /// Applies to the n-th substituent of this kind (1 = first, 2 = second…).
     pub nth: u8,
+    /// Shift of the DMSO pKa (column `pka_dmso`), None where not given.
     pub dmso: Option<f64>,
+    /// Shift of the water pKa (column `pka_water`), None where not given.
     pub water: Option<f64>,
+    /// Uncertainty added (in quadrature) to the site's, pKa units.
     pub uncertainty: f64,
+    /// Hammett term when the substituent is an aryl ring with substituents.
     pub hammett: Option<Hammett>,
+    /// Citation keys (column `source`), resolved in `fragments/sources.tsv`.
     pub source: String,
+    /// Free-text note: the compounds the value was set from.
     pub note: String,
+    /// 1-based line in `increments.tsv`.
     pub line: usize,
 }
 
@@ -147,9 +173,14 @@ pub const SUBSTITUENT_KINDS: &[&str] = &[
 /// A validated rule set.
 #[derive(Debug, Clone)]
 pub struct RuleSet {
+    /// Version from the `# version:` header of `rules.tsv` (stamped into
+    /// every record as `rule_set`).
     pub version: String,
+    /// The `# match order:` header of `rules.tsv`, in words.
     pub match_order: String,
+    /// Class rules in file order (first match wins per element).
     pub rules: Vec<Rule>,
+    /// Substituent increments in file order.
     pub increments: Vec<Increment>,
     /// Citation key -> full reference.
     pub sources: HashMap<String, String>,
