@@ -61,20 +61,23 @@ pub(crate) fn ring_positions(mol: &Molecule, ipso: usize) -> Option<Ring> {
     })
 }
 
-/// One row of the σ table.
+/// One row of the σ table (`fragments/sigma.tsv`). σ values are
+/// dimensionless Hammett substituent constants.
 #[derive(Debug, Clone)]
 pub struct SigmaEntry {
-    /// Substituent name (e.g. `nitro`), the key rules and records use.
+    /// Substituent name (column `name`), e.g. `methyl`.
     pub name: String,
-    /// The substituent as a SMILES fragment, attachment atom first.
+    /// Substituent SMILES (column `substituent_smiles`), `[*]` marking the
+    /// ring carbon it is attached to, e.g. `[*]C`.
     pub smiles: String,
-    /// Hammett σ for the meta position.
+    /// σm (column `sigma_meta`).
     pub sigma_m: f64,
-    /// Hammett σ for the para position.
+    /// σp (column `sigma_para`); also used for ortho positions.
     pub sigma_p: f64,
-    /// σp⁻ (through-conjugation with an anion), None where not tabulated.
+    /// σp⁻ (column `sigma_para_minus`), for sites in through-conjugation
+    /// with the ring; None (empty cell) = not known, σp is used instead.
     pub sigma_p_minus: Option<f64>,
-    /// Citation key (resolved in `fragments/sources.tsv`).
+    /// Citation key (column `source`), e.g. `hansch1991`.
     pub source: String,
 }
 
@@ -310,7 +313,10 @@ impl SigmaTable {
         Ok(t)
     }
 
-    /// σ entry for the substituent `sub` on ring atom `ring_atom`.
+    /// σ entry for the substituent whose first atom is `sub`, attached to
+    /// ring atom `ring_atom` (atom indices of `mol`, 0-based in input
+    /// order). None when the substituent is not in the table (or has more
+    /// than 12 atoms).
     pub fn lookup(&self, mol: &Molecule, ring_atom: usize, sub: usize) -> Option<&SigmaEntry> {
         let h = key_hash(mol, sub, ring_atom)?;
         self.hashes.binary_search(&h).ok()?;

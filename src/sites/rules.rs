@@ -24,12 +24,13 @@ use crate::smarts::Pattern;
 /// A problem in a rule file: which file, which line (1-based), what.
 #[derive(Debug, Clone, PartialEq, Eq)]
 pub struct RuleError {
-    /// The file name as given to the parser (e.g. `fragments/rules.tsv`).
+    /// File name as passed to the parser (e.g. `fragments/rules.tsv`); it is
+    /// used only in messages, nothing is read from it.
     pub file: String,
     /// 1-based line number in the file; 0 when the problem concerns the
     /// file as a whole.
     pub line: usize,
-    /// What is wrong, in words (the column, the value, what was expected).
+    /// What is wrong, naming the column or value concerned.
     pub message: String,
 }
 
@@ -55,51 +56,63 @@ pub enum SigmaKind {
 /// Hammett term attached to a class rule or an increment: ρ per scale.
 #[derive(Debug, Clone, Copy, PartialEq)]
 pub struct Hammett {
-    /// ρ on the DMSO scale (column `rho_dmso`; pKa units per unit σ), None
-    /// when the row gives no DMSO term.
+    /// ρ on the DMSO scale (column `rho_dmso`); the term shifts the pKa by
+    /// −ρ·σ pKa units. None = no ρ known in DMSO: no Hammett term on that
+    /// scale (the uncertainty is widened instead).
     pub rho_dmso: Option<f64>,
-    /// ρ on the water scale (column `rho_water`), None when not given.
+    /// ρ on the water scale (column `rho_water`); None as for `rho_dmso`.
+    /// At least one of the two is Some.
     pub rho_water: Option<f64>,
-    /// Which σ a para substituent uses (column `sigma`: `p` or `p-`).
+    /// σ used for para (and ortho) substituents (column `sigma`: `p` or
+    /// `p-`).
     pub sigma: SigmaKind,
 }
 
 /// One class rule.
 #[derive(Debug, Clone)]
 pub struct Rule {
-    /// Stable id (column `id`, e.g. `C-KETON-01`), named in records.
+    /// Stable row id (column `id`, e.g. `C-KETON-01`): A-Z, 0-9 and `-`,
+    /// unique across `rules.tsv` and `increments.tsv`.
     pub id: String,
     /// Element symbol of the acidic atom ("C", "N", "O", "S").
     pub element: String,
-    /// The SMARTS as written (column `smarts`), the acidic atom mapped `:1`.
+    /// SMARTS text (column `smarts`), the acidic atom mapped `:1`.
     pub smarts: String,
-    /// The compiled [`Rule::smarts`].
+    /// `smarts` compiled; its `:1` atom is the acidic atom.
     pub pattern: Pattern,
-    /// Class name shown for a site of this rule (column `class`).
+    /// Human-readable class name (column `class`), e.g. `1,3-diketone`;
+    /// reported, never branched on.
     pub class: String,
-    /// Increment family (which rows of `increments.tsv` apply).
+    /// Increment family (column `family`): which rows of `increments.tsv`
+    /// apply; `none` = no increments.
     pub family: String,
     /// Family `background` (see [`BACKGROUND_FAMILY`]): an unactivated
     /// C–H listed so that no hydrogen is silently absent; no increments,
     /// ranked after every other site, one site per hydrogen count, never
     /// the default advice target.
     pub background: bool,
-    /// Base pKa of the class on the DMSO scale (column `pka_dmso`), None
-    /// where the class has no DMSO value.
+    /// Base pKa of the parent on the DMSO scale (column `pka_dmso`), pKa
+    /// units. None (empty cell) = no basis in DMSO: sites matched by this
+    /// rule get no DMSO estimate. At least one of the two scales is Some.
     pub pka_dmso: Option<f64>,
-    /// Base pKa of the class in water (column `pka_water`), None where none.
+    /// Base pKa of the parent on the water scale (column `pka_water`), pKa
+    /// units; None as for `pka_dmso`.
     pub pka_water: Option<f64>,
-    /// One standard uncertainty of the base value, pKa units.
+    /// One standard uncertainty of the base values (column `uncertainty`),
+    /// pKa units, in (0, 20].
     pub uncertainty: f64,
-    /// Hammett term for aryl substituents on the site, if the row gives ρ.
+    /// Hammett term for the ring whose ipso atom is the first aromatic atom
+    /// of the match (columns `rho_dmso`, `rho_water`, `sigma`); None when
+    /// both ρ cells are empty.
     pub hammett: Option<Hammett>,
-    /// Citation keys (column `source`, comma-separated; resolved in
-    /// `fragments/sources.tsv`).
+    /// Citation key(s) (column `source`), comma-separated, each a key of
+    /// `sources.tsv`.
     pub source: String,
-    /// Free-text note: the parent compound and how the value was set.
+    /// Free-text note (column `note`); may be empty.
     pub note: String,
     /// Elements written unbracketed in the SMARTS: all must be present in
-    /// the molecule for the rule to match (a cheap prescreen).
+    /// the molecule for the rule to match (a cheap prescreen). Bit `z` set
+    /// = atomic number `z` required.
     pub required_elements: u128,
     /// 1-based line in `rules.tsv`.
     pub line: usize,
@@ -113,25 +126,36 @@ pub struct Rule {
 /// One substituent increment.
 #[derive(Debug, Clone)]
 pub struct Increment {
-    /// Stable id (column `id`, e.g. `I-CO-ALK1`), named in records.
+    /// Stable row id (column `id`, e.g. `I-CO-ALK1`); unique across
+    /// `rules.tsv` and `increments.tsv`.
     pub id: String,
-    /// Substituent kind (see [`SUBSTITUENT_KINDS`]).
+    /// Substituent kind (column `kind`; one of [`SUBSTITUENT_KINDS`]).
     pub kind: String,
-    /// Families this row applies to; `*` = every family.
+    /// Families this row applies to (column `families`, comma-separated);
+    /// `*` = every family.
     pub families: Vec<String>,
-    /// Applies to the n-th substituent of this kind (1 = first, 2 = second…).
+    /// Applies to the n-th substituent of this kind (column `nth`: 1, 2 or
+    /// 3); for the n-th substituent the row with the largest `nth` <= n
+    /// applies.
     pub nth: u8,
-    /// Shift of the DMSO pKa (column `pka_dmso`), None where not given.
+    /// Shift added to the DMSO pKa per substituent (column `pka_dmso`), pKa
+    /// units. None (empty cell) = no basis in DMSO: a site receiving this
+    /// increment gets no DMSO estimate. At least one scale is Some.
     pub dmso: Option<f64>,
-    /// Shift of the water pKa (column `pka_water`), None where not given.
+    /// Shift added to the water pKa (column `pka_water`), pKa units; None
+    /// as for `dmso`.
     pub water: Option<f64>,
-    /// Uncertainty added (in quadrature) to the site's, pKa units.
+    /// One standard uncertainty of the shift (column `uncertainty`), pKa
+    /// units, in (0, 20].
     pub uncertainty: f64,
-    /// Hammett term when the substituent is an aryl ring with substituents.
+    /// Hammett term for an aryl substituent, ring ipso = the substituent
+    /// atom (columns `rho_dmso`, `rho_water`, `sigma`); None when both ρ
+    /// cells are empty.
     pub hammett: Option<Hammett>,
-    /// Citation keys (column `source`), resolved in `fragments/sources.tsv`.
+    /// Citation key(s) (column `source`), comma-separated, each a key of
+    /// `sources.tsv`.
     pub source: String,
-    /// Free-text note: the compounds the value was set from.
+    /// Free-text note (column `note`); may be empty.
     pub note: String,
     /// 1-based line in `increments.tsv`.
     pub line: usize,
@@ -173,12 +197,13 @@ pub const SUBSTITUENT_KINDS: &[&str] = &[
 /// A validated rule set.
 #[derive(Debug, Clone)]
 pub struct RuleSet {
-    /// Version from the `# version:` header of `rules.tsv` (stamped into
-    /// every record as `rule_set`).
+    /// Rule-set version, from the `# version: …` header comment of
+    /// `rules.tsv` (e.g. `2026.12-3`).
     pub version: String,
-    /// The `# match order:` header of `rules.tsv`, in words.
+    /// How rows are matched, from the `# match order: …` header comment of
+    /// `rules.tsv` (text, shown to users; not interpreted).
     pub match_order: String,
-    /// Class rules in file order (first match wins per element).
+    /// Class rules in file order, which is match order within an element.
     pub rules: Vec<Rule>,
     /// Substituent increments in file order.
     pub increments: Vec<Increment>,
@@ -394,7 +419,8 @@ fn check_source(
     Ok(())
 }
 
-/// Read `sources.tsv`: key -> reference.
+/// Read `sources.tsv` (columns `key`, `reference`): key -> reference.
+/// `file` is used only in error messages.
 pub fn parse_sources(file: &str, text: &str) -> Result<HashMap<String, String>, RuleError> {
     let t = read_table(file, text)?;
     let mut out = HashMap::new();
@@ -474,7 +500,9 @@ fn element_symbol_ok(s: &str) -> bool {
     matches!(s, "C" | "N" | "O" | "S" | "P" | "Se")
 }
 
-/// Parse `rules.tsv` text (patterns compiled; citation keys checked).
+/// Parse `rules.tsv` text (patterns compiled; citation keys checked against
+/// `sources`). Returns (version, match order, rules in file order); both
+/// `# version:` and `# match order:` header comments are required.
 pub fn parse_rules(
     file: &str,
     text: &str,
@@ -549,7 +577,9 @@ pub fn parse_rules(
     Ok((version, order, rules))
 }
 
-/// Parse `increments.tsv` text.
+/// Parse `increments.tsv` text. `rule_ids` are the ids already taken by
+/// rules (an increment may not reuse one); citation keys are checked
+/// against `sources`.
 pub fn parse_increments(
     file: &str,
     text: &str,
@@ -604,7 +634,41 @@ pub fn parse_increments(
     Ok(out)
 }
 
-/// Build a rule set from the three texts (file names are for messages).
+/// Build a rule set from the three texts, each given as (file name, text);
+/// file names are used only in error messages, nothing is read from disk.
+/// Besides each table's own checks, every family named by an increment must
+/// be used by some rule.
+///
+/// An embedding program can supply its own rule set this way, in the format
+/// of `fragments/rules.tsv`, `fragments/increments.tsv` and
+/// `fragments/sources.tsv` (tab-separated; `#` lines are comments; the first
+/// other line names the columns):
+///
+/// ```
+/// use acidsite::sites::parse_rule_set;
+///
+/// let sources = "key\treference\nmy-lab\tOwn measurements, 2026\n";
+/// let rules = "# version: my-1\n# match order: first matching row wins\n\
+///     id\telement\tsmarts\tclass\tfamily\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n\
+///     C-MY-01\tC\t[CX4;!H0:1]C(=O)C\tketone\tcarbonyl\t26.5\t19.3\t0.5\t\t\t\tmy-lab\tacetone\n";
+/// let increments = "id\tkind\tfamilies\tnth\tpka_dmso\tpka_water\tuncertainty\trho_dmso\trho_water\tsigma\tsource\tnote\n\
+///     I-MY-ALK1\talkyl\tcarbonyl\t1\t0.3\t\t0.6\t\t\t\tmy-lab\t\n";
+///
+/// let set = parse_rule_set(
+///     ("my_rules.tsv", rules),
+///     ("my_increments.tsv", increments),
+///     ("my_sources.tsv", sources),
+/// )
+/// .expect("valid tables");
+/// assert_eq!(set.version, "my-1");
+/// assert_eq!(set.rules[0].pka_dmso, Some(26.5));
+/// assert_eq!(set.increments[0].water, None); // empty cell: no water value
+///
+/// // A bad row fails the whole set with file and 1-based line.
+/// let bad = rules.replace("0.5\t", "x\t");
+/// let e = parse_rule_set(("my_rules.tsv", &bad), ("i", increments), ("s", sources)).unwrap_err();
+/// assert_eq!((e.file.as_str(), e.line), ("my_rules.tsv", 4));
+/// ```
 pub fn parse_rule_set(
     rules: (&str, &str),
     increments: (&str, &str),
