@@ -6,10 +6,10 @@ use acidsite::advice::{catalogue, Catalogue, Hazard, Nucleophilicity, Scale};
 const SOURCES: &str = "key\treference\nfrom-memory\tx\nbordwell1988\ty\n";
 
 fn header() -> String {
-    "# version: 9\nname\tfull_name\tfamily\tconjugate_acid\tpka_dmso\tsrc_dmso\tpka_water\tsrc_water\tpka_thf\tsrc_thf\tcounter_ion\tnucleophilic\thindered\tsolvents\ttemp_min_c\ttemp_max_c\tacid_solvent\thazards\tnotes\n".to_string()
+    "# version: 9\nname\tfull_name\tfamily\tconjugate_acid\tpka_dmso\tsrc_dmso\tpka_water\tsrc_water\tpka_thf\tsrc_thf\tcounter_ion\tnucleophilic\thindered\tsolvents\ttemp_min_c\ttemp_max_c\tacid_solvent\thazards\tnotes\trarity\n".to_string()
 }
 
-const GOOD_ROW: &str = "NaOEt\tsodium ethoxide\talkoxide\tCCO\t29.8\tbordwell1988\t15.9\tfrom-memory\t-\t-\tNa\tweak\tno\tEtOH\t0\t78\tEtOH@17.1\tcorrosive\t-";
+const GOOD_ROW: &str = "NaOEt\tsodium ethoxide\talkoxide\tCCO\t29.8\tbordwell1988\t15.9\tfrom-memory\t-\t-\tNa\tweak\tno\tEtOH\t0\t78\tEtOH@17.1\tcorrosive\t-\t0";
 
 #[test]
 fn catalogue_given_embedded_file_loads_at_least_25_bases() {
@@ -47,7 +47,7 @@ fn catalogue_given_embedded_file_loads_at_least_25_bases() {
     ] {
         assert!(cat.get(name).is_some(), "missing {name}");
     }
-    assert_eq!(cat.version, "1");
+    assert_eq!(cat.version, "2");
 }
 
 #[test]
@@ -184,4 +184,16 @@ fn catalogue_given_iupac_water_values_agrees_with_the_corpus_subset() {
         checked += 1;
     }
     assert_eq!(checked, 9);
+}
+
+#[test]
+fn parse_given_rarity_reads_it_and_refuses_a_bad_value() {
+    // The ranking penalty of a reagent lives in the data (column `rarity`):
+    // everyday LDA 0, a phosphazene superbase 2.5 (common practice).
+    let cat = catalogue().unwrap();
+    assert_eq!(cat.get("LDA").unwrap().rarity, 0.0);
+    assert_eq!(cat.get("P4-tBu").unwrap().rarity, 2.5);
+    let bad = header() + &GOOD_ROW.replace("\t-\t0", "\t-\tlots") + "\n";
+    let e = Catalogue::parse(&bad, "t.tsv", SOURCES).unwrap_err();
+    assert_eq!(e.column.as_deref(), Some("rarity"));
 }

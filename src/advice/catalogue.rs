@@ -18,7 +18,7 @@ const BASES_TEXT: &str = include_str!("../../fragments/bases.tsv");
 const SOURCES_TEXT: &str = include_str!("../../fragments/sources.tsv");
 
 /// Columns of `fragments/bases.tsv`, in order.
-pub const COLUMNS: [&str; 19] = [
+pub const COLUMNS: [&str; 20] = [
     "name",
     "full_name",
     "family",
@@ -38,6 +38,7 @@ pub const COLUMNS: [&str; 19] = [
     "acid_solvent",
     "hazards",
     "notes",
+    "rarity",
 ];
 
 pub use crate::scale::Scale;
@@ -293,6 +294,10 @@ pub struct Base {
     pub hazards: Vec<Hazard>,
     /// Free-text practical note.
     pub notes: Option<String>,
+    /// How rarely chemists reach for the reagent (column `rarity`: 0
+    /// everyday stock, 0.5 bought as a solution or costly, 1 specialist,
+    /// 2.5 costly superbase); added to the ranking score of alternatives.
+    pub rarity: f64,
     /// 1-based line in `fragments/bases.tsv`.
     pub line: usize,
 }
@@ -694,6 +699,16 @@ fn parse_row(
             }
         }
     }
+    let rarity: f64 = cell(19)
+        .parse()
+        .ok()
+        .filter(|v: &f64| (0.0..=10.0).contains(v))
+        .ok_or_else(|| {
+            err(
+                "rarity",
+                format!("expected a number from 0 to 10, found {:?}", cell(19)),
+            )
+        })?;
     Ok(Base {
         name: name.to_string(),
         full_name: full_name.to_string(),
@@ -711,6 +726,7 @@ fn parse_row(
         acid_solvent,
         hazards,
         notes: opt(18).map(str::to_string),
+        rarity,
         line,
     })
 }

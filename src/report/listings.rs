@@ -7,7 +7,8 @@
 //! `full_name`, `family`, `conjugate_acid`, `pka_dmso`, `pka_water`,
 //! `pka_thf` (each `{value, source}` or null), `counter_ion`,
 //! `nucleophilic`, `hindered`, `solvents`, `temperature_range_c`,
-//! `solvent_is_conjugate_acid`, `hazards`, `notes`, `caution` (full text or
+//! `solvent_is_conjugate_acid`, `hazards`, `notes`, `rarity` (ranking penalty, 0 for
+//! everyday stock), `caution` (full text or
 //! null) and `cautions` (`full`, `short`, `general`, and `in_dmf_dmso_dmac`
 //! where the solvent adds a hazard; brief records name cautions by these
 //! ids). Keys of a reagent system: `system`, `base`, `solvent`,
@@ -62,6 +63,7 @@ pub fn base_json(cat: &Catalogue, b: &Base) -> Value {
         "solvent_is_conjugate_acid": b.acid_solvent.as_ref().map(|p| &p.name),
         "hazards": b.hazards.iter().map(|h| h.name()).collect::<Vec<_>>(),
         "notes": b.notes,
+        "rarity": b.rarity,
         "caution": caution_for(b, None).map(|c| c.text),
         "cautions": cautions_json(b),
     })

@@ -2,30 +2,12 @@
 
 use super::*;
 
-/// How common, cheap and easy to source a base is, as a ranking penalty
-/// (common practice): 0 for the everyday bases of a process laboratory
-/// (carbonates, hydroxides, the simple alkoxides, tertiary amines,
-/// piperidine, DBU, NaH, LDA, n-BuLi, NaOAc), 0.5 for the silylamides
-/// bought as solutions and caesium carbonate, 1 for specialist reagents
-/// (KHMDS, LiTMP, KH, s-/t-BuLi, NaNH2, the other tert-butoxides, TMG, DMAP),
-/// 2.5 for costly metal-free superbases (phosphazenes).
+/// How common, cheap and easy to source a base is, as a ranking penalty:
+/// the `rarity` column of `fragments/bases.tsv` (common practice: 0 for
+/// everyday stock, 0.5 for reagents bought as solutions or costly, 1 for
+/// specialist reagents, 2.5 for costly metal-free superbases).
 pub fn commonness_penalty(base: &Base) -> f64 {
-    let name = base.name.as_str();
-    match base.family {
-        BaseFamily::Phosphazene => 2.5,
-        BaseFamily::Silylamide if name == "KHMDS" => 1.0,
-        BaseFamily::Silylamide => 0.5,
-        BaseFamily::LithiumAmide if name == "LDA" => 0.0,
-        BaseFamily::Alkyllithium if name == "n-BuLi" => 0.0,
-        BaseFamily::Hydride if name == "NaH" => 0.0,
-        BaseFamily::LithiumAmide | BaseFamily::Alkyllithium | BaseFamily::Hydride => 1.0,
-        BaseFamily::MetalAmide | BaseFamily::Guanidine => 1.0,
-        BaseFamily::Alkoxide if matches!(name, "NaOEt" | "NaOMe" | "KOtBu") => 0.0,
-        BaseFamily::Alkoxide => 1.0,
-        BaseFamily::Carbonate if name == "Cs2CO3" => 0.5,
-        BaseFamily::Pyridine if name == "DMAP" => 1.0,
-        _ => 0.0,
-    }
+    base.rarity
 }
 
 /// Ranking of acceptable bases, lower first: a chemist picks the mildest
@@ -40,16 +22,9 @@ pub fn commonness_penalty(base: &Base) -> f64 {
 /// slowly or reversibly 2 (LDA -0.5 there), the alkoxide matching an ester
 /// -0.8, carbonates and hydrides (heterogeneous) 0.3, a lithium amide,
 /// organolithium or metal amide for an O–H, N–H or S–H target 1.5.
-/// [`commonness_penalty`], worked out once per catalogue base.
+/// [`commonness_penalty`].
 pub(super) fn base_penalty(b: &Base) -> f64 {
-    static TABLE: std::sync::OnceLock<Vec<f64>> = std::sync::OnceLock::new();
-    let Ok(cat) = catalogue() else {
-        return commonness_penalty(b);
-    };
-    let table = TABLE.get_or_init(|| cat.bases.iter().map(commonness_penalty).collect());
-    catalogue_slot(cat, b)
-        .and_then(|i| table.get(i).copied())
-        .unwrap_or_else(|| commonness_penalty(b))
+    b.rarity
 }
 
 /// Position of `b` in the catalogue when it is a catalogue entry.
