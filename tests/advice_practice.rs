@@ -22,9 +22,8 @@ fn lda_conversion(smiles: &str) -> f64 {
     let mol = Molecule::from_smiles(smiles).expect("test SMILES parses");
     let sites = find_sites(&mol);
     let opts = EquilibriumOptions {
-        base: "LDA".into(),
         equivalents: 1.1,
-        ..EquilibriumOptions::default()
+        ..EquilibriumOptions::new("LDA")
     };
     let e = equilibrium_for(&mol, &sites, &opts).expect("equilibrium");
     e.units.iter().cloned().fold(0.0, f64::max)

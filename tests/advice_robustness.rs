@@ -82,9 +82,8 @@ fn equilibrium_for_given_lda_and_ketone_is_complete() {
         &mol,
         &sites,
         &EquilibriumOptions {
-            base: "LDA".into(),
             equivalents: 1.05,
-            ..EquilibriumOptions::default()
+            ..EquilibriumOptions::new("LDA")
         },
     )
     .unwrap();
@@ -95,15 +94,7 @@ fn equilibrium_for_given_lda_and_ketone_is_complete() {
 fn equilibrium_for_given_unknown_base_is_an_error() {
     let mol = Molecule::from_smiles("CC(C)=O").unwrap();
     let sites = find_sites(&mol);
-    let e = equilibrium_for(
-        &mol,
-        &sites,
-        &EquilibriumOptions {
-            base: "nonesuch".into(),
-            ..EquilibriumOptions::default()
-        },
-    )
-    .unwrap_err();
+    let e = equilibrium_for(&mol, &sites, &EquilibriumOptions::new("nonesuch")).unwrap_err();
     assert!(matches!(e, EquilibriumError::UnknownBase(_)));
 }
 
@@ -275,9 +266,8 @@ fn equilibrium_for_given_hydroxy_ketone_and_lda_notes_fast_oh_transfer() {
         &mol,
         &sites,
         &EquilibriumOptions {
-            base: "LDA".into(),
             equivalents: 2.1,
-            ..EquilibriumOptions::default()
+            ..EquilibriumOptions::new("LDA")
         },
     )
     .unwrap();

@@ -3,21 +3,10 @@
 //! reason behind `--all`; a CSV header piped as a SMILES list gets a hint.
 //! Issue 14.
 
-use std::io::Write;
-use std::process::{Command, Stdio};
-
-const BIN: &str = env!("CARGO_BIN_EXE_acidsite");
+mod common;
 
 fn run(args: &[&str], stdin: &[u8]) -> (Option<i32>, String, String) {
-    let mut child = Command::new(BIN)
-        .args(args)
-        .stdin(Stdio::piped())
-        .stdout(Stdio::piped())
-        .stderr(Stdio::piped())
-        .spawn()
-        .expect("run acidsite");
-    child.stdin.take().unwrap().write_all(stdin).unwrap();
-    let out = child.wait_with_output().unwrap();
+    let out = common::run_binary(args, stdin);
     (
         out.status.code(),
         String::from_utf8(out.stdout).unwrap(),

@@ -481,10 +481,13 @@ pub struct EquilibriumOptions {
     pub scale: Option<Scale>,
 }
 
-impl Default for EquilibriumOptions {
-    fn default() -> Self {
+impl EquilibriumOptions {
+    /// The equilibrium with `base` (a catalogue name): 1 equivalent,
+    /// substrate 0.5 mol/L, the base's usual solvent, the scale chosen
+    /// automatically.
+    pub fn new(base: &str) -> EquilibriumOptions {
         EquilibriumOptions {
-            base: "LDA".into(),
+            base: base.to_string(),
             equivalents: 1.0,
             concentration: 0.5,
             solvent: None,
