@@ -199,12 +199,7 @@ impl LineSource {
             return Ok(None);
         }
         self.line_no += 1;
-        if buf.last() == Some(&b'\n') {
-            buf.pop();
-        }
-        if buf.last() == Some(&b'\r') {
-            buf.pop();
-        }
+        strip_line_end(&mut buf);
         if self.line_no == 1 && buf.starts_with(&[0xEF, 0xBB, 0xBF]) {
             buf.drain(..3);
         }
