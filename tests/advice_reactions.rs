@@ -12,7 +12,7 @@ use acidsite::sites::find_sites;
 use proptest::prelude::*;
 use serde_json::Value;
 
-mod common;
+use crate::common;
 
 fn scan_json(args: &[&str]) -> (Option<i32>, Value, String) {
     let mut all = vec!["scan", "--json"];

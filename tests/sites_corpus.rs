@@ -6,7 +6,7 @@
 //! pKa Dataset v1.0, Serjeant rows, CC BY-NC 4.0) and
 //! `corpus/sites/common_practice.tsv` (common practice).
 //!
-//! Run with `cargo test --test sites_corpus -- --nocapture` to see the table.
+//! Run with `cargo test --test sites -- sites_corpus:: --nocapture` to see the table.
 
 use std::collections::{BTreeMap, HashSet};
 

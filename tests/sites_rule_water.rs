@@ -7,7 +7,7 @@
 //! corpus/sites/ATTRIBUTION.md). `corpus/sites/unmeasured_rules.tsv`: the
 //! rule and increment ids that no measured value checks.
 //!
-//! `cargo test --release --test sites_rule_water -- --nocapture` prints the
+//! `cargo test --release --test sites -- sites_rule_water:: --nocapture` prints the
 //! comparison and the independent water MAE.
 
 use std::collections::{BTreeMap, BTreeSet, HashSet};
