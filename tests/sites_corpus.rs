@@ -617,6 +617,8 @@ fn rule_set_given_corpus_exercises_every_rule() {
 /// detection only: the named rule must be applied; values are not checked).
 /// The structures are ordinary examples of each class (from memory).
 const EXERCISE: &[(&str, &str)] = &[
+    ("C1SCSC1", "C-DITHL-01"),
+    ("C(SC)SC", "C-THIAC-01"),
     ("CCC#C", "C-ALKYN-01"),
     ("c1nc2ccccc2o1", "C-AZOLE-03"),
     ("O=C1CC(=O)NC(=O)N1", "C-BARB-01"),
