@@ -205,7 +205,10 @@ fn find_sites_given_thioethers_and_thioacetals_lists_the_alpha_ch_issue11() {
         ("C1SCCCS1", 0, 39.0),
     ] {
         let s = site(smiles, atom);
-        assert!(!s.background, "{smiles}: atom {atom} is only a background site");
+        assert!(
+            !s.background,
+            "{smiles}: atom {atom} is only a background site"
+        );
         let d = dmso(smiles, atom);
         assert!((d - value).abs() <= 1.0, "{smiles}: {d} vs {value}");
     }
@@ -230,5 +233,8 @@ fn find_sites_given_a_free_oxime_keeps_its_alpha_ch_after_the_oh_issue11() {
     assert!(!ch.background, "oxime alpha-C-H fell to the background");
     let (d_oh, d_ch) = (oh.pka_dmso.unwrap(), ch.pka_dmso.unwrap());
     let ether = dmso("CC(C)=NOC", 0);
-    assert!(d_oh < ether && ether < d_ch && d_ch < 56.0, "{d_oh} {ether} {d_ch}");
+    assert!(
+        d_oh < ether && ether < d_ch && d_ch < 56.0,
+        "{d_oh} {ether} {d_ch}"
+    );
 }
