@@ -618,6 +618,8 @@ fn rule_set_given_corpus_exercises_every_rule() {
 /// The structures are ordinary examples of each class (from memory).
 const EXERCISE: &[(&str, &str)] = &[
     ("C1SCSC1", "C-DITHL-01"),
+    ("C[S+](C)C", "C-SULFM-01"),
+    ("C[S+](C)(C)=O", "C-SULFM-02"),
     ("C(SC)SC", "C-THIAC-01"),
     ("CCC#C", "C-ALKYN-01"),
     ("c1nc2ccccc2o1", "C-AZOLE-03"),

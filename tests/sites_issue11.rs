@@ -238,3 +238,16 @@ fn find_sites_given_a_free_oxime_keeps_its_alpha_ch_after_the_oh_issue11() {
         "{d_oh} {ether} {d_ch}"
     );
 }
+
+#[test]
+fn find_sites_given_sulfonium_and_sulfoxonium_salts_lists_the_ylide_ch_issue11() {
+    // Corey-Chaykovsky ylide precursors: trimethylsulfoxonium about 18 in
+    // DMSO (from memory), trimethylsulfonium quoted near it (from memory,
+    // uncertain). Both are activated sites, far below the alkane background.
+    for smiles in ["C[S+](C)C.[I-]", "C[S+](C)(C)=O.[I-]"] {
+        let s = site(smiles, 0);
+        assert!(!s.background, "{smiles}: only a background site");
+        let d = s.pka_dmso.expect("DMSO estimate");
+        assert!((15.0..=21.0).contains(&d), "{smiles}: {d}");
+    }
+}
