@@ -550,8 +550,10 @@ pub(crate) fn choose_scale(
         }) << 1
         | usize::from(has_dmso) << 3
         | usize::from(has_water) << 4;
-    // Only catalogue bases live at a fixed address for the whole run; the
-    // slot is the base's position in the catalogue.
+    // Only the embedded catalogue's bases live at a fixed address for the
+    // whole run; the slot is the base's position in it. A base of another
+    // catalogue (the caller's own, which may be dropped and its memory
+    // reused) is never cached, so two catalogues cannot share an entry.
     let slot = catalogue().ok().and_then(|c| {
         let i = c
             .bases
@@ -678,6 +680,43 @@ pub fn equilibrium_for(
     opts: &EquilibriumOptions,
 ) -> Result<Equilibrium, EquilibriumError> {
     let cat = catalogue().map_err(EquilibriumError::Catalogue)?;
+    equilibrium_for_using(mol, sites, opts, cat)
+}
+
+/// [`equilibrium_for`] with the base looked up in a catalogue the caller
+/// parsed from its own file ([`Catalogue::parse`](super::Catalogue::parse)):
+/// its conjugate-acid pKa values, solvents and protic solvent are used.
+///
+/// # Example
+///
+/// ```
+/// use acidsite::advice::{equilibrium_for_using, Catalogue, EquilibriumError, EquilibriumOptions};
+/// use acidsite::mol::Molecule;
+/// use acidsite::sites::find_sites;
+///
+/// // A one-base catalogue: LDA only (diisopropylamine about 36 in THF,
+/// // common practice).
+/// let header = "# version: mine-1\nname\tfull_name\tfamily\tconjugate_acid\tpka_dmso\tsrc_dmso\tpka_water\tsrc_water\tpka_thf\tsrc_thf\tcounter_ion\tnucleophilic\thindered\tsolvents\ttemp_min_c\ttemp_max_c\tacid_solvent\thazards\tnotes\trarity\n";
+/// let lda = "LDA\tlithium diisopropylamide\tlithium-amide\tCC(C)NC(C)C\t-\t-\t-\t-\t36\tcommon-practice\tLi\tno\tyes\tTHF\t-78\t0\t-\tcorrosive\t-\t0\n";
+/// let sources = "key\treference\ncommon-practice\tcommon laboratory practice\n";
+/// let cat = Catalogue::parse(&format!("{header}{lda}"), "mine.tsv", sources).expect("valid");
+///
+/// let mol = Molecule::from_smiles("CC(=O)C").expect("valid SMILES");
+/// let sites = find_sites(&mol);
+/// let eq = equilibrium_for_using(&mol, &sites, &EquilibriumOptions::new("LDA"), &cat)
+///     .expect("solvable");
+/// assert_eq!(eq.base, "LDA");
+/// // A base outside the caller's catalogue is unknown, even if the
+/// // embedded one has it.
+/// let naoh = equilibrium_for_using(&mol, &sites, &EquilibriumOptions::new("NaOH"), &cat);
+/// assert!(matches!(naoh, Err(EquilibriumError::UnknownBase(_))));
+/// ```
+pub fn equilibrium_for_using(
+    mol: &Molecule,
+    sites: &SiteReport,
+    opts: &EquilibriumOptions,
+    cat: &super::Catalogue,
+) -> Result<Equilibrium, EquilibriumError> {
     let base = cat
         .get(&opts.base)
         .ok_or_else(|| EquilibriumError::UnknownBase(opts.base.clone()))?;

@@ -133,9 +133,9 @@ pub struct Temperature {
 
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Alternative {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct Alternative<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// Equivalents it would need.
     pub equivalents: f64,
     /// Fraction of the target deprotonated at equilibrium, 0..=1.
@@ -205,9 +205,9 @@ impl RejectKind {
 
 /// A rejected base with every reason found (`kind` is the first).
 #[derive(Debug, Clone, PartialEq)]
-pub struct Rejection {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct Rejection<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// The first reason found.
     pub kind: RejectKind,
     /// Every reason found, in the order of `reason`.
@@ -332,9 +332,11 @@ pub struct RegioAdvice {
     pub thermodynamic: RegioConditions,
 }
 
-/// The advice for one molecule.
+/// The advice for one molecule. `'d` is the lifetime of the base
+/// catalogue it was worked out from (`'static` for the embedded one), whose
+/// base names it borrows.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Advice {
+pub struct Advice<'d> {
     /// The site the advice is about.
     pub target: Target,
     /// The purpose asked for in [`AdviceOptions::purpose`].
@@ -350,7 +352,7 @@ pub struct Advice {
     /// Id of the practice row that matched (fragments/practice.tsv).
     pub practice_row: Option<String>,
     /// Bases the data cannot judge for this target, with what is missing.
-    pub not_judged: Vec<NotJudged>,
+    pub not_judged: Vec<NotJudged<'d>>,
     /// Recommended (or requested) base; None when no catalogue base qualifies.
     pub base: Option<String>,
     /// Equivalents of base per mole of substrate: the target's share, any
@@ -387,12 +389,12 @@ pub struct Advice {
     pub counted_note: Option<String>,
     /// Other acceptable bases, best first (at most
     /// [`AdviceOptions::alternatives`]).
-    pub alternatives: Vec<Alternative>,
+    pub alternatives: Vec<Alternative<'d>>,
     /// Acceptable bases left out of `alternatives` by
     /// [`AdviceOptions::alternatives`].
     pub alternatives_omitted: usize,
     /// Catalogue bases ruled out for this target, with their reasons.
-    pub rejected: Vec<Rejection>,
+    pub rejected: Vec<Rejection<'d>>,
     /// Chemistry warnings about the molecule, the target and the chosen
     /// conditions.
     pub warnings: Vec<Warning>,
@@ -406,7 +408,7 @@ pub struct Advice {
     pub catalogue_version: String,
 }
 
-impl Advice {
+impl Advice<'_> {
     /// Is `base` rejected?
     pub fn is_rejected(&self, base: &str) -> bool {
         self.rejected
@@ -435,9 +437,9 @@ impl Advice {
 /// A base the data cannot judge (no comparable pKa), kept apart from the
 /// chemical rejections.
 #[derive(Debug, Clone, PartialEq)]
-pub struct NotJudged {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct NotJudged<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// The value that is missing.
     pub missing: String,
 }
