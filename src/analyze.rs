@@ -491,7 +491,7 @@ fn advice_record(
         .collect();
     let out = AdviceOut {
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
-        target: a.target.atoms,
+        target: a.target.site.atoms,
         target_note: a.target.chosen_by,
         reaction: a.reaction.name(),
         control: a.control.map(|c| c.name()),

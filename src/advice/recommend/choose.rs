@@ -592,14 +592,8 @@ pub(super) fn advise_core<'d>(
         .filter(|_| opts.full_equilibrium)
         .and_then(|e| full_equilibrium(&ctx, e));
     let t = Target {
-        site: target,
-        atoms: tsite.atoms.clone(),
-        element: tsite.element,
-        class: tsite.class.clone(),
-        pka_dmso: tsite.pka_dmso,
-        pka_water: tsite.pka_water,
-        uncertainty: tsite.uncertainty,
-        regio: tsite.regio,
+        index: target,
+        site: tsite.clone(),
         chosen_by,
     };
     let mut mode_note = String::new();

@@ -80,25 +80,16 @@ impl Default for AdviceOptions {
     }
 }
 
-/// The site the advice is about.
+/// The site the advice is about: one site of the [`SiteReport`] the advice
+/// was worked out from, and why it was chosen. The site itself is the
+/// report's own [`Site`] (atoms, element, class, pKa estimates, uncertainty,
+/// rules, enolate side), not a copy of its fields under other names.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Target {
     /// Index into `SiteReport::sites`.
-    pub site: usize,
-    /// Atoms of the target site (input order, 0-based).
-    pub atoms: Vec<usize>,
-    /// Element of the acidic atom (C, O, N, S).
-    pub element: crate::mol::Element,
-    /// Site class from the rule data.
-    pub class: String,
-    /// Estimated pKa in DMSO.
-    pub pka_dmso: Option<f64>,
-    /// Estimated pKa in water.
-    pub pka_water: Option<f64>,
-    /// One standard uncertainty of the estimate, pKa units.
-    pub uncertainty: f64,
-    /// Kinetic or thermodynamic side of an unsymmetrical ketone.
-    pub regio: Option<Regio>,
+    pub index: usize,
+    /// That site of the report.
+    pub site: Site,
     /// How the target was chosen.
     pub chosen_by: String,
 }
