@@ -13,7 +13,7 @@ use std::collections::{BTreeMap, HashSet};
 use acidsite::mol::Molecule;
 use acidsite::sites::{find_sites, rule_set, Site};
 
-mod tsv;
+use crate::tsv;
 
 struct Row {
     id: String,

@@ -15,8 +15,7 @@ use std::collections::{BTreeSet, HashSet};
 use acidsite::mol::Molecule;
 use acidsite::sites::{find_sites, rule_set, Site};
 
-mod tsv;
-use tsv::{read_rows as read, Row};
+use crate::tsv::{read_rows as read, Row};
 
 fn cell<'a>(r: &'a Row, c: &str) -> &'a str {
     r.get(c).map_or("", String::as_str)

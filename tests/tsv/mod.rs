@@ -1,4 +1,5 @@
-//! The TSV reader shared by the corpus tests (`mod tsv;`): lines starting
+//! The TSV reader shared by the corpus tests of the sites area (`mod tsv;`
+//! in `tests/sites.rs`, `use crate::tsv;` in a module): lines starting
 //! with `#` and blank lines are skipped, the first other line names the
 //! columns, cells are trimmed and a row shorter than the header reads as
 //! empty cells.
