@@ -4,6 +4,8 @@
 
 mod common;
 
+#[path = "advice_caller_data.rs"]
+mod advice_caller_data;
 #[path = "advice_catalogue.rs"]
 mod advice_catalogue;
 #[path = "advice_equilibrium.rs"]

@@ -417,7 +417,7 @@ proptest! {
                 // target and the alternative positions of the same anion
                 // (both α-carbons of a ketone), as the advice defines it.
                 let f = detect_features(&mol, &sites);
-                let t = a.target.site;
+                let t = a.target.index;
                 let in_unit = |j: usize| {
                     j == t
                         || (sites.sites[j].is_carbon()

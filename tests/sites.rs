@@ -2,6 +2,8 @@
 //! the test build): each module is one file beside this one, named by concern.
 //! `cargo test --release --test sites -- <module>::` runs one of them.
 
+mod tsv;
+
 #[path = "sites_bench.rs"]
 mod sites_bench;
 #[path = "sites_corpus.rs"]
