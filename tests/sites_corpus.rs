@@ -611,6 +611,16 @@ fn rule_set_given_corpus_exercises_every_rule() {
 /// The structures are ordinary examples of each class (from memory).
 const EXERCISE: &[(&str, &str)] = &[
     ("C1SCSC1", "C-DITHL-01"),
+    ("O=C1CCC(=O)N1O", "O-NHIMD-01"),
+    ("On1nnc2ccccc21", "O-NHAZL-01"),
+    ("CC(=O)OO", "O-PERAC-01"),
+    ("OO", "O-HPERO-02"),
+    ("CCOO", "O-HPERO-01"),
+    ("OB(O)c1ccccc1", "O-BORAR-01"),
+    ("CB(O)O", "O-BORON-01"),
+    ("C[Si](C)(C)O", "O-SILAN-01"),
+    ("CS(=O)O", "O-SULFI-01"),
+    ("CC(=O)S", "S-THIAC-01"),
     ("C[S+](C)C", "C-SULFM-01"),
     ("C[S+](C)(C)=O", "C-SULFM-02"),
     ("C(SC)SC", "C-THIAC-01"),
