@@ -447,7 +447,7 @@ pub struct NotJudged {
 #[non_exhaustive]
 pub enum AdviceError {
     /// The molecule has no activated acidic site with a pKa estimate
-    /// (background alkane C–H sites are targets only when asked for).
+    /// (background C–H sites are targets only when asked for).
     NoSites,
     /// `--site N`: atom N carries no acidic hydrogen (or is out of range).
     NotAcidicAtom(usize),
@@ -467,7 +467,7 @@ impl fmt::Display for AdviceError {
         match self {
             AdviceError::NoSites => write!(
                 f,
-                "no activated acidic site with a pKa estimate (an unactivated alkane C–H is a target only when asked for with --site)"
+                "no activated acidic site with a pKa estimate (an unactivated C–H is a target only when asked for with --site)"
             ),
             AdviceError::NotAcidicAtom(a) => {
                 write!(f, "atom {a} is not part of an acidic site")
