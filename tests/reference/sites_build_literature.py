@@ -259,6 +259,7 @@ ENTRIES = [
     ("O=Cc1ccccc1[OH:1]", "salicylaldehyde (phenol O-H)", "phenol (hydrogen-bonded to an ortho aldehyde C=O)", "", "", "auto", "", "T", "parent of O-PHEHB-03 (issue 11)"),
     ("NC(=O)c1ccccc1[OH:1]", "salicylamide (phenol O-H)", "phenol", "", "", "auto", "", "T", "named in the note of O-PHEHB-03: no row for ortho amides (issue 11); the IUPAC rows are rated Uncertain"),
     ("CC(=O)c1ccccc1[OH:1]", "2-hydroxyacetophenone (phenol O-H)", "phenol (hydrogen-bonded to an ortho ketone C=O)", "", "", 10.37, "datawarrior-epa", "T", "parent of O-PHEHB-02 (issue 11); DataWarrior/EPA aqueous set, Original_Source_ID 11391 (mean of 4, 23 C); not in the IUPAC set"),
+    ("c1ccc([CH:1]2SCCCS2)cc1", "2-phenyl-1,3-dithiane", "1,3-dithiane C2-H (2-aryl)", 30.7, FM, "", "", "T", "added with the rule C-DITHI-02 (issue 11); value recalled (Bordwell), no source consulted"),
 ]
 
 # Where a cited source gives its DMSO value (the dmso_table column). A key not listed here must not be
