@@ -29,7 +29,7 @@
 #![warn(missing_docs)]
 
 use crate::advice::practice::{Control, Reaction};
-use crate::advice::{advise_in, AdviceOptions, RegioConditions, Temperature};
+use crate::advice::{advise_in_using, AdviceData, AdviceOptions, RegioConditions, Temperature};
 use crate::mol::Molecule;
 use crate::report::brief::Detail;
 use crate::report::mapped::{atom_mapped_smiles, Label};
@@ -123,6 +123,12 @@ pub struct Options {
     pub reaction: Option<Reaction>,
     /// The enolate wanted where a ketone has two sides.
     pub control: Option<Control>,
+    /// The base catalogue and practice data the advice is worked out from;
+    /// None: the embedded ones ([`AdviceData::embedded`]). Records borrow
+    /// base names for the whole program, so the caller's data must live as
+    /// long (`'static`: parse them once and keep them, for example in a
+    /// `std::sync::OnceLock`).
+    pub advice_data: Option<AdviceData<'static>>,
 }
 
 /// Analyse one SMILES. `line` and `id` are stamped into the record as given.
@@ -454,7 +460,16 @@ fn advice_record(
         ..AdviceOptions::default()
     };
     // The advice is consumed: its strings move into the record.
-    let a = match advise_in(mol, target, report, &aopts) {
+    let data = match opts.advice_data.map_or_else(AdviceData::embedded, Ok) {
+        Ok(d) => d,
+        Err(e) => {
+            return (
+                None,
+                Some(crate::advice::AdviceError::Catalogue(e).to_string()),
+            )
+        }
+    };
+    let a = match advise_in_using(mol, target, report, &aopts, data) {
         Ok(a) => a,
         Err(e) => return (None, Some(e.to_string())),
     };
@@ -476,7 +491,7 @@ fn advice_record(
         .collect();
     let out = AdviceOut {
         equivalents: a.base.as_ref().and_then(|_| round(a.equivalents, 0.01)),
-        target: a.target.atoms,
+        target: a.target.site.atoms,
         target_note: a.target.chosen_by,
         reaction: a.reaction.name(),
         control: a.control.map(|c| c.name()),

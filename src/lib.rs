@@ -42,7 +42,7 @@
 //! // alkylation calls for a strong, hindered, non-nucleophilic base; the
 //! // base must convert essentially all of the target at equilibrium.
 //! let advice = advise(&mol, &sites, &AdviceOptions::default()).expect("advice");
-//! assert_eq!(advice.target.atoms, vec![0, 3]);
+//! assert_eq!(advice.target.site.atoms, vec![0, 3]);
 //! assert!(advice.base.is_some());
 //! assert!(advice.conversion.expect("a conversion") > 0.99);
 //! // Hydroxide is ruled out, among other reasons as too weak (water pKa

@@ -11,7 +11,7 @@ use acidsite::advice::{
 use acidsite::mol::Molecule;
 use acidsite::sites::find_sites;
 
-fn plan_with(smiles: &str, opts: AdviceOptions) -> Advice {
+fn plan_with(smiles: &str, opts: AdviceOptions) -> Advice<'static> {
     let mol = Molecule::from_smiles(smiles).expect("test SMILES parses");
     let sites = find_sites(&mol);
     let a = advise(&mol, &sites, &opts).expect("advice");
@@ -64,7 +64,7 @@ fn plan_with(smiles: &str, opts: AdviceOptions) -> Advice {
     a
 }
 
-fn plan(smiles: &str) -> Advice {
+fn plan(smiles: &str) -> Advice<'static> {
     plan_with(smiles, AdviceOptions::default())
 }
 
@@ -143,7 +143,7 @@ fn advise_given_2_methylcyclohexanone_site_2_targets_the_stereocentre() {
             ..AdviceOptions::default()
         },
     );
-    assert_eq!(a.target.atoms, vec![1]);
+    assert_eq!(a.target.site.atoms, vec![1]);
     assert!(a.has_warning(WarningKind::Epimerisation));
     // The more substituted side asks for the thermodynamic enolate
     // (issue 10): equilibrating conditions, never a kinetic amide base.
@@ -334,7 +334,7 @@ fn advise_given_acetone_with_requested_naoet_says_it_is_too_weak() {
 fn advise_given_ethyl_acetoacetate_accepts_naoet() {
     // Common practice (acetoacetic ester synthesis): NaOEt in EtOH.
     let a = plan("CCOC(=O)CC(C)=O");
-    assert_eq!(a.target.atoms, vec![5]);
+    assert_eq!(a.target.site.atoms, vec![5]);
     assert!(a.is_acceptable("NaOEt"));
     assert_base_in(&a, &["NaOEt", "NaH", "LiHMDS", "NaHMDS", "KHMDS", "LDA"]);
     assert_equiv(&a, 1.1);
@@ -648,7 +648,7 @@ fn advise_given_alcohol_with_alkyl_groups_never_targets_background_ch_issue11() 
     // memory) but is never the default target while another site exists;
     // asked for by atom it is the target.
     let a = plan("CCCCO");
-    assert_eq!(a.target.atoms, vec![4]);
+    assert_eq!(a.target.site.atoms, vec![4]);
     let b = plan_with(
         "CCCCO",
         AdviceOptions {
@@ -656,7 +656,40 @@ fn advise_given_alcohol_with_alkyl_groups_never_targets_background_ch_issue11() 
             ..AdviceOptions::default()
         },
     );
-    assert!(b.target.atoms.contains(&1));
+    assert!(b.target.site.atoms.contains(&1));
+}
+
+#[test]
+fn advise_given_any_target_it_is_the_report_site_itself_issue_14() {
+    // One target type: the advice's target is the `Site` of the report it
+    // was worked out from (index and value), for a default target, one asked
+    // for by atom and one chosen by the control.
+    let cases: [(&str, AdviceOptions); 3] = [
+        ("CC(=O)CC(=O)OCC", AdviceOptions::default()),
+        (
+            "CC(=O)CC",
+            AdviceOptions {
+                site: Some(0),
+                ..AdviceOptions::default()
+            },
+        ),
+        (
+            "CC(=O)CC",
+            AdviceOptions {
+                control: Some(acidsite::advice::practice::Control::Thermodynamic),
+                ..AdviceOptions::default()
+            },
+        ),
+    ];
+    for (smiles, opts) in cases {
+        let mol = Molecule::from_smiles(smiles).unwrap();
+        let sites = find_sites(&mol);
+        let a = advise(&mol, &sites, &opts).expect("advice");
+        assert_eq!(a.target.site, sites.sites[a.target.index], "{smiles}");
+        if let Some(atom) = opts.site {
+            assert!(a.target.site.atoms.contains(&atom));
+        }
+    }
 }
 
 #[test]

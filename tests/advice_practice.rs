@@ -12,7 +12,7 @@ use acidsite::advice::{
 use acidsite::mol::Molecule;
 use acidsite::sites::find_sites;
 
-fn plan(smiles: &str) -> Advice {
+fn plan(smiles: &str) -> Advice<'static> {
     let mol = Molecule::from_smiles(smiles).expect("test SMILES parses");
     let sites = find_sites(&mol);
     advise(&mol, &sites, &AdviceOptions::default()).expect("advice")

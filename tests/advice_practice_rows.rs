@@ -14,7 +14,12 @@ use acidsite::advice::{advise, Advice, AdviceOptions, RejectKind};
 use acidsite::mol::Molecule;
 use acidsite::sites::find_sites;
 
-fn plan(smiles: &str, site: usize, reaction: Reaction, control: Option<Control>) -> Advice {
+fn plan(
+    smiles: &str,
+    site: usize,
+    reaction: Reaction,
+    control: Option<Control>,
+) -> Advice<'static> {
     let mol = Molecule::from_smiles(smiles).expect("test SMILES parses");
     let sites = find_sites(&mol);
     let opts = AdviceOptions {

@@ -12,7 +12,7 @@ use acidsite::sites::find_sites;
 use proptest::prelude::*;
 use serde_json::Value;
 
-mod common;
+use crate::common;
 
 fn scan_json(args: &[&str]) -> (Option<i32>, Value, String) {
     let mut all = vec!["scan", "--json"];
@@ -421,7 +421,7 @@ proptest! {
                 // target and the alternative positions of the same anion
                 // (both α-carbons of a ketone), as the advice defines it.
                 let f = detect_features(&mol, &sites);
-                let t = a.target.site;
+                let t = a.target.index;
                 let in_unit = |j: usize| {
                     j == t
                         || (sites.sites[j].is_carbon()

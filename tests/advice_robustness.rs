@@ -185,7 +185,7 @@ proptest! {
 }
 
 /// Throughput of the recommender (benchmark, not a timed test):
-/// `cargo test --release --test advice_robustness -- --ignored --nocapture`.
+/// `cargo test --release --test advice -- advice_robustness:: --ignored --nocapture`.
 #[test]
 #[ignore]
 fn advise_throughput_benchmark() {

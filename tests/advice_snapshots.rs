@@ -18,10 +18,10 @@ fn r4(x: f64) -> Value {
 fn summary(a: &Advice) -> Value {
     json!({
         "target": {
-            "atoms": a.target.atoms,
-            "class": a.target.class,
-            "pka_dmso": a.target.pka_dmso,
-            "pka_water": a.target.pka_water,
+            "atoms": a.target.site.atoms,
+            "class": a.target.site.class,
+            "pka_dmso": a.target.site.pka_dmso,
+            "pka_water": a.target.site.pka_water,
             "chosen_by": a.target.chosen_by,
         },
         "base": a.base,

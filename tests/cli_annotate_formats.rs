@@ -2,8 +2,8 @@
 //! generated files: CSV/TSV output with carried columns, per-site rows, gzip
 //! and stdin input, `.smi` ids, column choice. Issue 6.
 
+use crate::common;
 use std::io::Write;
-mod common;
 const DEMO: &str = concat!(
     env!("CARGO_MANIFEST_DIR"),
     "/corpus/demo/route-intermediates.csv"

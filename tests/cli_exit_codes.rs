@@ -4,7 +4,7 @@
 use std::io::Read;
 use std::process::{Command, Stdio};
 
-mod common;
+use crate::common;
 use common::BIN;
 
 fn run(args: &[&str], stdin: &[u8]) -> std::process::Output {

@@ -2,7 +2,7 @@
 //! lands on the input, files appear only when complete, per-site rows keep
 //! the header's width, repeated names are refused or made unique.
 
-mod common;
+use crate::common;
 
 fn dir(name: &str) -> std::path::PathBuf {
     let d = std::env::temp_dir().join(format!("acidsite-i17-{}-{name}", std::process::id()));

@@ -3,7 +3,7 @@
 //! reason behind `--all`; a CSV header piped as a SMILES list gets a hint.
 //! Issue 14.
 
-mod common;
+use crate::common;
 
 fn run(args: &[&str], stdin: &[u8]) -> (Option<i32>, String, String) {
     let out = common::run_binary(args, stdin);

@@ -2,7 +2,7 @@
 //! the tool cannot read (issue 14). The SD records are RDKit-written
 //! (`corpus/mol/sdf/reference.sdf.gz`, see `corpus/mol/README.md`).
 
-mod common;
+use crate::common;
 use common::run_binary;
 use std::io::Read;
 

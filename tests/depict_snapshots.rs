@@ -2,7 +2,7 @@
 //! 1,3-dicarbonyl, fused aromatics, a macrocycle, a salt and a stereo centre,
 //! drawn through `acidsite draw` with the real site marks, so that any change
 //! of drawing is reviewed. Re-record with
-//! `INSTA_UPDATE=always cargo test --release --test depict_snapshots`, render
+//! `INSTA_UPDATE=always cargo test --release --test depict -- depict_snapshots::`, render
 //! the SVGs and look at them before committing.
 
 use std::process::Command;

@@ -5,7 +5,7 @@
 //!
 //! Cases: 100,000 in release builds, 20,000 in debug builds; set
 //! ACIDSITE_FUZZ_CASES for a longer run, e.g.
-//! `ACIDSITE_FUZZ_CASES=2000000 cargo test --release --test mol_fuzz`.
+//! `ACIDSITE_FUZZ_CASES=2000000 cargo test --release --test mol -- mol_fuzz::`.
 
 use acidsite::mol::Molecule;
 use proptest::prelude::*;

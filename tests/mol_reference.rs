@@ -197,7 +197,7 @@ fn from_smiles_given_reference_corpus_agrees_with_rdkit() {
 /// Large comparison over every molecule of the source datasets (plus MUV):
 /// generate the file with
 /// `python3 tests/reference/mol_reference.py --full /tmp/mol_full.tsv`, then
-/// `ACIDSITE_MOL_FULL=/tmp/mol_full.tsv cargo test --release --test mol_reference -- --ignored --nocapture`.
+/// `ACIDSITE_MOL_FULL=/tmp/mol_full.tsv cargo test --release --test mol -- mol_reference:: --ignored --nocapture`.
 /// Prints every disagreement and the agreement rates; fails only if the
 /// aromatic agreement is below 99 %.
 #[test]

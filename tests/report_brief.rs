@@ -4,11 +4,11 @@
 //! Molecules: the MOSES lines of `corpus/bulk/real.smi` (sources and terms
 //! in `corpus/bulk/README.md`).
 
+use crate::common;
+use common::run_binary;
 use serde::Deserialize;
 use serde_json::Value;
 use std::collections::BTreeMap;
-mod common;
-use common::run_binary;
 
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]

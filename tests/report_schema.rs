@@ -3,10 +3,10 @@
 //! mirror types that refuse unknown keys, and the required keys must be present.
 //! A change here is a schema change: bump `SCHEMA` and the docs with it. Issue 6.
 
+use crate::common;
 use serde::Deserialize;
 use serde_json::Value;
 use std::collections::BTreeMap;
-mod common;
 
 #[derive(Debug, Deserialize)]
 #[serde(deny_unknown_fields)]

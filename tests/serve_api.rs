@@ -3,7 +3,7 @@
 //! 200 concurrent requests, and records identical to the command line's.
 //! The server is the real binary started with `--port 0`.
 
-mod serve_common;
+use crate::serve_common;
 
 use serve_common::{cli, request, Server};
 use std::io::Write;

@@ -5,7 +5,7 @@
 //! Screenshots of the main states are written to
 //! `target/serve-browser/*.png` for a person to look at.
 
-mod serve_common;
+use crate::serve_common;
 
 use serde_json::{json, Value};
 use serve_common::{cli, request, Resp, Server};

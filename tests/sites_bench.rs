@@ -2,7 +2,7 @@
 //! timed test). Run once, in release:
 //!
 //! ```text
-//! cargo test --release --test sites_bench -- --ignored --nocapture
+//! cargo test --release --test sites -- sites_bench:: --ignored --nocapture
 //! ```
 //!
 //! Molecules: the MOSES test split (`../shared/data/moses/moses_test.csv`,

@@ -6,12 +6,14 @@
 //! pKa Dataset v1.0, Serjeant rows, CC BY-NC 4.0) and
 //! `corpus/sites/common_practice.tsv` (common practice).
 //!
-//! Run with `cargo test --test sites_corpus -- --nocapture` to see the table.
+//! Run with `cargo test --test sites -- sites_corpus:: --nocapture` to see the table.
 
 use std::collections::{BTreeMap, HashSet};
 
 use acidsite::mol::Molecule;
 use acidsite::sites::{find_sites, rule_set, Site};
+
+use crate::tsv;
 
 struct Row {
     id: String,
@@ -32,39 +34,30 @@ struct Row {
 const OPTIONAL: &[&str] = &["dmso_table"];
 
 fn read(path: &str) -> Vec<Row> {
-    let text = std::fs::read_to_string(path).unwrap_or_else(|e| panic!("{path}: {e}"));
-    let mut cols: Vec<String> = Vec::new();
-    let mut out = Vec::new();
-    for line in text.lines() {
-        if line.starts_with('#') || line.trim().is_empty() {
-            continue;
-        }
-        let cells: Vec<&str> = line.split('\t').collect();
-        if cols.is_empty() {
-            cols = cells.iter().map(|s| s.to_string()).collect();
-            continue;
-        }
-        let get = |n: &str| match cols.iter().position(|c| c == n) {
-            Some(i) => cells.get(i).copied().unwrap_or("").trim().to_string(),
-            None if OPTIONAL.contains(&n) => String::new(),
-            None => panic!("{path}: no column {n}"),
-        };
-        let num = |n: &str| get(n).parse::<f64>().ok();
-        out.push(Row {
-            id: get("id"),
-            smiles: get("smiles"),
-            name: get("name"),
-            site_atom: get("site_atom").parse().expect("site_atom"),
-            class: get("class"),
-            dmso: num("pka_dmso"),
-            dmso_source: get("dmso_source"),
-            dmso_table: get("dmso_table"),
-            water: num("pka_water"),
-            water_source: get("water_source"),
-            split: get("split"),
-        });
-    }
-    out
+    tsv::read_rows(path)
+        .iter()
+        .map(|r| {
+            let get = |n: &str| match r.get(n) {
+                Some(v) => v.clone(),
+                None if OPTIONAL.contains(&n) => String::new(),
+                None => panic!("{path}: no column {n}"),
+            };
+            let num = |n: &str| get(n).parse::<f64>().ok();
+            Row {
+                id: get("id"),
+                smiles: get("smiles"),
+                name: get("name"),
+                site_atom: get("site_atom").parse().expect("site_atom"),
+                class: get("class"),
+                dmso: num("pka_dmso"),
+                dmso_source: get("dmso_source"),
+                dmso_table: get("dmso_table"),
+                water: num("pka_water"),
+                water_source: get("water_source"),
+                split: get("split"),
+            }
+        })
+        .collect()
 }
 
 /// "cited" when the value's source key is a citation (a paper, a handbook
@@ -623,6 +616,10 @@ fn rule_set_given_corpus_exercises_every_rule() {
 /// detection only: the named rule must be applied; values are not checked).
 /// The structures are ordinary examples of each class (from memory).
 const EXERCISE: &[(&str, &str)] = &[
+    ("C1SCSC1", "C-DITHL-01"),
+    ("C[S+](C)C", "C-SULFM-01"),
+    ("C[S+](C)(C)=O", "C-SULFM-02"),
+    ("C(SC)SC", "C-THIAC-01"),
     ("CCC#C", "C-ALKYN-01"),
     ("O=Cc1ccccc1", "C-FORMY-01"),
     ("CN(C)C=O", "C-FORMY-01"),

@@ -7,7 +7,7 @@
 //!
 //! The hydrogens that are not sites are listed below by class, each with the
 //! reason; any other uncovered hydrogen fails the test.
-//! `cargo test --release --test sites_coverage -- --nocapture` prints the
+//! `cargo test --release --test sites -- sites_coverage:: --nocapture` prints the
 //! figures.
 
 use std::collections::BTreeMap;

@@ -6,7 +6,7 @@
 //! NMP is not DMSO: the same group measured both scales and the NMP values lie
 //! about one to two units higher. The check removes the median offset and
 //! measures the spread, i.e. whether the rules order and space these acids as
-//! the measurements do. `cargo test --release --test sites_nmp -- --nocapture`
+//! the measurements do. `cargo test --release --test sites -- sites_nmp:: --nocapture`
 //! prints the table.
 
 use acidsite::mol::Molecule;

@@ -7,7 +7,7 @@
 //! should describe it and, where one is recalled (from memory, Bordwell-group
 //! DMSO figures) or cited, its DMSO pKa. The criterion: the site is
 //! found as an activated site of that class, within 2 units of the value.
-//! `cargo test --release --test sites_process_review -- --nocapture` prints
+//! `cargo test --release --test sites -- sites_process_review:: --nocapture` prints
 //! the table.
 
 use acidsite::mol::Molecule;

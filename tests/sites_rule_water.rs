@@ -7,38 +7,15 @@
 //! corpus/sites/ATTRIBUTION.md). `corpus/sites/unmeasured_rules.tsv`: the
 //! rule and increment ids that no measured value checks.
 //!
-//! `cargo test --release --test sites_rule_water -- --nocapture` prints the
+//! `cargo test --release --test sites -- sites_rule_water:: --nocapture` prints the
 //! comparison and the independent water MAE.
 
-use std::collections::{BTreeMap, BTreeSet, HashSet};
+use std::collections::{BTreeSet, HashSet};
 
 use acidsite::mol::Molecule;
 use acidsite::sites::{find_sites, rule_set, Site};
 
-type Row = BTreeMap<String, String>;
-
-fn read(path: &str) -> Vec<Row> {
-    let text = std::fs::read_to_string(path).unwrap_or_else(|e| panic!("{path}: {e}"));
-    let mut cols: Vec<String> = Vec::new();
-    let mut out = Vec::new();
-    for line in text.lines() {
-        if line.starts_with('#') || line.trim().is_empty() {
-            continue;
-        }
-        let cells: Vec<&str> = line.split('\t').collect();
-        if cols.is_empty() {
-            cols = cells.iter().map(|s| s.to_string()).collect();
-            continue;
-        }
-        out.push(
-            cols.iter()
-                .enumerate()
-                .map(|(i, c)| (c.clone(), cells.get(i).unwrap_or(&"").trim().to_string()))
-                .collect(),
-        );
-    }
-    out
-}
+use crate::tsv::{read_rows as read, Row};
 
 fn cell<'a>(r: &'a Row, c: &str) -> &'a str {
     r.get(c).map_or("", String::as_str)

@@ -155,7 +155,7 @@ fn count_unique_given_random_patterns_agrees_with_rdkit() {
 
 /// A larger sample written outside the repository by
 /// `python3 tests/reference/smarts_reference.py --out DIR --scale K`; run with
-/// `SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts_reference -- --ignored`.
+/// `SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts -- smarts_reference:: --ignored`.
 /// A `patterns.tsv` in DIR replaces the committed patterns.
 #[test]
 #[ignore]

@@ -10,6 +10,10 @@
 //!   systems and the practice table), validated on first use.
 //! - [`advise`]: base, equivalents, solvent, temperature, alternatives,
 //!   rejections, warnings and cautions for one molecule.
+//! - [`advise_using`] and [`equilibrium_for_using`]: the same from a base
+//!   catalogue and practice data the caller parsed from its own files
+//!   ([`Catalogue::parse`], [`practice::Practice::parse`], paired by
+//!   [`AdviceData::new`]).
 //!
 //! The library does no printing: every result is plain data for the report
 //! and command-line layers to render.
@@ -55,6 +59,7 @@
 
 mod catalogue;
 mod cautions;
+mod data;
 mod equilibrium;
 mod features;
 mod numfmt;
@@ -69,15 +74,16 @@ pub use cautions::{
     caution_for, caution_for_reagent, general_caution, short_caution_for,
     short_caution_for_reagent, Caution, DEFERRAL, SHORT_DEFERRAL,
 };
+pub use data::AdviceData;
 pub use equilibrium::{
-    equilibrium_for, solve, AcidUnit, Equilibrium, EquilibriumError, EquilibriumInput,
-    EquilibriumOptions, Microsite, SiteFraction,
+    equilibrium_for, equilibrium_for_using, solve, AcidUnit, Equilibrium, EquilibriumError,
+    EquilibriumInput, EquilibriumOptions, Microsite, SiteFraction,
 };
 pub use features::{
     detect_features, detect_features_in, patterns_all_parse, MoleculeFeatures, SiteFeatures,
 };
 pub use recommend::{
-    advise, advise_in, advise_with_features, commonness_penalty, Advice, AdviceError,
-    AdviceOptions, Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind,
-    Rejection, Target, Temperature, Warning, WarningKind,
+    advise, advise_in, advise_in_using, advise_using, advise_with_features, commonness_penalty,
+    Advice, AdviceError, AdviceOptions, Alternative, CountedProton, Purpose, RegioAdvice,
+    RegioConditions, RejectKind, Rejection, Target, Temperature, Warning, WarningKind,
 };

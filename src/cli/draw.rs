@@ -58,6 +58,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
         detail: acidsite::report::Detail::Full,
         reaction: args.reaction.map(|r| r.0),
         control: args.control.map(Into::into),
+        advice_data: None,
     };
     let (rec, mol) = match &args.mol {
         Some(path) => {

@@ -63,14 +63,13 @@ fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
             .any(|nb| matches!(mol.bonds[nb.bond].order, BondOrder::Triple))
             && a.element == 6;
     }
-    // A thioacetal carbon (the C2–H of a 1,3-dithiane) is activated by its
-    // two sulfur atoms alone.
-    let sulfurs = mol
+    // A divalent sulfur activates its C–H (thioether, thioacetal, the C2–H
+    // of a 1,3-dithiane): the rules of the thio family decide how much.
+    if mol
         .neighbors(i)
         .iter()
-        .filter(|nb| mol.atoms[nb.atom].element == 16)
-        .count();
-    if sulfurs >= 2 {
+        .any(|nb| mol.atoms[nb.atom].element == 16)
+    {
         return true;
     }
     // A haloform C–H (CHCl3, CHBr3) is activated by its three halogens.

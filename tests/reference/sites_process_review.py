@@ -69,7 +69,7 @@ ENTRIES = [
     ("COC(=O)[CH2:1]P(=O)(OCC(F)(F)F)OCC(F)(F)F", "Still-Gennari phosphonate", "phosphonoacetate", "", "", "KHMDS, 18-crown-6 (stillgennari1983)"),
     ("CCOP(=O)([CH2:1]c1ccccc1)OCC", "diethyl benzylphosphonate", "phosphonate", 27.6, FM, ""),
     ("CCOP(=O)([CH2:1]C#N)OCC", "diethyl cyanomethylphosphonate", "phosphonoacetonitrile", 16.4, FM, ""),
-    ("c1ccc([CH:1]2SCCCS2)cc1", "2-phenyl-1,3-dithiane", "1,3-dithiane C2-H (2-aryl)", 30.7, FM, ""),
+    ("c1ccc([CH:1]2SCCCS2)cc1", "2-phenyl-1,3-dithiane", "1,3-dithiane C2-H", 30.7, FM, "the aryl increment of the thio family"),
     ("C[CH:1]1SCCCS1", "2-methyl-1,3-dithiane", "1,3-dithiane C2-H", "", "", "n-BuLi, THF (corey1965)"),
     # nitro, alkyne
     ("[CH3:1][N+](=O)[O-]", "nitromethane", "nitroalkane", 17.2, FM, ""),

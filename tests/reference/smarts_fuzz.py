@@ -4,7 +4,7 @@ for a differential check of the parser and matcher against RDKit.
 
 Writes DIR/patterns.tsv, DIR/molecules.tsv and DIR/expected.tsv in the
 formats of corpus/smarts/ (nothing is committed), then run
-    SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts_reference -- --ignored
+    SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts -- smarts_reference:: --ignored
 
 Usage (from the repository root):
     python3 tests/reference/smarts_fuzz.py DIR [N_PATTERNS] [N_MOLECULES] [SEED]

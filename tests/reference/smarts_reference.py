@@ -17,7 +17,7 @@ Usage (from the repository root):
     python3 tests/reference/smarts_reference.py [data_dir] --out DIR --scale K
 The second form writes a K-times larger sample to DIR (not committed), for the
 ignored test `count_unique_given_large_sample_agrees_with_rdkit`
-(SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts_reference -- --ignored).
+(SMARTS_REFERENCE_DIR=DIR cargo test --release --test smarts -- smarts_reference:: --ignored).
 """
 import csv
 import os

@@ -376,6 +376,12 @@ pub struct Practice {
     pub side_reactions: Vec<SideReaction>,
     /// The regiochemistry guard, one row per control.
     pub regio: Vec<RegioRule>,
+    /// Names of the catalogue's bases, in catalogue order, that these data
+    /// were validated against: the per-slot tables of the practice rows
+    /// ([`PracticeRow::rank_by_slot`]) index that order, so the data serve
+    /// only a catalogue with the same bases in the same order (checked by
+    /// [`AdviceData::new`](crate::advice::AdviceData::new)).
+    pub base_names: Vec<String>,
 }
 
 impl Practice {

@@ -361,6 +361,7 @@ impl Practice {
             rows: out,
             side_reactions: side,
             regio,
+            base_names: cat.bases.iter().map(|b| b.name.clone()).collect(),
         })
     }
 }

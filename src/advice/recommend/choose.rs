@@ -2,14 +2,15 @@
 
 use super::*;
 
-pub(super) fn advise_core(
+pub(super) fn advise_core<'d>(
     f: &MoleculeFeatures,
     sites: &SiteReport,
     opts_in: &AdviceOptions,
     smarts_target: Option<&crate::smarts::Target>,
-) -> Result<Advice, AdviceError> {
-    let cat = catalogue().map_err(AdviceError::Catalogue)?;
-    let data = practice().map_err(AdviceError::Catalogue)?;
+    advice_data: AdviceData<'d>,
+) -> Result<Advice<'d>, AdviceError> {
+    let cat: &'d Catalogue = advice_data.catalogue();
+    let data: &'d Practice = advice_data.practice();
     let opts = opts_in;
     let c = opts.concentration;
     if !(c.is_finite() && c > 0.0 && c <= 20.0) {
@@ -88,7 +89,7 @@ pub(super) fn advise_core(
         Some(Regio::Thermodynamic) => Some(Control::Thermodynamic),
         None => None,
     });
-    let row: Option<&'static PracticeRow> = if legacy_catalytic {
+    let row: Option<&'d PracticeRow> = if legacy_catalytic {
         None
     } else {
         smarts_target.and_then(|t| data.find(t, &tsite.atoms, reaction, control))
@@ -154,6 +155,9 @@ pub(super) fn advise_core(
     let target_units_dmso = holding_target(&units_dmso.0);
     let target_units_water = holding_target(&units_water.0);
     let ctx = Ctx {
+        cat,
+        data,
+        counter_ions: std::cell::OnceCell::new(),
         f,
         sites,
         opts,
@@ -276,7 +280,7 @@ pub(super) fn advise_core(
         )
     });
     // A reagent system or route preferred ahead of every acceptable base.
-    let system: Option<&'static System> = if requested.is_some() {
+    let system: Option<&'d System> = if requested.is_some() {
         None
     } else {
         row.and_then(|r| {
@@ -552,7 +556,7 @@ pub(super) fn advise_core(
             .and_then(|t| data.find(t, &tsite.atoms, reaction, Some(c)))
             .filter(|r| r.control == Some(c))
     });
-    let regio = regio_advice(&ctx, cat, regio_rows);
+    let regio = regio_advice(&ctx, regio_rows);
     // Cautions: chosen, alternatives, regio reagents, then a general one.
     let mut cautions: Vec<Caution> = Vec::new();
     let mut push = |c: Option<Caution>| {
@@ -595,14 +599,8 @@ pub(super) fn advise_core(
         .filter(|_| opts.full_equilibrium)
         .and_then(|e| full_equilibrium(&ctx, e));
     let t = Target {
-        site: target,
-        atoms: tsite.atoms.clone(),
-        element: tsite.element,
-        class: tsite.class.clone(),
-        pka_dmso: tsite.pka_dmso,
-        pka_water: tsite.pka_water,
-        uncertainty: tsite.uncertainty,
-        regio: tsite.regio,
+        index: target,
+        site: tsite.clone(),
         chosen_by,
     };
     let mut mode_note = String::new();

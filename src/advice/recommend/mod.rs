@@ -6,18 +6,20 @@
 //! (side reactions and warnings), `score` (ranking), `regio` (enolate sides).
 
 use super::catalogue::{
-    catalogue, Base, BaseFamily, CatalogueError, Hazard, Nucleophilicity, ProticSolvent, Scale,
+    catalogue, Base, BaseFamily, Catalogue, CatalogueError, Hazard, Nucleophilicity, ProticSolvent,
+    Scale,
 };
 use super::cautions::{
     caution_for, caution_for_reagent, general_caution, short_caution_for, Caution,
 };
+use super::data::AdviceData;
 use super::equilibrium::{
     choose_scale, exp10, log10_sum_exp10, solve, solve_log_ratio, AcidUnit, Equilibrium,
     EquilibriumInput, Microsite, ScaleChoice,
 };
 use super::features::{detect_features, site_units, MoleculeFeatures};
 use super::numfmt;
-use super::practice::{practice, Control, Mode, PracticeRow, Reaction, System};
+use super::practice::{Control, Mode, Practice, PracticeRow, Reaction, System};
 use crate::mol::Molecule;
 use crate::sites::{Regio, Site, SiteReport};
 use std::borrow::Cow;
@@ -41,15 +43,15 @@ use side::*;
 use solve::*;
 pub use types::*;
 
-/// Advice for a molecule and its sites.
+/// Advice for a molecule and its sites, from the embedded base catalogue
+/// and practice data ([`AdviceData::embedded`]); [`advise_using`] takes the
+/// caller's own.
 pub fn advise(
     mol: &Molecule,
     sites: &SiteReport,
     opts: &AdviceOptions,
-) -> Result<Advice, AdviceError> {
-    let features = detect_features(mol, sites);
-    let t = crate::smarts::Target::new(mol);
-    advise_core(&features, sites, opts, Some(&t))
+) -> Result<Advice<'static>, AdviceError> {
+    advise_using(mol, sites, opts, embedded_data()?)
 }
 
 /// [`advise`] on a pattern-matching view of `mol` that the caller already
@@ -60,9 +62,85 @@ pub fn advise_in(
     target: &crate::smarts::Target,
     sites: &SiteReport,
     opts: &AdviceOptions,
-) -> Result<Advice, AdviceError> {
+) -> Result<Advice<'static>, AdviceError> {
+    advise_in_using(mol, target, sites, opts, embedded_data()?)
+}
+
+/// Advice for a molecule and its sites from a base catalogue and practice
+/// data the caller parsed from its own files ([`AdviceData::new`]). Only the
+/// bases of that catalogue are judged, recommended or listed; the advice
+/// borrows their names from it.
+///
+/// # Example
+///
+/// ```
+/// use acidsite::advice::practice::{Practice, EMBEDDED};
+/// use acidsite::advice::{advise, advise_using, AdviceData, AdviceOptions, Catalogue};
+/// use acidsite::mol::Molecule;
+/// use acidsite::sites::find_sites;
+///
+/// // A caller's copy of fragments/bases.tsv in which KOtBu's conjugate acid
+/// // (tert-butanol) is entered 20 units weaker in every scale: a base that
+/// // can no longer deprotonate a ketone.
+/// let text: String = include_str!("../../../fragments/bases.tsv")
+///     .lines()
+///     .map(|l| {
+///         let mut cells: Vec<String> = l.split('\t').map(str::to_string).collect();
+///         if cells[0] == "KOtBu" {
+///             for i in [4, 6, 8] {
+///                 if let Ok(p) = cells[i].parse::<f64>() {
+///                     cells[i] = (p - 20.0).to_string();
+///                 }
+///             }
+///         }
+///         cells.join("\t") + "\n"
+///     })
+///     .collect();
+/// let sources = include_str!("../../../fragments/sources.tsv");
+/// let cat = Catalogue::parse(&text, "my_bases.tsv", sources).expect("valid catalogue");
+/// let practice = Practice::parse(&EMBEDDED, &cat).expect("valid practice data");
+/// let data = AdviceData::new(&cat, &practice).expect("practice parsed against cat");
+///
+/// // Acetone, to be alkylated through its preformed enolate.
+/// let mol = Molecule::from_smiles("CC(=O)C").expect("valid SMILES");
+/// let sites = find_sites(&mol);
+/// let opts = AdviceOptions { base: Some("KOtBu".into()), ..AdviceOptions::default() };
+/// // Embedded data: KOtBu (tert-butanol about 32 in DMSO, common practice)
+/// // is judged on its pKa and is not rejected as too weak …
+/// let usual = advise(&mol, &sites, &opts).expect("advice");
+/// assert!(!usual.rejected.iter().any(|r| r.base == "KOtBu"
+///     && r.kinds.contains(&acidsite::advice::RejectKind::TooWeak)));
+/// // … the caller's data make it too weak.
+/// let mine = advise_using(&mol, &sites, &opts, data).expect("advice");
+/// assert!(mine.rejected.iter().any(|r| r.base == "KOtBu"
+///     && r.kinds.contains(&acidsite::advice::RejectKind::TooWeak)));
+/// ```
+pub fn advise_using<'d>(
+    mol: &Molecule,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+    data: AdviceData<'d>,
+) -> Result<Advice<'d>, AdviceError> {
+    let features = detect_features(mol, sites);
+    let t = crate::smarts::Target::new(mol);
+    advise_core(&features, sites, opts, Some(&t), data)
+}
+
+/// [`advise_using`] on a pattern-matching view of `mol` that the caller
+/// already built, as [`advise_in`].
+pub fn advise_in_using<'d>(
+    mol: &Molecule,
+    target: &crate::smarts::Target,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+    data: AdviceData<'d>,
+) -> Result<Advice<'d>, AdviceError> {
     let features = super::features::detect_features_in(mol, target, sites);
-    advise_core(&features, sites, opts, Some(target))
+    advise_core(&features, sites, opts, Some(target), data)
+}
+
+fn embedded_data() -> Result<AdviceData<'static>, AdviceError> {
+    AdviceData::embedded().map_err(AdviceError::Catalogue)
 }
 
 /// Per-base evaluation.
@@ -116,6 +194,12 @@ struct Plan {
 }
 
 struct Ctx<'a> {
+    /// The base catalogue and practice data in use.
+    cat: &'a Catalogue,
+    data: &'a Practice,
+    /// Counter-ion numbers per catalogue slot for a catalogue other than
+    /// the embedded one ([`counter_ion_id`]), worked out on first use.
+    counter_ions: std::cell::OnceCell<Vec<u32>>,
     f: &'a MoleculeFeatures,
     sites: &'a SiteReport,
     opts: &'a AdviceOptions,
@@ -224,8 +308,8 @@ pub fn advise_with_features(
     f: &MoleculeFeatures,
     sites: &SiteReport,
     opts: &AdviceOptions,
-) -> Result<Advice, AdviceError> {
-    advise_core(f, sites, opts, None)
+) -> Result<Advice<'static>, AdviceError> {
+    advise_core(f, sites, opts, None, embedded_data()?)
 }
 
 /// The enolate side a control asks for.

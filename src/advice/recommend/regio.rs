@@ -4,11 +4,8 @@ use super::*;
 
 /// Kinetic and thermodynamic conditions for a target with two enolate
 /// sides, from the practice rows for each control (fragments/practice.tsv).
-pub(super) fn regio_advice(
-    ctx: &Ctx,
-    cat: &crate::advice::Catalogue,
-    rows: [Option<&'static PracticeRow>; 2],
-) -> Option<RegioAdvice> {
+pub(super) fn regio_advice(ctx: &Ctx, rows: [Option<&PracticeRow>; 2]) -> Option<RegioAdvice> {
+    let (cat, data) = (ctx.cat, ctx.data);
     if !ctx.target_carbonyl {
         return None;
     }
@@ -22,7 +19,6 @@ pub(super) fn regio_advice(
     if k.is_none() && th.is_none() {
         return None;
     }
-    let data = practice().ok()?;
     let atoms = |i: Option<usize>| {
         i.and_then(|i| ctx.sites.sites.get(i))
             .map(|s| s.atoms.clone())

@@ -45,27 +45,36 @@ pub(super) fn alkoxy_of(base: &Base) -> Option<&'static str> {
 }
 
 /// A small number for a catalogue base's counter-ion (0: none), the same
-/// for every base with the same ion; None for a base outside the catalogue.
-pub(super) fn counter_ion_id(base: &Base) -> Option<u32> {
-    static TABLE: std::sync::OnceLock<Vec<u32>> = std::sync::OnceLock::new();
-    let cat = catalogue().ok()?;
-    let table = TABLE.get_or_init(|| {
-        let mut seen: Vec<&str> = Vec::new();
-        cat.bases
-            .iter()
-            .map(|b| match b.counter_ion.as_deref() {
-                None => 0,
-                Some(ion) => match seen.iter().position(|s| *s == ion) {
-                    Some(p) => p as u32 + 1,
-                    None => {
-                        seen.push(ion);
-                        seen.len() as u32
-                    }
-                },
-            })
-            .collect()
-    });
-    table.get(catalogue_slot(cat, base)?).copied()
+/// for every base with the same ion; None for a base outside the catalogue
+/// in use. The embedded catalogue's table is built once for the run; another
+/// catalogue's once per call of the recommender (in `ctx`), so two
+/// catalogues never share numbers.
+pub(super) fn counter_ion_id(ctx: &Ctx, base: &Base) -> Option<u32> {
+    static EMBEDDED: std::sync::OnceLock<Vec<u32>> = std::sync::OnceLock::new();
+    let slot = catalogue_slot(ctx.cat, base)?;
+    let table = match catalogue() {
+        Ok(e) if std::ptr::eq(e, ctx.cat) => EMBEDDED.get_or_init(|| counter_ion_table(e)),
+        _ => ctx.counter_ions.get_or_init(|| counter_ion_table(ctx.cat)),
+    };
+    table.get(slot).copied()
+}
+
+/// Counter-ion numbers per catalogue slot, in order of first appearance.
+fn counter_ion_table(cat: &Catalogue) -> Vec<u32> {
+    let mut seen: Vec<&str> = Vec::new();
+    cat.bases
+        .iter()
+        .map(|b| match b.counter_ion.as_deref() {
+            None => 0,
+            Some(ion) => match seen.iter().position(|s| *s == ion) {
+                Some(p) => p as u32 + 1,
+                None => {
+                    seen.push(ion);
+                    seen.len() as u32
+                }
+            },
+        })
+        .collect()
 }
 
 pub(super) fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) -> CountedSet {
@@ -73,7 +82,7 @@ pub(super) fn counted_for(ctx: &Ctx, base: &Base, scale: Scale, protic: bool) ->
     // The counter-ion is named only by the fast-transfer rule of a metal
     // base outside a protic solvent; elsewhere it does not split the memo.
     let ion = if metal && !protic {
-        counter_ion_id(base)
+        counter_ion_id(ctx, base)
     } else {
         Some(0)
     };

@@ -80,25 +80,16 @@ impl Default for AdviceOptions {
     }
 }
 
-/// The site the advice is about.
+/// The site the advice is about: one site of the [`SiteReport`] the advice
+/// was worked out from, and why it was chosen. The site itself is the
+/// report's own [`Site`] (atoms, element, class, pKa estimates, uncertainty,
+/// rules, enolate side), not a copy of its fields under other names.
 #[derive(Debug, Clone, PartialEq)]
 pub struct Target {
     /// Index into `SiteReport::sites`.
-    pub site: usize,
-    /// Atoms of the target site (input order, 0-based).
-    pub atoms: Vec<usize>,
-    /// Element of the acidic atom (C, O, N, S).
-    pub element: crate::mol::Element,
-    /// Site class from the rule data.
-    pub class: String,
-    /// Estimated pKa in DMSO.
-    pub pka_dmso: Option<f64>,
-    /// Estimated pKa in water.
-    pub pka_water: Option<f64>,
-    /// One standard uncertainty of the estimate, pKa units.
-    pub uncertainty: f64,
-    /// Kinetic or thermodynamic side of an unsymmetrical ketone.
-    pub regio: Option<Regio>,
+    pub index: usize,
+    /// That site of the report.
+    pub site: Site,
     /// How the target was chosen.
     pub chosen_by: String,
 }
@@ -133,9 +124,9 @@ pub struct Temperature {
 
 /// An acceptable base other than the recommendation.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Alternative {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct Alternative<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// Equivalents it would need.
     pub equivalents: f64,
     /// Fraction of the target deprotonated at equilibrium, 0..=1.
@@ -205,9 +196,9 @@ impl RejectKind {
 
 /// A rejected base with every reason found (`kind` is the first).
 #[derive(Debug, Clone, PartialEq)]
-pub struct Rejection {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct Rejection<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// The first reason found.
     pub kind: RejectKind,
     /// Every reason found, in the order of `reason`.
@@ -332,9 +323,11 @@ pub struct RegioAdvice {
     pub thermodynamic: RegioConditions,
 }
 
-/// The advice for one molecule.
+/// The advice for one molecule. `'d` is the lifetime of the base
+/// catalogue it was worked out from (`'static` for the embedded one), whose
+/// base names it borrows.
 #[derive(Debug, Clone, PartialEq)]
-pub struct Advice {
+pub struct Advice<'d> {
     /// The site the advice is about.
     pub target: Target,
     /// The purpose asked for in [`AdviceOptions::purpose`].
@@ -350,7 +343,7 @@ pub struct Advice {
     /// Id of the practice row that matched (fragments/practice.tsv).
     pub practice_row: Option<String>,
     /// Bases the data cannot judge for this target, with what is missing.
-    pub not_judged: Vec<NotJudged>,
+    pub not_judged: Vec<NotJudged<'d>>,
     /// Recommended (or requested) base; None when no catalogue base qualifies.
     pub base: Option<String>,
     /// Equivalents of base per mole of substrate: the target's share, any
@@ -387,12 +380,12 @@ pub struct Advice {
     pub counted_note: Option<String>,
     /// Other acceptable bases, best first (at most
     /// [`AdviceOptions::alternatives`]).
-    pub alternatives: Vec<Alternative>,
+    pub alternatives: Vec<Alternative<'d>>,
     /// Acceptable bases left out of `alternatives` by
     /// [`AdviceOptions::alternatives`].
     pub alternatives_omitted: usize,
     /// Catalogue bases ruled out for this target, with their reasons.
-    pub rejected: Vec<Rejection>,
+    pub rejected: Vec<Rejection<'d>>,
     /// Chemistry warnings about the molecule, the target and the chosen
     /// conditions.
     pub warnings: Vec<Warning>,
@@ -406,7 +399,7 @@ pub struct Advice {
     pub catalogue_version: String,
 }
 
-impl Advice {
+impl Advice<'_> {
     /// Is `base` rejected?
     pub fn is_rejected(&self, base: &str) -> bool {
         self.rejected
@@ -435,9 +428,9 @@ impl Advice {
 /// A base the data cannot judge (no comparable pKa), kept apart from the
 /// chemical rejections.
 #[derive(Debug, Clone, PartialEq)]
-pub struct NotJudged {
-    /// Catalogue name.
-    pub base: &'static str,
+pub struct NotJudged<'d> {
+    /// Catalogue name (borrowed from the catalogue in use).
+    pub base: &'d str,
     /// The value that is missing.
     pub missing: String,
 }

@@ -433,6 +433,7 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             },
             reaction: args.reaction.map(|r| r.0),
             control: args.control.map(Into::into),
+            advice_data: None,
         },
         Output {
             format: args.format,

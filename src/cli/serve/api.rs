@@ -328,6 +328,7 @@ fn scan_options(req: &ScanRequest) -> Result<Options, ApiError> {
         detail: acidsite::report::Detail::Full,
         reaction,
         control,
+        advice_data: None,
     })
 }
 
