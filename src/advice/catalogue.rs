@@ -91,6 +91,9 @@ pub enum Hazard {
     Flammable,
     /// Irritant to skin, eyes or airways; `irritant`.
     Irritant,
+    /// Forms shock-sensitive products on ageing or exposure to air (old
+    /// sodium amide); `aged-explosive`.
+    AgedExplosive,
 }
 
 impl Hazard {
@@ -105,6 +108,7 @@ impl Hazard {
             Hazard::Cryogenic => "cryogenic",
             Hazard::Flammable => "flammable",
             Hazard::Irritant => "irritant",
+            Hazard::AgedExplosive => "aged-explosive",
         }
     }
 
@@ -118,6 +122,7 @@ impl Hazard {
             "cryogenic" => Hazard::Cryogenic,
             "flammable" => Hazard::Flammable,
             "irritant" => Hazard::Irritant,
+            "aged-explosive" => Hazard::AgedExplosive,
             _ => return None,
         })
     }

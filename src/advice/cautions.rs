@@ -40,6 +40,7 @@ fn sentence(h: Hazard) -> &'static str {
         Hazard::Cryogenic => "is used at -78 °C: cold baths and surfaces cause cold burns, wear insulated gloves",
         Hazard::Flammable => "is flammable or in a flammable solvent: exclude ignition sources, earth equipment",
         Hazard::Irritant => "irritates skin, eyes and airways: avoid dust, wear gloves and eye protection",
+        Hazard::AgedExplosive => "forms shock-sensitive products when old or exposed to air: do not use discoloured material",
     }
 }
 
@@ -161,9 +162,6 @@ fn build_caution(base: &Base, dipolar: bool) -> Option<Caution> {
                 extra.push("with DMF, DMSO or DMAc can undergo a self-accelerating exothermic decomposition even at moderate temperature: avoid this combination at scale unless its thermal safety has been studied");
             }
         }
-    }
-    if base.name == "NaNH2" {
-        extra.push("forms shock-sensitive products when old or exposed to air: do not use discoloured material");
     }
     caution_for_reagent(&base.name, &base.hazards, &extra)
 }

@@ -133,7 +133,11 @@ pub fn run(args: Args) -> anyhow::Result<Outcome> {
             if i > 0 {
                 writeln!(out)?;
             }
-            let text = table::TextOptions { all: args.all };
+            let text = table::TextOptions {
+                all: args.all,
+                hint_one_base: Some("check with --base NAME"),
+                hint_all_reasons: Some("--all gives each reason"),
+            };
             write!(out, "{}", table::render_with(rec, opts.scale, text))?;
         }
     }

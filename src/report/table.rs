@@ -18,14 +18,20 @@ use crate::advice::DEFERRAL;
 use crate::scale::Scale;
 use std::fmt::Write;
 
-/// How much of the advice the report shows.
+/// How much of the advice the report shows, and the hints it adds.
 #[derive(Debug, Clone, Copy, Default, PartialEq, Eq)]
 pub struct TextOptions {
-    /// Every ruled-out base with its full reasons (`scan --all`). By
-    /// default the ruled-out bases are grouped by kind of reason, one line
-    /// each, so the common report fits one screen; the full reasons are in
-    /// `--all` and in the JSON record.
+    /// Every ruled-out base with its full reasons. By default the
+    /// ruled-out bases are grouped by kind of reason, one line each, so the
+    /// common report fits one screen; the full reasons are in the JSON
+    /// record.
     pub all: bool,
+    /// How the reader can see one more base judged in full (the command
+    /// line passes `"check with --base NAME"`); none: no hint.
+    pub hint_one_base: Option<&'static str>,
+    /// How the reader can see every reason (the command line passes
+    /// `"--all gives each reason"`); none: no hint.
+    pub hint_all_reasons: Option<&'static str>,
 }
 
 /// A short label for a kind of rejection (the record's `kind` names).
@@ -311,15 +317,21 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
                 if a.alternatives_omitted > 0 {
                     let _ = writeln!(
                         o,
-                        "     + {} more acceptable base(s), less preferred (check with --base NAME)",
-                        a.alternatives_omitted
+                        "     + {} more acceptable base(s), less preferred{}",
+                        a.alternatives_omitted,
+                        text.hint_one_base
+                            .map(|h| format!(" ({h})"))
+                            .unwrap_or_default()
                     );
                 }
             }
             if !a.rejected.is_empty() && !text.all {
                 let _ = writeln!(
                     o,
-                    "   ruled out (by kind of reason; --all gives each reason)"
+                    "   ruled out (by kind of reason{})",
+                    text.hint_all_reasons
+                        .map(|h| format!("; {h}"))
+                        .unwrap_or_default()
                 );
                 let mut groups: Vec<(&str, Vec<&str>)> = Vec::new();
                 for r in &a.rejected {

@@ -233,10 +233,12 @@ pub(super) fn advise_core<'d>(
             {
                 ev.reasons.clear();
                 ev.marginal = true;
+                // No figure here: the conversion shown beside the base is
+                // the whole equilibrium at the advised equivalents, which
+                // differs from this criterion (counted protons set aside).
                 ev.notes.push(format!(
-                    "accepted by practice ({}): the equilibrium estimate is only {:.0} %, within the uncertainty of the scales; use it as the practice row says, at low temperature with the substrate added to the base",
-                    r.id,
-                    100.0 * ev.conversion
+                    "accepted by practice ({}): the equilibrium estimate is low, but within the uncertainty of the scales; use it as the practice row says, at low temperature with the substrate added to the base",
+                    r.id
                 ));
                 ev.score = score(&ctx, ev, 0.0);
             }

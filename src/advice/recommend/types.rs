@@ -442,7 +442,8 @@ pub enum AdviceError {
     /// The molecule has no activated acidic site with a pKa estimate
     /// (background C–H sites are targets only when asked for).
     NoSites,
-    /// `--site N`: atom N carries no acidic hydrogen (or is out of range).
+    /// [`AdviceOptions::site`]: that atom carries no acidic hydrogen (or is out
+    /// of range).
     NotAcidicAtom(usize),
     /// [`AdviceOptions::base`] names no catalogue base (the name as
     /// given).
@@ -460,7 +461,7 @@ impl fmt::Display for AdviceError {
         match self {
             AdviceError::NoSites => write!(
                 f,
-                "no activated acidic site with a pKa estimate (an unactivated C–H is a target only when asked for with --site)"
+                "no activated acidic site with a pKa estimate (an unactivated C–H is a target only when asked for by atom)"
             ),
             AdviceError::NotAcidicAtom(a) => {
                 write!(f, "atom {a} is not part of an acidic site")
