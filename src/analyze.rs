@@ -334,7 +334,7 @@ fn site_records(report: SiteReport) -> Vec<SiteOut> {
 /// do not fit the text (reported rather than guessed).
 fn mapped_smiles(smiles: &str, mol: &Molecule, sites: &[SiteOut]) -> Option<String> {
     let mut labels = Vec::new();
-    // Background (unactivated alkane) C–H sites rank last and are not
+    // Background (unactivated alkane, aryl, vinyl …) C–H sites rank last and are not
     // labelled: the text stays readable.
     for s in sites.iter().filter(|s| !s.background) {
         for &a in &s.atoms {

@@ -691,3 +691,37 @@ fn advise_given_any_target_it_is_the_report_site_itself_issue_14() {
         }
     }
 }
+
+#[test]
+fn advise_given_background_sp2_ch_below_the_base_never_counts_it_issue11() {
+    // Issue 11 (rule set 2026.12-4): aryl (about 43), vinyl (44) and
+    // thiophene C2-H (about 33) are listed as background sites, all below
+    // n-BuLi's 50 (catalogue, from memory), but n-BuLi does not metalate an
+    // arene or alkene faster than it lithiates a 1,3-dithiane (common
+    // practice: Corey-Seebach lithiation of 2-substituted dithianes in THF).
+    // They must take no base and leave the advice as without them.
+    for smi in ["c1ccccc1CCC1SCCCS1", "C=CCCC1SCCCS1", "c1ccsc1CCC1SCCCS1"] {
+        let a = plan_with(smi, with_base("n-BuLi"));
+        assert!(a.counted.is_empty(), "{smi}: {:?}", a.counted);
+        let plain = plan_with("CCCC1SCCCS1", with_base("n-BuLi"));
+        assert_eq!(a.equivalents, plain.equivalents, "{smi}");
+        // The benzylic / allylic CH2 of the chain is a real (activated)
+        // site and may take a trace.
+        let (x, y) = (a.conversion.unwrap(), plain.conversion.unwrap());
+        assert!((x - y).abs() < 1e-6, "{smi}: {x} vs {y}");
+    }
+    // N-Methylbenzylamine with n-BuLi: the N-H (dialkylamine, 40 on the
+    // DMSO scale) is counted before the benzylic target, the ring C-H
+    // (43) is not (from memory: n-BuLi does not metalate a plain arene
+    // next to a faster N-H deprotonation).
+    let smi = "CNCc1ccccc1";
+    let mol = Molecule::from_smiles(smi).expect("parses");
+    let sites = find_sites(&mol);
+    let a = plan_with(smi, with_base("n-BuLi"));
+    assert!(!a.counted.is_empty());
+    assert!(
+        a.counted.iter().all(|c| !sites.sites[c.site].background),
+        "{:?}",
+        a.counted
+    );
+}

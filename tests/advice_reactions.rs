@@ -383,10 +383,14 @@ proptest! {
         let smiles = &all[which % all.len()];
         let mol = Molecule::from_smiles(smiles).unwrap();
         let sites = find_sites(&mol);
+        // Background C–H sites (issue 11) are left out: `equilibrium_for`
+        // has no target and leaves them out of the composition whenever the
+        // molecule has a real site, while the advice keeps a background
+        // site it is asked to target.
         let with_pka: Vec<_> = sites
             .sites
             .iter()
-            .filter(|s| s.pka_dmso.is_some() || s.pka_water.is_some())
+            .filter(|s| (s.pka_dmso.is_some() || s.pka_water.is_some()) && !s.background)
             .collect();
         prop_assume!(!with_pka.is_empty());
         let site = with_pka[pick % with_pka.len()].atoms[0];

@@ -8,12 +8,16 @@ mod tsv;
 mod sites_bench;
 #[path = "sites_corpus.rs"]
 mod sites_corpus;
+#[path = "sites_coverage.rs"]
+mod sites_coverage;
 #[path = "sites_issue11.rs"]
 mod sites_issue11;
 #[path = "sites_mechanisms.rs"]
 mod sites_mechanisms;
 #[path = "sites_nmp.rs"]
 mod sites_nmp;
+#[path = "sites_process_review.rs"]
+mod sites_process_review;
 #[path = "sites_robust.rs"]
 mod sites_robust;
 #[path = "sites_rule_water.rs"]

@@ -557,8 +557,14 @@ fn find_sites_given_common_practice_figures_agrees() {
 /// Common-practice rows allowed past their tolerance, with the reason. An
 /// entry that comes within the tolerance fails the test (remove it).
 // cp-009 (diisopropylamine) left this list when the sites work of issue 11
-// set secondary dialkylamine N-H to about 36.
-const CP_EXCEPTIONS: &[(&str, &str)] = &[];
+// set secondary dialkylamine N-H to about 36, and came back with rule set
+// 2026.12-4, which put N-DIALK-01 on the DMSO scale of the base catalogue.
+const CP_EXCEPTIONS: &[(&str, &str)] = &[(
+    "cp-009",
+    "the row holds the THF ion-pair figure (36) in its dmso column; N-DIALK-01 gives the \
+     DMSO-comparable 40 of LDA's conjugate acid in fragments/bases.tsv (issue 11: one scale \
+     for a site and the base that makes it)",
+)];
 
 /// Every rule id is exercised by at least one corpus case (the literature
 /// table, the water subset, or the exercise cases below).
@@ -625,6 +631,9 @@ const EXERCISE: &[(&str, &str)] = &[
     ("C[S+](C)(C)=O", "C-SULFM-02"),
     ("C(SC)SC", "C-THIAC-01"),
     ("CCC#C", "C-ALKYN-01"),
+    ("O=Cc1ccccc1", "C-FORMY-01"),
+    ("CN(C)C=O", "C-FORMY-01"),
+    ("N=C(c1ccccc1)c1ccccc1", "N-IMINE-01"),
     ("c1nc2ccccc2o1", "C-AZOLE-03"),
     ("O=C1CC(=O)NC(=O)N1", "C-BARB-01"),
     ("N#CCC(N)=O", "C-CYAAM-01"),

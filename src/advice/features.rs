@@ -450,7 +450,10 @@ fn group_units(g: &Graph, sites: &SiteReport) -> (Vec<usize>, Vec<f64>) {
     for i in 0..n {
         for j in (i + 1)..n {
             let (si, sj) = (&sites.sites[i], &sites.sites[j]);
-            if !(si.is_carbon() && sj.is_carbon()) {
+            // Background C–H (issue 11) is never an alternative position of
+            // a real site's unit (toluene's ring C–H is not part of its
+            // benzylic unit).
+            if !(si.is_carbon() && sj.is_carbon()) || si.background || sj.background {
                 continue;
             }
             if si
@@ -478,15 +481,25 @@ fn group_units(g: &Graph, sites: &SiteReport) -> (Vec<usize>, Vec<f64>) {
 /// Acid units for the solver on one scale: carbon sites grouped by
 /// `site_unit`; each atom of an O–H, N–H or S–H site is its own unit.
 /// Sites without a value on the scale are left out (said in `notes`).
+/// Background sites (unactivated C–H listed for completeness, issue 11)
+/// take part only when listed in `keep` (the target's unit) or when the
+/// report has no other site: their extrapolated values (aryl C–H about 43,
+/// below n-BuLi's 50) describe equilibria that are kinetically out of
+/// reach, so they must not draw base away from a real site.
 pub(crate) fn site_units(
     sites: &SiteReport,
     site_unit: &[usize],
     second_stage_shift: &[f64],
     scale: Scale,
+    keep: &[usize],
     notes: &mut Vec<String>,
 ) -> Vec<AcidUnit> {
     let mut units: Vec<(Option<usize>, AcidUnit)> = Vec::new();
+    let only_background = sites.sites.iter().all(|s| s.background);
     for (i, s) in sites.sites.iter().enumerate() {
+        if s.background && !only_background && !keep.contains(&i) {
+            continue;
+        }
         let pka = match scale {
             Scale::Water => s.pka_water,
             _ => s.pka_dmso,

@@ -39,7 +39,7 @@ pub struct Marks {
 
 impl Marks {
     /// The sites and the advice target of an analysis record (none for a
-    /// failed record). Background (unactivated alkane) C–H sites are not
+    /// failed record). Background (unactivated alkane, aryl, vinyl …) C–H sites are not
     /// marked (an advice target is still ringed).
     pub fn from_record(rec: &Record) -> Marks {
         let sites = rec

@@ -24,7 +24,7 @@
 //! | `schema` | string | `"acidsite-brief/1"` |
 //! | `line`, `id`, `input`, `ok`, `columns` | | as in the full record |
 //! | `formula`, `rule_set` | string | on success, as in the full record |
-//! | `sites` | array | on success, most acidic first (the rank is the place in the array; background alkane C–H sites, listed last in the full record, are left out): `atoms`, `element`, `h` (acidic hydrogens), `class`, `dmso` and `water` (pKa estimates, each absent when there is none), `sd` (one standard uncertainty), and `regio` when the site has an enolate side |
+//! | `sites` | array | on success, most acidic first (the rank is the place in the array; background C–H sites (unactivated alkane, aryl, vinyl …), listed last in the full record, are left out): `atoms`, `element`, `h` (acidic hydrogens), `class`, `dmso` and `water` (pKa estimates, each absent when there is none), `sd` (one standard uncertainty), and `regio` when the site has an enolate side |
 //! | `advice` | object or null | `target` and `base` (null when no base fits), and when they have a value `equivalents`, `conversion`, `solvent`, `temperature_c`, `temperature_range_c`, `scale`, as in the full record (absent, not null, otherwise); `warnings` (the first sentence of each: what and where); `caution` (one line for the recommended base; absent when it has no listed hazard); `cautions` (ids: base names, `general` for the caution covering every reagent); `rejected` (base names) |
 //! | `advice_note`, `flags`, `error` | | as in the full record |
 
@@ -190,7 +190,7 @@ impl Record {
             columns: self.columns.as_ref(),
             formula: self.formula.as_deref(),
             rule_set: self.rule_set,
-            // Background (unactivated alkane) C–H sites come last and are
+            // Background (unactivated alkane, aryl, vinyl …) C–H sites come last and are
             // left out: the brief keeps the answer.
             sites: self
                 .sites

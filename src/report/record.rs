@@ -35,7 +35,7 @@
 //! | `sites` | array | acidic sites, ranked most acidic first (see [`SiteOut`]) |
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
 //! | `advice_note` | string | only when `advice` is null: why |
-//! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number (background alkane C–H sites, ranked last, are not labelled) |
+//! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number (background C–H sites: unactivated alkane, aryl, vinyl …, ranked last, are not labelled) |
 //! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given (at most 10,000 matches and 10^7 matcher steps per pattern and molecule) |
 //! | `flag_warnings` | array of string | only when a `--flag` count reached a bound: the pattern and the bound; its count is then a lower bound |
 //!

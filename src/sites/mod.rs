@@ -14,13 +14,16 @@
 //!    atom on the atom gives the class and the base pKa of the parent
 //!    compound on each scale. Rows are ordered most specific first, so a
 //!    doubly activated C–H (1,3-dicarbonyl, malonate, …) has its own row.
-//!    An sp3 C–H with no unsaturated, aromatic or cationic neighbour is
-//!    tried only against the *background* rows (family `background`,
-//!    `C-ALKAN-01`, methane about 56): it is listed so that no
-//!    carbon-bound hydrogen is silently absent, ranked after every other
-//!    site, all such atoms with one hydrogen count form one site, and it is
-//!    never the top site or the default advice target. Vinyl and aryl C–H
-//!    are not sites (except azole C2–H).
+//!    A C–H with no activating neighbour (an sp3 C–H with no unsaturated,
+//!    aromatic or cationic neighbour, and every vinyl, formyl and aryl
+//!    C–H except azole C2–H) is tried only against the *background* rows
+//!    (family `background`: alkane `C-ALKAN-01` about 56, cyclopropane 46,
+//!    aryl 43, furan/thiophene C2 34, vinyl 44, formyl 42): it is listed so
+//!    that no carbon-bound hydrogen is silently absent, ranked after every
+//!    other site, all its atoms with one hydrogen count form one site, and
+//!    it is never the top site or the default advice target. The advice
+//!    leaves background sites out of counted protons and of the
+//!    equilibrium unless one is the target.
 //!    A benzylic C–H whose ring carries a para (or ortho) π-acceptor (NO2,
 //!    CN, C=O, SO2R) is a *phenylogous* α-C–H of that acceptor: its rows
 //!    (`C-PHNYL-*`) take the acceptor's parent value plus a phenylene

@@ -66,9 +66,15 @@ pub(super) fn after_removal(
     let mask = elem_mask(mol, atoms);
     // Number of acids removed before each site; one copy of the molecule
     // per distinct number (the removal sets are nested).
+    // Background C–H sites are not re-estimated: their rows take no
+    // increments or Hammett terms, so the copy would give the same value
+    // (and skipping them spares the copy for most molecules).
     let removed: Vec<usize> = raws
         .iter()
         .map(|r| {
+            if r.site.background {
+                return 0;
+            }
             let key = rank_key(&r.site, opts.scale);
             acids.iter().take_while(|(k, _)| *k + MARGIN <= key).count()
         })

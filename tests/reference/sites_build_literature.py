@@ -248,6 +248,23 @@ ENTRIES = [
     ("OC(=O)c1ccccc1[OH:1]", "salicylic acid (phenol O-H, second ionisation)", "phenol of a salicylate (second ionisation)", "", "", 13.6, "iupac-serjeant", "T", "added with the rule (issue 11); IUPAC row serjeant3397 pK2 (12.95-13.9 at 25 C, median 13.6)"),
     ("O=c1cc([OH:1])c2ccccc2o1", "4-hydroxycoumarin", "vinylogous acid (4-hydroxy-2-pyrone, 4-hydroxycoumarin)", "", "", 4.1, FM, "T", "added with the rule (issue 11); value recalled, no source consulted"),
     ("CC1=C([OH:1])COC1=O", "3-methyltetronic acid", "vinylogous acid (tetronic acid)", "", "", 4.15, "iupac-serjeant", "T", "added with the rule (issue 11); IUPAC row serjeant2548 (25 C)"),
+    # --- thio rules (issue 11; rows lit-205..208 were appended to the TSV on main, written here so that
+    # --- regenerating keeps their ids) ---------------------------------------------------------------------
+    ("[CH3:1]Sc1ccccc1", "thioanisole", "thioether (aryl sulfide)", 42.0, FM, "", "", "T", "added with the thio rules (issue 11); value recalled (Bordwell-group DMSO values), no source consulted"),
+    ("[CH2:1](Sc1ccccc1)Sc1ccccc1", "bis(phenylthio)methane", "thioacetal (bis(arylthio))", 30.8, FM, "", "", "T", "added with the thio rules (issue 11); value recalled (Bordwell-group DMSO values), no source consulted"),
+    ("[CH:1](Sc1ccccc1)(Sc1ccccc1)Sc1ccccc1", "tris(phenylthio)methane", "thioacetal (bis(arylthio))", 22.8, FM, "", "", "T", "added with the thio rules (issue 11); value recalled (Bordwell-group DMSO values), no source consulted"),
+    ("[CH:1]1(c2ccccc2)SCCCS1", "2-phenyl-1,3-dithiane", "1,3-dithiane C2-H", 30.7, FM, "", "", "T", "added with the thio rules (issue 11); value recalled (Bordwell-group DMSO values), no source consulted"),
+    # --- background C-H rows and the ortho-C=O hydrogen-bonded phenols (issue 11, rule set 2026.12-4) ----
+    ("c1cc[cH:1]cc1", "benzene", "aryl C-H", 43.0, FM, "", "", "T", "added with the background rule C-ARYL-01 (issue 11); extrapolated value recalled (Streitwieser, cesium cyclohexylamide scale), no source consulted"),
+    ("C=[CH2:1]", "ethylene", "vinyl / iminyl C-H (sp2)", 44.0, FM, "", "", "T", "added with the background rule C-VINYL-01 (issue 11); extrapolated value recalled, no source consulted"),
+    ("C1C[CH2:1]1", "cyclopropane", "cyclopropane C-H (unactivated)", 46.0, FM, "", "", "T", "added with the background rule C-CPROP-01 (issue 11); extrapolated value recalled (Streitwieser), no source consulted"),
+    ("[cH:1]1cccs1", "thiophene (C2-H)", "heteroaryl C-H next to ring O or S (furan, thiophene C2)", 33.0, FM, "", "", "T", "added with the background rule C-HARYL-01 (issue 11); THF lithium ion-pair figure recalled (Fraser group), used for DMSO, no source consulted"),
+    ("[cH:1]1ccco1", "furan (C2-H)", "heteroaryl C-H next to ring O or S (furan, thiophene C2)", 35.6, FM, "", "", "T", "added with the background rule C-HARYL-01 (issue 11); THF lithium ion-pair figure recalled (Fraser group), used for DMSO, no source consulted"),
+    ("COC(=O)c1ccccc1[OH:1]", "methyl salicylate (phenol O-H)", "phenol (hydrogen-bonded to an ortho ester C=O)", "", "", "auto", "", "T", "parent of O-PHEHB-01 (issue 11)"),
+    ("CCOC(=O)c1ccccc1[OH:1]", "ethyl salicylate (phenol O-H)", "phenol (hydrogen-bonded to an ortho ester C=O)", "", "", "auto", "", "T", "named in the note of O-PHEHB-01 (issue 11)"),
+    ("O=Cc1ccccc1[OH:1]", "salicylaldehyde (phenol O-H)", "phenol (hydrogen-bonded to an ortho aldehyde C=O)", "", "", "auto", "", "T", "parent of O-PHEHB-03 (issue 11)"),
+    ("NC(=O)c1ccccc1[OH:1]", "salicylamide (phenol O-H)", "phenol", "", "", "auto", "", "T", "named in the note of O-PHEHB-03: no row for ortho amides (issue 11); the IUPAC rows are rated Uncertain"),
+    ("CC(=O)c1ccccc1[OH:1]", "2-hydroxyacetophenone (phenol O-H)", "phenol (hydrogen-bonded to an ortho ketone C=O)", "", "", 10.37, "datawarrior-epa", "T", "parent of O-PHEHB-02 (issue 11); DataWarrior/EPA aqueous set, Original_Source_ID 11391 (mean of 4, 23 C); not in the IUPAC set"),
 ]
 
 # Where a cited source gives its DMSO value (the dmso_table column). A key not listed here must not be

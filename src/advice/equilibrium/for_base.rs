@@ -215,7 +215,8 @@ fn choose_scale_uncached(
 
 /// Equilibrium for a molecule and a catalogue base: every acidic site of
 /// the report takes part (alternative α-positions of one carbonyl form one
-/// unit; each O–H, N–H, S–H atom is its own unit).
+/// unit; each O–H, N–H, S–H atom is its own unit); background C–H sites
+/// take part only when the report has no other site.
 pub fn equilibrium_for(
     mol: &Molecule,
     sites: &SiteReport,
@@ -308,7 +309,7 @@ pub(crate) fn solve_for_base(
         let min_carbon = sites
             .sites
             .iter()
-            .filter(|x| x.is_carbon())
+            .filter(|x| x.is_carbon() && !x.background)
             .filter_map(pka)
             .fold(f64::INFINITY, f64::min);
         if sites
@@ -322,7 +323,7 @@ pub(crate) fn solve_for_base(
             ));
         }
     }
-    let units = site_units(sites, site_unit, second_stage_shift, scale, &mut notes);
+    let units = site_units(sites, site_unit, second_stage_shift, scale, &[], &mut notes);
     if units.is_empty() {
         return Err(EquilibriumError::NoSites);
     }

@@ -132,7 +132,14 @@ pub(super) fn advise_core<'d>(
         .collect();
     let cache = |sc: Scale| {
         let mut notes = Vec::new();
-        let units = site_units(sites, &f.site_unit, &f.second_stage_shift, sc, &mut notes);
+        let units = site_units(
+            sites,
+            &f.site_unit,
+            &f.second_stage_shift,
+            sc,
+            &target_unit,
+            &mut notes,
+        );
         (units, notes)
     };
     let units_dmso = cache(Scale::Dmso);

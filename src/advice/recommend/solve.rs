@@ -150,7 +150,9 @@ pub(super) fn count_protons(
     let mut out: Vec<CountedProton> = Vec::new();
     let mut units_seen: Vec<usize> = Vec::new();
     for (i, s) in ctx.sites.sites.iter().enumerate() {
-        if ctx.target_unit.contains(&i) {
+        // Background C–H (issue 11) never consumes base meant for a real
+        // site: see `site_units`.
+        if ctx.target_unit.contains(&i) || s.background {
             continue;
         }
         // Compare on the chosen scale, else on the other one; values on

@@ -440,7 +440,7 @@ pub struct NotJudged<'d> {
 #[non_exhaustive]
 pub enum AdviceError {
     /// The molecule has no activated acidic site with a pKa estimate
-    /// (background alkane C–H sites are targets only when asked for).
+    /// (background C–H sites are targets only when asked for).
     NoSites,
     /// [`AdviceOptions::site`]: that atom carries no acidic hydrogen (or is out
     /// of range).
@@ -461,7 +461,7 @@ impl fmt::Display for AdviceError {
         match self {
             AdviceError::NoSites => write!(
                 f,
-                "no activated acidic site with a pKa estimate (an unactivated alkane C–H is a target only when asked for by atom)"
+                "no activated acidic site with a pKa estimate (an unactivated C–H is a target only when asked for by atom)"
             ),
             AdviceError::NotAcidicAtom(a) => {
                 write!(f, "atom {a} is not part of an acidic site")
