@@ -109,6 +109,10 @@ impl Loaded {
         let practice = Practice::parse(&texts, &cat).expect("practice parses");
         Loaded { cat, practice }
     }
+    /// The caller's base catalogue with the embedded practice files.
+    fn with_bases(bases: &str) -> Loaded {
+        Loaded::parse(bases, EMBEDDED.practice, EMBEDDED.systems, EMBEDDED.side)
+    }
     fn data(&self) -> AdviceData<'_> {
         AdviceData::new(&self.cat, &self.practice).expect("practice parsed against cat")
     }
@@ -137,7 +141,7 @@ fn advise_using_given_unaltered_copy_of_the_files_equals_advise_issue_14() {
     // The caller's own copy of the embedded files parses into separate
     // data (other addresses, so no embedded cache entry serves it) and must
     // give the same advice as the embedded path, field for field.
-    let copy = Loaded::parse(BASES, EMBEDDED.practice, EMBEDDED.systems, EMBEDDED.side);
+    let copy = Loaded::with_bases(BASES);
     assert!(!std::ptr::eq(&copy.cat, catalogue().unwrap()));
     for smiles in MOLECULES {
         let (mol, sites) = sites_of(smiles);
@@ -224,12 +228,7 @@ fn lda_weakened() -> String {
 #[test]
 fn advise_using_given_weaker_conjugate_acid_rules_the_base_out_as_too_weak_issue_14() {
     assert!(BASES.contains("# version: 2\n"), "the test edits this line");
-    let mine = Loaded::parse(
-        &lda_weakened(),
-        EMBEDDED.practice,
-        EMBEDDED.systems,
-        EMBEDDED.side,
-    );
+    let mine = Loaded::with_bases(&lda_weakened());
     let (mol, sites) = sites_of("CC(=O)C");
     let opts = AdviceOptions::default();
     let usual = advise(&mol, &sites, &opts).expect("advice");
@@ -253,12 +252,7 @@ fn advise_using_given_weaker_conjugate_acid_rules_the_base_out_as_too_weak_issue
 
 #[test]
 fn equilibrium_for_using_given_weaker_conjugate_acid_follows_the_caller_pka_issue_14() {
-    let mine = Loaded::parse(
-        &lda_weakened(),
-        EMBEDDED.practice,
-        EMBEDDED.systems,
-        EMBEDDED.side,
-    );
+    let mine = Loaded::with_bases(&lda_weakened());
     let (mol, sites) = sites_of("CC(=O)C");
     let opts = EquilibriumOptions::new("LDA");
     let usual = equilibrium_for(&mol, &sites, &opts).expect("solvable");
@@ -309,18 +303,8 @@ fn advice_data_new_given_practice_of_another_catalogue_is_an_error_issue_14() {
 fn analyze_given_caller_advice_data_writes_records_from_it_issue_14() {
     // Records borrow base names for the whole program: the caller keeps its
     // data for as long (leaked here, a OnceLock in a program).
-    let copy: &'static Loaded = Box::leak(Box::new(Loaded::parse(
-        BASES,
-        EMBEDDED.practice,
-        EMBEDDED.systems,
-        EMBEDDED.side,
-    )));
-    let weak: &'static Loaded = Box::leak(Box::new(Loaded::parse(
-        &lda_weakened(),
-        EMBEDDED.practice,
-        EMBEDDED.systems,
-        EMBEDDED.side,
-    )));
+    let copy: &'static Loaded = Box::leak(Box::new(Loaded::with_bases(BASES)));
+    let weak: &'static Loaded = Box::leak(Box::new(Loaded::with_bases(&lda_weakened())));
     let with = |l: &'static Loaded| Options {
         advice_data: Some(AdviceData::new(&l.cat, &l.practice).unwrap()),
         ..Options::default()
