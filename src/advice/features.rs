@@ -327,6 +327,21 @@ pub fn detect_features_in(
     target: &SmartsTarget,
     sites: &SiteReport,
 ) -> MoleculeFeatures {
+    detect_features_for(mol, target, sites, |_| true)
+}
+
+/// [`detect_features_in`] with the per-site facts worked out only for the
+/// sites `wanted` selects (the others get [`SiteFeatures::default`]). The
+/// advice reads them for its target and the target's unit only, and
+/// background C–H sites (many atoms each: every aryl or alkane C–H) are
+/// neither unless one is the target; skipping them spares most of the
+/// per-site pattern matches on the bulk path.
+pub(crate) fn detect_features_for(
+    mol: &Molecule,
+    target: &SmartsTarget,
+    sites: &SiteReport,
+    wanted: impl Fn(usize) -> bool,
+) -> MoleculeFeatures {
     let g = Graph::new(mol);
     let pats = compiled();
     let mut f = MoleculeFeatures::default();
@@ -371,7 +386,11 @@ pub fn detect_features_in(
     f.ester_alkoxy.sort();
     f.ester_alkoxy.dedup();
 
-    for site in &sites.sites {
+    for (i, site) in sites.sites.iter().enumerate() {
+        if !wanted(i) {
+            f.sites.push(SiteFeatures::default());
+            continue;
+        }
         let mut sf = SiteFeatures {
             labelled: site.atoms.iter().any(|&a| {
                 mol.atoms
