@@ -388,4 +388,55 @@ mod tests {
             }
         }
     }
+
+    /// Without worded rejections the advice is the same but for the texts
+    /// of the ruled-out and unjudged bases, which are empty; a requested
+    /// base keeps its reasons, which make its warning (issue 14).
+    #[test]
+    fn advise_given_word_rejections_false_differs_only_in_reason_texts() {
+        let cases: [(&str, Option<&str>, Option<Reaction>); 6] = [
+            ("CC(=O)c1ccccc1", None, None),
+            ("CC(=O)OCC", Some("NaOH"), None),
+            ("CC(=O)OCC", Some("NaOMe"), None),
+            ("OC(=O)CCc1ccccc1", None, None),
+            ("CC1CCCCC1=O", Some("Et3N"), None),
+            ("CC(=O)CC(=O)OC", None, Some(Reaction::ALL[1])),
+        ];
+        for (smi, base, reaction) in cases {
+            let mol = Molecule::from_smiles(smi).unwrap();
+            let sites = crate::sites::find_sites(&mol);
+            let worded_opts = AdviceOptions {
+                base: base.map(String::from),
+                reaction,
+                ..AdviceOptions::default()
+            };
+            let bare_opts = AdviceOptions {
+                word_rejections: false,
+                ..worded_opts.clone()
+            };
+            let mut worded = advise(&mol, &sites, &worded_opts).unwrap();
+            let bare = advise(&mol, &sites, &bare_opts).unwrap();
+            assert!(!worded.rejected.is_empty(), "{smi}: a rejection to compare");
+            assert!(worded.rejected.iter().all(|r| !r.reason.is_empty()));
+            let asked = |name: &str| Some(name) == base;
+            assert!(
+                bare.rejected
+                    .iter()
+                    .all(|r| r.reason.is_empty() != asked(r.base)),
+                "{smi}: {:?}",
+                bare.rejected
+            );
+            assert!(bare.not_judged.iter().all(|n| n.missing.is_empty()));
+            if base.is_some() {
+                assert_eq!(worded.warnings, bare.warnings, "{smi}: requested base");
+            }
+            for r in worded.rejected.iter_mut().filter(|r| !asked(r.base)) {
+                r.reason.clear();
+            }
+            for n in &mut worded.not_judged {
+                n.missing.clear();
+            }
+            assert_eq!(worded, bare, "{smi}");
+        }
+    }
 }
