@@ -213,10 +213,25 @@ fn three_distinct_branches(g: &Graph, t: usize) -> bool {
     if hx != hy && hx != hz && hy != hz {
         return true;
     }
-    let mut sigs: Vec<String> = nbrs.iter().map(|nb| g.signature(nb.atom, t, 4)).collect();
-    sigs.sort();
-    sigs.dedup();
-    sigs.len() == 3
+    // Branches with different hashes differ, so only a pair with equal
+    // hashes is compared by signature; each signature is built at most
+    // once (the large ring branches cost the most).
+    let hashes = [hx, hy, hz];
+    let mut sigs: [Option<String>; 3] = [None, None, None];
+    for (a, b) in [(0, 1), (0, 2), (1, 2)] {
+        if hashes[a] != hashes[b] {
+            continue;
+        }
+        for k in [a, b] {
+            if sigs[k].is_none() {
+                sigs[k] = Some(g.signature(nbrs[k].atom, t, 4));
+            }
+        }
+        if sigs[a] == sigs[b] {
+            return false;
+        }
+    }
+    true
 }
 
 /// 64-bit mixing step (the SplitMix64 finaliser).
