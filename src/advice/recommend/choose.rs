@@ -327,38 +327,35 @@ pub(super) fn advise_core<'d>(
         None => accepted.first().copied(),
     };
     // Rejections take their reasons over (nothing reads them after this).
-    let rejected: Vec<Rejection> = evals
-        .iter_mut()
-        .filter(|e| !e.reasons.is_empty())
-        .map(|e| {
-            let reasons = std::mem::take(&mut e.reasons);
-            let kinds: Vec<RejectKind> = reasons.iter().map(|r| r.0).collect();
-            let reason = if !word_for(e.base) {
-                String::new()
-            } else if reasons.len() == 1 {
-                reasons.into_iter().next().map(|r| r.1).unwrap_or_default()
-            } else {
-                join_reasons(&reasons)
-            };
-            Rejection {
-                base: e.base.name.as_str(),
+    // Bases the data cannot judge are not chemical rejections: one pass
+    // sorts them apart, each list in catalogue order.
+    let mut rejected: Vec<Rejection> = Vec::with_capacity(evals.len());
+    let mut not_judged: Vec<NotJudged> = Vec::new();
+    for e in evals.iter_mut().filter(|e| !e.reasons.is_empty()) {
+        let reasons = std::mem::take(&mut e.reasons);
+        let kinds: Vec<RejectKind> = reasons.iter().map(|r| r.0).collect();
+        let reason = if !word_for(e.base) {
+            String::new()
+        } else if reasons.len() == 1 {
+            reasons.into_iter().next().map(|r| r.1).unwrap_or_default()
+        } else {
+            join_reasons(&reasons)
+        };
+        let base = e.base.name.as_str();
+        if kinds.iter().all(|k| *k == RejectKind::NoComparablePka) {
+            not_judged.push(NotJudged {
+                base,
+                missing: reason,
+            });
+        } else {
+            rejected.push(Rejection {
+                base,
                 kind: kinds[0],
                 kinds,
                 reason,
-            }
-        })
-        .collect();
-    // Bases the data cannot judge are not chemical rejections.
-    let (not_judged_r, rejected): (Vec<Rejection>, Vec<Rejection>) = rejected
-        .into_iter()
-        .partition(|r| r.kinds.iter().all(|k| *k == RejectKind::NoComparablePka));
-    let not_judged: Vec<NotJudged> = not_judged_r
-        .into_iter()
-        .map(|r| NotJudged {
-            base: r.base,
-            missing: r.reason,
-        })
-        .collect();
+            });
+        }
+    }
     // The alternatives listed: acceptable bases other than the chosen one,
     // best first, as many as asked for; only these and the chosen base get
     // their notes worded.
