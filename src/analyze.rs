@@ -457,6 +457,8 @@ fn advice_record(
         }),
         // Records report the conversion, not the full composition.
         full_equilibrium: false,
+        // Brief records name the ruled-out bases without their reasons.
+        word_rejections: opts.detail != Detail::Brief,
         ..AdviceOptions::default()
     };
     // The advice is consumed: its strings move into the record.

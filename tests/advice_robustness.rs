@@ -156,6 +156,7 @@ proptest! {
         base in prop::option::of(prop::sample::select(vec!["LDA", "NaOEt", "n-BuLi", "K2CO3", "xyz"])),
         solvent in prop::option::of(prop::sample::select(vec!["EtOH", "THF", "DMF", "water", ""])),
         catalytic in any::<bool>(),
+        word in any::<bool>(),
     ) {
         let mol = Molecule::from_smiles(SMILES[which]).unwrap();
         let report = SiteReport { sites, top_carbon: top_c, top_overall: top_o };
@@ -171,6 +172,7 @@ proptest! {
             control: None,
             alternatives: None,
             full_equilibrium: true,
+            word_rejections: word,
         };
         let f = detect_features(&mol, &report);
         let _ = advise_with_features(&f, &report, &opts);

@@ -213,10 +213,25 @@ fn three_distinct_branches(g: &Graph, t: usize) -> bool {
     if hx != hy && hx != hz && hy != hz {
         return true;
     }
-    let mut sigs: Vec<String> = nbrs.iter().map(|nb| g.signature(nb.atom, t, 4)).collect();
-    sigs.sort();
-    sigs.dedup();
-    sigs.len() == 3
+    // Branches with different hashes differ, so only a pair with equal
+    // hashes is compared by signature; each signature is built at most
+    // once (the large ring branches cost the most).
+    let hashes = [hx, hy, hz];
+    let mut sigs: [Option<String>; 3] = [None, None, None];
+    for (a, b) in [(0, 1), (0, 2), (1, 2)] {
+        if hashes[a] != hashes[b] {
+            continue;
+        }
+        for k in [a, b] {
+            if sigs[k].is_none() {
+                sigs[k] = Some(g.signature(nbrs[k].atom, t, 4));
+            }
+        }
+        if sigs[a] == sigs[b] {
+            return false;
+        }
+    }
+    true
 }
 
 /// 64-bit mixing step (the SplitMix64 finaliser).
@@ -327,6 +342,21 @@ pub fn detect_features_in(
     target: &SmartsTarget,
     sites: &SiteReport,
 ) -> MoleculeFeatures {
+    detect_features_for(mol, target, sites, |_| true)
+}
+
+/// [`detect_features_in`] with the per-site facts worked out only for the
+/// sites `wanted` selects (the others get [`SiteFeatures::default`]). The
+/// advice reads them for its target and the target's unit only, and
+/// background C–H sites (many atoms each: every aryl or alkane C–H) are
+/// neither unless one is the target; skipping them spares most of the
+/// per-site pattern matches on the bulk path.
+pub(crate) fn detect_features_for(
+    mol: &Molecule,
+    target: &SmartsTarget,
+    sites: &SiteReport,
+    wanted: impl Fn(usize) -> bool,
+) -> MoleculeFeatures {
     let g = Graph::new(mol);
     let pats = compiled();
     let mut f = MoleculeFeatures::default();
@@ -371,7 +401,11 @@ pub fn detect_features_in(
     f.ester_alkoxy.sort();
     f.ester_alkoxy.dedup();
 
-    for site in &sites.sites {
+    for (i, site) in sites.sites.iter().enumerate() {
+        if !wanted(i) {
+            f.sites.push(SiteFeatures::default());
+            continue;
+        }
         let mut sf = SiteFeatures {
             labelled: site.atoms.iter().any(|&a| {
                 mol.atoms

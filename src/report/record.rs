@@ -296,7 +296,7 @@ impl<V: Serialize> Serialize for Pairs<V> {
 }
 
 impl<V> Pairs<V> {
-    fn write_json(&self, out: &mut Vec<u8>, mut value: impl FnMut(&mut Vec<u8>, &V)) {
+    pub(super) fn write_json(&self, out: &mut Vec<u8>, mut value: impl FnMut(&mut Vec<u8>, &V)) {
         out.push(b'{');
         for (i, (k, v)) in self.0.iter().enumerate() {
             if i > 0 {

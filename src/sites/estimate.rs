@@ -592,7 +592,9 @@ fn run_on(
     opts: &Options,
 ) -> SiteReport {
     let mask = elem_mask(mol, &atoms);
-    let mut raws: Vec<Raw> = Vec::new();
+    // One allocation for the raw sites (large values: growing would copy
+    // them), at most one per atom.
+    let mut raws: Vec<Raw> = Vec::with_capacity(atoms.len());
     // Per rule: 0 screen not run yet, 1 passed, 2 failed.
     let mut screened = vec![0u8; set.rules.len()];
     for &i in &atoms {

@@ -1,5 +1,6 @@
 //! The recommender itself: target, reaction and practice row, evaluation of every base, choice of base or reagent system, and the advice assembled.
 
+use super::evaluate::worded;
 use super::*;
 
 pub(super) fn advise_core<'d>(
@@ -194,6 +195,9 @@ pub(super) fn advise_core<'d>(
         row.and_then(|r| r.rank_by_slot.get(slot).copied())
             .unwrap_or(usize::MAX)
     };
+    // Reasons are worded for every base, or for a requested one only
+    // (`AdviceOptions::word_rejections`).
+    let word_for = |b: &Base| opts.word_rejections || requested.is_some_and(|r| std::ptr::eq(r, b));
     if let Some(r) = row {
         let kind = match r.exclude_kind.as_deref() {
             Some("regio") => RejectKind::Regio,
@@ -202,7 +206,8 @@ pub(super) fn advise_core<'d>(
         };
         for (slot, ev) in evals.iter_mut().enumerate() {
             if r.excluded_by_slot.get(slot).copied().unwrap_or(false) {
-                ev.reasons.insert(0, (kind, r.exclude_text.clone()));
+                let text = worded(word_for(ev.base), || r.exclude_text.clone());
+                ev.reasons.insert(0, (kind, text));
             }
             // The practice row names this base for this kind of site and
             // reaction: the generic concern about a nucleophilic base (an
@@ -261,7 +266,8 @@ pub(super) fn advise_core<'d>(
                 // Only a base that would otherwise be offered needs it: one
                 // already ruled out says its own reason.
                 if g.families.iter().any(|f| f == fam) && ev.reasons.is_empty() {
-                    ev.reasons.insert(0, (RejectKind::Regio, text.clone()));
+                    let text = worded(word_for(ev.base), || text.clone());
+                    ev.reasons.insert(0, (RejectKind::Regio, text));
                     ev.words = None;
                 }
             }
@@ -321,36 +327,35 @@ pub(super) fn advise_core<'d>(
         None => accepted.first().copied(),
     };
     // Rejections take their reasons over (nothing reads them after this).
-    let rejected: Vec<Rejection> = evals
-        .iter_mut()
-        .filter(|e| !e.reasons.is_empty())
-        .map(|e| {
-            let reasons = std::mem::take(&mut e.reasons);
-            let kinds: Vec<RejectKind> = reasons.iter().map(|r| r.0).collect();
-            let reason = if reasons.len() == 1 {
-                reasons.into_iter().next().map(|r| r.1).unwrap_or_default()
-            } else {
-                join_reasons(&reasons)
-            };
-            Rejection {
-                base: e.base.name.as_str(),
+    // Bases the data cannot judge are not chemical rejections: one pass
+    // sorts them apart, each list in catalogue order.
+    let mut rejected: Vec<Rejection> = Vec::with_capacity(evals.len());
+    let mut not_judged: Vec<NotJudged> = Vec::new();
+    for e in evals.iter_mut().filter(|e| !e.reasons.is_empty()) {
+        let reasons = std::mem::take(&mut e.reasons);
+        let kinds: Vec<RejectKind> = reasons.iter().map(|r| r.0).collect();
+        let reason = if !word_for(e.base) {
+            String::new()
+        } else if reasons.len() == 1 {
+            reasons.into_iter().next().map(|r| r.1).unwrap_or_default()
+        } else {
+            join_reasons(&reasons)
+        };
+        let base = e.base.name.as_str();
+        if kinds.iter().all(|k| *k == RejectKind::NoComparablePka) {
+            not_judged.push(NotJudged {
+                base,
+                missing: reason,
+            });
+        } else {
+            rejected.push(Rejection {
+                base,
                 kind: kinds[0],
                 kinds,
                 reason,
-            }
-        })
-        .collect();
-    // Bases the data cannot judge are not chemical rejections.
-    let (not_judged_r, rejected): (Vec<Rejection>, Vec<Rejection>) = rejected
-        .into_iter()
-        .partition(|r| r.kinds.iter().all(|k| *k == RejectKind::NoComparablePka));
-    let not_judged: Vec<NotJudged> = not_judged_r
-        .into_iter()
-        .map(|r| NotJudged {
-            base: r.base,
-            missing: r.reason,
-        })
-        .collect();
+            });
+        }
+    }
     // The alternatives listed: acceptable bases other than the chosen one,
     // best first, as many as asked for; only these and the chosen base get
     // their notes worded.

@@ -35,6 +35,9 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         .requested
         .map(|r| std::ptr::eq(r, base))
         .unwrap_or(false);
+    // Reasons are worded unless the caller wants the kinds only; a
+    // requested base's reasons always are (they become its warning).
+    let word = opts.word_rejections || requested;
     // Notes are worded only for a base that is reported (accepted or
     // requested); rejected bases report their reasons only.
     let target_has = |sc: Scale| match sc {
@@ -51,11 +54,11 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     if levelled && opts.scale.is_none() && !target_has(Scale::Water) {
         ev.reasons.push((
             RejectKind::NoComparablePka,
-            format!(
+            worded(word, || format!(
                 "judged on the water scale in {solvent} (levelled by its conjugate acid); the target has no water-scale estimate"
-            ),
+            )),
         ));
-        side_reaction_checks(ctx.f, base, &mut ev.reasons);
+        side_reaction_checks(ctx.f, base, word, &mut ev.reasons);
         if requested {
             ev.notes.extend(unusual_solvent_note(opts, base));
         }
@@ -64,7 +67,7 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     let Some(choice) = choose_scale(base, levelled, opts.scale, target_has) else {
         ev.reasons.push((
             RejectKind::NoComparablePka,
-            "no pKa scale shared with the target".into(),
+            worded(word, || "no pKa scale shared with the target".into()),
         ));
         if requested {
             ev.notes.extend(unusual_solvent_note(opts, base));
@@ -76,7 +79,7 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
     let Some(t_pka) = pka_on(t, scale) else {
         ev.reasons.push((
             RejectKind::NoComparablePka,
-            "the target has no value on this scale".into(),
+            worded(word, || "the target has no value on this scale".into()),
         ));
         if requested {
             ev.notes.extend(unusual_solvent_note(opts, base));
@@ -222,9 +225,14 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         }
                     }
                 }
-                let mut reason = String::with_capacity(112);
+                let mut reason = String::new();
                 match uncounted {
+                    Some(_) if weak_crit && !word => {
+                        ev.reasons.push((RejectKind::UncountedProton, reason));
+                    }
+                    _ if !word => ev.reasons.push((RejectKind::TooWeak, reason)),
                     Some(u) if weak_crit => {
+                        reason.reserve(112);
                         reason.push_str("also takes the uncounted proton at atoms [");
                         for (k, a) in u.0.iter().enumerate() {
                             if k > 0 {
@@ -239,6 +247,7 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
                         ev.reasons.push((RejectKind::UncountedProton, reason));
                     }
                     _ => {
+                        reason.reserve(112);
                         let conv = if weak_solvent { acc_solvent } else { crit_conv };
                         reason.push_str("too weak: pKa ");
                         reason.push_str(&choice.base_pka_text);
@@ -265,13 +274,15 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
         Purpose::InSitu => {
             let acc = solvent_conv.unwrap_or(crit_conv);
             if acc < ctx.plan.min_fraction {
-                let reason = small_fraction_reason(
-                    "too weak even with the electrophile present: ",
-                    acc,
-                    &choice.base_pka_text,
-                    target_pka_text(ctx, scale, t_pka),
-                    scale,
-                );
+                let reason = worded(word, || {
+                    small_fraction_reason(
+                        "too weak even with the electrophile present: ",
+                        acc,
+                        &choice.base_pka_text,
+                        target_pka_text(ctx, scale, t_pka),
+                        scale,
+                    )
+                });
                 ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
@@ -286,24 +297,26 @@ pub(super) fn evaluate<'a>(ctx: &Ctx, base: &'a Base) -> Eval<'a> {
             ) {
                 ev.reasons.push((
                     RejectKind::NotCatalytic,
-                    "a stoichiometric reagent that is consumed irreversibly; not used in catalytic amounts".into(),
+                    worded(word, || "a stoichiometric reagent that is consumed irreversibly; not used in catalytic amounts".into()),
                 ));
             }
             let acc = solvent_conv.unwrap_or(crit_conv);
             if acc < ctx.plan.min_fraction {
-                let reason = small_fraction_reason(
-                    "too weak even for catalytic use: ",
-                    acc,
-                    &choice.base_pka_text,
-                    target_pka_text(ctx, scale, t_pka),
-                    scale,
-                );
+                let reason = worded(word, || {
+                    small_fraction_reason(
+                        "too weak even for catalytic use: ",
+                        acc,
+                        &choice.base_pka_text,
+                        target_pka_text(ctx, scale, t_pka),
+                        scale,
+                    )
+                });
                 ev.reasons.push((RejectKind::TooWeak, reason));
             }
         }
     }
     ev.exclude = counted_sites;
-    side_reaction_checks(ctx.f, base, &mut ev.reasons);
+    side_reaction_checks(ctx.f, base, word, &mut ev.reasons);
     let accepted = ev.reasons.is_empty();
     if accepted || requested {
         ev.words = Some(Box::new(Words {
@@ -441,4 +454,15 @@ fn small_fraction_reason(
     reason.push_str(scale.name());
     reason.push_str(" scale)");
     reason
+}
+
+/// The text of a rejection reason, or an empty string when reasons are not
+/// worded ([`AdviceOptions::word_rejections`]): bulk records that name the
+/// ruled-out bases only spare the formatting of every reason.
+pub(super) fn worded(word: bool, text: impl FnOnce() -> String) -> String {
+    if word {
+        text()
+    } else {
+        String::new()
+    }
 }

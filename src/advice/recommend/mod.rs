@@ -135,8 +135,26 @@ pub fn advise_in_using<'d>(
     opts: &AdviceOptions,
     data: AdviceData<'d>,
 ) -> Result<Advice<'d>, AdviceError> {
-    let features = super::features::detect_features_in(mol, target, sites);
+    let features = super::features::detect_features_for(mol, target, sites, |i| {
+        advice_reads_site_features(sites, opts, i)
+    });
     advise_core(&features, sites, opts, Some(target), data)
+}
+
+/// Can the advice read the per-site features of site `i`? It reads them
+/// for the target and the sites of the target's unit only. A background C–H
+/// site is never in another site's unit (`features::group_units`), so it is
+/// read only as the target: asked for by atom, or named by the report's
+/// `top_carbon` or `top_overall` (which a report from `find_sites` never
+/// does, but a caller's report may).
+fn advice_reads_site_features(sites: &SiteReport, opts: &AdviceOptions, i: usize) -> bool {
+    let Some(s) = sites.sites.get(i) else {
+        return false;
+    };
+    !s.background
+        || sites.top_carbon == Some(i)
+        || sites.top_overall == Some(i)
+        || opts.site.is_some_and(|a| s.atoms.contains(&a))
 }
 
 fn embedded_data() -> Result<AdviceData<'static>, AdviceError> {
@@ -318,5 +336,107 @@ pub(super) fn side_of(c: Option<Control>) -> Option<Regio> {
         Some(Control::Kinetic) => Some(Regio::Kinetic),
         Some(Control::Thermodynamic) => Some(Regio::Thermodynamic),
         None => None,
+    }
+}
+
+#[cfg(test)]
+mod tests {
+    use super::*;
+    use crate::smarts::Target as SmartsTarget;
+
+    /// The advice from features worked out for the sites it reads only
+    /// (`advise_in_using`) against the advice from every site's features,
+    /// including background C–H targets asked for by atom and a caller's
+    /// report whose top sites are background ones (issue 14).
+    #[test]
+    fn advise_in_using_given_background_targets_matches_all_site_features() {
+        let cases: [(&str, Option<usize>); 10] = [
+            ("Cc1ccccc1", None),
+            ("Cc1ccccc1", Some(2)),
+            // Atom 3 is a stereocentre on an unactivated C–H: the
+            // epimerisation warning needs its features.
+            ("CCCC(C)CC", Some(3)),
+            ("CCCC(C)CC(=O)C", Some(3)),
+            ("[2H]C(C)(C)CC(=O)OC", Some(1)),
+            ("CC(=O)c1ccccc1", Some(5)),
+            ("CC(=O)CC(C)CCBr", None),
+            ("OC(=O)CCc1ccccc1", Some(6)),
+            ("c1ccccc1", Some(0)),
+            ("CCCC", Some(1)),
+        ];
+        let data = AdviceData::embedded().unwrap();
+        for (smi, site) in cases {
+            let mol = Molecule::from_smiles(smi).unwrap();
+            let t = SmartsTarget::new(&mol);
+            let mut reports = vec![crate::sites::find_sites(&mol)];
+            // A caller's report naming a background site as the top ones.
+            let mut caller = reports[0].clone();
+            if let Some(b) = caller.sites.iter().position(|s| s.background) {
+                caller.top_carbon = Some(b);
+                caller.top_overall = Some(b);
+                reports.push(caller);
+            }
+            for sites in &reports {
+                let opts = AdviceOptions {
+                    site,
+                    ..AdviceOptions::default()
+                };
+                let all = crate::advice::features::detect_features_in(&mol, &t, sites);
+                let full = advise_core(&all, sites, &opts, Some(&t), data);
+                let lean = advise_in_using(&mol, &t, sites, &opts, data);
+                assert_eq!(format!("{full:?}"), format!("{lean:?}"), "{smi} {site:?}");
+            }
+        }
+    }
+
+    /// Without worded rejections the advice is the same but for the texts
+    /// of the ruled-out and unjudged bases, which are empty; a requested
+    /// base keeps its reasons, which make its warning (issue 14).
+    #[test]
+    fn advise_given_word_rejections_false_differs_only_in_reason_texts() {
+        let cases: [(&str, Option<&str>, Option<Reaction>); 6] = [
+            ("CC(=O)c1ccccc1", None, None),
+            ("CC(=O)OCC", Some("NaOH"), None),
+            ("CC(=O)OCC", Some("NaOMe"), None),
+            ("OC(=O)CCc1ccccc1", None, None),
+            ("CC1CCCCC1=O", Some("Et3N"), None),
+            ("CC(=O)CC(=O)OC", None, Some(Reaction::ALL[1])),
+        ];
+        for (smi, base, reaction) in cases {
+            let mol = Molecule::from_smiles(smi).unwrap();
+            let sites = crate::sites::find_sites(&mol);
+            let worded_opts = AdviceOptions {
+                base: base.map(String::from),
+                reaction,
+                ..AdviceOptions::default()
+            };
+            let bare_opts = AdviceOptions {
+                word_rejections: false,
+                ..worded_opts.clone()
+            };
+            let mut worded = advise(&mol, &sites, &worded_opts).unwrap();
+            let bare = advise(&mol, &sites, &bare_opts).unwrap();
+            assert!(!worded.rejected.is_empty(), "{smi}: a rejection to compare");
+            assert!(worded.rejected.iter().all(|r| !r.reason.is_empty()));
+            let asked = |name: &str| Some(name) == base;
+            assert!(
+                bare.rejected
+                    .iter()
+                    .all(|r| r.reason.is_empty() != asked(r.base)),
+                "{smi}: {:?}",
+                bare.rejected
+            );
+            assert!(bare.not_judged.iter().all(|n| n.missing.is_empty()));
+            if base.is_some() {
+                assert_eq!(worded.warnings, bare.warnings, "{smi}: requested base");
+            }
+            for r in worded.rejected.iter_mut().filter(|r| !asked(r.base)) {
+                r.reason.clear();
+            }
+            for n in &mut worded.not_judged {
+                n.missing.clear();
+            }
+            assert_eq!(worded, bare, "{smi}");
+        }
     }
 }

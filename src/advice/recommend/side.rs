@@ -1,10 +1,12 @@
 //! Side reactions: the base-family checks that rule a base out, and the warnings about the molecule and the chosen conditions.
 
+use super::evaluate::worded;
 use super::*;
 
 pub(super) fn side_reaction_checks(
     f: &MoleculeFeatures,
     base: &Base,
+    word: bool,
     reasons: &mut Vec<(RejectKind, String)>,
 ) {
     // At most eight groups: a fixed list, no allocation.
@@ -51,12 +53,15 @@ pub(super) fn side_reaction_checks(
                     BaseFamily::Pyridine => "is acylated by",
                     _ => "attacks",
                 };
-                let mut r = String::with_capacity(96);
-                r.push_str("nucleophilic base: ");
-                r.push_str(how);
-                r.push_str(" the ");
-                groups.push_joined(&mut r);
-                r.push_str(" (addition or substitution)");
+                let r = worded(word, || {
+                    let mut r = String::with_capacity(96);
+                    r.push_str("nucleophilic base: ");
+                    r.push_str(how);
+                    r.push_str(" the ");
+                    groups.push_joined(&mut r);
+                    r.push_str(" (addition or substitution)");
+                    r
+                });
                 reasons.push((RejectKind::Nucleophile, r));
             }
         }
@@ -68,10 +73,13 @@ pub(super) fn side_reaction_checks(
                 groups.push("anhydride");
             }
             if !groups.is_empty() {
-                let mut r = String::with_capacity(64);
-                r.push_str("reacts with the ");
-                groups.push_joined(&mut r);
-                r.push_str(" (acyl substitution)");
+                let r = worded(word, || {
+                    let mut r = String::with_capacity(64);
+                    r.push_str("reacts with the ");
+                    groups.push_joined(&mut r);
+                    r.push_str(" (acyl substitution)");
+                    r
+                });
                 reasons.push((RejectKind::Nucleophile, r));
             }
         }
@@ -88,10 +96,10 @@ pub(super) fn side_reaction_checks(
             if !other.is_empty() {
                 reasons.push((
                     RejectKind::Transesterification,
-                    format!(
+                    worded(word, || format!(
                         "transesterification: the {mine} alkoxide exchanges the {} ester group(s); use the alkoxide that matches the ester",
                         other.join(", ")
-                    ),
+                    )),
                 ));
             }
         }
@@ -99,7 +107,9 @@ pub(super) fn side_reaction_checks(
     if fam == BaseFamily::Hydroxide && (f.ester || f.anhydride || f.acyl_halide) {
         reasons.push((
             RejectKind::Hydrolysis,
-            "hydroxide hydrolyses the ester (saponification) or acyl group".into(),
+            worded(word, || {
+                "hydroxide hydrolyses the ester (saponification) or acyl group".into()
+            }),
         ));
     }
 }

@@ -60,6 +60,12 @@ pub struct AdviceOptions {
     /// ([`Advice::equilibrium`]: every site, anion populations); false
     /// leaves it None (bulk records do not report it).
     pub full_equilibrium: bool,
+    /// Word the reason of every ruled-out base ([`Rejection::reason`], the
+    /// `missing` text of [`Advice::not_judged`]); false leaves those texts
+    /// empty and keeps their kinds (brief records name the ruled-out bases
+    /// only). The reasons of a requested base are always worded: they make
+    /// its warning.
+    pub word_rejections: bool,
 }
 
 impl Default for AdviceOptions {
@@ -76,6 +82,7 @@ impl Default for AdviceOptions {
             control: None,
             alternatives: None,
             full_equilibrium: true,
+            word_rejections: true,
         }
     }
 }
