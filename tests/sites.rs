@@ -2,6 +2,7 @@
 //! the test build): each module is one file beside this one, named by concern.
 //! `cargo test --release --test sites -- <module>::` runs one of them.
 
+mod sites_helpers;
 mod tsv;
 
 #[path = "sites_bench.rs"]

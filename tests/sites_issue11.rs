@@ -3,21 +3,7 @@
 //! X–H values, charged states and isotope labels. Each check value names
 //! its source (from memory where no source was consulted).
 
-use acidsite::mol::Molecule;
-use acidsite::sites::{find_sites, Site, SiteReport};
-
-fn report(smiles: &str) -> SiteReport {
-    find_sites(&Molecule::from_smiles(smiles).expect("test SMILES parses"))
-}
-
-/// The site holding `atom` (0-based input order).
-fn site(smiles: &str, atom: usize) -> Site {
-    report(smiles)
-        .sites
-        .into_iter()
-        .find(|s| s.atoms.contains(&atom))
-        .unwrap_or_else(|| panic!("{smiles}: no site on atom {atom}"))
-}
+use crate::sites_helpers::{report, site};
 
 /// Water estimates of (SMILES, atom, expected, tolerance) rows, each with
 /// its source named where the rows are written.

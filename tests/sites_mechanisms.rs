@@ -3,21 +3,9 @@
 //! sulfonyl groups, cyclic carbamates, phosphonium ylides, and the scale a
 //! site is ranked on.
 
-use acidsite::mol::Molecule;
-use acidsite::sites::{find_sites, Scale, Site, SiteReport};
+use acidsite::sites::{Scale, Site};
 
-fn report(smiles: &str) -> SiteReport {
-    find_sites(&Molecule::from_smiles(smiles).expect("test SMILES parses"))
-}
-
-/// The site holding `atom` (0-based input order).
-fn site(smiles: &str, atom: usize) -> Site {
-    report(smiles)
-        .sites
-        .into_iter()
-        .find(|s| s.atoms.contains(&atom))
-        .unwrap_or_else(|| panic!("{smiles}: no site on atom {atom}"))
-}
+use crate::sites_helpers::{report, site};
 
 fn uses(s: &Site, id: &str) -> bool {
     s.rules.iter().any(|u| u.id == id)

@@ -166,24 +166,7 @@ impl Record {
     /// `write_brief_json_given_records_matches_serde` compares it with the
     /// serde form of the same keys.
     pub fn write_brief_json(&self, out: &mut Vec<u8>) {
-        out.extend_from_slice(b"{\"schema\":");
-        json::string(out, BRIEF_SCHEMA);
-        out.extend_from_slice(b",\"line\":");
-        json::uint(out, self.line);
-        out.extend_from_slice(b",\"id\":");
-        json::opt_string(out, self.id.as_deref());
-        out.extend_from_slice(b",\"input\":");
-        json::string(out, &self.input);
-        out.extend_from_slice(b",\"ok\":");
-        json::boolean(out, self.ok);
-        if let Some(c) = &self.columns {
-            out.extend_from_slice(b",\"columns\":");
-            c.write_json(out, |o, v| json::string(o, v));
-        }
-        if let Some(f) = &self.formula {
-            out.extend_from_slice(b",\"formula\":");
-            json::string(out, f);
-        }
+        self.write_json_head(out, BRIEF_SCHEMA);
         if let Some(r) = self.rule_set {
             out.extend_from_slice(b",\"rule_set\":");
             json::string(out, r);

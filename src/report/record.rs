@@ -198,14 +198,12 @@ impl Record {
             .unwrap_or_else(|e| String::from_utf8_lossy(e.as_bytes()).into_owned())
     }
 
-    /// Append the record as one JSON line (no trailing newline) to `out`:
-    /// byte for byte what `serde_json::to_string` makes of the record, with
-    /// keys in the documented order, absent keys left out and non-finite
-    /// numbers written as `null`. Lets a caller reuse one buffer for many
-    /// records.
-    pub fn write_json(&self, out: &mut Vec<u8>) {
+    /// The keys every record form starts with, in order: `schema` (given,
+    /// full or brief), `line`, `id`, `input`, `ok`, then `columns` and
+    /// `formula` when present. Opens the object and leaves it open.
+    pub(crate) fn write_json_head(&self, out: &mut Vec<u8>, schema: &str) {
         out.extend_from_slice(b"{\"schema\":");
-        json::string(out, self.schema);
+        json::string(out, schema);
         out.extend_from_slice(b",\"line\":");
         json::uint(out, self.line);
         out.extend_from_slice(b",\"id\":");
@@ -222,6 +220,15 @@ impl Record {
             out.extend_from_slice(b",\"formula\":");
             json::string(out, f);
         }
+    }
+
+    /// Append the record as one JSON line (no trailing newline) to `out`:
+    /// byte for byte what `serde_json::to_string` makes of the record, with
+    /// keys in the documented order, absent keys left out and non-finite
+    /// numbers written as `null`. Lets a caller reuse one buffer for many
+    /// records.
+    pub fn write_json(&self, out: &mut Vec<u8>) {
+        self.write_json_head(out, self.schema);
         if let Some(c) = &self.components {
             out.extend_from_slice(b",\"components\":");
             json::array(out, c, |o, c| c.write_json(o));
