@@ -401,6 +401,31 @@ fn literature_table_given_dmso_value_names_its_provenance_issue11() {
     assert!(bad.is_empty(), "{bad:#?}");
 }
 
+/// Every water value cited from the IUPAC dataset keeps the literature
+/// references of its records in corpus/sites/literature_water_refs.tsv
+/// (the build script once dropped those of values cited by hand).
+#[test]
+fn literature_water_refs_given_cited_water_value_lists_its_references() {
+    let refs: BTreeMap<String, tsv::Row> = tsv::read_rows("corpus/sites/literature_water_refs.tsv")
+        .into_iter()
+        .map(|r| (r["id"].clone(), r))
+        .collect();
+    let mut bad = Vec::new();
+    for r in read("corpus/sites/literature.tsv") {
+        if r.water.is_none() || !r.water_source.starts_with("iupac-") {
+            continue;
+        }
+        match refs.get(&r.id) {
+            None => bad.push(format!("{}: no row in literature_water_refs.tsv", r.id)),
+            Some(x) if x["references"].is_empty() || x["record_ids"].is_empty() => {
+                bad.push(format!("{}: empty record ids or references", r.id))
+            }
+            _ => {}
+        }
+    }
+    assert!(bad.is_empty(), "{bad:#?}");
+}
+
 /// Holdout rows named in a rule or increment note although the note does
 /// not set a value from them (each with the reason).
 const NAMED_BUT_NOT_SET: &[(&str, &str)] = &[

@@ -9,6 +9,7 @@ Run from anywhere: python3 tests/reference/sites_build_literature.py
 (needs RDKit and ../shared/data for the "auto" water values; the output is committed.)
 """
 import os
+import re
 import sys
 
 sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
@@ -187,7 +188,7 @@ ENTRIES = [
     ("[NH2:1]S(=O)(=O)C(F)(F)F", "trifluoromethanesulfonamide", "sulfonamide_nh", 9.7, FM, "auto", "", "H", ""),
     ("Cc1ccc(S(=O)(=O)[NH2:1])cc1", "p-toluenesulfonamide", "sulfonamide_nh", "", "", "auto", "", "T", ""),
     # --- azole N-H ---------------------------------------------------------------
-    ("[nH:1]1cccc1", "pyrrole", "azole_nh", 23.0, FM, 17.51, "iupac-serjeant", "T", "water: IUPAC Serjeant pK1, aqueous KOH H_ scale, rated Uncertain"),
+    ("[nH:1]1cccc1", "pyrrole", "azole_nh", 23.0, FM, 17.51, "iupac-serjeant", "T", "water: IUPAC serjeant2309 pK1, aqueous KOH H_ scale, rated Uncertain"),
     ("[nH:1]1ccc2ccccc21", "indole", "azole_nh", 21.0, FM, 16.97, "iupac-serjeant", "T", "water: IUPAC serjeant3972 pK1(NH), aqueous KOH H_ scale, rated Uncertain"),
     ("c1c[nH:1]cn1", "imidazole (N-H)", "azole_nh", 18.6, FM, 14.5, FM, "T", "the 7.0 in water is the conjugate acid, not this site"),
     ("[nH:1]1cccn1", "pyrazole", "azole_nh", 19.8, FM, 14.21, "iupac-serjeant", "H", "water: IUPAC serjeant2140 pK1, aqueous KOH H_ scale, rated Uncertain"),
@@ -366,6 +367,13 @@ def build(entries, prefix, header_lines, path, allow_lookup=True):
                 wsrc = "iupac-serjeant" if kind == "acid" else "iupac-perrin"
                 notes.append(f"water: median of {hit['n']} IUPAC rows ({hit['tier']}; {', '.join(hit['ids'][:4])})")
                 attributions.append((rid, name, hit))
+        elif wsrc in ("iupac-serjeant", "iupac-perrin") and fmt(water) and allow_lookup:
+            # a value cited by hand: its IUPAC record ids are in the note; keep their references
+            ids = re.findall(r"\b(?:serjeant|perrin_supp|perrin)\d+\b", note or "")
+            hit = L.record_lookup(ids) if ids else None
+            if hit is None:
+                raise SystemExit(f"{rid} {name}: water cited {wsrc} but no IUPAC record id in the note")
+            attributions.append((rid, name, hit))
         if split not in ("T", "H"):
             raise SystemExit(f"bad split {split}")
         if prefix == "lit" and rid in TO_TRAIN:

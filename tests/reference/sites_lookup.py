@@ -118,6 +118,28 @@ def reference_text(code, source):
     return " ".join(out)
 
 
+def record_lookup(ids):
+    """References of IUPAC records named by their unique ids (e.g. "serjeant3397"), for rows
+    whose water value was cited by hand from those records. Returns dict(refs, ids, dataset) or None."""
+    _load()
+    want = set(ids)
+    refs, found, datasets = [], [], []
+    for rows in _iupac.values():
+        for r in rows:
+            if r["unique_ID"] in want:
+                text = reference_text(r["ref"], r["source"])
+                if text and text not in refs:
+                    refs.append(text)
+                found.append(r["unique_ID"])
+                name = {"serjeant": "Serjeant", "perrin": "Perrin", "perrin_supp": "Perrin"}[r["source"]]
+                if name not in datasets:
+                    datasets.append(name)
+    if not found:
+        return None
+    return {"refs": refs, "ids": sorted(set(found)),
+            "dataset": f"IUPAC Digitized pKa Dataset v1.0 ({', '.join(datasets)})"}
+
+
 def _pick(cands):
     """cands: list of (value, T, assessment, remark, ref, id). Returns (median, tier, rows)."""
     good = ("Reliable", "Approximate")
