@@ -474,6 +474,35 @@ fn scan_given_nitroalkane_warns_that_dry_nitronates_are_shock_sensitive_issue10(
 }
 
 #[test]
+fn scan_given_hazardous_substrate_warns_of_the_hazard() {
+    // Common practice: HCN, H2S, P-H phosphines, peroxides and gem-dinitro
+    // compounds are hazards of the substrate itself (fragments/side_reactions.tsv);
+    // an unrelated substrate gets none of these warnings.
+    for (smiles, id) in [
+        ("C#N", "SR-HCN"),
+        ("S", "SR-H2S"),
+        ("c1ccc(Pc2ccccc2)cc1", "SR-PHOSPHINE-PH"),
+        ("CC(=O)CC(C)(C)OO", "SR-PEROXIDE"),
+        ("CC([N+](=O)[O-])[N+](=O)[O-]", "SR-POLYNITRO"),
+    ] {
+        let (_, v, _) = scan_json(&[smiles]);
+        let w = v["advice"]["warnings"].to_string();
+        assert!(w.contains(id), "{smiles}: {w}");
+    }
+    let (_, plain, _) = scan_json(&["CC(=O)CC(C)(C)OC"]);
+    let w = plain["advice"]["warnings"].to_string();
+    for id in [
+        "SR-HCN",
+        "SR-H2S",
+        "SR-PHOSPHINE-PH",
+        "SR-PEROXIDE",
+        "SR-POLYNITRO",
+    ] {
+        assert!(!w.contains(id), "{w}");
+    }
+}
+
+#[test]
 fn scan_given_deuterium_on_the_target_warns_that_the_label_exchanges_issue10() {
     let (_, v, _) = scan_json(&["[2H]C([2H])([2H])C(=O)c1ccccc1"]);
     assert!(v["advice"]["warnings"].to_string().contains("deuterium"));

@@ -360,3 +360,17 @@ fn find_sites_given_uncommon_oh_and_sh_acids_gives_them_their_own_class_issue11(
         assert_ne!(site(smiles, atom).class, "hydroxy (other)", "{smiles}");
     }
 }
+
+#[test]
+fn find_sites_given_phosphines_and_hydrogen_sulfide_reports_the_x_h_issue11() {
+    // Rule set 2026.12-5: P–H and H2S had no site (the classifier tried only
+    // C, N, O and S–H with a carbon). Values from memory (diphenylphosphine
+    // about 22.9 and phenylphosphine about 24.5 in DMSO, H2S about 7.0 in
+    // water) except trimethylphosphonium, IUPAC row perrin3768 (8.8).
+    assert!((dmso("c1ccc(Pc2ccccc2)cc1", 4) - 22.9).abs() <= 0.5);
+    assert!((dmso("c1ccc(P)cc1", 4) - 24.5).abs() <= 0.5);
+    assert_water(&[("S", 0, 7.0, 0.3), ("C[PH+](C)C", 1, 8.8, 0.5)]);
+    // The P–H of a diarylphosphine is far more acidic than its ring C–H.
+    let r = report("c1ccc(Pc2ccccc2)cc1");
+    assert_eq!(r.sites[0].atoms, vec![4]);
+}

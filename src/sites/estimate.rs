@@ -640,10 +640,12 @@ pub(super) fn classify_atom(
     }
     // A C–H with no activating neighbour is tried against the background
     // rows only (cheap; they come last in the file).
+    // Other elements are tried only when the rule file has rows for them
+    // (N, O, S, P, Se today: the data decides, not this function).
     let only_background = match a.element {
         6 => !carbon_candidate(mol, i),
-        7 | 8 | 16 => false,
-        _ => return None,
+        z if set.rules_for(z).is_empty() => return None,
+        _ => false,
     };
     let candidates = if only_background {
         set.background_rules()

@@ -266,6 +266,13 @@ ENTRIES = [
     ("O=Cc1ccccc1[OH:1]", "salicylaldehyde (phenol O-H)", "phenol (hydrogen-bonded to an ortho aldehyde C=O)", "", "", "auto", "", "T", "parent of O-PHEHB-03 (issue 11)"),
     ("NC(=O)c1ccccc1[OH:1]", "salicylamide (phenol O-H)", "phenol", "", "", "auto", "", "T", "named in the note of O-PHEHB-03: no row for ortho amides (issue 11); the IUPAC rows are rated Uncertain"),
     ("CC(=O)c1ccccc1[OH:1]", "2-hydroxyacetophenone (phenol O-H)", "phenol (hydrogen-bonded to an ortho ketone C=O)", "", "", 10.37, "datawarrior-epa", "T", "parent of O-PHEHB-02 (issue 11); DataWarrior/EPA aqueous set, Original_Source_ID 11391 (mean of 4, 23 C); not in the IUPAC set"),
+    # --- P-H and H2S (issue 11: no site before rule set 2026.12-5) -----------------------------------------------
+    ("[SH2:1]", "hydrogen sulfide", "hydrogen sulfide", "", "", 7.0, FM, "T", "parent of S-HYDSU-01; first ionisation, recalled handbook value"),
+    ("c1ccc([PH:1]c2ccccc2)cc1", "diphenylphosphine", "phosphine P-H (diarylphosphine)", 22.9, FM, "", "", "T", "parent of P-PHOS-02; recalled Bordwell-group value, no source consulted"),
+    ("c1ccc([PH2:1])cc1", "phenylphosphine", "phosphine P-H (arylphosphine)", 24.5, FM, "", "", "T", "parent of P-PHOS-01; recalled, no source consulted"),
+    ("[PH3:1]", "phosphine", "phosphine P-H (alkylphosphine, PH3)", "", "", "", "", "T", "no measured value known; checks the site of P-PHOS-03 is found"),
+    ("c1ccc([PH+:1](c2ccccc2)c2ccccc2)cc1", "triphenylphosphonium", "phosphonium P-H (protonated triarylphosphine)", "", "", 2.7, FM, "T", "parent of P-PHOSH-02; recalled, no source consulted"),
+    ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 
 # Where a cited source gives its DMSO value (the dmso_table column). A key not listed here must not be

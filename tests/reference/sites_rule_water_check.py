@@ -112,6 +112,9 @@ PARENTS = {
     "S-THIPH-01": [("[SH:1]c1ccccc1", "benzenethiol", "acid", "")],
     "S-THIOB-01": [("[SH:1]Cc1ccccc1", "phenylmethanethiol", "acid", "")],
     "S-THIOL-01": [("CC[SH:1]", "ethanethiol", "acid", "")],
+    "S-HYDSU-01": [("[SH2:1]", "hydrogen sulfide", "none", "inorganic: not in the IUPAC organic acid set")],
+    "P-PHOSH-02": [("[PH+:1](c1ccccc1)(c1ccccc1)c1ccccc1", "triphenylphosphonium", "base:c1ccc(P(c2ccccc2)c2ccccc2)cc1", "")],
+    "P-PHOSH-01": [("C[PH+:1](C)C", "trimethylphosphonium", "base:CP(C)C", "")],
     # --- N-H: ammonium ions (IUPAC Perrin pKAH1 of the neutral base) -------------------------------
     "N-AMMES-01": [("[NH3+:1]CC(=O)OC", "glycine methyl ester", "base:COC(=O)CN", "")],
     "N-AMMON-04": [("[NH4+:1]", "ammonia", "base:N", "")],
