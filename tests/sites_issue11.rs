@@ -374,3 +374,18 @@ fn find_sites_given_phosphines_and_hydrogen_sulfide_reports_the_x_h_issue11() {
     let r = report("c1ccc(Pc2ccccc2)cc1");
     assert_eq!(r.sites[0].atoms, vec![4]);
 }
+
+#[test]
+fn find_sites_given_phosphonium_salt_estimates_c_h_of_the_free_phosphine_issue11() {
+    // Once the P–H of trimethylphosphonium (8.8 in water, IUPAC perrin3768)
+    // is counted as removed, the methyl groups belong to a neutral
+    // phosphine, not to a phosphonium ylide precursor (about 22 in DMSO,
+    // methyltriphenylphosphonium from memory).
+    let r = report("C[PH+](C)C");
+    let c = r
+        .sites
+        .iter()
+        .find(|s| s.atoms.contains(&0))
+        .expect("methyl site");
+    assert!(c.pka_dmso.is_some_and(|v| v > 40.0), "{c:?}");
+}

@@ -17,10 +17,10 @@
 //! the ammonium is gone before any C–H is touched, and the remaining
 //! protons are those of the free amine.
 //!
-//! Only O–H and S–H sites and cationic N–H sites (ammonium, anilinium,
-//! azinium) count as removed. C–H sites do not (a carbanion is a reactive
-//! intermediate, not a resting state), nor do neutral N–H sites (amides,
-//! lactams, sulfonamides, azoles): the rows for the α-C–H of those groups
+//! Only O–H, S–H and Se–H sites and cationic N–H and P–H sites (ammonium,
+//! anilinium, azinium, phosphonium) count as removed. C–H sites do not (a
+//! carbanion is a reactive intermediate, not a resting state), nor do
+//! neutral N–H sites (amides, lactams, sulfonamides, azoles): the rows for the α-C–H of those groups
 //! already describe the step after the N–H (their notes say so), and the
 //! anion of an amide would no longer match them. Sites within [`MARGIN`] of
 //! each other ionise together and keep their estimates in the neutral
@@ -54,7 +54,11 @@ pub(super) fn after_removal(
         .iter()
         .filter(|r| {
             let a = &mol.atoms[r.atom];
-            !r.site.background && (matches!(a.element, 8 | 16) || (a.element == 7 && a.charge > 0))
+            // chalcogen X–H (O, S, Se) and cationic X–H (ammonium,
+            // azinium, phosphonium): never a C–H or a neutral N–H / P–H
+            !r.site.background
+                && a.element != 6
+                && (matches!(a.element, 8 | 16 | 34) || a.charge > 0)
         })
         .map(|r| (rank_key(&r.site, opts.scale), r.atom))
         .filter(|(k, _)| k.is_finite())
