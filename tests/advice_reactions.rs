@@ -484,6 +484,8 @@ fn scan_given_hazardous_substrate_warns_of_the_hazard() {
         ("c1ccc(Pc2ccccc2)cc1", "SR-PHOSPHINE-PH"),
         ("CC(=O)CC(C)(C)OO", "SR-PEROXIDE"),
         ("CC([N+](=O)[O-])[N+](=O)[O-]", "SR-POLYNITRO"),
+        ("N=[N+]=[N-]", "SR-HN3"),
+        ("CC(=O)CCN=[N+]=[N-]", "SR-AZIDE"),
     ] {
         let (_, v, _) = scan_json(&[smiles]);
         let w = v["advice"]["warnings"].to_string();
@@ -497,6 +499,8 @@ fn scan_given_hazardous_substrate_warns_of_the_hazard() {
         "SR-PHOSPHINE-PH",
         "SR-PEROXIDE",
         "SR-POLYNITRO",
+        "SR-HN3",
+        "SR-AZIDE",
     ] {
         assert!(!w.contains(id), "{w}");
     }

@@ -272,6 +272,7 @@ ENTRIES = [
     ("c1ccc([PH2:1])cc1", "phenylphosphine", "phosphine P-H (arylphosphine)", 24.5, FM, "", "", "T", "parent of P-PHOS-01; recalled, no source consulted"),
     ("[PH3:1]", "phosphine", "phosphine P-H (alkylphosphine, PH3)", "", "", "", "", "T", "no measured value known; checks the site of P-PHOS-03 is found"),
     ("c1ccc([PH+:1](c2ccccc2)c2ccccc2)cc1", "triphenylphosphonium", "phosphonium P-H (protonated triarylphosphine)", "", "", 2.7, FM, "T", "parent of P-PHOSH-02; recalled, no source consulted"),
+    ("[NH:1]=[N+]=[N-]", "hydrazoic acid", "hydrazoic acid", 7.9, FM, 4.7, FM, "T", "parent of N-HN3-01; recalled, no source consulted"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 

@@ -112,6 +112,7 @@ PARENTS = {
     "S-THIPH-01": [("[SH:1]c1ccccc1", "benzenethiol", "acid", "")],
     "S-THIOB-01": [("[SH:1]Cc1ccccc1", "phenylmethanethiol", "acid", "")],
     "S-THIOL-01": [("CC[SH:1]", "ethanethiol", "acid", "")],
+    "N-HN3-01": [("[NH:1]=[N+]=[N-]", "hydrazoic acid", "none", "inorganic: not in the IUPAC organic acid set")],
     "S-HYDSU-01": [("[SH2:1]", "hydrogen sulfide", "none", "inorganic: not in the IUPAC organic acid set")],
     "P-PHOSH-02": [("[PH+:1](c1ccccc1)(c1ccccc1)c1ccccc1", "triphenylphosphonium", "base:c1ccc(P(c2ccccc2)c2ccccc2)cc1", "")],
     "P-PHOSH-01": [("C[PH+:1](C)C", "trimethylphosphonium", "base:CP(C)C", "")],
