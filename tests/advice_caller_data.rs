@@ -5,8 +5,9 @@
 
 use acidsite::advice::practice::{Practice, Texts, EMBEDDED};
 use acidsite::advice::{
-    advise, advise_using, catalogue, equilibrium_for, equilibrium_for_using, Advice, AdviceData,
-    AdviceOptions, Catalogue, EquilibriumError, EquilibriumOptions, RejectKind,
+    advise, advise_using, advise_with_features, advise_with_features_using, catalogue,
+    detect_features, equilibrium_for, equilibrium_for_using, Advice, AdviceData, AdviceOptions,
+    Catalogue, EquilibriumError, EquilibriumOptions, RejectKind,
 };
 use acidsite::analyze::{analyze, Options};
 use acidsite::mol::Molecule;
@@ -208,6 +209,28 @@ fn advise_using_given_lda_removed_recommends_another_hindered_amide_issue_14() {
         advise_using(&mol, &sites, &ask, mine.data()),
         Err(acidsite::advice::AdviceError::UnknownBase(_))
     ));
+}
+
+#[test]
+fn advise_with_features_using_given_lda_removed_names_no_base_outside_the_caller_data() {
+    // The features-only entry point follows the caller's data as
+    // advise_using does: without LDA, acetone's preformed enolate is made
+    // with another base of the caller's catalogue.
+    let (bases, [practice, systems, side]) = without_base("LDA");
+    let mine = Loaded::parse(&bases, &practice, &systems, &side);
+    let opts = AdviceOptions::default();
+    let (mol, sites) = sites_of("CC(=O)C");
+    let f = detect_features(&mol, &sites);
+    let usual = advise_with_features(&f, &sites, &opts).expect("advice");
+    assert_eq!(usual.base.as_deref(), Some("LDA"));
+    let a = advise_with_features_using(&f, &sites, &opts, mine.data()).expect("advice");
+    let chosen = a.base.as_deref().expect("a base");
+    assert!(mine.cat.get(chosen).is_some(), "{chosen}");
+    assert!(named(&a).iter().all(|n| n != "LDA"));
+    // An unaltered copy gives the embedded advice.
+    let copy = Loaded::with_bases(BASES);
+    let same = advise_with_features_using(&f, &sites, &opts, copy.data()).expect("advice");
+    assert_eq!(usual, same);
 }
 
 /// The catalogue text with LDA's conjugate acid (diisopropylamine,

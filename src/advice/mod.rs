@@ -83,7 +83,8 @@ pub use features::{
     detect_features, detect_features_in, patterns_all_parse, MoleculeFeatures, SiteFeatures,
 };
 pub use recommend::{
-    advise, advise_in, advise_in_using, advise_using, advise_with_features, commonness_penalty,
-    Advice, AdviceError, AdviceOptions, Alternative, CountedProton, Purpose, RegioAdvice,
-    RegioConditions, RejectKind, Rejection, Target, Temperature, Warning, WarningKind,
+    advise, advise_in, advise_in_using, advise_using, advise_with_features,
+    advise_with_features_using, commonness_penalty, Advice, AdviceError, AdviceOptions,
+    Alternative, CountedProton, Purpose, RegioAdvice, RegioConditions, RejectKind, Rejection,
+    Target, Temperature, Warning, WarningKind,
 };

@@ -330,6 +330,17 @@ pub fn advise_with_features(
     advise_core(f, sites, opts, None, embedded_data()?)
 }
 
+/// [`advise_with_features`] from the caller's catalogue and practice data,
+/// as [`advise_using`].
+pub fn advise_with_features_using<'d>(
+    f: &MoleculeFeatures,
+    sites: &SiteReport,
+    opts: &AdviceOptions,
+    data: AdviceData<'d>,
+) -> Result<Advice<'d>, AdviceError> {
+    advise_core(f, sites, opts, None, data)
+}
+
 /// The enolate side a control asks for.
 pub(super) fn side_of(c: Option<Control>) -> Option<Regio> {
     match c {
