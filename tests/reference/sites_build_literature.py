@@ -273,6 +273,13 @@ ENTRIES = [
     ("[PH3:1]", "phosphine", "phosphine P-H (alkylphosphine, PH3)", "", "", "", "", "T", "no measured value known; checks the site of P-PHOS-03 is found"),
     ("c1ccc([PH+:1](c2ccccc2)c2ccccc2)cc1", "triphenylphosphonium", "phosphonium P-H (protonated triarylphosphine)", "", "", 2.7, FM, "T", "parent of P-PHOSH-02; recalled, no source consulted"),
     ("[NH:1]=[N+]=[N-]", "hydrazoic acid", "hydrazoic acid", 7.9, FM, 4.7, FM, "T", "parent of N-HN3-01; recalled, no source consulted"),
+    ("O=C1CSC(=S)[NH:1]1", "rhodanine (N-H)", "thioimide (rhodanine type)", "", "", "auto", "", "T", "parent of N-THIMD-01 (issue 11)"),
+    ("O=C1CSC(=O)[NH:1]1", "thiazolidine-2,4-dione (N-H)", "imide (thiazolidine-2,4-dione type)", "", "", "auto", "", "T", "parent of N-IMIDS-01 (issue 11)"),
+    ("CC([NH2:1])=S", "thioacetamide (N-H)", "thioamide N-H", 18.4, FM, "auto", "", "T", "parent of N-THAMD-01 (issue 11); DMSO recalled"),
+    ("[NH2:1]C(N)=S", "thiourea", "thiourea N-H", 21.1, FM, "", "", "T", "parent of N-THURE-01 (issue 11); recalled, no source consulted"),
+    ("S=C([NH:1]c1ccccc1)Nc1ccccc1", "N,N'-diphenylthiourea", "thiourea N-H (N-aryl)", 13.4, FM, "", "", "T", "parent of N-THURE-02 (issue 11); recalled, no source consulted"),
+    ("CC(=S)[NH:1]c1ccccc1", "thioacetanilide", "thioamide N-H (N-aryl, thioanilide)", "", "", "", "", "T", "no measured value known; checks the site of N-THAMD-02 is found"),
+    ("[CH3:1]C(=S)N(C)C", "N,N-dimethylthioacetamide (alpha C-H)", "thioamide alpha-CH", "", "", "", "", "T", "no measured value known; checks the site of C-THAMD-01 is found"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 
