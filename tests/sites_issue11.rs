@@ -408,3 +408,19 @@ fn find_sites_given_thioamides_and_thioureas_reads_the_n_h_as_acidic_issue11() {
     // The N-H of a thioamide is far more acidic than that of the amide.
     assert!(dmso("CC(N)=S", 2) + 5.0 < dmso("CC(N)=O", 2));
 }
+
+#[test]
+fn find_sites_given_barbiturates_and_uracils_uses_their_own_n_h_rows_issue11() {
+    // IUPAC water rows: barbital 7.96 (serjeant4363), phenobarbital 7.43
+    // (serjeant5632), uracil 9.43 (serjeant2347), thymine 9.9
+    // (serjeant2633). The imide and pyridone rows gave 9.6 and 11.0.
+    assert_water(&[
+        ("CCC1(CC)C(=O)NC(=O)NC1=O", 7, 7.96, 0.3),
+        ("CCC1(c2ccccc2)C(=O)NC(=O)NC1=O", 11, 7.43, 0.6),
+        ("O=c1cc[nH]c(=O)[nH]1", 7, 9.43, 0.3),
+        ("Cc1c[nH]c(=O)[nH]c1=O", 6, 9.9, 0.6),
+    ]);
+    // Barbituric acid itself ionises at C5 (C-BARB-01), not at N-H.
+    let r = report("O=C1CC(=O)NC(=O)N1");
+    assert_eq!(r.sites[0].atoms, vec![2]);
+}

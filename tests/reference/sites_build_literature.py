@@ -280,6 +280,10 @@ ENTRIES = [
     ("S=C([NH:1]c1ccccc1)Nc1ccccc1", "N,N'-diphenylthiourea", "thiourea N-H (N-aryl)", 13.4, FM, "", "", "T", "parent of N-THURE-02 (issue 11); recalled, no source consulted"),
     ("CC(=S)[NH:1]c1ccccc1", "thioacetanilide", "thioamide N-H (N-aryl, thioanilide)", "", "", "", "", "T", "no measured value known; checks the site of N-THAMD-02 is found"),
     ("[CH3:1]C(=S)N(C)C", "N,N-dimethylthioacetamide (alpha C-H)", "thioamide alpha-CH", "", "", "", "", "T", "no measured value known; checks the site of C-THAMD-01 is found"),
+    ("CCC1(CC)C(=O)[NH:1]C(=O)NC1=O", "barbital (N-H)", "barbiturate N-H (5,5-disubstituted)", "", "", "auto", "", "T", "parent of N-BARB-02 (issue 11)"),
+    ("CCC1(c2ccccc2)C(=O)[NH:1]C(=O)NC1=O", "phenobarbital (N-H)", "barbiturate N-H (5,5-disubstituted)", "", "", "auto", "", "T", "named in the note of N-BARB-02 (issue 11)"),
+    ("O=c1cc[nH]c(=O)[nH:1]1", "uracil (N3-H)", "aromatic imide N-H (uracil N3, quinazolinedione)", "", "", "auto", "", "T", "parent of N-URAC-01 (issue 11)"),
+    ("Cc1c[nH]c(=O)[nH:1]c1=O", "thymine (N3-H)", "aromatic imide N-H (uracil N3, quinazolinedione)", "", "", "auto", "", "T", "named in the note of N-URAC-01 (issue 11)"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 

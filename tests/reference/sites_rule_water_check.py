@@ -116,6 +116,8 @@ PARENTS = {
     "N-THIMD-01": [("O=C1CSC(=S)[NH:1]1", "rhodanine", "acid", "")],
     "N-IMIDS-01": [("O=C1CSC(=O)[NH:1]1", "thiazolidine-2,4-dione", "acid", "")],
     "N-THAMD-01": [("CC([NH2:1])=S", "thioacetamide", "acid", "")],
+    "N-BARB-02": [("CCC1(CC)C(=O)[NH:1]C(=O)NC1=O", "barbital", "acid", "")],
+    "N-URAC-01": [("O=c1cc[nH]c(=O)[nH:1]1", "uracil", "acid", "")],
     "S-HYDSU-01": [("[SH2:1]", "hydrogen sulfide", "none", "inorganic: not in the IUPAC organic acid set")],
     "P-PHOSH-02": [("[PH+:1](c1ccccc1)(c1ccccc1)c1ccccc1", "triphenylphosphonium", "base:c1ccc(P(c2ccccc2)c2ccccc2)cc1", "")],
     "P-PHOSH-01": [("C[PH+:1](C)C", "trimethylphosphonium", "base:CP(C)C", "")],
