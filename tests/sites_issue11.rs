@@ -424,3 +424,22 @@ fn find_sites_given_barbiturates_and_uracils_uses_their_own_n_h_rows_issue11() {
     let r = report("O=C1CC(=O)NC(=O)N1");
     assert_eq!(r.sites[0].atoms, vec![2]);
 }
+
+#[test]
+fn find_sites_given_propiolic_pyruvic_and_amino_acids_uses_their_own_rows_issue11() {
+    // IUPAC water rows at 25 C: propiolic acid 1.86 (serjeant2130),
+    // 2-butynoic acid 2.6 (serjeant2303), pyruvic acid 2.25 (serjeant2136),
+    // alanine 2.35 (serjeant2233), glycine 2.46 (serjeant2086). All were
+    // read as acetic acid (4.76).
+    assert_water(&[
+        ("C#CC(=O)O", 4, 1.86, 0.5),
+        ("CC#CC(=O)O", 5, 2.6, 0.5),
+        ("CC(=O)C(=O)O", 5, 2.25, 0.3),
+        ("CC(N)C(=O)O", 5, 2.35, 0.3),
+        ("NCC(=O)O", 4, 2.46, 0.3),
+    ]);
+    // An N-acyl or N-carbamoyl amino acid is not a zwitterion.
+    assert!(!site("CC(NC(=O)OC(C)(C)C)C(=O)O", 12)
+        .class
+        .contains("amino acid"));
+}

@@ -284,6 +284,11 @@ ENTRIES = [
     ("CCC1(c2ccccc2)C(=O)[NH:1]C(=O)NC1=O", "phenobarbital (N-H)", "barbiturate N-H (5,5-disubstituted)", "", "", "auto", "", "T", "named in the note of N-BARB-02 (issue 11)"),
     ("O=c1cc[nH]c(=O)[nH:1]1", "uracil (N3-H)", "aromatic imide N-H (uracil N3, quinazolinedione)", "", "", "auto", "", "T", "parent of N-URAC-01 (issue 11)"),
     ("Cc1c[nH]c(=O)[nH:1]c1=O", "thymine (N3-H)", "aromatic imide N-H (uracil N3, quinazolinedione)", "", "", "auto", "", "T", "named in the note of N-URAC-01 (issue 11)"),
+    ("C#CC(=O)[OH:1]", "propiolic acid", "carboxylic acid (alkynyl, propiolic)", "", "", "auto", "", "T", "parent of O-ACIDY-01 (issue 11)"),
+    ("CC#CC(=O)[OH:1]", "2-butynoic acid", "carboxylic acid (alkynyl, propiolic)", "", "", "auto", "", "T", "named in the note of O-ACIDY-01 (issue 11)"),
+    ("CC(=O)C(=O)[OH:1]", "pyruvic acid", "carboxylic acid (alpha-oxo: pyruvic, glyoxylic, oxalic)", "", "", "auto", "", "T", "parent of O-ACIDK-01 (issue 11)"),
+    ("CC(N)C(=O)[OH:1]", "alanine (CO2H)", "carboxylic acid (alpha-amino acid, as the zwitterion)", "", "", "auto", "", "T", "parent of O-ACIDN-01 (issue 11)"),
+    ("NCC(=O)[OH:1]", "glycine (CO2H)", "carboxylic acid (alpha-amino acid, as the zwitterion)", "", "", "auto", "", "T", "named in the note of O-ACIDN-01 (issue 11)"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 
