@@ -443,3 +443,20 @@ fn find_sites_given_propiolic_pyruvic_and_amino_acids_uses_their_own_rows_issue1
         .class
         .contains("amino acid"));
 }
+
+#[test]
+fn find_sites_given_malonic_acid_and_thioglycolates_uses_their_own_rows_issue11() {
+    // IUPAC water rows at 25 C: malonic acid 2.85 (serjeant2137),
+    // 2,2-diethylmalonic acid 2.15 (serjeant3479), ethyl thioglycolate 7.95
+    // (serjeant2433), mercaptoacetone 7.86 (serjeant2210). They were read as
+    // acetic acid (4.76) and an alkanethiol (10.6).
+    assert_water(&[
+        ("OC(=O)CC(=O)O", 0, 2.85, 0.3),
+        ("CCC(CC)(C(=O)O)C(=O)O", 10, 2.15, 0.8),
+        ("CCOC(=O)CS", 6, 7.95, 0.3),
+        ("CC(=O)CS", 4, 7.86, 0.3),
+    ]);
+    // The thiol of thioglycolic acid sits beside a carboxylate once the
+    // COOH is gone: the alpha-C=O row does not apply (from memory, about 10).
+    assert!(site("OC(=O)CS", 4).pka_water.is_some_and(|w| w > 9.5));
+}

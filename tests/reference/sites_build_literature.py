@@ -289,6 +289,10 @@ ENTRIES = [
     ("CC(=O)C(=O)[OH:1]", "pyruvic acid", "carboxylic acid (alpha-oxo: pyruvic, glyoxylic, oxalic)", "", "", "auto", "", "T", "parent of O-ACIDK-01 (issue 11)"),
     ("CC(N)C(=O)[OH:1]", "alanine (CO2H)", "carboxylic acid (alpha-amino acid, as the zwitterion)", "", "", "auto", "", "T", "parent of O-ACIDN-01 (issue 11)"),
     ("NCC(=O)[OH:1]", "glycine (CO2H)", "carboxylic acid (alpha-amino acid, as the zwitterion)", "", "", "auto", "", "T", "named in the note of O-ACIDN-01 (issue 11)"),
+    ("OC(=O)CC(=O)[OH:1]", "malonic acid (first CO2H)", "carboxylic acid (malonic, first ionisation)", "", "", "auto", "", "T", "parent of O-ACIDM-01 (issue 11)"),
+    ("CCC(CC)(C(=O)O)C(=O)[OH:1]", "2,2-diethylmalonic acid", "carboxylic acid (malonic, first ionisation)", "", "", "auto", "", "T", "named in the note of O-ACIDM-01 (issue 11)"),
+    ("CCOC(=O)C[SH:1]", "ethyl thioglycolate", "thiol (alpha to C=O: thioglycolate, mercaptoacetone)", "", "", "auto", "", "T", "parent of S-THIOC-01 (issue 11)"),
+    ("CC(=O)C[SH:1]", "mercaptoacetone", "thiol (alpha to C=O: thioglycolate, mercaptoacetone)", "", "", "auto", "", "T", "named in the note of S-THIOC-01 (issue 11)"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 

@@ -121,6 +121,8 @@ PARENTS = {
     "O-ACIDY-01": [("C#CC(=O)[OH:1]", "propiolic acid", "acid", ""), ("CC#CC(=O)[OH:1]", "2-butynoic acid", "acid", "")],
     "O-ACIDK-01": [("CC(=O)C(=O)[OH:1]", "pyruvic acid", "acid", "")],
     "O-ACIDN-01": [("CC(N)C(=O)[OH:1]", "alanine", "acid", "")],
+    "O-ACIDM-01": [("OC(=O)CC(=O)[OH:1]", "malonic acid", "acid", "")],
+    "S-THIOC-01": [("CCOC(=O)C[SH:1]", "ethyl thioglycolate", "acid", "")],
     "S-HYDSU-01": [("[SH2:1]", "hydrogen sulfide", "none", "inorganic: not in the IUPAC organic acid set")],
     "P-PHOSH-02": [("[PH+:1](c1ccccc1)(c1ccccc1)c1ccccc1", "triphenylphosphonium", "base:c1ccc(P(c2ccccc2)c2ccccc2)cc1", "")],
     "P-PHOSH-01": [("C[PH+:1](C)C", "trimethylphosphonium", "base:CP(C)C", "")],
