@@ -27,3 +27,5 @@ mod sites_rule_water;
 mod sites_rules;
 #[path = "sites_snapshots.rs"]
 mod sites_snapshots;
+#[path = "sites_water_screen.rs"]
+mod sites_water_screen;

@@ -293,6 +293,7 @@ ENTRIES = [
     ("CCC(CC)(C(=O)O)C(=O)[OH:1]", "2,2-diethylmalonic acid", "carboxylic acid (malonic, first ionisation)", "", "", "auto", "", "T", "named in the note of O-ACIDM-01 (issue 11)"),
     ("CCOC(=O)C[SH:1]", "ethyl thioglycolate", "thiol (alpha to C=O: thioglycolate, mercaptoacetone)", "", "", "auto", "", "T", "parent of S-THIOC-01 (issue 11)"),
     ("CC(=O)C[SH:1]", "mercaptoacetone", "thiol (alpha to C=O: thioglycolate, mercaptoacetone)", "", "", "auto", "", "T", "named in the note of S-THIOC-01 (issue 11)"),
+    ("O=C1CCc2cccc([OH:1])c21", "7-hydroxy-1-indanone", "phenol (hydrogen-bonded to an ortho ring ketone C=O)", "", "", "auto", "", "T", "named in the note of O-PHEHB-04 (issue 11): the five-ring ketone's weaker hydrogen bond is not modelled"),
     ("C[PH+:1](C)C", "trimethylphosphonium", "phosphonium P-H (protonated alkylphosphine)", "", "", "base:CP(C)C", "", "T", "parent of P-PHOSH-01"),
 ]
 
