@@ -22,12 +22,13 @@ use crate::tsv;
 const PATH: &str = "corpus/sites/dmso_measured.tsv";
 const LITERATURE: &str = "corpus/sites/literature.tsv";
 
-/// Regression guard on the MAE over all rows (pKa units). First measured
-/// 0.15 (n = 21, 2026-12-04, rule set of commit cdd99d2; printed by
-/// `dmso_estimates_given_values_read_in_literature_print_the_table`); the
-/// limit sits just above it. A guard against drift, not a target: most rows
-/// are parents whose values the rules were set from (see corpus/sites/README.md).
-const MAE_LIMIT: f64 = 0.2;
+/// Regression guard on the MAE over all rows (pKa units). Measured 0.31
+/// (n = 23, 2026-12-04, rules of commit cdd99d2; printed by
+/// `dmso_estimates_given_values_read_in_literature_print_the_table`) when the
+/// table was complete; the limit sits just above it. A guard against drift,
+/// not a target: 20 of the 23 rows are molecules of literature.tsv, mostly
+/// parents whose values the rules were set from.
+const MAE_LIMIT: f64 = 0.35;
 
 struct Row {
     id: String,
