@@ -22,15 +22,15 @@ use crate::tsv;
 const PATH: &str = "corpus/sites/dmso_measured.tsv";
 const LITERATURE: &str = "corpus/sites/literature.tsv";
 
-/// Regression guard on the MAE over all rows (pKa units). Measured 1.13
-/// (n = 25, 2026-12-04, rules of commit cdd99d2; printed by
+/// Regression guard on the MAE over all rows (pKa units). Measured 0.95
+/// (n = 36, 2026-12-04, rules of commit cdd99d2; printed by
 /// `dmso_estimates_given_values_read_in_literature_print_the_table`) when the
 /// table was complete; the limit sits just above it. A guard against drift,
 /// not a target. One row dominates: dm-025, a heptaol whose tertiary O-H is
 /// acidified by intramolecular hydrogen bonds the rules do not model (error
-/// about +21; the other 24 rows give 0.31). 21 of the 25 rows are molecules of
+/// about +21; the other 35 rows give 0.38). 30 of the 36 rows are molecules of
 /// literature.tsv, mostly parents whose values the rules were set from.
-const MAE_LIMIT: f64 = 1.2;
+const MAE_LIMIT: f64 = 1.0;
 
 struct Row {
     id: String,
