@@ -131,8 +131,8 @@ fn table(cmp: &[Compared]) -> String {
     let _ = writeln!(t, "\n== DMSO values read in literature ({PATH})");
     let _ = writeln!(
         t,
-        "{:<7} {:<48} {:>4} {:>7} {:>7} {:>6}  {:<22} {}",
-        "id", "name", "atom", "est", "value", "err", "source", "literature"
+        "{:<7} {:<48} {:>4} {:>7} {:>7} {:>6}  {:<22} literature",
+        "id", "name", "atom", "est", "value", "err", "source"
     );
     for c in cmp {
         let r = c.row;
@@ -156,19 +156,15 @@ fn table(cmp: &[Compared]) -> String {
             }
         );
     }
-    let groups: [(&str, Box<dyn Fn(&Row) -> bool>); 3] = [
-        ("all rows", Box::new(|_| true)),
-        (
-            "new molecules (no literature_id)",
-            Box::new(|r| r.literature_id.is_empty()),
-        ),
+    let new_molecule = |r: &Row| r.literature_id.is_empty();
+    for (label, (n, m)) in [
+        ("all rows", mae(cmp, |_| true)),
+        ("new molecules (no literature_id)", mae(cmp, new_molecule)),
         (
             "molecules of literature.tsv",
-            Box::new(|r| !r.literature_id.is_empty()),
+            mae(cmp, |r| !new_molecule(r)),
         ),
-    ];
-    for (label, keep) in groups {
-        let (n, m) = mae(cmp, keep);
+    ] {
         let _ = writeln!(t, "-- MAE {label}: n={n} {m:.2}");
     }
     t
