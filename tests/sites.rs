@@ -11,6 +11,8 @@ mod sites_bench;
 mod sites_corpus;
 #[path = "sites_coverage.rs"]
 mod sites_coverage;
+#[path = "sites_dmso_measured.rs"]
+mod sites_dmso_measured;
 #[path = "sites_issue11.rs"]
 mod sites_issue11;
 #[path = "sites_mechanisms.rs"]
