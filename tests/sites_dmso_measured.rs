@@ -25,12 +25,14 @@ const LITERATURE: &str = "corpus/sites/literature.tsv";
 /// Regression guard on the MAE over all rows (pKa units). Measured 0.95
 /// (n = 36, 2026-12-04, rules of commit cdd99d2; printed by
 /// `dmso_estimates_given_values_read_in_literature_print_the_table`) when the
-/// table was complete; the limit sits just above it. A guard against drift,
-/// not a target. One row dominates: dm-025, a heptaol whose tertiary O-H is
-/// acidified by intramolecular hydrogen bonds the rules do not model (error
-/// about +21; the other 35 rows give 0.38). 30 of the 36 rows are molecules of
-/// literature.tsv, mostly parents whose values the rules were set from.
-const MAE_LIMIT: f64 = 1.0;
+/// table was complete; 1.16 (n = 28) after the eight rows read in a textbook
+/// table were removed (the project cites no teaching material); the limit
+/// sits just above it. A guard against drift, not a target. One row
+/// dominates: dm-025, a heptaol whose tertiary O-H is acidified by
+/// intramolecular hydrogen bonds the rules do not model (error about +21).
+/// 22 of the 28 rows are molecules of literature.tsv, mostly parents whose
+/// values the rules were set from.
+const MAE_LIMIT: f64 = 1.2;
 
 struct Row {
     id: String,

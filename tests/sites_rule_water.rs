@@ -162,7 +162,8 @@ fn rule_water_table_given_rule_set_covers_every_water_value_issue11() {
 /// Rule and increment ids that contribute, on a scale where they have a
 /// value, to an estimate compared with a measured value: literature.tsv rows
 /// with a cited value (not from-memory or common practice), every row of
-/// water_carbon_acids.tsv (IUPAC) and the IUPAC parents above.
+/// water_carbon_acids.tsv (IUPAC), the IUPAC parents above and every DMSO
+/// value read in a stored text (dmso_measured.tsv).
 fn measured_ids() -> BTreeSet<String> {
     let mut out = BTreeSet::new();
     let mut add = |smiles: &str, atom: usize, dmso: bool, water: bool| {
@@ -196,6 +197,10 @@ fn measured_ids() -> BTreeSet<String> {
     for r in read("corpus/sites/water_carbon_acids.tsv") {
         let atom = cell(&r, "site_atom").parse().expect("site_atom");
         add(cell(&r, "smiles"), atom, false, true);
+    }
+    for r in read("corpus/sites/dmso_measured.tsv") {
+        let atom = cell(&r, "site_atom").parse().expect("site_atom");
+        add(cell(&r, "smiles"), atom, true, false);
     }
     for r in read("corpus/sites/rule_water_iupac.tsv") {
         if cell(&r, "pka_water_iupac").is_empty() {

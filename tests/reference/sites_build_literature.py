@@ -16,23 +16,24 @@ sys.path.insert(0, os.path.dirname(os.path.abspath(__file__)))
 import sites_lookup as L  # noqa: E402
 
 FM = "from-memory"
-CS = "carey-sundberg2007"
 MA = "matthews1975"
+B86 = "bordwell1986"
+SH12 = "shokri2012"
 CP = "common-practice"
 
 # (mapped smiles, name, class, pka_dmso, dmso_source, water, water_source, split T/H, note)
 # Never reorder or delete: ids are positional. Append new rows at the end.
 ENTRIES = [
     # --- ketones -------------------------------------------------------------
-    ("[CH3:1]C(C)=O", "acetone", "ketone", 26.5, CS, "auto", "", "T", ""),
-    ("[CH3:1]C(=O)c1ccccc1", "acetophenone", "ketone", 24.7, CS, "auto", "", "T", "aryl ketone"),
+    ("[CH3:1]C(C)=O", "acetone", "ketone", 26.5, FM, "auto", "", "T", ""),
+    ("[CH3:1]C(=O)c1ccccc1", "acetophenone", "ketone", 24.7, FM, "auto", "", "T", "aryl ketone"),
     ("C[CH2:1]C(=O)c1ccccc1", "propiophenone", "ketone", 24.4, FM, "", "", "H", "alpha-methyl"),
     ("C[CH:1](C)C(=O)c1ccccc1", "isobutyrophenone", "ketone", 26.3, FM, "", "", "T", "alpha,alpha-dimethyl"),
     ("O=C(c1ccccc1)[CH2:1]c1ccccc1", "deoxybenzoin", "ketone", 17.7, FM, "", "", "T", "alpha-phenyl"),
-    ("CC(=O)[CH2:1]c1ccccc1", "phenylacetone (benzylic CH2)", "ketone", 19.9, CS, "", "", "T", "alpha-phenyl; the CH3 side is less acidic"),
-    ("O=C([CH2:1]c1ccccc1)Cc1ccccc1", "1,3-diphenylacetone", "ketone", 18.7, CS, "", "", "H", "alpha-phenyl on both sides"),
-    ("O=C1[CH2:1]CCCC1", "cyclohexanone", "ketone", 26.4, FM, "", "", "T", "six-ring; same value as an unlabelled ring-ketone entry of the carey-sundberg2007 table"),
-    ("O=C1[CH2:1]CCC1", "cyclopentanone", "ketone", 25.8, FM, "", "", "H", "five-ring; same value as an unlabelled ring-ketone entry of the carey-sundberg2007 table"),
+    ("CC(=O)[CH2:1]c1ccccc1", "phenylacetone (benzylic CH2)", "ketone", 19.9, FM, "", "", "T", "alpha-phenyl; the CH3 side is less acidic"),
+    ("O=C([CH2:1]c1ccccc1)Cc1ccccc1", "1,3-diphenylacetone", "ketone", 18.7, FM, "", "", "H", "alpha-phenyl on both sides"),
+    ("O=C1[CH2:1]CCCC1", "cyclohexanone", "ketone", 26.4, FM, "", "", "T", "six-ring; recalled"),
+    ("O=C1[CH2:1]CCC1", "cyclopentanone", "ketone", 25.8, FM, "", "", "H", "five-ring; recalled"),
     ("CC(C)(C)C(=O)[CH3:1]", "pinacolone", "ketone", 27.7, FM, "", "", "T", "tert-butyl methyl ketone"),
     ("C[CH2:1]C(=O)CC", "3-pentanone", "ketone", 27.1, FM, "", "", "T", "alpha-methyl; DMSO value uncertain"),
     ("C[CH:1](C)C(=O)C(C)C", "2,4-dimethyl-3-pentanone", "ketone", 28.2, FM, "", "", "H", "alpha,alpha-dimethyl"),
@@ -54,9 +55,9 @@ ENTRIES = [
     ("C[CH:1](C)C=O", "isobutyraldehyde", "aldehyde", "", "", 15.5, FM, "H", "keto form, not the hydrate"),
     # --- esters, lactones, thioesters -----------------------------------------
     ("[CH3:1]C(=O)OCC", "ethyl acetate", "ester", "", "", 25.6, FM, "T", "water value from kinetics (Amyes and Richard); DMSO value not measured directly"),
-    ("CCOC(=O)[CH2:1]c1ccccc1", "ethyl phenylacetate", "ester", 22.6, CS, "", "", "T", "alpha-phenyl"),
-    ("CCOC(=O)[CH2:1]Sc1ccccc1", "ethyl (phenylthio)acetate", "ester", 21.4, CS, "", "", "H", "alpha-thio"),
-    ("O=C1OCC[CH2:1]1", "gamma-butyrolactone", "lactone", 25.2, FM, "", "", "T", "five-ring lactone; same value as an unlabelled lactone entry of the carey-sundberg2007 table"),
+    ("CCOC(=O)[CH2:1]c1ccccc1", "ethyl phenylacetate", "ester", 22.6, FM, "", "", "T", "alpha-phenyl"),
+    ("CCOC(=O)[CH2:1]Sc1ccccc1", "ethyl (phenylthio)acetate", "ester", 21.4, FM, "", "", "H", "alpha-thio"),
+    ("O=C1OCC[CH2:1]1", "gamma-butyrolactone", "lactone", 25.2, FM, "", "", "T", "five-ring lactone; recalled"),
     ("CCSC(=O)[CH3:1]", "S-ethyl thioacetate", "thioester", "", "", 21.0, FM, "T", "water value from kinetics"),
     # --- amides (C-H) ----------------------------------------------------------
     ("CN(C)C(=O)[CH3:1]", "N,N-dimethylacetamide", "amide_tertiary", 34.5, FM, "", "", "T", "DMSO value approximate (extrapolated)"),
@@ -108,11 +109,11 @@ ENTRIES = [
     ("CC1(C)CC(=O)[CH2:1]C(=O)C1", "dimedone", "dione_cyclic_13", 11.2, FM, "auto", "", "T", ""),
     ("O=C1CCCC(=O)[CH2:1]1", "1,3-cyclohexanedione", "dione_cyclic_13", "", "", "auto", "", "H", ""),
     ("CC1(C)OC(=O)[CH2:1]C(=O)O1", "Meldrum's acid", "meldrum", 7.3, FM, 4.83, FM, "T", ""),
-    ("CCOC(=O)[CH2:1]C(C)=O", "ethyl acetoacetate", "ketoester_beta", 14.2, CS, "auto", "", "T", ""),
+    ("CCOC(=O)[CH2:1]C(C)=O", "ethyl acetoacetate", "ketoester_beta", 14.2, FM, "auto", "", "T", ""),
     ("CCOC(=O)[CH2:1]C(=O)c1ccccc1", "ethyl benzoylacetate", "ketoester_beta", "", "", "auto", "", "T", ""),
     ("CCOC(=O)[CH2:1]C(=O)c1ccc([N+](=O)[O-])cc1", "ethyl 4-nitrobenzoylacetate", "ketoester_beta", "", "", "auto", "", "H", "Hammett series in water"),
     ("CCOC(=O)[CH2:1]C(=O)c1ccc(OC)cc1", "ethyl 4-methoxybenzoylacetate", "ketoester_beta", "", "", "auto", "", "T", "Hammett series in water"),
-    ("CCOC(=O)[CH2:1]C(=O)OCC", "diethyl malonate", "malonate", 16.4, CS, "auto", "", "T", "water value rated Uncertain"),
+    ("CCOC(=O)[CH2:1]C(=O)OCC", "diethyl malonate", "malonate", 16.4, FM, "auto", "", "T", "water value rated Uncertain"),
     ("COC(=O)[CH2:1]C(=O)OC", "dimethyl malonate", "malonate", 15.9, FM, "", "", "H", ""),
     ("CCOC(=O)[CH:1](C)C(=O)OCC", "diethyl methylmalonate", "malonate", 18.7, FM, "", "", "T", "alpha-methyl; DMSO value uncertain"),
     ("CCOC(=O)[CH2:1]C#N", "ethyl cyanoacetate", "cyanoacetate", 13.1, FM, "", "", "T", ""),
@@ -128,7 +129,7 @@ ENTRIES = [
     ("CC(=O)[CH2:1]S(C)(=O)=O", "(methylsulfonyl)acetone", "ketone", "", "", "auto", "", "T", "plus alpha-sulfonyl; water value rated Uncertain"),
     # --- hydrocarbons: fluorene, indene, cyclopentadiene, arylmethanes --------
     ("[CH2:1]1c2ccccc2-c2ccccc21", "fluorene", "fluorene", 22.6, MA, "", "", "T", ""),
-    ("c1ccc([CH:1]2c3ccccc3-c3ccccc32)cc1", "9-phenylfluorene", "fluorene", 17.9, FM, "", "", "T", "alpha-phenyl"),
+    ("c1ccc([CH:1]2c3ccccc3-c3ccccc32)cc1", "9-phenylfluorene", "fluorene", 17.9, B86, "", "", "T", "alpha-phenyl; DMSO value recalled, then read in the bordwell1986 abstract (corpus/sites/dmso_measured.tsv dm-008)"),
     ("C[CH:1]1c2ccccc2-c2ccccc21", "9-methylfluorene", "fluorene", 22.3, FM, "", "", "H", "alpha-methyl"),
     ("CO[CH:1]1c2ccccc2-c2ccccc21", "9-methoxyfluorene", "fluorene", 22.1, FM, "", "", "T", "alpha-alkoxy"),
     ("c1ccc(S[CH:1]2c3ccccc3-c3ccccc32)cc1", "9-(phenylthio)fluorene", "fluorene", 15.4, FM, "", "", "T", "alpha-thio"),
@@ -167,7 +168,7 @@ ENTRIES = [
     ("CCCC[SH:1]", "1-butanethiol", "thiol", 17.0, FM, "auto", "", "T", ""),
     ("CC[SH:1]", "ethanethiol", "thiol", "", "", "auto", "", "H", ""),
     # --- carboxylic acids --------------------------------------------------------
-    ("CC(=O)[OH:1]", "acetic acid", "carboxylic_acid_oh", 12.3, FM, "auto", "", "T", ""),
+    ("CC(=O)[OH:1]", "acetic acid", "carboxylic_acid_oh", 12.3, SH12, "auto", "", "T", "DMSO value recalled, then read in the shokri2012 abstract (samet2015 quotes 12.6; dmso_measured.tsv dm-024)"),
     ("O=C([OH:1])c1ccccc1", "benzoic acid", "carboxylic_acid_oh", 11.1, FM, "auto", "", "T", ""),
     ("O=C([OH:1])CCl", "chloroacetic acid", "carboxylic_acid_oh", 8.9, FM, "auto", "", "H", ""),
     ("O=C([OH:1])c1ccc([N+](=O)[O-])cc1", "4-nitrobenzoic acid", "carboxylic_acid_oh", "", "", "auto", "", "T", "Hammett reference series"),
@@ -231,7 +232,7 @@ ENTRIES = [
     ("[CH3:1]C(=O)Cc1ccccc1", "phenylacetone (CH3 side)", "ketone", "", "", "", "", "T", "less acidic than the benzylic CH2; no measured value"),
     ("C[CH2:1]C(=O)N1CCOC1=O", "3-propanoyl-1,3-oxazolidin-2-one", "imide alpha C-H (N-acyl amide, N-acyl oxazolidinone)", 27.5, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
     ("CON(C)C(=O)[CH2:1]C", "N-methoxy-N-methylpropanamide", "N-alkoxy amide (Weinreb amide)", 33.0, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
-    ("[CH2:1]1SCCCS1", "1,3-dithiane", "1,3-dithiane C2-H", 39.0, FM, "", "", "T", "added with the rule (issue 10); value recalled, no source consulted"),
+    ("[CH2:1]1SCCCS1", "1,3-dithiane", "1,3-dithiane C2-H", 39.0, B86, "", "", "T", "added with the rule (issue 10); value recalled, then read in the bordwell1986 abstract (39 +-2, extrapolated; dmso_measured.tsv dm-009)"),
     ("CCOC(=O)[CH2:1]N=C(c1ccccc1)c1ccccc1", "ethyl N-(diphenylmethylene)glycinate", "glycine ester benzophenone imine", 18.7, FM, "", "", "T", "added with the rule (issue 11); value recalled or estimated, no source consulted"),
     ("CN(C)N=C1[CH2:1]CCCC1", "cyclohexanone N,N-dimethylhydrazone", "hydrazone (N,N-dialkyl)", 35.0, FM, "", "", "T", "added with the rule (issue 11); value recalled or estimated, no source consulted"),
     ("CON=C([CH3:1])C", "acetone O-methyl oxime", "oxime or oxime ether alpha-C-H", 33.0, FM, "", "", "T", "added with the rule (issue 11); value recalled or estimated, no source consulted"),
@@ -300,8 +301,9 @@ ENTRIES = [
 # Where a cited source gives its DMSO value (the dmso_table column). A key not listed here must not be
 # used for a DMSO value: a value not looked up in a source is cited from-memory (recalled).
 DMSO_TABLE = {
-    CS: "Table 6.7, p. 593",
     MA: "abstract, p. 7006",
+    B86: "abstract",
+    SH12: "abstract",
 }
 
 # Split changes of issue 11 (applied on top of the T/H letters above; the reason goes into the note).
