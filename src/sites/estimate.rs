@@ -72,11 +72,12 @@ fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
     {
         return true;
     }
-    // A haloform C–H (CHCl3, CHBr3) is activated by its three halogens.
+    // A haloform C–H (CHF3, CHCl3, CHBr3) is activated by its three
+    // halogens (fluoroform since issue 11, second review).
     let halogens = mol
         .neighbors(i)
         .iter()
-        .filter(|nb| matches!(mol.atoms[nb.atom].element, 17 | 35))
+        .filter(|nb| matches!(mol.atoms[nb.atom].element, 9 | 17 | 35))
         .count();
     if halogens >= 3 {
         return true;
@@ -639,12 +640,10 @@ pub(super) fn classify_atom(
         return None;
     }
     // A C–H with no activating neighbour is tried against the background
-    // rows only (cheap; they come last in the file).
-    let only_background = match a.element {
-        6 => !carbon_candidate(mol, i),
-        7 | 8 | 16 => false,
-        _ => return None,
-    };
+    // rows only (cheap; they come last in the file). Any other element is
+    // tried against its own rows, if the rule data has any (N, O, S, P, Se:
+    // issue 11, the selenols had no site because Se was never tried).
+    let only_background = a.element == 6 && !carbon_candidate(mol, i);
     let candidates = if only_background {
         set.background_rules()
     } else {
