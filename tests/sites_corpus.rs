@@ -661,6 +661,8 @@ const EXERCISE: &[(&str, &str)] = &[
     ("CNC(N)=S", "N-THIUR-01"),
     ("NC(=S)c1ccc(C)cc1", "N-THIAR-01"),
     ("CCC(N)=S", "N-THIAM-01"),
+    ("O=C(Nc1ccc(C)cc1)C(F)(F)F", "N-AMIDF-02"),
+    ("CNC(=O)C(F)(F)F", "N-AMIDF-01"),
     ("C1SCSC1", "C-DITHL-01"),
     ("O=C1CCC(=O)N1O", "O-NHIMD-01"),
     ("On1nnc2ccccc21", "O-NHAZL-01"),
