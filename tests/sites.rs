@@ -21,6 +21,8 @@ mod sites_mechanisms;
 mod sites_nmp;
 #[path = "sites_process_review.rs"]
 mod sites_process_review;
+#[path = "sites_review_2.rs"]
+mod sites_review_2;
 #[path = "sites_robust.rs"]
 mod sites_robust;
 #[path = "sites_rule_water.rs"]

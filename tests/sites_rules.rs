@@ -185,3 +185,33 @@ fn sigma_table_lookup_given_each_table_substituent_finds_its_row() {
     let mol = acidsite::mol::Molecule::from_smiles("c1ccccc1C#CC#CC").expect("parses");
     assert!(sigma.lookup(&mol, 5, 6).is_none());
 }
+
+/// Issue 11 (second review): a recursive expression on the `:1` atom that
+/// holds a bracket atom of its own (`[CX3]`) made the reader take that inner
+/// bracket for the anchor's, read the anchor as aliphatic and never try the
+/// rule on the aromatic N–H it was written for.
+#[test]
+fn find_sites_using_given_recursive_anchor_with_inner_bracket_matches_issue11() {
+    use acidsite::mol::Molecule;
+    use acidsite::sites::{find_sites_using, sigma_table, Options};
+    // Value: the N-INDAC-01 row of fragments/rules.tsv (indole 21.0 less 2.5).
+    let rules = with_row(
+        "T-1\tN\t[nH1;$(n1:c:c(-[CX3]=O):c:c1):1]\tacyl indole N-H\tnone\t18.5\t\t2.0\t\t\t\tfrom-memory\tx",
+    );
+    let set = parse_rule_set(("r.tsv", &rules), ("i.tsv", INC_HEADER), ("s.tsv", SOURCES))
+        .expect("rule table parses");
+    let mol = Molecule::from_smiles("CC(=O)c1c[nH]c2ccccc12").expect("3-acetylindole");
+    let report = find_sites_using(
+        &mol,
+        &set,
+        sigma_table().expect("sigma"),
+        &Options::default(),
+    );
+    let site = report
+        .sites
+        .iter()
+        .find(|s| s.atoms.contains(&5))
+        .expect("the indole N-H (atom 5) is a site");
+    assert_eq!(site.class, "acyl indole N-H");
+    assert_eq!(site.pka_dmso, Some(18.5));
+}

@@ -72,11 +72,12 @@ fn carbon_candidate(mol: &Molecule, i: usize) -> bool {
     {
         return true;
     }
-    // A haloform C–H (CHCl3, CHBr3) is activated by its three halogens.
+    // A haloform C–H (CHF3, CHCl3, CHBr3) is activated by its three
+    // halogens (fluoroform since issue 11, second review).
     let halogens = mol
         .neighbors(i)
         .iter()
-        .filter(|nb| matches!(mol.atoms[nb.atom].element, 17 | 35))
+        .filter(|nb| matches!(mol.atoms[nb.atom].element, 9 | 17 | 35))
         .count();
     if halogens >= 3 {
         return true;

@@ -483,7 +483,23 @@ pub fn unbracketed_elements(smarts: &str) -> u128 {
 /// bracket starts otherwise (`[#6:1]`, `[$(…):1]`).
 fn anchor_aromaticity(smarts: &str) -> Option<bool> {
     let end = smarts.find(":1]")?;
-    let start = smarts[..end].rfind('[')?;
+    // The bracket that holds `:1`: walk back over nested brackets of a
+    // recursive expression (`[nH1;$(n1cc(-[CX3]=O)cc1):1]` starts at
+    // `[nH1`, not at `[CX3]`; issue 11, second review).
+    let mut depth = 0usize;
+    let mut start = None;
+    for (i, c) in smarts[..end].char_indices().rev() {
+        match c {
+            ']' => depth += 1,
+            '[' if depth == 0 => {
+                start = Some(i);
+                break;
+            }
+            '[' => depth -= 1,
+            _ => {}
+        }
+    }
+    let start = start?;
     let first = smarts[start + 1..end].chars().next()?;
     // Only trust a bracket without alternatives.
     if smarts[start + 1..end].contains(',') {
