@@ -11,8 +11,9 @@
 use std::collections::{BTreeMap, HashSet};
 
 use acidsite::mol::Molecule;
-use acidsite::sites::{find_sites, rule_set, Site};
+use acidsite::sites::{find_sites, rule_set};
 
+use crate::sites_helpers::site_for;
 use crate::tsv;
 
 struct Row {
@@ -67,19 +68,6 @@ fn provenance(source: &str) -> &'static str {
         "from-memory" | "common-practice" => "recalled",
         _ => "cited",
     }
-}
-
-/// The site containing `atom`, or a site whose atom is symmetry-equivalent.
-fn site_for(mol: &Molecule, sites: &[Site], atom: usize) -> Option<Site> {
-    if let Some(s) = sites.iter().find(|s| s.atoms.contains(&atom)) {
-        return Some(s.clone());
-    }
-    let classes = mol.symmetry_classes();
-    let c = classes.get(atom)?;
-    sites
-        .iter()
-        .find(|s| s.atoms.iter().any(|&a| classes.get(a) == Some(c)))
-        .cloned()
 }
 
 #[derive(Default)]

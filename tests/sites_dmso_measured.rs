@@ -15,8 +15,9 @@
 use std::collections::BTreeMap;
 
 use acidsite::mol::Molecule;
-use acidsite::sites::{find_sites, rule_set, Site};
+use acidsite::sites::{find_sites, rule_set};
 
+use crate::sites_helpers::site_for;
 use crate::tsv;
 
 const PATH: &str = "corpus/sites/dmso_measured.tsv";
@@ -71,20 +72,6 @@ fn rows() -> Vec<Row> {
             }
         })
         .collect()
-}
-
-/// The site holding `atom`, or one holding a symmetry-equivalent atom (the
-/// report lists equivalent hydrogens once).
-fn site_for(mol: &Molecule, sites: &[Site], atom: usize) -> Option<Site> {
-    if let Some(s) = sites.iter().find(|s| s.atoms.contains(&atom)) {
-        return Some(s.clone());
-    }
-    let classes = mol.symmetry_classes();
-    let c = classes.get(atom)?;
-    sites
-        .iter()
-        .find(|s| s.atoms.iter().any(|&a| classes.get(a) == Some(c)))
-        .cloned()
 }
 
 /// One row compared: the estimate (None when the site is missed or has no

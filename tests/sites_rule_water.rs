@@ -15,6 +15,7 @@ use std::collections::{BTreeSet, HashSet};
 use acidsite::mol::Molecule;
 use acidsite::sites::{find_sites, rule_set, Site};
 
+use crate::sites_helpers::site_for;
 use crate::tsv::{read_rows as read, Row};
 
 fn cell<'a>(r: &'a Row, c: &str) -> &'a str {
@@ -25,14 +26,7 @@ fn cell<'a>(r: &'a Row, c: &str) -> &'a str {
 fn site_at(smiles: &str, atom: usize) -> Option<Site> {
     let mol = Molecule::from_smiles(smiles).unwrap_or_else(|e| panic!("{smiles}: {e}"));
     let sites = find_sites(&mol).sites;
-    if let Some(s) = sites.iter().find(|s| s.atoms.contains(&atom)) {
-        return Some(s.clone());
-    }
-    let classes = mol.symmetry_classes();
-    let c = classes.get(atom)?;
-    sites
-        .into_iter()
-        .find(|s| s.atoms.iter().any(|&a| classes.get(a) == Some(c)))
+    site_for(&mol, &sites, atom)
 }
 
 /// Parents whose estimate may differ from the IUPAC median by more than

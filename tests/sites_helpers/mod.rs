@@ -16,3 +16,17 @@ pub fn site(smiles: &str, atom: usize) -> Site {
         .find(|s| s.atoms.contains(&atom))
         .unwrap_or_else(|| panic!("{smiles}: no site on atom {atom}"))
 }
+
+/// The site containing `atom`, or a site whose atom is symmetry-equivalent
+/// (the report lists equivalent hydrogens once).
+pub fn site_for(mol: &Molecule, sites: &[Site], atom: usize) -> Option<Site> {
+    if let Some(s) = sites.iter().find(|s| s.atoms.contains(&atom)) {
+        return Some(s.clone());
+    }
+    let classes = mol.symmetry_classes();
+    let c = classes.get(atom)?;
+    sites
+        .iter()
+        .find(|s| s.atoms.iter().any(|&a| classes.get(a) == Some(c)))
+        .cloned()
+}
