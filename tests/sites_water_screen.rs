@@ -7,7 +7,9 @@
 //! Not a holdout: the screen was run while rule set 2026.12-5 was written
 //! and its worst rows pointed at classes that then got rows of their own
 //! (propiolic, alpha-oxo, malonic acids, alpha-carbonyl thiols, phenols
-//! hydrogen-bonded to a ring ketone). Measured
+//! hydrogen-bonded to a ring ketone) and to the alpha-substituent increments
+//! of aliphatic carboxylic acids, whose values are IUPAC rows of this set
+//! (I-CA-*). Measured
 //! on rule set 2026.12-4 (before): MAE 1.07, 82 % within 2 units, 8 with no
 //! water estimate (aldehydes, a quinone).
 
@@ -72,8 +74,8 @@ fn find_sites_given_iupac_water_screen_prints_and_bounds_the_error() {
     }
     println!("   no water estimate: {none:?}");
     // Regression guards set just above the figures of rule set 2026.12-5
-    // (MAE 0.94, 86 % within 2, 8 molecules without a water estimate).
-    assert!(mae <= 0.98, "MAE {mae:.2}");
-    assert!(within2 >= 85.0, "{within2:.0} % within 2");
+    // (MAE 0.75, 90 % within 2, 8 molecules without a water estimate).
+    assert!(mae <= 0.78, "MAE {mae:.2}");
+    assert!(within2 >= 89.0, "{within2:.0} % within 2");
     assert!(none.len() <= 8, "{none:?}");
 }

@@ -407,6 +407,38 @@ fn hetero_kinds(mol: &Molecule, i: usize, matched: &[usize]) -> Vec<(&'static st
     out
 }
 
+/// Substituents of the sp3 carbon next to the C=O of a carboxylic O–H (the
+/// α-carbon of the acid, matched by the class rule): their kinds, as for a
+/// carbon site, with the α-carbon as the site. Atoms of the class match are
+/// skipped. Empty for any other heteroatom site, and when that carbon is
+/// aromatic or unsaturated (aryl and vinyl acids have their own rows).
+fn acid_alpha_kinds(mol: &Molecule, i: usize, matched: &[usize]) -> Vec<(&'static str, usize)> {
+    let mut out = Vec::new();
+    let Some(carbonyl) = mol
+        .neighbors(i)
+        .iter()
+        .map(|nb| nb.atom)
+        .find(|&c| mol.atoms[c].element == 6 && double_to_any(mol, c, 8))
+    else {
+        return out;
+    };
+    for alpha in mol.neighbors(carbonyl) {
+        let a = &mol.atoms[alpha.atom];
+        if alpha.atom == i || a.element != 6 || a.aromatic || has_multiple_bond(mol, alpha.atom) {
+            continue;
+        }
+        for s in mol.neighbors(alpha.atom) {
+            if s.atom == carbonyl || matched.contains(&s.atom) || mol.atoms[s.atom].element == 1 {
+                continue;
+            }
+            if let Some(k) = substituent_kind(mol, alpha.atom, s.atom) {
+                out.push((k, s.atom));
+            }
+        }
+    }
+    out
+}
+
 fn round2(x: f64) -> f64 {
     (x * 100.0).round() / 100.0
 }
@@ -435,7 +467,8 @@ fn estimate_atom(
     }
     let increments = rule.family != "none" && !rule.background;
     if rule.element != "C" && increments {
-        let kinds = hetero_kinds(mol, i, matched);
+        let mut kinds = hetero_kinds(mol, i, matched);
+        kinds.extend(acid_alpha_kinds(mol, i, matched));
         apply_increments(mol, set, sigma, rule, kinds, &mut uses, &mut var);
     }
     if rule.element == "C" && increments {
