@@ -34,8 +34,9 @@ use crate::mol::Molecule;
 use crate::report::brief::Detail;
 use crate::report::mapped::{atom_mapped_smiles, Label};
 use crate::report::record::{
-    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, NotJudgedOut,
-    Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut, MAX_ALTERNATIVES, SCHEMA,
+    round, AdviceOut, AlternativeOut, CautionOut, ComponentOut, CountedOut, ErrorOut, HazardOut,
+    NotJudgedOut, Pairs, Record, RegioOut, RegioSideOut, RejectedOut, RuleOut, SiteOut,
+    MAX_ALTERNATIVES, SCHEMA,
 };
 use crate::sites::{self, Regio, SiteReport};
 use crate::smarts::{Pattern, PatternError, Target};
@@ -231,6 +232,24 @@ pub fn analyze_molecule(
     } else {
         advice_record(mol, &target, &report, opts)
     };
+    // Hazards of the substrate itself, with or without advice.
+    let hazards = crate::hazards::substrate_hazards(&target)
+        .map(|found| {
+            found
+                .into_iter()
+                .map(|h| HazardOut {
+                    id: h.id.clone(),
+                    text: h.message.clone(),
+                })
+                .collect::<Vec<_>>()
+        })
+        .unwrap_or_else(|e| {
+            // Never silent: a broken embedded table says so in the record.
+            vec![HazardOut {
+                id: "hazard-data".to_string(),
+                text: format!("the substrate hazard table could not be read ({e}); check the molecule by hand"),
+            }]
+        });
     // The report is not needed after the advice: its strings move into the
     // record.
     let sites_out = site_records(report);
@@ -287,6 +306,7 @@ pub fn analyze_molecule(
         sites: Some(sites_out),
         advice: Some(advice),
         advice_note,
+        hazards: (!hazards.is_empty()).then_some(hazards),
         mapped_smiles: mapped,
         flags,
         flag_warnings: (!flag_warnings.is_empty()).then_some(flag_warnings),

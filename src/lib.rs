@@ -67,6 +67,7 @@
 pub mod advice;
 pub mod analyze;
 pub mod depict;
+pub mod hazards;
 pub mod mol;
 pub mod report;
 mod scale;

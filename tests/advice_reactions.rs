@@ -474,36 +474,37 @@ fn scan_given_nitroalkane_warns_that_dry_nitronates_are_shock_sensitive_issue10(
 }
 
 #[test]
-fn scan_given_hazardous_substrate_warns_of_the_hazard() {
-    // Common practice: HCN, H2S, P-H phosphines, peroxides and gem-dinitro
-    // compounds are hazards of the substrate itself (fragments/side_reactions.tsv);
-    // an unrelated substrate gets none of these warnings.
+fn scan_given_hazardous_substrate_reports_the_hazard_with_or_without_advice() {
+    // Common practice: HCN, H2S, P-H phosphines, peroxides, azides, diazo
+    // and gem-dinitro compounds are hazards of the substrate itself
+    // (fragments/hazards.tsv): the record's `hazards` and the SAFETY part
+    // of the report name them whether or not there is advice; an unrelated
+    // substrate gets none.
     for (smiles, id) in [
-        ("C#N", "SR-HCN"),
-        ("S", "SR-H2S"),
-        ("c1ccc(Pc2ccccc2)cc1", "SR-PHOSPHINE-PH"),
-        ("CC(=O)CC(C)(C)OO", "SR-PEROXIDE"),
-        ("CC([N+](=O)[O-])[N+](=O)[O-]", "SR-POLYNITRO"),
-        ("N=[N+]=[N-]", "SR-HN3"),
-        ("CC(=O)CCN=[N+]=[N-]", "SR-AZIDE"),
+        ("C#N", "HZ-HCN"),
+        ("S", "HZ-H2S"),
+        ("c1ccc(Pc2ccccc2)cc1", "HZ-PHOSPHINE-PH"),
+        ("CC(=O)CC(C)(C)OO", "HZ-PEROXIDE"),
+        ("CC([N+](=O)[O-])[N+](=O)[O-]", "HZ-POLYNITRO"),
+        ("N=[N+]=[N-]", "HZ-HN3"),
+        ("CC(=O)CCN=[N+]=[N-]", "HZ-AZIDE"),
+        // no activated site, so no advice: the hazard is still reported
+        ("CCOC(=O)C=[N+]=[N-]", "HZ-DIAZO"),
     ] {
         let (_, v, _) = scan_json(&[smiles]);
-        let w = v["advice"]["warnings"].to_string();
-        assert!(w.contains(id), "{smiles}: {w}");
+        let ids: Vec<&str> = v["hazards"]
+            .as_array()
+            .unwrap_or_else(|| panic!("{smiles}: no hazards key"))
+            .iter()
+            .filter_map(|h| h["id"].as_str())
+            .collect();
+        assert!(ids.contains(&id), "{smiles}: {ids:?}");
+        let out = common::run_binary(&["scan", smiles], b"");
+        let text = String::from_utf8_lossy(&out.stdout);
+        assert!(text.contains(&format!("[{id}]")), "{smiles}: {text}");
     }
     let (_, plain, _) = scan_json(&["CC(=O)CC(C)(C)OC"]);
-    let w = plain["advice"]["warnings"].to_string();
-    for id in [
-        "SR-HCN",
-        "SR-H2S",
-        "SR-PHOSPHINE-PH",
-        "SR-PEROXIDE",
-        "SR-POLYNITRO",
-        "SR-HN3",
-        "SR-AZIDE",
-    ] {
-        assert!(!w.contains(id), "{w}");
-    }
+    assert!(plain.get("hazards").is_none(), "{plain}");
 }
 
 #[test]

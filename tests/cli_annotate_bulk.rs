@@ -181,7 +181,7 @@ fn annotate_given_ten_thousand_mixed_and_hostile_lines() {
     assert_eq!(lines, record_lines);
     let mut failed = 0;
     for r in &records {
-        assert_eq!(r["schema"], "acidsite-record/3");
+        assert_eq!(r["schema"], "acidsite-record/4");
         if r["ok"] == false {
             failed += 1;
             let e = &r["error"];

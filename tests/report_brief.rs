@@ -1,4 +1,4 @@
-//! Brief records (`annotate --detail brief`, schema `acidsite-brief/1`,
+//! Brief records (`annotate --detail brief`, schema `acidsite-brief/2`,
 //! issue 14): locked by mirror types that refuse unknown keys, small enough
 //! for bulk work, and the same answer as the full record.
 //! Molecules: the MOSES lines of `corpus/bulk/real.smi` (sources and terms
@@ -25,6 +25,7 @@ struct BriefMirror {
     sites: Option<Vec<BriefSiteMirror>>,
     advice: Option<BriefAdviceMirror>,
     advice_note: Option<String>,
+    hazards: Option<Vec<String>>,
     flags: Option<BTreeMap<String, u64>>,
     error: Option<ErrorMirror>,
 }
@@ -121,7 +122,7 @@ fn annotate_given_brief_detail_matches_schema_lock_issue14() {
     assert_eq!(lines.len(), 303);
     for l in &lines {
         let m: BriefMirror = serde_json::from_str(l).unwrap_or_else(|e| panic!("{e}: {l}"));
-        assert_eq!(m.schema, "acidsite-brief/1");
+        assert_eq!(m.schema, "acidsite-brief/2");
         assert_eq!(m.ok, m.error.is_none());
         if m.ok {
             assert!(m.sites.is_some() && m.formula.is_some() && m.flags.is_some());

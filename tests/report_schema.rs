@@ -1,4 +1,4 @@
-//! Locks the JSON record schema (`acidsite-record/3`, documented in
+//! Locks the JSON record schema (`acidsite-record/4`, documented in
 //! `src/report/record.rs`): records from the real binary must deserialize into
 //! mirror types that refuse unknown keys, and the required keys must be present.
 //! A change here is a schema change: bump `SCHEMA` and the docs with it. Issue 6.
@@ -24,10 +24,19 @@ struct RecordMirror {
     sites: Option<Vec<SiteMirror>>,
     advice: Option<AdviceMirror>,
     advice_note: Option<String>,
+    hazards: Option<Vec<HazardMirror>>,
     mapped_smiles: Option<String>,
     flags: Option<BTreeMap<String, u64>>,
     flag_warnings: Option<Vec<String>>,
     error: Option<ErrorMirror>,
+}
+
+#[derive(Debug, Deserialize)]
+#[serde(deny_unknown_fields)]
+#[allow(dead_code)]
+struct HazardMirror {
+    id: String,
+    text: String,
 }
 
 #[derive(Debug, Deserialize)]
@@ -187,7 +196,7 @@ fn check(line: &str) -> RecordMirror {
         .unwrap_or_else(|e| panic!("record does not match the schema: {e}\n{line}"));
     let v: Value = serde_json::from_str(line).unwrap();
     let o = v.as_object().unwrap();
-    assert_eq!(rec.schema, "acidsite-record/3");
+    assert_eq!(rec.schema, "acidsite-record/4");
     for key in ["schema", "line", "id", "input", "ok"] {
         assert!(o.contains_key(key), "missing {key}: {line}");
     }

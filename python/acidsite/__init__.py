@@ -8,7 +8,7 @@ The same engine as the ``acidsite`` command line, in-process:
 ('ketone (cyclohexanone)', 'LDA')
 
 * :func:`scan` gives one record, exactly the JSON record ``acidsite scan --json``
-  writes (schema ``acidsite-record/2``; keys documented in the repository README).
+  writes (schema ``acidsite-record/4``; keys documented in the repository README).
 * :func:`annotate` streams records for an iterable of SMILES, in input order,
   in parallel with the GIL released, in bounded memory.
 * :func:`annotate_frame` annotates a pandas DataFrame column and returns the
@@ -143,6 +143,8 @@ class Record(dict):
             )
         elif self.get("advice_note"):
             parts.append(f"<div>advice: {esc(self['advice_note'])}</div>")
+        for h in self.get("hazards") or []:
+            parts.append(f"<div><b>substrate hazard</b> [{esc(h['id'])}]: {esc(h['text'])}</div>")
         parts.append("</div>")
         return "".join(parts)
 

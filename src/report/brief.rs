@@ -13,19 +13,20 @@
 //! let opts = Options { detail: Detail::Brief, ..Options::default() };
 //! let rec = analyze("CC(=O)c1ccccc1", 1, None, &opts);
 //! let line = rec.to_brief_json_line();
-//! assert!(line.starts_with("{\"schema\":\"acidsite-brief/1\""));
+//! assert!(line.starts_with("{\"schema\":\"acidsite-brief/2\""));
 //! assert!(line.len() < 1500);
 //! ```
 //!
-//! # Keys (schema `acidsite-brief/1`)
+//! # Keys (schema `acidsite-brief/2`)
 //!
 //! | key | type | meaning |
 //! |---|---|---|
-//! | `schema` | string | `"acidsite-brief/1"` |
+//! | `schema` | string | `"acidsite-brief/2"` (`/2` added `hazards`) |
 //! | `line`, `id`, `input`, `ok`, `columns` | | as in the full record |
 //! | `formula`, `rule_set` | string | on success, as in the full record |
 //! | `sites` | array | on success, most acidic first (the rank is the place in the array; background C–H sites (unactivated alkane, aryl, vinyl …), listed last in the full record, are left out): `atoms`, `element`, `h` (acidic hydrogens), `class`, `dmso` and `water` (pKa estimates, each absent when there is none), `sd` (one standard uncertainty), and `regio` when the site has an enolate side |
 //! | `advice` | object or null | `target` and `base` (null when no base fits), and when they have a value `equivalents`, `conversion`, `solvent`, `temperature_c`, `temperature_range_c`, `scale`, as in the full record (absent, not null, otherwise); `warnings` (the first sentence of each: what and where); `caution` (one line for the recommended base; absent when it has no listed hazard); `cautions` (ids: base names, `general` for the caution covering every reagent); `rejected` (base names) |
+//! | `hazards` | array of string | only when the substrate itself is a hazard: the ids of `fragments/hazards.tsv` found (the wording: the full record or that file) |
 //! | `advice_note`, `flags`, `error` | | as in the full record |
 
 use super::json;
@@ -33,7 +34,7 @@ use super::record::{AdviceOut, CautionOut, Record, SiteOut};
 use crate::advice::SHORT_DEFERRAL;
 
 /// Version of the brief record schema.
-pub const BRIEF_SCHEMA: &str = "acidsite-brief/1";
+pub const BRIEF_SCHEMA: &str = "acidsite-brief/2";
 
 /// Id of the caution that covers every reagent named in the advice.
 pub const GENERAL_CAUTION_ID: &str = "general";
@@ -194,6 +195,10 @@ impl Record {
             out.extend_from_slice(b",\"advice_note\":");
             json::string(out, n);
         }
+        if let Some(h) = &self.hazards {
+            out.extend_from_slice(b",\"hazards\":");
+            json::array(out, h, |o, h| json::string(o, &h.id));
+        }
         if let Some(f) = &self.flags {
             out.extend_from_slice(b",\"flags\":");
             f.write_json(out, |o, v| json::uint(o, *v));
@@ -249,6 +254,8 @@ mod tests {
         advice: Option<Option<BriefAdvice<'a>>>,
         #[serde(skip_serializing_if = "Option::is_none")]
         advice_note: Option<&'a str>,
+        #[serde(skip_serializing_if = "Option::is_none")]
+        hazards: Option<Vec<&'a str>>,
         #[serde(skip_serializing_if = "Option::is_none")]
         flags: Option<&'a crate::report::record::Pairs<u64>>,
         #[serde(skip_serializing_if = "Option::is_none")]
@@ -343,6 +350,10 @@ mod tests {
                 .map(|s| s.iter().filter(|s| !s.background).map(site).collect()),
             advice,
             advice_note: r.advice_note.as_deref(),
+            hazards: r
+                .hazards
+                .as_ref()
+                .map(|h| h.iter().map(|h| h.id.as_str()).collect()),
             flags: r.flags.as_ref(),
             error: r.error.as_ref(),
         };

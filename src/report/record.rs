@@ -18,7 +18,7 @@
 //!
 //! | key | type | meaning |
 //! |---|---|---|
-//! | `schema` | string | schema version, currently `"acidsite-record/3"` |
+//! | `schema` | string | schema version, currently `"acidsite-record/4"` (`/4` added `hazards`) |
 //! | `line` | integer | 1-based line number of the record in its input (for an SD record its first line; for `scan`, the 1-based position of the argument) |
 //! | `id` | string or null | the record's identifier (second field of a `.smi` line, the id column of a CSV/TSV file, the title line or `--id-field` item of an SD record) |
 //! | `input` | string | the SMILES as read (non-UTF-8 bytes replaced by U+FFFD); for a molfile, a SMILES of the molecule written by the reader (atom indices stay the molfile's) |
@@ -35,6 +35,7 @@
 //! | `sites` | array | acidic sites, ranked most acidic first (see [`SiteOut`]) |
 //! | `advice` | object or null | base advice for the target site (see [`AdviceOut`]); null when the molecule has no site to target |
 //! | `advice_note` | string | only when `advice` is null: why |
+//! | `hazards` | array | only when the substrate itself is a hazard (`fragments/hazards.tsv`, whether or not there is advice): `id` and `text` (the caution) per hazard found |
 //! | `mapped_smiles` | string | the input with each site's atoms written as bracket atoms carrying the site's rank as atom-map number (background C–H sites: unactivated alkane, aryl, vinyl …, ranked last, are not labelled) |
 //! | `flags` | object | only with `--flag NAME=SMARTS`: `{NAME: number of unique matches}` in the order given (at most 10,000 matches and 10^7 matcher steps per pattern and molecule) |
 //! | `flag_warnings` | array of string | only when a `--flag` count reached a bound: the pattern and the bound; its count is then a lower bound |
@@ -75,7 +76,7 @@ use serde::Serialize;
 pub const MAX_ALTERNATIVES: usize = 5;
 
 /// Version of the record schema, stamped into every record as `schema`.
-pub const SCHEMA: &str = "acidsite-record/3";
+pub const SCHEMA: &str = "acidsite-record/4";
 
 /// A failed record's `input` keeps at most this many characters.
 pub const FAILED_INPUT_ECHO: usize = 300;
@@ -130,6 +131,10 @@ pub struct Record {
     /// acidic); absent when there is advice.
     #[serde(skip_serializing_if = "Option::is_none")]
     pub advice_note: Option<String>,
+    /// Hazards of the substrate itself (`fragments/hazards.tsv`), found
+    /// whether or not there is advice; key `hazards`, absent when none.
+    #[serde(skip_serializing_if = "Option::is_none")]
+    pub hazards: Option<Vec<HazardOut>>,
     /// The input with each site's atoms as bracket atoms carrying the
     /// site's rank as atom-map number; key `mapped_smiles`, absent on
     /// failure.
@@ -182,6 +187,7 @@ impl Record {
             sites: None,
             advice: None,
             advice_note: None,
+            hazards: None,
             mapped_smiles: None,
             flags: None,
             flag_warnings: None,
@@ -251,6 +257,16 @@ impl Record {
         if let Some(n) = &self.advice_note {
             out.extend_from_slice(b",\"advice_note\":");
             json::string(out, n);
+        }
+        if let Some(h) = &self.hazards {
+            out.extend_from_slice(b",\"hazards\":");
+            json::array(out, h, |o, h| {
+                o.extend_from_slice(b"{\"id\":");
+                json::string(o, &h.id);
+                o.extend_from_slice(b",\"text\":");
+                json::string(o, &h.text);
+                o.push(b'}');
+            });
         }
         if let Some(m) = &self.mapped_smiles {
             out.extend_from_slice(b",\"mapped_smiles\":");
@@ -742,6 +758,15 @@ pub struct NotJudgedOut {
     pub base: &'static str,
     /// The value that is missing (a pKa on the scale the base needs).
     pub missing: String,
+}
+
+/// A hazard of the substrate itself.
+#[derive(Debug, Clone, PartialEq, Serialize)]
+pub struct HazardOut {
+    /// Row id of `fragments/hazards.tsv` (e.g. `HZ-HCN`).
+    pub id: String,
+    /// The caution, worded for the chemist.
+    pub text: String,
 }
 
 /// Why a record failed.

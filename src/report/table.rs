@@ -13,7 +13,7 @@
 //! assert_eq!(table::atom_list(&[0, 3]), "0,3");
 //! ```
 
-use super::record::{CautionOut, Record};
+use super::record::{CautionOut, HazardOut, Record};
 use crate::advice::DEFERRAL;
 use crate::scale::Scale;
 use std::fmt::Write;
@@ -196,6 +196,12 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
         None => {
             let why = rec.advice_note.as_deref().unwrap_or("no site to target");
             let _ = writeln!(o, "   advice         none: {why}");
+            if let Some(h) = rec.hazards.as_ref().filter(|h| !h.is_empty()) {
+                let _ = writeln!(o);
+                let _ = writeln!(o, "   SAFETY");
+                substrate_hazards(&mut o, h);
+                wrap(&mut o, DEFERRAL, "     ", "     ");
+            }
         }
         Some(a) => {
             let target = atom_list(&a.target);
@@ -404,9 +410,11 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
                     wrap(&mut o, w, "     ! ", "       ");
                 }
             }
-            if !a.cautions.is_empty() {
+            let hazards = rec.hazards.as_deref().unwrap_or(&[]);
+            if !a.cautions.is_empty() || !hazards.is_empty() {
                 let _ = writeln!(o);
                 let _ = writeln!(o, "   SAFETY");
+                substrate_hazards(&mut o, hazards);
                 // The recommended base in full; other reagents by their hazards
                 // (full texts in --json); the closing deferral once.
                 let text = |c: &CautionOut| {
@@ -454,6 +462,14 @@ pub fn render_with(rec: &Record, scale: Scale, text: TextOptions) -> String {
         let _ = writeln!(o, "   flags          {}", list.join("  "));
     }
     o
+}
+
+/// The hazards of the substrate itself, one caution each, before the
+/// reagents' cautions.
+fn substrate_hazards(o: &mut String, hazards: &[HazardOut]) {
+    for h in hazards {
+        wrap(o, &format!("{} [{}]", h.text, h.id), "     ! ", "       ");
+    }
 }
 
 /// Width the report is wrapped to.

@@ -67,7 +67,7 @@ pub struct Args {
     pub id_field: Option<String>,
     /// JSON records: full (every key, cautions and reasons worded) or brief
     /// (the answer with ids for cautions and rejected bases, about a sixth of
-    /// the size; schema acidsite-brief/1).
+    /// the size; schema acidsite-brief/2).
     #[arg(long, value_enum, default_value_t = DetailArg::Full)]
     pub detail: DetailArg,
     /// Output format.

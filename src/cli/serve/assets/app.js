@@ -472,8 +472,17 @@
     var box = $("cautions");
     clear(box);
     var list = rec.advice ? rec.advice.cautions || [] : [];
+    var hazards = rec.hazards || [];
+    hazards.forEach(function (h) {
+      box.appendChild(el("div", { cls: "caution" },
+        el("p", null, el("span", { cls: "reagent", text: "This substrate" }), " ",
+          el("span", { cls: "hz", text: "[" + h.id + "]" })),
+        el("p", { text: h.text })));
+    });
     if (!list.length) {
-      box.appendChild(el("p", { text: "No reagent named, so no caution. Any reaction still needs its own risk assessment." }));
+      box.appendChild(el("p", { text: hazards.length
+        ? "No reagent named. Follow local regulations, the safety data sheet and the judgement of qualified chemists; any reaction needs its own risk assessment."
+        : "No reagent named, so no caution. Any reaction still needs its own risk assessment." }));
       return;
     }
     list.forEach(function (c) {
