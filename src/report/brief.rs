@@ -204,16 +204,8 @@ impl Record {
             f.write_json(out, |o, v| json::uint(o, *v));
         }
         if let Some(e) = &self.error {
-            out.extend_from_slice(b",\"error\":{\"kind\":");
-            json::string(out, &e.kind);
-            out.extend_from_slice(b",\"message\":");
-            json::string(out, &e.message);
-            out.extend_from_slice(b",\"position\":");
-            match e.position {
-                Some(p) => json::uint(out, p as u64),
-                None => out.extend_from_slice(b"null"),
-            }
-            out.push(b'}');
+            out.extend_from_slice(b",\"error\":");
+            e.write_json(out);
         }
         out.push(b'}');
     }

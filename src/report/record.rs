@@ -281,16 +281,8 @@ impl Record {
             json::array(out, w, |o, x| json::string(o, x));
         }
         if let Some(e) = &self.error {
-            out.extend_from_slice(b",\"error\":{\"kind\":");
-            json::string(out, &e.kind);
-            out.extend_from_slice(b",\"message\":");
-            json::string(out, &e.message);
-            out.extend_from_slice(b",\"position\":");
-            match e.position {
-                Some(p) => json::uint(out, p as u64),
-                None => out.extend_from_slice(b"null"),
-            }
-            out.push(b'}');
+            out.extend_from_slice(b",\"error\":");
+            e.write_json(out);
         }
         out.push(b'}');
     }
@@ -780,6 +772,23 @@ pub struct ErrorOut {
     pub message: String,
     /// 0-based character index into `input`, or null.
     pub position: Option<usize>,
+}
+
+impl ErrorOut {
+    /// The error object as JSON (the same bytes as serde's), shared by the
+    /// full and the brief record writers.
+    pub fn write_json(&self, out: &mut Vec<u8>) {
+        out.extend_from_slice(b"{\"kind\":");
+        json::string(out, &self.kind);
+        out.extend_from_slice(b",\"message\":");
+        json::string(out, &self.message);
+        out.extend_from_slice(b",\"position\":");
+        match self.position {
+            Some(p) => json::uint(out, p as u64),
+            None => out.extend_from_slice(b"null"),
+        }
+        out.push(b'}');
+    }
 }
 
 /// Round to `step` (0.01, 0.1, ...: a power of ten), mapping non-finite
